@@ -1,0 +1,138 @@
+/**
+ * Domain types for catalogue parts (camelCase, units in every name).
+ * Row types (snake_case) live in src/server/repos and are mapped there; nothing else sees rows.
+ */
+export const PART_CATEGORIES = ['motor', 'mosfet', 'driver', 'diode'] as const;
+export type PartCategory = (typeof PART_CATEGORIES)[number];
+
+export const LIFECYCLES = ['active', 'nrnd', 'last-buy', 'obsolete'] as const;
+export type Lifecycle = (typeof LIFECYCLES)[number];
+
+export const REVIEW_STATUSES = ['draft', 'pending', 'approved', 'rejected'] as const;
+export type ReviewStatus = (typeof REVIEW_STATUSES)[number];
+
+/** One RDS(on) line of a MOSFET datasheet: the maximum (and typical) at a stated VGS, Tj and ID. */
+export interface RdsOnSpecPoint {
+  vgsV: number;
+  tjC: number;
+  maxOhm: number;
+  typOhm: number | null;
+  /** Drain current the point was measured at, when the datasheet states it. */
+  idA: number | null;
+}
+
+export interface MosfetParams {
+  channel: 'n' | 'p';
+  /** Magnitudes for P-channel parts too: |V(BR)DSS|, |VGS(max)|, |VGS(th)|. */
+  vdsMaxV: number;
+  vgsMaxV: number;
+  vgsThMinV: number;
+  vgsThMaxV: number;
+  /** Drain current at which VGS(th) is specified (typically 250 µA). */
+  vgsThTestCurrentA: number;
+  /** Continuous drain current at TA = 25 °C on the datasheet's test board. */
+  idContinuousA: number;
+  idPulsedA: number;
+  qgTotalNc: number;
+  /** VGS at which total gate charge is specified. */
+  qgTestVgsV: number;
+  qgsNc: number | null;
+  qgdNc: number | null;
+  vPlateauV: number | null;
+  /** Junction-to-ambient thermal resistance on the JEDEC-style test board. */
+  rthJaCPerW: number;
+  tjMaxC: number;
+  /** Body-diode forward voltage (typ.), informative only. */
+  bodyDiodeVfV: number | null;
+  rdsOn: RdsOnSpecPoint[];
+}
+
+/** How a driver's input thresholds are stated. */
+export type DriverInputLogic =
+  | 'fixed' // TTL-compatible: VIH/VIL fixed volts, independent of the driver supply
+  | 'ratio' // CMOS-ratio: VIH/VIL a fraction of the driver's own supply
+  | 'input-rail'; // dual-supply translator: thresholds a fraction of a separate input-side rail (the logic rail)
+
+export interface DriverParams {
+  kind: 'gate-driver' | 'level-shifter';
+  channels: number;
+  inverting: boolean;
+  supplyMinV: number;
+  supplyMaxV: number;
+  inputLogic: DriverInputLogic;
+  /** For 'fixed': volts. For 'ratio' and 'input-rail': fraction of the reference rail (0–1). */
+  inputHighMin: number;
+  inputLowMax: number;
+  /** Output high is the driver supply less this drop at rated source current. */
+  outputHighDropV: number;
+  outputLowMaxV: number;
+  sourceCurrentA: number;
+  sinkCurrentA: number;
+  propagationDelayNs: number;
+  /** What the output does while the input is left open (internal input pull). */
+  inputDefault: 'low' | 'high' | 'floating';
+}
+
+export type DiodeKind = 'schottky' | 'ultrafast' | 'fast' | 'general';
+
+export interface DiodeParams {
+  kind: DiodeKind;
+  vrrmV: number;
+  ifAvA: number;
+  ifsmA: number;
+  vfV: number;
+  /** Forward current at which vfV is specified. */
+  vfAtIfA: number;
+  /** Reverse recovery time; null for Schottky parts (no stored charge). */
+  trrNs: number | null;
+}
+
+export interface MotorParams {
+  ratedVoltageV: number;
+  voltageMinV: number | null;
+  voltageMaxV: number | null;
+  noLoadSpeedRpm: number;
+  noLoadCurrentA: number;
+  stallTorqueNm: number;
+  stallCurrentA: number;
+  terminalResistanceOhm: number | null;
+  inductanceH: number | null;
+  rotorInertiaKgM2: number | null;
+}
+
+export interface PriceBreak {
+  qty: number;
+  unitPrice: number;
+}
+
+export interface PartSource {
+  id?: number;
+  distributor: string;
+  sku: string;
+  moq: number;
+  leadTimeDays: number;
+  stockQty: number;
+  currency: string;
+  priceBreaks: PriceBreak[];
+}
+
+interface PartBase {
+  id?: number;
+  manufacturer: string;
+  mpn: string;
+  description: string;
+  package: string;
+  lifecycle: Lifecycle;
+  lifecycleEffectiveDate: string | null;
+  reviewStatus: ReviewStatus;
+  version?: number;
+  sources: PartSource[];
+}
+
+export type Part =
+  | (PartBase & { category: 'motor'; params: MotorParams })
+  | (PartBase & { category: 'mosfet'; params: MosfetParams })
+  | (PartBase & { category: 'driver'; params: DriverParams })
+  | (PartBase & { category: 'diode'; params: DiodeParams });
+
+export type PartOf<C extends PartCategory> = Extract<Part, { category: C }>;
