@@ -1,29 +1,16 @@
 import { defineConfig } from 'vitest/config';
 
-// Unit tests (pure src/lib) run in parallel; API and browser tests share one MariaDB and one
-// app server started by scripts/test.mjs, so they run one file at a time.
+// API and browser tests share one MariaDB and one app server started by scripts/test.mjs (and one
+// test stops the database on purpose), so files run one at a time across all projects.
 export default defineConfig({
   test: {
+    fileParallelism: false,
+    testTimeout: 30_000,
+    hookTimeout: 60_000,
     projects: [
-      { test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node' } },
-      {
-        test: {
-          name: 'api',
-          include: ['tests/api/**/*.test.ts', 'tests/db/**/*.test.ts'],
-          fileParallelism: false,
-          testTimeout: 30_000,
-          hookTimeout: 60_000,
-        },
-      },
-      {
-        test: {
-          name: 'e2e',
-          include: ['tests/e2e/**/*.test.ts'],
-          fileParallelism: false,
-          testTimeout: 60_000,
-          hookTimeout: 60_000,
-        },
-      },
+      { extends: true, test: { name: 'unit', include: ['tests/unit/**/*.test.ts'] } },
+      { extends: true, test: { name: 'api', include: ['tests/db/**/*.test.ts', 'tests/api/**/*.test.ts'] } },
+      { extends: true, test: { name: 'e2e', include: ['tests/e2e/**/*.test.ts'], testTimeout: 60_000 } },
     ],
   },
 });

@@ -1,0 +1,92 @@
+/**
+ * Our own http.Server in front of Astro's middleware-mode handler: static files from dist/client,
+ * security headers, and a graceful close (in-flight requests finish, then the app's knex pool closes).
+ */
+import http from 'node:http';
+import { createReadStream, existsSync, statSync } from 'node:fs';
+import path from 'node:path';
+import { pathToFileURL } from 'node:url';
+import { SECURITY_HEADERS } from '../../src/server/http/security-headers.ts';
+
+const TYPES: Record<string, string> = {
+  '.js': 'text/javascript; charset=utf-8',
+  '.mjs': 'text/javascript; charset=utf-8',
+  '.css': 'text/css; charset=utf-8',
+  '.svg': 'image/svg+xml',
+  '.png': 'image/png',
+  '.ico': 'image/x-icon',
+  '.woff': 'font/woff',
+  '.woff2': 'font/woff2',
+  '.ttf': 'font/ttf',
+  '.txt': 'text/plain; charset=utf-8',
+  '.json': 'application/json',
+};
+
+type Handler = (req: http.IncomingMessage, res: http.ServerResponse, next?: (err?: unknown) => void) => void;
+
+function staticFile(clientDir: string, urlPath: string): string | null {
+  let decoded: string;
+  try {
+    decoded = decodeURIComponent(urlPath);
+  } catch {
+    return null;
+  }
+  const file = path.normalize(path.join(clientDir, decoded));
+  if (!file.startsWith(clientDir + path.sep)) return null;
+  if (!existsSync(file) || !statSync(file).isFile()) return null;
+  return file;
+}
+
+export async function createListener(distDir: string): Promise<http.RequestListener> {
+  const entry = pathToFileURL(path.join(distDir, 'server', 'entry.mjs')).href;
+  const { handler } = (await import(entry)) as { handler: Handler };
+  const clientDir = path.join(distDir, 'client');
+  return (req, res) => {
+    const urlPath = (req.url ?? '/').split('?')[0];
+    const file = req.method === 'GET' || req.method === 'HEAD' ? staticFile(clientDir, urlPath) : null;
+    if (file) {
+      for (const [k, v] of Object.entries(SECURITY_HEADERS)) res.setHeader(k, v);
+      res.setHeader('Content-Type', TYPES[path.extname(file)] ?? 'application/octet-stream');
+      res.setHeader('Cache-Control', urlPath.startsWith('/_astro/') ? 'public, max-age=31536000, immutable' : 'public, max-age=3600');
+      if (req.method === 'HEAD') return void res.end();
+      createReadStream(file).pipe(res);
+      return;
+    }
+    handler(req, res, (err) => {
+      if (!res.headersSent) {
+        res.writeHead(err ? 500 : 404, { 'Content-Type': 'application/json', ...SECURITY_HEADERS });
+      }
+      res.end(JSON.stringify({ error: err ? 'Something went wrong on the server.' : 'Not found.' }));
+    });
+  };
+}
+
+export interface RunningServer {
+  server: http.Server;
+  url: string;
+  close(): Promise<void>;
+}
+
+export async function startHttpServer(distDir: string, host: string, port: number): Promise<RunningServer> {
+  const server = http.createServer(await createListener(distDir));
+  server.keepAliveTimeout = 5_000;
+  await new Promise<void>((resolve, reject) => {
+    server.once('error', reject);
+    server.listen(port, host, () => resolve());
+  });
+  const address = server.address();
+  const actualPort = typeof address === 'object' && address ? address.port : port;
+  return {
+    server,
+    url: `http://${host}:${actualPort}`,
+    async close() {
+      const closed = new Promise<void>((resolve) => server.close(() => resolve()));
+      server.closeIdleConnections();
+      const force = setTimeout(() => server.closeAllConnections(), 10_000);
+      await closed;
+      clearTimeout(force);
+      const shutdown = (globalThis as Record<symbol, unknown>)[Symbol.for('stallpoint.shutdown')];
+      if (typeof shutdown === 'function') await (shutdown as () => Promise<void>)();
+    },
+  };
+}

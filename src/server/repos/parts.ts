@@ -1,0 +1,169 @@
+/** Data access for catalogue parts. Functions take a Knex or a transaction so services can compose them. */
+import type { Db } from '../db.ts';
+import type { Part, PartCategory, PartSource } from '../../lib/domain/parts.ts';
+import type {
+  DbDiodeRow,
+  DbDriverRow,
+  DbMosfetRow,
+  DbMotorRow,
+  DbPartRow,
+  DbPriceBreakRow,
+  DbRdsOnRow,
+  DbSourceRow,
+} from './part-rows.ts';
+import {
+  diodeFromRow,
+  diodeToRow,
+  driverFromRow,
+  driverToRow,
+  mosfetFromRows,
+  mosfetToRow,
+  motorFromRow,
+  motorToRow,
+  partHeadFromRow,
+  rdsOnToRows,
+  sourceFromRows,
+} from './part-mapping.ts';
+
+/** A part before it has an id: Omit distributed over the category union. */
+export type NewPart = Part extends infer P ? (P extends Part ? Omit<P, 'id' | 'version'> : never) : never;
+
+function groupBy<T, K>(items: T[], key: (t: T) => K): Map<K, T[]> {
+  const map = new Map<K, T[]>();
+  for (const item of items) {
+    const k = key(item);
+    const list = map.get(k);
+    if (list) list.push(item);
+    else map.set(k, [item]);
+  }
+  return map;
+}
+
+export async function insertSources(db: Db, partId: number, sources: PartSource[]): Promise<void> {
+  for (const s of sources) {
+    const [sourceId] = await db('part_sources').insert({
+      part_id: partId,
+      distributor: s.distributor,
+      sku: s.sku,
+      moq: s.moq,
+      lead_time_days: s.leadTimeDays,
+      stock_qty: s.stockQty,
+      currency: s.currency,
+    });
+    if (s.priceBreaks.length > 0) {
+      await db('part_price_breaks').insert(
+        s.priceBreaks.map((b) => ({ source_id: sourceId, qty: b.qty, unit_price: b.unitPrice })),
+      );
+    }
+  }
+}
+
+async function insertParams(db: Db, partId: number, part: NewPart): Promise<void> {
+  switch (part.category) {
+    case 'mosfet':
+      await db('mosfet_params').insert(mosfetToRow(partId, part.params));
+      await db('mosfet_rds_on_points').insert(rdsOnToRows(partId, part.params.rdsOn));
+      return;
+    case 'driver':
+      await db('driver_params').insert(driverToRow(partId, part.params));
+      return;
+    case 'diode':
+      await db('diode_params').insert(diodeToRow(partId, part.params));
+      return;
+    case 'motor':
+      await db('motor_params').insert(motorToRow(partId, part.params));
+      return;
+  }
+}
+
+/** Inserts a part with its parameters and sources; call inside a transaction. Returns the new id. */
+export async function insertPart(db: Db, part: NewPart, createdBy: number | null): Promise<number> {
+  const [id] = await db('parts').insert({
+    category: part.category,
+    manufacturer: part.manufacturer,
+    mpn: part.mpn,
+    description: part.description,
+    package: part.package,
+    lifecycle: part.lifecycle,
+    lifecycle_effective_date: part.lifecycleEffectiveDate,
+    review_status: part.reviewStatus,
+    created_by: createdBy,
+  });
+  await insertParams(db, id, part);
+  await insertSources(db, id, part.sources);
+  return id;
+}
+
+export async function findPartId(db: Db, manufacturer: string, mpn: string): Promise<number | null> {
+  const row = await db('parts').select('id').where({ manufacturer, mpn }).first();
+  return row ? (row.id as number) : null;
+}
+
+async function loadSources(db: Db, partIds: number[]): Promise<Map<number, PartSource[]>> {
+  const sourceRows: DbSourceRow[] = await db('part_sources').whereIn('part_id', partIds).orderBy('id');
+  const breakRows: DbPriceBreakRow[] = sourceRows.length
+    ? await db('part_price_breaks').whereIn('source_id', sourceRows.map((s) => s.id))
+    : [];
+  const breaksBySource = groupBy(breakRows, (b) => b.source_id);
+  const result = new Map<number, PartSource[]>();
+  for (const s of sourceRows) {
+    const list = result.get(s.part_id) ?? [];
+    list.push(sourceFromRows(s, breaksBySource.get(s.id) ?? []));
+    result.set(s.part_id, list);
+  }
+  return result;
+}
+
+/** Loads full domain parts for the given part rows (parameters and sources), in the rows' order. */
+export async function hydrateParts(db: Db, rows: DbPartRow[]): Promise<Part[]> {
+  if (rows.length === 0) return [];
+  const ids = rows.map((r) => r.id);
+  const [sources, mosfets, points, drivers, diodes, motors] = await Promise.all([
+    loadSources(db, ids),
+    db<DbMosfetRow>('mosfet_params').whereIn('part_id', ids),
+    db<DbRdsOnRow>('mosfet_rds_on_points').whereIn('part_id', ids),
+    db<DbDriverRow>('driver_params').whereIn('part_id', ids),
+    db<DbDiodeRow>('diode_params').whereIn('part_id', ids),
+    db<DbMotorRow>('motor_params').whereIn('part_id', ids),
+  ]);
+  const byId = <T extends { part_id: number }>(list: T[]) => new Map(list.map((r) => [r.part_id, r]));
+  const mosfetById = byId(mosfets);
+  const pointsById = groupBy(points, (p) => p.part_id);
+  const driverById = byId(drivers);
+  const diodeById = byId(diodes);
+  const motorById = byId(motors);
+  const parts: Part[] = [];
+  for (const row of rows) {
+    const head = partHeadFromRow(row, sources.get(row.id) ?? []);
+    if (row.category === 'mosfet' && mosfetById.has(row.id)) {
+      parts.push({ ...head, category: 'mosfet', params: mosfetFromRows(mosfetById.get(row.id)!, pointsById.get(row.id) ?? []) });
+    } else if (row.category === 'driver' && driverById.has(row.id)) {
+      parts.push({ ...head, category: 'driver', params: driverFromRow(driverById.get(row.id)!) });
+    } else if (row.category === 'diode' && diodeById.has(row.id)) {
+      parts.push({ ...head, category: 'diode', params: diodeFromRow(diodeById.get(row.id)!) });
+    } else if (row.category === 'motor' && motorById.has(row.id)) {
+      parts.push({ ...head, category: 'motor', params: motorFromRow(motorById.get(row.id)!) });
+    }
+  }
+  return parts;
+}
+
+export interface CatalogueQuery {
+  category?: PartCategory;
+  reviewStatuses?: string[];
+}
+
+/** Parts ordered by category, maker and number, fully hydrated. */
+export async function listParts(db: Db, query: CatalogueQuery = {}): Promise<Part[]> {
+  const q = db<DbPartRow>('parts').select('*').orderBy([{ column: 'category' }, { column: 'manufacturer' }, { column: 'mpn' }]);
+  if (query.category) q.where('category', query.category);
+  if (query.reviewStatuses) q.whereIn('review_status', query.reviewStatuses);
+  return hydrateParts(db, await q);
+}
+
+export async function countPartsByCategory(db: Db): Promise<Record<PartCategory, number>> {
+  const rows: { category: PartCategory; n: number }[] = await db('parts').select('category').count({ n: '*' }).groupBy('category');
+  const counts: Record<PartCategory, number> = { motor: 0, mosfet: 0, driver: 0, diode: 0 };
+  for (const r of rows) counts[r.category] = Number(r.n);
+  return counts;
+}

@@ -1,0 +1,41 @@
+import { afterAll, describe, expect, it } from 'vitest';
+import { scratchDb } from '../helpers/stack.ts';
+import { seed, demoParts } from '../../db/seeds/demo.ts';
+
+const db = scratchDb();
+afterAll(() => db.destroy());
+
+const TABLES = ['users', 'user_roles', 'parts', 'mosfet_params', 'mosfet_rds_on_points', 'driver_params',
+  'diode_params', 'motor_params', 'part_sources', 'part_price_breaks'];
+
+async function counts(): Promise<Record<string, number>> {
+  const out: Record<string, number> = {};
+  for (const t of TABLES) out[t] = Number((await db(t).count({ n: '*' }))[0].n);
+  return out;
+}
+
+describe('demo seed', () => {
+  it('gives the same counts when run twice', async () => {
+    await db.migrate.rollback(undefined, true);
+    await db.migrate.latest();
+    await seed(db);
+    const once = await counts();
+    const report = await seed(db);
+    expect(report.partsAdded).toBe(0);
+    expect(await counts()).toEqual(once);
+    expect(once.parts).toBe(demoParts().length);
+  });
+
+  it('meets the catalogue minimums of the demo scenario', async () => {
+    const rows: { category: string; n: number }[] = await db('parts').select('category').count({ n: '*' }).groupBy('category');
+    const by = Object.fromEntries(rows.map((r) => [r.category, Number(r.n)]));
+    expect(by.motor).toBeGreaterThanOrEqual(12);
+    expect(by.mosfet).toBeGreaterThanOrEqual(40);
+    expect(by.driver).toBeGreaterThanOrEqual(12);
+    expect(by.diode).toBeGreaterThanOrEqual(15);
+    expect(Number((await db('parts').where('review_status', 'pending').count({ n: '*' }))[0].n)).toBeGreaterThan(0);
+    expect(Number((await db('parts').whereIn('lifecycle', ['nrnd', 'obsolete']).count({ n: '*' }))[0].n)).toBeGreaterThan(0);
+    const withoutSource = await db('parts').leftJoin('part_sources', 'parts.id', 'part_sources.part_id').whereNull('part_sources.id').count({ n: '*' });
+    expect(Number(withoutSource[0].n)).toBe(0);
+  });
+});

@@ -1,0 +1,35 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser } from 'playwright-core';
+import { launchBrowser, screenshotPath } from '../helpers/browser.ts';
+import { appUrl, appDb } from '../helpers/stack.ts';
+
+let browser: Browser;
+beforeAll(async () => {
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+describe('home page (catalogue)', () => {
+  it('shows seeded parts from every category, the cautions, and no console errors', async () => {
+    const knex = appDb();
+    const samples: { category: string; mpn: string }[] = await knex('parts').select('category').min({ mpn: 'mpn' }).groupBy('category');
+    await knex.destroy();
+    expect(samples).toHaveLength(4);
+
+    const page = await browser.newPage();
+    const errors: string[] = [];
+    page.on('console', (m) => m.type() === 'error' && errors.push(m.text()));
+    page.on('pageerror', (e) => errors.push(e.message));
+    await page.goto(appUrl() + '/');
+    for (const s of samples) {
+      await expect(page.locator(`section[data-category="${s.category}"] tr[data-mpn="${s.mpn}"]`).count()).resolves.toBe(1);
+    }
+    await expect(page.getByRole('heading', { name: 'Cautions' }).count()).resolves.toBe(1);
+    const font = await page.evaluate(() => getComputedStyle(document.body).fontFamily);
+    expect(font).toContain('Source Sans 3');
+    await page.screenshot({ path: screenshotPath('home'), fullPage: false });
+    expect(errors).toEqual([]);
+  });
+});
