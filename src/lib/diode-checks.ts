@@ -1,0 +1,124 @@
+/**
+ * Freewheel diode checks [domain.md §7]: across the motor, cathode to +V.
+ */
+import { fmt, makeCheck, marginBelow, type Check } from './checks.ts';
+import type { DiodeParams } from './domain/parts.ts';
+
+/** Keep t_rr below about 1 % of the PWM period [practice]. */
+export const TRR_SHARE_OF_PERIOD = 0.01;
+/** Stray loop inductance of a compact layout and a typical small-MOSFET turn-off, for the spike estimate [practice, judgement]. */
+export const DEFAULT_LOOP_INDUCTANCE_H = 20e-9;
+export const DEFAULT_TURN_OFF_S = 100e-9;
+/** Half-sine surge duration most datasheets state IFSM for (8.3 ms, 60 Hz half cycle; shorter of the common two). */
+const SURGE_PULSE_S = 8.3e-3;
+
+/** Energy dumped into a switch that turns off an inductive current with no freewheel path: ½·L·I² [domain.md §7]. */
+export function avalancheEnergyJ(inductanceH: number, currentA: number): number {
+  return 0.5 * inductanceH * currentA ** 2;
+}
+
+export function avalanchePowerW(inductanceH: number, currentA: number, frequencyHz: number): number {
+  return avalancheEnergyJ(inductanceH, currentA) * frequencyHz;
+}
+
+/** Drain spike ≈ V_supply + V_F + L_loop·di/dt [domain.md §7]. */
+export function drainSpikeV(supplyV: number, forwardV: number, loopInductanceH: number, diDtAPerS: number): number {
+  return supplyV + forwardV + loopInductanceH * diDtAPerS;
+}
+
+export interface DiodeCheckInput {
+  diode: DiodeParams;
+  supplyMaxV: number;
+  /** Worst (1 − D)·I over the duty range; ignored for on/off drive. */
+  meanCurrentA: number;
+  /** Motor current at turn-off, up to the worst-case stall current. */
+  peakCurrentA: number;
+  pwmHz: number | null;
+  voltageDerating: number;
+  motorInductanceH?: number | null;
+  motorResistanceOhm?: number | null;
+  loopInductanceH?: number;
+  turnOffS?: number;
+}
+
+function checkReverseVoltage(d: DiodeParams, supplyMaxV: number, derating: number): Check {
+  const deratedV = d.vrrmV * derating;
+  const hardOk = supplyMaxV <= d.vrrmV;
+  const ok = supplyMaxV <= deratedV;
+  const note = ok
+    ? `Supply up to ${fmt(supplyMaxV)} V is within VRRM ${fmt(d.vrrmV)} V derated to ${fmt(deratedV)} V.`
+    : `Supply up to ${fmt(supplyMaxV)} V exceeds VRRM ${hardOk ? `derated to ${fmt(deratedV)} V` : fmt(d.vrrmV) + ' V'}: choose a diode rated at least ${fmt(supplyMaxV / derating)} V.`;
+  return makeCheck({ id: 'reverse-voltage', ok, value: supplyMaxV, limit: d.vrrmV, unit: 'V', margin: marginBelow(supplyMaxV, d.vrrmV), note }, hardOk ? 'margin' : 'hard');
+}
+
+function checkMeanCurrent(d: DiodeParams, meanA: number, pwmHz: number | null): Check {
+  if (pwmHz == null) {
+    const note = 'On/off drive: the diode carries only the brief decay after each turn-off.';
+    return makeCheck({ id: 'mean-current', ok: true, value: 0, limit: d.ifAvA, unit: 'A', margin: 1, note });
+  }
+  const ok = meanA <= d.ifAvA;
+  const note = ok
+    ? `Mean freewheel current ${fmt(meanA)} A is within IF(AV) ${fmt(d.ifAvA)} A.`
+    : `Mean freewheel current ${fmt(meanA)} A exceeds IF(AV) ${fmt(d.ifAvA)} A: choose a diode rated at least ${fmt(meanA)} A.`;
+  return makeCheck({ id: 'mean-current', ok, value: meanA, limit: d.ifAvA, unit: 'A', margin: marginBelow(meanA, d.ifAvA), note });
+}
+
+/** The turn-off current recurs every cycle; above even the one-off surge rating the part cannot survive. */
+function checkPeakCurrent(d: DiodeParams, peakA: number): Check {
+  const ok = peakA <= d.ifsmA;
+  const note = ok
+    ? `Each turn-off hands the diode up to ${fmt(peakA)} A (stall); that is within IFSM ${fmt(d.ifsmA)} A, confirm the repetitive peak rating on the datasheet.`
+    : `Each turn-off hands the diode up to ${fmt(peakA)} A, above even its ${fmt(d.ifsmA)} A surge rating: choose a larger diode.`;
+  return makeCheck({ id: 'peak-current', ok, value: peakA, limit: d.ifsmA, unit: 'A', margin: marginBelow(peakA, d.ifsmA), note });
+}
+
+/** Informative: the motor's decay I²·τe/2 against the surge rating's half-sine IFSM²·t/2. */
+function surgeInfo(d: DiodeParams, peakA: number, inductanceH: number | null | undefined, resistanceOhm: number | null | undefined): Check {
+  if (inductanceH == null || resistanceOhm == null || resistanceOhm <= 0) {
+    return makeCheck({ id: 'surge-current', ok: true, value: null, limit: null, unit: 'A²s', margin: null, note: 'Motor inductance unknown: surge stress not estimated (it rarely limits small motors).' });
+  }
+  const decayI2t = (peakA ** 2 * (inductanceH / resistanceOhm)) / 2;
+  const ratingI2t = (d.ifsmA ** 2 * SURGE_PULSE_S) / 2;
+  const note = `Decay stress about ${fmt(decayI2t)} A²s against about ${fmt(ratingI2t)} A²s for the surge rating: informative only.`;
+  return makeCheck({ id: 'surge-current', ok: true, value: decayI2t, limit: ratingI2t, unit: 'A²s', margin: marginBelow(decayI2t, ratingI2t), note });
+}
+
+function checkReverseRecovery(d: DiodeParams, pwmHz: number | null): Check {
+  if (pwmHz == null) {
+    return makeCheck({ id: 'reverse-recovery', ok: true, value: d.trrNs, limit: null, unit: 'ns', margin: null, note: 'On/off drive: reverse recovery does not matter; any rectifier type will do.' });
+  }
+  const limitNs = (TRR_SHARE_OF_PERIOD / pwmHz) * 1e9;
+  if (d.kind === 'schottky') {
+    return makeCheck({ id: 'reverse-recovery', ok: true, value: d.trrNs ?? 0, limit: limitNs, unit: 'ns', margin: null, note: 'Schottky: no stored charge, suited to PWM.' });
+  }
+  if (d.trrNs == null) {
+    const note = `Reverse recovery time not on record for this ${d.kind} diode: confirm it is below ${fmt(limitNs)} ns (1 % of the PWM period).`;
+    return makeCheck({ id: 'reverse-recovery', ok: false, value: null, limit: limitNs, unit: 'ns', margin: null, note }, 'margin');
+  }
+  const ok = d.trrNs <= limitNs;
+  const kindHint = d.kind === 'general' ? 'a general-purpose rectifier recovers in microseconds and ' : '';
+  const note = ok
+    ? `t_rr ${fmt(d.trrNs)} ns is below 1 % of the PWM period (${fmt(limitNs)} ns).`
+    : `t_rr ${fmt(d.trrNs)} ns exceeds 1 % of the PWM period (${fmt(limitNs)} ns): ${kindHint}each recovery adds a current spike and loss in the switch; use a Schottky or ultrafast diode.`;
+  return makeCheck({ id: 'reverse-recovery', ok, value: d.trrNs, limit: limitNs, unit: 'ns', margin: marginBelow(d.trrNs, limitNs), note });
+}
+
+function spikeInfo(d: DiodeParams, input: DiodeCheckInput): Check {
+  const loopH = input.loopInductanceH ?? DEFAULT_LOOP_INDUCTANCE_H;
+  const turnOffS = input.turnOffS ?? DEFAULT_TURN_OFF_S;
+  const spikeV = drainSpikeV(input.supplyMaxV, d.vfV, loopH, input.peakCurrentA / turnOffS);
+  const note = `Drain spike estimate ${fmt(spikeV)} V with ${fmt(loopH * 1e9)} nH of loop and a ${fmt(turnOffS * 1e9)} ns turn-off: keep the diode close to the motor terminals and the switch.`;
+  return makeCheck({ id: 'drain-spike', ok: true, value: spikeV, limit: null, unit: 'V', margin: null, note });
+}
+
+export function checkDiode(input: DiodeCheckInput): Check[] {
+  const d = input.diode;
+  return [
+    checkReverseVoltage(d, input.supplyMaxV, input.voltageDerating),
+    checkMeanCurrent(d, input.meanCurrentA, input.pwmHz),
+    checkPeakCurrent(d, input.peakCurrentA),
+    surgeInfo(d, input.peakCurrentA, input.motorInductanceH, input.motorResistanceOhm),
+    checkReverseRecovery(d, input.pwmHz),
+    spikeInfo(d, input),
+  ];
+}

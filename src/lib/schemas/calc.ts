@@ -1,0 +1,108 @@
+/**
+ * Request schemas of the three calculators [api-contract.md] and the issue list they produce.
+ */
+import { z } from 'zod';
+import { E_SERIES_NAMES } from '../eseries.ts';
+
+const positive = (): z.ZodNumber => z.number().positive();
+const nonNegative = (): z.ZodNumber => z.number().nonnegative();
+
+export const motorPointsSchema = z
+  .object({
+    ratedVoltageV: positive(),
+    noLoadSpeedRpm: positive(),
+    noLoadCurrentA: positive(),
+    stallCurrentA: positive(),
+    stallTorqueNm: positive(),
+    /** Optional measured terminal resistance; replaces V/Is. */
+    terminalResistanceOhm: positive().optional(),
+  })
+  .superRefine((m, ctx) => {
+    if (m.noLoadCurrentA >= m.stallCurrentA) {
+      ctx.addIssue({ code: 'custom', path: ['noLoadCurrentA'], message: 'No-load current must be below the stall current.' });
+    }
+    const resistanceOhm = m.terminalResistanceOhm ?? m.ratedVoltageV / m.stallCurrentA;
+    if (m.terminalResistanceOhm != null && m.noLoadCurrentA * resistanceOhm >= m.ratedVoltageV) {
+      ctx.addIssue({ code: 'custom', path: ['terminalResistanceOhm'], message: 'With this resistance the no-load current would drop the whole rated voltage.' });
+    }
+  });
+
+export const calcMotorRequestSchema = z.object({
+  motor: motorPointsSchema,
+  supplyV: positive(),
+  seriesResistanceOhm: nonNegative().default(0),
+  curvePoints: z.number().int().min(2).max(501).default(21),
+});
+export type CalcMotorRequest = z.infer<typeof calcMotorRequestSchema>;
+
+export const calcPullResistorRequestSchema = z
+  .object({
+    pin: z.object({
+      internalPull: z.enum(['up', 'down', 'none']),
+      internalPullOhms: nonNegative(),
+      railV: positive(),
+      maxCurrentA: positive(),
+    }),
+    external: z.object({ to: z.enum(['up', 'down']), railV: nonNegative() }),
+    node: z.object({ mustBe: z.enum(['low', 'high']), limitV: nonNegative() }),
+    series: z.enum(E_SERIES_NAMES),
+  })
+  .superRefine((b, ctx) => {
+    if (b.pin.internalPull !== 'none' && !(b.pin.internalPullOhms > 0)) {
+      ctx.addIssue({ code: 'custom', path: ['pin', 'internalPullOhms'], message: 'An internal pull needs a resistance above zero.' });
+    }
+  });
+export type CalcPullResistorRequest = z.infer<typeof calcPullResistorRequestSchema>;
+
+const rdsOnPointSchema = z.object({ vgsV: positive(), ohms: positive() });
+
+export const calcSwitchRequestSchema = z.object({
+  mosfet: z.object({
+    vdsMaxV: positive(),
+    vgsMaxV: positive(),
+    vgsThMaxV: positive(),
+    idPulsedA: positive(),
+    tjMaxC: z.number().min(25).max(250),
+    rthJaCPerW: positive(),
+    qgTotalNc: positive(),
+    qgdNc: positive().optional(),
+    qgsNc: positive().optional(),
+    vPlateauV: positive().optional(),
+    rdsOn: z.array(rdsOnPointSchema).min(1).max(20),
+    rdsOnTempCoeffPerC: z.number().min(0).max(0.05).optional(),
+  }),
+  operating: z.object({
+    supplyMaxV: positive(),
+    runningCurrentA: nonNegative(),
+    stallCurrentA: nonNegative(),
+    gateDriveV: positive(),
+    gateDriveCurrentA: positive(),
+    gateResistanceOhm: nonNegative().optional(),
+    pwmHz: positive().optional(),
+    duty: z.number().min(0).max(1).optional(),
+    ambientC: z.number().min(-60).max(200),
+    diodeForwardV: nonNegative(),
+  }),
+  margins: z
+    .object({ voltageDerating: z.number().gt(0).max(1).optional(), thermalMarginC: nonNegative().optional() })
+    .optional(),
+});
+export type CalcSwitchRequest = z.infer<typeof calcSwitchRequestSchema>;
+
+export interface ApiIssue {
+  path: string;
+  message: string;
+}
+
+/** zod issues as the contract's issue list: dotted paths like "motor.noLoadCurrentA". */
+export function issuesOf(error: z.ZodError): ApiIssue[] {
+  return error.issues.map((issue) => ({ path: issue.path.map(String).join('.'), message: issue.message }));
+}
+
+export type ParseResult<T> = { ok: true; data: T } | { ok: false; error: string; issues: ApiIssue[] };
+
+export function parseCalcBody<S extends z.ZodType>(schema: S, body: unknown): ParseResult<z.infer<S>> {
+  const parsed = schema.safeParse(body);
+  if (parsed.success) return { ok: true, data: parsed.data };
+  return { ok: false, error: 'Some fields are missing or out of range.', issues: issuesOf(parsed.error) };
+}

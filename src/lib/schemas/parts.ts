@@ -1,0 +1,333 @@
+/**
+ * Part schemas shared by the forms (islands) and the endpoints: create/edit, review, lifecycle, supply
+ * data and the list query. Pure: zod and domain constants only. Field names carry their units.
+ */
+import { z } from 'zod';
+import { LIFECYCLES, PART_CATEGORIES, REVIEW_STATUSES } from '../domain/parts.ts';
+
+const num = (label: string) => z.number({ error: `${label} must be a number` }).finite();
+const pos = (label: string) => num(label).positive({ error: `${label} must be above zero` });
+const nonNeg = (label: string) => num(label).nonnegative({ error: `${label} cannot be negative` });
+const optPos = (label: string) => pos(label).nullable().default(null);
+
+export const isoDateSchema = z
+  .string()
+  .regex(/^\d{4}-\d{2}-\d{2}$/, { error: 'Use a date like 2026-12-31' })
+  .refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) && new Date(`${s}T00:00:00Z`).toISOString().startsWith(s), {
+    error: 'Not a calendar date',
+  });
+
+const text = (label: string, max: number) =>
+  z.string({ error: `${label} is required` }).trim().min(1, { error: `${label} is required` }).max(max, { error: `${label}: at most ${max} characters` });
+
+/** Part numbers: letters, digits and the separators makers print. */
+export const mpnSchema = text('Part number', 80).regex(/^[A-Za-z0-9][A-Za-z0-9._\-/+#]*$/, {
+  error: 'Part number: letters, digits and . _ - / + # only, starting with a letter or digit',
+});
+
+export const rdsOnPointSchema = z.object({
+  vgsV: pos('VGS'),
+  tjC: num('Tj').min(-55).max(200).default(25),
+  maxOhm: pos('RDS(on) max'),
+  typOhm: optPos('RDS(on) typ'),
+  idA: optPos('ID'),
+});
+
+export const mosfetParamsSchema = z
+  .object({
+    channel: z.enum(['n', 'p'], { error: 'Channel is n or p' }),
+    vdsMaxV: pos('VDS max'),
+    vgsMaxV: pos('VGS max'),
+    vgsThMinV: pos('VGS(th) min'),
+    vgsThMaxV: pos('VGS(th) max'),
+    vgsThTestCurrentA: pos('VGS(th) test current').default(0.00025),
+    idContinuousA: pos('ID continuous'),
+    idPulsedA: pos('ID pulsed'),
+    qgTotalNc: pos('Qg'),
+    qgTestVgsV: pos('Qg test VGS'),
+    qgsNc: optPos('Qgs'),
+    qgdNc: optPos('Qgd'),
+    vPlateauV: optPos('Plateau voltage'),
+    rthJaCPerW: pos('RθJA'),
+    tjMaxC: num('Tj max').min(25).max(250),
+    bodyDiodeVfV: optPos('Body-diode VF'),
+    rdsOn: z.array(rdsOnPointSchema).min(1, { error: 'Give at least one RDS(on) line with its VGS' }).max(8),
+  })
+  .superRefine((p, ctx) => {
+    if (p.vgsThMinV > p.vgsThMaxV) ctx.addIssue({ code: 'custom', path: ['vgsThMinV'], message: 'VGS(th) min is above VGS(th) max' });
+    if (p.vgsThMaxV >= p.vgsMaxV) ctx.addIssue({ code: 'custom', path: ['vgsThMaxV'], message: 'VGS(th) max must be below VGS max' });
+    if (p.idPulsedA < p.idContinuousA) ctx.addIssue({ code: 'custom', path: ['idPulsedA'], message: 'Pulsed current is below the continuous current' });
+    const seen = new Set<string>();
+    p.rdsOn.forEach((r, i) => {
+      const key = `${r.vgsV}@${r.tjC}`;
+      if (seen.has(key)) ctx.addIssue({ code: 'custom', path: ['rdsOn', i, 'vgsV'], message: 'Two RDS(on) lines at the same VGS and Tj' });
+      seen.add(key);
+      if (r.vgsV > p.vgsMaxV) ctx.addIssue({ code: 'custom', path: ['rdsOn', i, 'vgsV'], message: 'RDS(on) line above VGS max' });
+      if (r.typOhm !== null && r.typOhm > r.maxOhm) ctx.addIssue({ code: 'custom', path: ['rdsOn', i, 'typOhm'], message: 'Typical above maximum' });
+    });
+  });
+
+export const driverParamsSchema = z
+  .object({
+    kind: z.enum(['gate-driver', 'level-shifter'], { error: 'Kind is gate-driver or level-shifter' }),
+    channels: z.number({ error: 'Channels must be a number' }).int().min(1).max(8),
+    inverting: z.boolean({ error: 'Inverting is true or false' }),
+    supplyMinV: pos('Supply min'),
+    supplyMaxV: pos('Supply max'),
+    inputLogic: z.enum(['fixed', 'ratio', 'input-rail'], { error: 'Input logic is fixed, ratio or input-rail' }),
+    inputHighMin: pos('VIH min'),
+    inputLowMax: nonNeg('VIL max'),
+    outputHighDropV: nonNeg('Output high drop'),
+    outputLowMaxV: nonNeg('VOL max'),
+    sourceCurrentA: pos('Source current'),
+    sinkCurrentA: pos('Sink current'),
+    propagationDelayNs: pos('Propagation delay'),
+    inputDefault: z.enum(['low', 'high', 'floating'], { error: 'Input default is low, high or floating' }),
+  })
+  .superRefine((p, ctx) => {
+    if (p.supplyMinV > p.supplyMaxV) ctx.addIssue({ code: 'custom', path: ['supplyMinV'], message: 'Supply min is above supply max' });
+    if (p.inputLowMax >= p.inputHighMin) ctx.addIssue({ code: 'custom', path: ['inputLowMax'], message: 'VIL max must be below VIH min' });
+    if (p.inputLogic !== 'fixed' && p.inputHighMin > 1) {
+      ctx.addIssue({ code: 'custom', path: ['inputHighMin'], message: 'For ratio inputs give VIH as a fraction of the rail (0–1)' });
+    }
+  });
+
+export const diodeParamsSchema = z.object({
+  kind: z.enum(['schottky', 'ultrafast', 'fast', 'general'], { error: 'Kind is schottky, ultrafast, fast or general' }),
+  vrrmV: pos('VRRM'),
+  ifAvA: pos('IF(AV)'),
+  ifsmA: pos('IFSM'),
+  vfV: pos('VF'),
+  vfAtIfA: pos('VF test current'),
+  trrNs: optPos('trr'),
+});
+
+export const motorParamsSchema = z
+  .object({
+    ratedVoltageV: pos('Rated voltage'),
+    voltageMinV: optPos('Voltage min'),
+    voltageMaxV: optPos('Voltage max'),
+    noLoadSpeedRpm: pos('No-load speed'),
+    noLoadCurrentA: pos('No-load current'),
+    stallTorqueNm: pos('Stall torque'),
+    stallCurrentA: pos('Stall current'),
+    terminalResistanceOhm: optPos('Terminal resistance'),
+    inductanceH: optPos('Inductance'),
+    rotorInertiaKgM2: optPos('Rotor inertia'),
+  })
+  .superRefine((p, ctx) => {
+    if (p.noLoadCurrentA >= p.stallCurrentA) ctx.addIssue({ code: 'custom', path: ['noLoadCurrentA'], message: 'No-load current must be below the stall current' });
+    if (p.voltageMinV !== null && p.voltageMinV > p.ratedVoltageV) ctx.addIssue({ code: 'custom', path: ['voltageMinV'], message: 'Voltage min is above the rated voltage' });
+    if (p.voltageMaxV !== null && p.voltageMaxV < p.ratedVoltageV) ctx.addIssue({ code: 'custom', path: ['voltageMaxV'], message: 'Voltage max is below the rated voltage' });
+  });
+
+export const priceBreakSchema = z.object({
+  qty: z.number({ error: 'Quantity must be a number' }).int({ error: 'Quantity must be whole' }).min(1),
+  unitPrice: pos('Unit price'),
+});
+
+export const partSourceSchema = z
+  .object({
+    distributor: text('Distributor', 120),
+    sku: text('SKU', 80),
+    moq: z.number({ error: 'MOQ must be a number' }).int().min(1).default(1),
+    leadTimeDays: z.number({ error: 'Lead time must be a number' }).int().min(0).max(1000).default(0),
+    stockQty: z.number({ error: 'Stock must be a number' }).int().min(0).default(0),
+    currency: z.string().regex(/^[A-Z]{3}$/, { error: 'Currency is a three-letter ISO 4217 code' }).default('USD'),
+    priceBreaks: z.array(priceBreakSchema).max(12).default([]),
+  })
+  .superRefine((s, ctx) => {
+    const qtys = s.priceBreaks.map((b) => b.qty);
+    if (new Set(qtys).size !== qtys.length) ctx.addIssue({ code: 'custom', path: ['priceBreaks'], message: 'Two price breaks at the same quantity' });
+  });
+
+export const sourcesSchema = z.array(partSourceSchema).max(20).superRefine((list, ctx) => {
+  const keys = list.map((s) => `${s.distributor}|${s.sku}`);
+  keys.forEach((k, i) => {
+    if (keys.indexOf(k) !== i) ctx.addIssue({ code: 'custom', path: [i, 'sku'], message: 'The same distributor and SKU twice' });
+  });
+});
+
+/** Review status a creator may ask for; the service decides what a role actually gets. */
+export const REQUESTABLE_REVIEW_STATUSES = ['draft', 'pending', 'approved'] as const;
+
+const headShape = {
+  manufacturer: text('Maker', 120),
+  mpn: mpnSchema,
+  description: z.string().trim().max(500, { error: 'Description: at most 500 characters' }).default(''),
+  package: z.string().trim().max(40, { error: 'Package: at most 40 characters' }).default(''),
+  lifecycle: z.enum(LIFECYCLES, { error: 'Lifecycle is active, nrnd, last-buy or obsolete' }).default('active'),
+  lifecycleEffectiveDate: isoDateSchema.nullable().default(null),
+  reviewStatus: z.enum(REQUESTABLE_REVIEW_STATUSES, { error: 'Review status is draft, pending or approved' }).optional(),
+  sources: sourcesSchema.optional(),
+};
+
+/** A part as the form and POST /api/parts send it (category picks the parameter schema). */
+export const partInputSchema = z.discriminatedUnion(
+  'category',
+  [
+    z.object({ category: z.literal('mosfet'), ...headShape, params: mosfetParamsSchema }),
+    z.object({ category: z.literal('driver'), ...headShape, params: driverParamsSchema }),
+    z.object({ category: z.literal('diode'), ...headShape, params: diodeParamsSchema }),
+    z.object({ category: z.literal('motor'), ...headShape, params: motorParamsSchema }),
+  ],
+  { error: 'Category is motor, mosfet, driver or diode' },
+);
+export type PartInput = z.infer<typeof partInputSchema>;
+
+const versionSchema = z.number({ error: 'version is required (the version you loaded)' }).int().min(1);
+
+/** PUT /api/parts/:id: the whole record as loaded, with the version it was loaded at. */
+export const partUpdateSchema = z.intersection(partInputSchema, z.object({ version: versionSchema }));
+export type PartUpdate = z.infer<typeof partUpdateSchema>;
+
+export const reviewDecisionSchema = z
+  .object({
+    decision: z.enum(['approve', 'reject'], { error: 'Decision is approve or reject' }),
+    reason: z.string().trim().max(500).default(''),
+    version: versionSchema,
+  })
+  .superRefine((d, ctx) => {
+    if (d.decision === 'reject' && d.reason.length < 3) {
+      ctx.addIssue({ code: 'custom', path: ['reason'], message: 'Say why the part is rejected; the proposer reads this' });
+    }
+  });
+export type ReviewDecision = z.infer<typeof reviewDecisionSchema>;
+
+export const lifecycleChangeSchema = z.object({
+  lifecycle: z.enum(LIFECYCLES, { error: 'Lifecycle is active, nrnd, last-buy or obsolete' }),
+  effectiveDate: isoDateSchema,
+  note: z.string().trim().min(3, { error: 'Add a note: the notice, the reason or the replacement' }).max(500),
+  version: versionSchema,
+});
+export type LifecycleChange = z.infer<typeof lifecycleChangeSchema>;
+
+export const sourcesUpdateSchema = z.object({ sources: sourcesSchema, version: versionSchema });
+export type SourcesUpdate = z.infer<typeof sourcesUpdateSchema>;
+
+export const datasheetRevisionSchema = z
+  .string()
+  .trim()
+  .max(40, { error: 'Revision: at most 40 characters' })
+  .regex(/^[\p{L}\p{N} ._\-/()]*$/u, { error: 'Revision: letters, digits, spaces and . _ - / ( ) only' });
+
+export { PART_CATEGORIES, LIFECYCLES, REVIEW_STATUSES };
+
+/* ---------- GET /api/parts: the list query (from URL search parameters) ---------- */
+
+/** Which category each parameter filter belongs to (a filter implies its category). */
+export const FILTER_CATEGORY = {
+  vdsMinV: 'mosfet',
+  vgsThMaxV: 'mosfet',
+  rdsOnMaxOhm: 'mosfet',
+  rdsOnAtVgsV: 'mosfet',
+  idMinA: 'mosfet',
+  qgMaxNc: 'mosfet',
+  channel: 'mosfet',
+  logicRailV: 'driver',
+  outputHighMinV: 'driver',
+  supplyV: 'driver',
+  inverting: 'driver',
+  kind: 'diode',
+  vrrmMinV: 'diode',
+  ifAvMinA: 'diode',
+  trrMaxNs: 'diode',
+  ratedVoltageMinV: 'motor',
+  ratedVoltageMaxV: 'motor',
+  noLoadSpeedMinRpm: 'motor',
+  stallTorqueMinNm: 'motor',
+} as const;
+export type ParamFilterKey = keyof typeof FILTER_CATEGORY;
+
+/** Sort keys: common ones, and per category the typed columns. Prefix "-" for descending. */
+export const COMMON_SORT_KEYS = ['mpn', 'manufacturer', 'package', 'lifecycle', 'reviewStatus', 'updatedAt'] as const;
+export const CATEGORY_SORT_KEYS = {
+  mosfet: ['vdsMaxV', 'vgsThMaxV', 'idContinuousA', 'qgTotalNc', 'rthJaCPerW', 'minRdsOnVgsV'],
+  driver: ['supplyMinV', 'supplyMaxV', 'sourceCurrentA', 'propagationDelayNs'],
+  diode: ['vrrmV', 'ifAvA', 'vfV', 'trrNs'],
+  motor: ['ratedVoltageV', 'noLoadSpeedRpm', 'stallTorqueNm', 'stallCurrentA'],
+} as const;
+
+export const MAX_PAGE_SIZE = 200;
+
+const blankToUndefined = (v: unknown): unknown => (typeof v === 'string' && v.trim() === '' ? undefined : v);
+const qNum = (label: string, min = 0) =>
+  z.preprocess(
+    blankToUndefined,
+    z.coerce.number({ error: `${label} must be a number` }).refine(Number.isFinite, { error: `${label} must be a number` })
+      .refine((n) => n >= min, { error: `${label} cannot be below ${min}` }).optional(),
+  );
+const qList = <T extends readonly [string, ...string[]]>(values: T, label: string) =>
+  z.preprocess(
+    (v) => (typeof v === 'string' && v.trim() !== '' ? v.split(',').map((s) => s.trim()) : undefined),
+    z.array(z.enum(values, { error: `${label}: one of ${values.join(', ')}` })).optional(),
+  );
+
+export const partListQuerySchema = z
+  .strictObject(
+    {
+      category: z.preprocess(blankToUndefined, z.enum(PART_CATEGORIES, { error: 'Category is motor, mosfet, driver or diode' }).optional()),
+      q: z.preprocess(blankToUndefined, z.string().trim().max(100, { error: 'Search text: at most 100 characters' }).optional()),
+      page: z.preprocess(blankToUndefined, z.coerce.number({ error: 'page must be a whole number' }).int({ error: 'page must be a whole number' }).min(1).max(100000).default(1)),
+      pageSize: z.preprocess(blankToUndefined, z.coerce.number({ error: 'pageSize must be a whole number' }).int({ error: 'pageSize must be a whole number' }).min(1).max(MAX_PAGE_SIZE).default(25)),
+      sort: z.preprocess(blankToUndefined, z.string().regex(/^-?[A-Za-z]+$/, { error: 'sort is a field name, "-" in front for descending' }).optional()),
+      format: z.preprocess(blankToUndefined, z.enum(['json', 'csv'], { error: 'format is json or csv' }).optional()),
+      lifecycle: qList(LIFECYCLES, 'lifecycle'),
+      reviewStatus: qList(REVIEW_STATUSES, 'reviewStatus'),
+      package: z.preprocess(blankToUndefined, z.string().trim().max(40).optional()),
+      vdsMinV: qNum('vdsMinV'),
+      vgsThMaxV: qNum('vgsThMaxV'),
+      rdsOnMaxOhm: qNum('rdsOnMaxOhm'),
+      rdsOnAtVgsV: qNum('rdsOnAtVgsV'),
+      idMinA: qNum('idMinA'),
+      qgMaxNc: qNum('qgMaxNc'),
+      channel: z.preprocess(blankToUndefined, z.enum(['n', 'p'], { error: 'channel is n or p' }).optional()),
+      logicRailV: qNum('logicRailV'),
+      outputHighMinV: qNum('outputHighMinV'),
+      supplyV: qNum('supplyV'),
+      inverting: z.preprocess(blankToUndefined, z.enum(['true', 'false'], { error: 'inverting is true or false' }).transform((s) => s === 'true').optional()),
+      kind: z.preprocess(blankToUndefined, z.enum(['schottky', 'ultrafast', 'fast', 'general'], { error: 'kind is schottky, ultrafast, fast or general' }).optional()),
+      vrrmMinV: qNum('vrrmMinV'),
+      ifAvMinA: qNum('ifAvMinA'),
+      trrMaxNs: qNum('trrMaxNs'),
+      ratedVoltageMinV: qNum('ratedVoltageMinV'),
+      ratedVoltageMaxV: qNum('ratedVoltageMaxV'),
+      noLoadSpeedMinRpm: qNum('noLoadSpeedMinRpm'),
+      stallTorqueMinNm: qNum('stallTorqueMinNm'),
+    },
+    { error: (iss) => (iss.code === 'unrecognized_keys' ? `Unknown filter: ${iss.keys.join(', ')}` : undefined) },
+  )
+  .superRefine((query, ctx) => {
+    for (const [key, category] of Object.entries(FILTER_CATEGORY)) {
+      if (query[key as ParamFilterKey] === undefined) continue;
+      if (query.category && query.category !== category) {
+        ctx.addIssue({ code: 'custom', path: [key], message: `${key} filters ${category} parts, not ${query.category}` });
+      }
+    }
+    if (query.rdsOnMaxOhm !== undefined && query.rdsOnAtVgsV === undefined) {
+      ctx.addIssue({ code: 'custom', path: ['rdsOnAtVgsV'], message: 'Give the gate drive (rdsOnAtVgsV) the RDS(on) bound applies at' });
+    }
+    if (query.sort) {
+      const key = query.sort.replace(/^-/, '');
+      const category = query.category ?? inferCategory(query);
+      const allowed: readonly string[] = [...COMMON_SORT_KEYS, ...(category ? CATEGORY_SORT_KEYS[category] : [])];
+      if (!allowed.includes(key)) ctx.addIssue({ code: 'custom', path: ['sort'], message: `Cannot sort by ${key}; choose one of ${allowed.join(', ')}` });
+    }
+  })
+  .transform((query) => ({ ...query, category: query.category ?? inferCategory(query) }));
+export type PartListQuery = z.infer<typeof partListQuerySchema>;
+
+function inferCategory(query: Partial<Record<ParamFilterKey, unknown>>): (typeof PART_CATEGORIES)[number] | undefined {
+  for (const [key, category] of Object.entries(FILTER_CATEGORY)) {
+    if (query[key as ParamFilterKey] !== undefined) return category;
+  }
+  return undefined;
+}
+
+/** A page of the list as GET /api/parts answers it. */
+export interface PartListPage<T> {
+  items: T[];
+  total: number;
+  page: number;
+  pageSize: number;
+}

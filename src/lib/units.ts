@@ -1,0 +1,82 @@
+/**
+ * Unit conversions for torque and speed, and a display formatter with SI prefixes.
+ * The one place in Stallpoint that knows conversion factors; everything else works in SI.
+ */
+
+/** Standard acceleration of gravity, exact by definition [SI Brochure]. */
+export const STANDARD_GRAVITY_MS2 = 9.80665;
+/** Avoirdupois ounce, exact by definition (international yard and pound agreement). */
+const OUNCE_KG = 0.028349523125;
+const INCH_M = 0.0254;
+
+export const TORQUE_UNITS = ['N·m', 'mN·m', 'g·cm', 'kgf·cm', 'oz·in'] as const;
+export type TorqueUnit = (typeof TORQUE_UNITS)[number];
+
+/** Newton-metres per one unit. Gram-force and ounce-force use g_n; datasheets write g·cm for gf·cm. */
+const NM_PER_UNIT: Record<TorqueUnit, number> = {
+  'N·m': 1,
+  'mN·m': 1e-3,
+  'g·cm': 1e-3 * STANDARD_GRAVITY_MS2 * 1e-2,
+  'kgf·cm': STANDARD_GRAVITY_MS2 * 1e-2,
+  'oz·in': OUNCE_KG * STANDARD_GRAVITY_MS2 * INCH_M,
+};
+
+export function torqueToNm(value: number, unit: TorqueUnit): number {
+  return value * NM_PER_UNIT[unit];
+}
+
+export function torqueFromNm(torqueNm: number, unit: TorqueUnit): number {
+  return torqueNm / NM_PER_UNIT[unit];
+}
+
+export function convertTorque(value: number, from: TorqueUnit, to: TorqueUnit): number {
+  return torqueFromNm(torqueToNm(value, from), to);
+}
+
+/** One revolution is 2π rad, one minute 60 s: 1 rpm = π/30 rad/s. */
+export function rpmToRadPerS(speedRpm: number): number {
+  return (speedRpm * Math.PI) / 30;
+}
+
+export function radPerSToRpm(speedRadPerS: number): number {
+  return (speedRadPerS * 30) / Math.PI;
+}
+
+const SI_PREFIXES: readonly { exponent: number; symbol: string }[] = [
+  { exponent: -9, symbol: 'n' },
+  { exponent: -6, symbol: 'µ' },
+  { exponent: -3, symbol: 'm' },
+  { exponent: 0, symbol: '' },
+  { exponent: 3, symbol: 'k' },
+  { exponent: 6, symbol: 'M' },
+];
+
+/** Rounds to `digits` significant digits first, so 999.96 becomes 1.00 k rather than 1000 . */
+function roundSignificant(value: number, digits: number): number {
+  return Number(value.toPrecision(digits));
+}
+
+function prefixFor(magnitude: number): { exponent: number; symbol: string } {
+  const engineeringExponent = Math.floor(Math.log10(magnitude) / 3) * 3;
+  const lowest = SI_PREFIXES[0];
+  const highest = SI_PREFIXES[SI_PREFIXES.length - 1];
+  if (engineeringExponent <= lowest.exponent) return lowest;
+  if (engineeringExponent >= highest.exponent) return highest;
+  return SI_PREFIXES.find((p) => p.exponent === engineeringExponent) ?? SI_PREFIXES[3];
+}
+
+/**
+ * Formats an SI value with an engineering prefix and `digits` significant digits,
+ * e.g. formatSi(0.0033953, 'N·m', 3) → "3.40 mN·m". Non-finite values print as "—".
+ */
+export function formatSi(value: number, unit: string, digits = 3): string {
+  if (!Number.isFinite(value)) return `— ${unit}`;
+  const safeDigits = Math.min(Math.max(Math.round(digits), 1), 15);
+  if (value === 0) return `${(0).toPrecision(safeDigits)} ${unit}`;
+  const rounded = roundSignificant(value, safeDigits);
+  const prefix = prefixFor(Math.abs(rounded));
+  const scaled = rounded / 10 ** prefix.exponent;
+  // Beyond the largest prefix toPrecision would switch to exponent notation; print whole units instead.
+  const text = Math.abs(scaled) >= 10 ** safeDigits ? scaled.toFixed(0) : scaled.toPrecision(safeDigits);
+  return `${text} ${prefix.symbol}${unit}`;
+}
