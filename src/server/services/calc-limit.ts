@@ -1,0 +1,25 @@
+/**
+ * Rate limit for the open calculator endpoints: per client address, per minute.
+ * Counted in process for now (calculators are stateless and cheap); see README "Scaling out".
+ */
+import { jsonError } from '../http/responses.ts';
+
+const WINDOW_MS = 60_000;
+const LIMIT = Number(process.env.CALC_RATE_LIMIT_PER_MIN ?? 600);
+const hits = new Map<string, { start: number; count: number }>();
+
+export async function limitCalculator(clientAddress: string, nowMs = Date.now()): Promise<Response | null> {
+  const key = clientAddress || 'unknown';
+  const entry = hits.get(key);
+  if (!entry || nowMs - entry.start >= WINDOW_MS) {
+    if (hits.size > 10_000) hits.clear();
+    hits.set(key, { start: nowMs, count: 1 });
+    return null;
+  }
+  entry.count += 1;
+  if (entry.count <= LIMIT) return null;
+  const retryAfterS = Math.ceil((entry.start + WINDOW_MS - nowMs) / 1000);
+  return jsonError(429, 'Too many calculator requests from this address; wait a moment and try again.', [], {
+    'Retry-After': String(retryAfterS),
+  });
+}
