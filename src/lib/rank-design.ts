@@ -11,6 +11,7 @@ import { walkPowerOn, type PowerOnResult } from './power-on.ts';
 import { evaluateSwitchPart, rankDiodeCandidates, sortCandidates, type CandidateResult, type SwitchCandidateResult } from './ranking.ts';
 import { lowestSpecVgsV, rdsOnPointsAt25C } from './rdson.ts';
 import { formatSi } from './units.ts';
+import { CAUTIONS } from './safety-notes.ts';
 
 export interface DesignRanking {
   worstCase: WorstCase;
@@ -34,15 +35,8 @@ export interface DesignCatalogue {
   diodes: PartOf<'diode'>[];
 }
 
-/** Safety cautions shown with every result [domain.md §9]. */
-export const STANDING_CAUTIONS: readonly string[] = [
-  'Batteries deliver large short-circuit currents: fuse near the source and size wiring for the stall current.',
-  'Switches, diodes and motor cases can exceed 100 °C at stall.',
-  'Interrupting motor current raises voltages far above the supply: always fit the freewheel diode.',
-  'A wrong default gate state can start a motor unexpectedly: verify it stays off through reset before attaching loads, and guard shafts.',
-  'Stay at safety extra-low voltage; mains-side work belongs to qualified people under local codes.',
-  'Results are engineering aids: final designs need review by a qualified engineer and the parts\' own datasheets.',
-];
+/** Safety cautions shown with every result (src/lib/safety-notes.ts, domain.md §9). */
+export const STANDING_CAUTIONS: readonly string[] = CAUTIONS.map((c) => `${c.title}: ${c.text}`);
 
 /** An ideal driver for a part: its smallest suitable common rail (or its lowest spec VGS), 1 A each way. */
 function idealDriveFor(part: PartOf<'mosfet'>): { voltageV: number; sourceCurrentA: number; sinkCurrentA: number } | null {

@@ -1,0 +1,104 @@
+/**
+ * A drive design as the designer enters it (camelCase, units in names). Stored as one JSON document per
+ * revision; src/lib/design-input.ts turns it into the engineering core's DesignCase.
+ */
+import type { MotorParams } from './parts.ts';
+
+export const PART_ROLES = ['switch', 'driver', 'diode'] as const;
+export type PartRole = (typeof PART_ROLES)[number];
+
+export type DesignMotor =
+  | { source: 'catalogue'; partId: number }
+  | { source: 'manual'; label: string; params: MotorParams };
+
+export interface DesignSupply {
+  minV: number;
+  nomV: number;
+  maxV: number;
+  /** Id of the preset the numbers came from, if any (informative). */
+  preset: string | null;
+}
+
+export interface DesignLogic {
+  railV: number;
+  /** VOH min of the controller pin at its rated current. */
+  highV: number;
+  /** VOL max of the controller pin. */
+  lowV: number;
+  pinSourceCurrentA: number;
+  pinSinkCurrentA: number;
+  resetPull: 'up' | 'down' | 'none';
+  resetPullOhms: number;
+  /** Fractional tolerance of the internal pull, e.g. 0.3 for ±30 %. */
+  resetPullTolerance: number;
+}
+
+export type DesignDrive = { mode: 'onoff' } | { mode: 'pwm'; frequencyHz: number; dutyMin: number; dutyMax: number };
+
+export type DesignLoad = { kind: 'torque'; torqueNm: number } | { kind: 'speed'; speedRpm: number } | { kind: 'stall-only' };
+
+export interface RoleSelection {
+  chosenPartId: number | null;
+  /** Up to three alternates, in order of preference. */
+  alternatePartIds: number[];
+}
+
+export interface DesignInput {
+  name: string;
+  motor: DesignMotor;
+  supply: DesignSupply;
+  wiringResistanceOhm: number;
+  shuntResistanceOhm: number;
+  logic: DesignLogic;
+  drive: DesignDrive;
+  ambientMinC: number;
+  ambientMaxC: number;
+  load: DesignLoad;
+  margins: { voltageDerating: number; thermalMarginC: number };
+  /** Rail for a gate driver when one is needed (null: the motor supply). */
+  driverSupplyV: number | null;
+  /** Boards per build, for the bill of materials and price breaks. */
+  boardQuantity: number;
+  selections: Record<PartRole, RoleSelection>;
+}
+
+export type DesignStatus = 'draft' | 'ready';
+
+export interface DesignSummary {
+  id: number;
+  name: string;
+  ownerId: number;
+  ownerName: string;
+  status: DesignStatus;
+  revision: number;
+  updatedAt: string;
+}
+
+export interface Design extends DesignSummary {
+  version: number;
+  input: DesignInput;
+  revisions: { revision: number; createdAt: string; createdByName: string | null }[];
+}
+
+/** Supply presets for common battery packs and bench supplies (nominal cell voltages: common practice). */
+export const SUPPLY_PRESETS: readonly { id: string; label: string; minV: number; nomV: number; maxV: number }[] = [
+  { id: '2xAA-alkaline', label: '2 × AA alkaline', minV: 2.0, nomV: 3.0, maxV: 3.2 },
+  { id: '4xAA-alkaline', label: '4 × AA alkaline', minV: 4.0, nomV: 6.0, maxV: 6.4 },
+  { id: '4xAA-nimh', label: '4 × AA NiMH', minV: 4.0, nomV: 4.8, maxV: 5.8 },
+  { id: '1s-liion', label: '1S Li-ion', minV: 3.0, nomV: 3.7, maxV: 4.2 },
+  { id: '2s-liion', label: '2S Li-ion', minV: 6.0, nomV: 7.4, maxV: 8.4 },
+  { id: '3s-liion', label: '3S Li-ion', minV: 9.0, nomV: 11.1, maxV: 12.6 },
+  { id: 'usb-5v', label: 'USB 5 V', minV: 4.5, nomV: 5.0, maxV: 5.5 },
+  { id: 'bench-12v', label: '12 V bench / adapter ±5 %', minV: 11.4, nomV: 12.0, maxV: 12.6 },
+  { id: 'bench-24v', label: '24 V bench / adapter ±5 %', minV: 22.8, nomV: 24.0, maxV: 25.2 },
+];
+
+/** Logic rail presets: LVCMOS-style output levels at a few mA (JEDEC JESD8 family, from memory). */
+export const LOGIC_PRESETS: readonly { id: string; label: string; railV: number; highV: number; lowV: number }[] = [
+  { id: '1v8', label: '1.8 V logic', railV: 1.8, highV: 1.35, lowV: 0.45 },
+  { id: '3v3', label: '3.3 V logic', railV: 3.3, highV: 2.9, lowV: 0.4 },
+  { id: '5v', label: '5 V logic', railV: 5.0, highV: 4.4, lowV: 0.5 },
+];
+
+/** Defaults from the engineering notes: voltage derating 0.8, thermal margin 25 K (common practice). */
+export const DEFAULT_DESIGN_MARGINS = { voltageDerating: 0.8, thermalMarginC: 25 } as const;
