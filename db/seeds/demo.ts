@@ -7,6 +7,7 @@ import type { Knex } from 'knex';
 import { insertPart, findPartId, type NewPart } from '../../src/server/repos/parts.ts';
 import { hashPassword } from '../../src/server/auth/password.ts';
 import { demoDiodes, demoDrivers, demoMosfets, demoMotors } from './data/index.ts';
+import { seedDesigns } from './designs.ts';
 
 export const DEMO_PASSWORD = 'stallpoint-demo';
 export const DEMO_DOMAIN = 'kestrel-fluidics.example';
@@ -55,10 +56,13 @@ async function seedParts(knex: Knex, librarianId: number | null): Promise<number
 
 export interface SeedReport {
   partsAdded: number;
+  designsAdded: number;
 }
 
 export async function seed(knex: Knex): Promise<SeedReport> {
   const people = await seedPeople(knex);
   const partsAdded = await seedParts(knex, people.get(`librarian@${DEMO_DOMAIN}`) ?? null);
-  return { partsAdded };
+  const designer = people.get(`designer@${DEMO_DOMAIN}`);
+  const designsAdded = designer ? await seedDesigns(knex, designer) : 0;
+  return { partsAdded, designsAdded };
 }

@@ -6,7 +6,7 @@
 import type { DesignInput } from './domain/design.ts';
 import type { Lifecycle, MotorParams, Part, PartOf, ReviewStatus } from './domain/parts.ts';
 import { designCaseOf } from './design-input.ts';
-import { rankDesign, type DesignRanking } from './rank-design.ts';
+import { powerOnFor, rankDesign, type DesignRanking } from './rank-design.ts';
 import type { CandidateResult } from './ranking.ts';
 import { bestUnitPrice } from './part-summary.ts';
 import { calcMotor, type CalcMotorResponse } from './calc.ts';
@@ -101,9 +101,18 @@ export function motorView(label: string, params: MotorParams, input: DesignInput
   };
 }
 
+/** The power-on walk for the parts the designer picked, when a switch is picked. */
+function selectedPowerOn(c: ReturnType<typeof designCaseOf>, input: DesignInput, catalogue: MatchCatalogue): DesignRanking['powerOn'] {
+  const sw = catalogue.mosfets.find((m) => m.id === input.selections.switch.chosenPartId);
+  if (!sw) return null;
+  const driver = catalogue.drivers.find((d) => d.id === input.selections.driver.chosenPartId);
+  return powerOnFor(c, sw, driver);
+}
+
 /** Ranks the catalogue candidates for a design and decorates each with price and lifecycle. */
 export function matchDesign(input: DesignInput, motorLabel: string, motor: MotorParams, catalogue: MatchCatalogue): DesignMatch {
-  const ranking = rankDesign(designCaseOf(input, motor), catalogue);
+  const designCase = designCaseOf(input, motor);
+  const ranking = rankDesign(designCase, catalogue);
   const qty = input.boardQuantity;
   const all: Part[] = [...catalogue.mosfets, ...catalogue.drivers, ...catalogue.diodes];
   return {
@@ -116,7 +125,7 @@ export function matchDesign(input: DesignInput, motorLabel: string, motor: Motor
     switchWithDriver: decorate(ranking.switchWithDriver, all, qty),
     driver: decorate(ranking.driver, all, qty),
     diode: decorate(ranking.diode, all, qty),
-    powerOn: ranking.powerOn,
+    powerOn: selectedPowerOn(designCase, input, catalogue) ?? ranking.powerOn,
     cautions: ranking.cautions,
     excluded: catalogue.excluded,
   };

@@ -74,7 +74,8 @@ function findPart<T extends { id?: number; mpn: string }>(parts: T[], result: Ca
   return parts.find((p) => (p.id ?? null) === result.partId && p.mpn === result.mpn);
 }
 
-function powerOnFor(c: DesignCase, sw: PartOf<'mosfet'> | undefined, driver: PartOf<'driver'> | undefined): PowerOnResult | null {
+/** Power-on walk for a given switch and (optional) driver. */
+export function powerOnFor(c: DesignCase, sw: PartOf<'mosfet'> | undefined, driver: PartOf<'driver'> | undefined): PowerOnResult | null {
   if (sw == null) return null;
   return walkPowerOn({
     pin: { railV: c.logic.railV, resetDefault: c.logic.resetDefault, sourceCurrentA: c.logic.pinSourceCurrentA, sinkCurrentA: c.logic.pinSinkCurrentA },

@@ -1,0 +1,121 @@
+/** Designs: create, revise (earlier revisions kept), mark ready, match against the catalogue. */
+import type { Knex } from 'knex';
+import { db } from '../db.ts';
+import type { Design, DesignInput, DesignStatus, DesignSummary } from '../../lib/domain/design.ts';
+import type { MotorParams, Part } from '../../lib/domain/parts.ts';
+import type { SessionUser } from '../auth/types.ts';
+import { matchDesign, type DesignMatch } from '../../lib/design-match.ts';
+import { findDesignRow, insertRevision, listDesignRows, loadDesign, replaceDesignParts, type DesignListQuery } from '../repos/designs.ts';
+import { hydrateParts } from '../repos/parts.ts';
+import type { DbPartRow } from '../repos/part-rows.ts';
+import { insertAuditEvent } from '../repos/audit.ts';
+import { ServiceError, notFound } from './parts-errors.ts';
+import { loadCandidates } from './design-candidates.ts';
+
+export const canEditDesign = (user: SessionUser, ownerId: number): boolean => user.roles.includes('admin') || user.id === ownerId;
+
+export async function listDesigns(query: DesignListQuery): Promise<{ items: DesignSummary[]; total: number; page: number; pageSize: number }> {
+  const { items, total } = await listDesignRows(db(), query);
+  return { items, total, page: query.page, pageSize: query.pageSize };
+}
+
+export async function getDesign(id: number, revision?: number): Promise<Design> {
+  const design = await loadDesign(db(), id, revision);
+  if (!design) throw notFound(revision ? `Revision ${revision} of design ${id}` : 'The design');
+  return design;
+}
+
+/** Loads parts by id (any category), fully hydrated. */
+export async function partsByIds(ids: number[], k: Knex | Knex.Transaction = db()): Promise<Map<number, Part>> {
+  if (ids.length === 0) return new Map();
+  const rows: DbPartRow[] = await k('parts').whereIn('id', [...new Set(ids)]);
+  const parts = await hydrateParts(k, rows);
+  return new Map(parts.map((p) => [p.id as number, p]));
+}
+
+async function assertReferencesExist(k: Knex | Knex.Transaction, input: DesignInput): Promise<void> {
+  const wanted: { path: string; id: number; category: string }[] = [];
+  if (input.motor.source === 'catalogue') wanted.push({ path: 'motor.partId', id: input.motor.partId, category: 'motor' });
+  for (const role of ['switch', 'driver', 'diode'] as const) {
+    const category = role === 'switch' ? 'mosfet' : role;
+    const sel = input.selections[role];
+    if (sel.chosenPartId != null) wanted.push({ path: `selections.${role}.chosenPartId`, id: sel.chosenPartId, category });
+    sel.alternatePartIds.forEach((id, i) => wanted.push({ path: `selections.${role}.alternatePartIds.${i}`, id, category }));
+  }
+  if (!wanted.length) return;
+  const rows: { id: number; category: string }[] = await k('parts').select('id', 'category').whereIn('id', wanted.map((w) => w.id));
+  const found = new Map(rows.map((r) => [r.id, r.category]));
+  const issues = wanted
+    .filter((w) => found.get(w.id) !== w.category)
+    .map((w) => ({ path: w.path, message: found.has(w.id) ? `part ${w.id} is not a ${w.category}` : `part ${w.id} does not exist` }));
+  if (issues.length) throw new ServiceError(400, 'The design refers to parts that are missing or of the wrong kind.', issues);
+}
+
+export async function createDesign(user: SessionUser, input: DesignInput): Promise<Design> {
+  const id = await db().transaction(async (trx) => {
+    await assertReferencesExist(trx, input);
+    const [designId] = await trx('designs').insert({ owner_id: user.id, name: input.name, current_revision: 1 });
+    await insertRevision(trx, designId, 1, input, user.id);
+    await replaceDesignParts(trx, designId, input);
+    await insertAuditEvent(trx, { actorUserId: user.id, action: 'design.create', entityType: 'design', entityId: designId, before: null, after: { name: input.name, revision: 1 } });
+    return designId as number;
+  });
+  return getDesign(id);
+}
+
+const stale = (current: number) =>
+  new ServiceError(409, 'This design was changed after you loaded it. Reload to see the change, then apply yours again.', [
+    { path: 'version', message: `the design is now at version ${current}` },
+  ]);
+
+/** Saves a changed input as a new revision; an unchanged input leaves the revision as it is. */
+export async function updateDesign(user: SessionUser, id: number, input: DesignInput, expectedVersion: number): Promise<Design> {
+  await db().transaction(async (trx) => {
+    const row = await trx('designs').where({ id }).forUpdate().first();
+    if (!row) throw notFound('The design');
+    if (!canEditDesign(user, row.owner_id)) throw new ServiceError(403, 'Only the owner of a design (or an admin) can change it.');
+    if (row.version !== expectedVersion) throw stale(row.version);
+    const current = await trx('design_revisions').where({ design_id: id, revision: row.current_revision }).first();
+    if (current && current.input_json === JSON.stringify(input)) return;
+    await assertReferencesExist(trx, input);
+    const revision = row.current_revision + 1;
+    await insertRevision(trx, id, revision, input, user.id);
+    await replaceDesignParts(trx, id, input);
+    await trx('designs').where({ id }).update({ name: input.name, current_revision: revision, version: row.version + 1, updated_at: trx.fn.now(3) });
+    await insertAuditEvent(trx, { actorUserId: user.id, action: 'design.revise', entityType: 'design', entityId: id, before: { revision: row.current_revision }, after: { revision } });
+  });
+  return getDesign(id);
+}
+
+export async function setDesignStatus(user: SessionUser, id: number, status: DesignStatus, expectedVersion: number): Promise<Design> {
+  await db().transaction(async (trx) => {
+    const row = await trx('designs').where({ id }).forUpdate().first();
+    if (!row) throw notFound('The design');
+    if (!canEditDesign(user, row.owner_id)) throw new ServiceError(403, 'Only the owner of a design (or an admin) can mark it ready.');
+    if (row.version !== expectedVersion) throw stale(row.version);
+    if (row.status === status) return;
+    await trx('designs').where({ id }).update({ status, ready_at: status === 'ready' ? trx.fn.now(3) : null, version: row.version + 1, updated_at: trx.fn.now(3) });
+    await insertAuditEvent(trx, { actorUserId: user.id, action: `design.${status}`, entityType: 'design', entityId: id, before: { status: row.status }, after: { status } });
+  });
+  return getDesign(id);
+}
+
+/** The motor a design uses: the catalogue part's datasheet points, or the ones entered by hand. */
+export async function resolveMotor(input: DesignInput): Promise<{ label: string; params: MotorParams; part: Part | null }> {
+  if (input.motor.source === 'manual') return { label: input.motor.label, params: input.motor.params, part: null };
+  const part = (await partsByIds([input.motor.partId])).get(input.motor.partId);
+  if (!part || part.category !== 'motor') {
+    throw new ServiceError(400, 'The design refers to a motor that is not in the catalogue.', [{ path: 'motor.partId', message: `no motor with id ${input.motor.partId}` }]);
+  }
+  return { label: `${part.mpn} (${part.manufacturer})`, params: part.params, part };
+}
+
+export async function matchInput(input: DesignInput, includePending: boolean): Promise<DesignMatch> {
+  const motor = await resolveMotor(input);
+  const catalogue = await loadCandidates(db(), input, motor.params, includePending);
+  return matchDesign(input, motor.label, motor.params, catalogue);
+}
+
+export async function designExists(id: number): Promise<boolean> {
+  return (await findDesignRow(db(), id)) !== undefined;
+}
