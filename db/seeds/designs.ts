@@ -18,7 +18,7 @@ const noSelections = (): DesignInput['selections'] => ({
   diode: { chosenPartId: null, alternatePartIds: [] },
 });
 
-type DemoDesign = Omit<DesignInput, 'motor' | 'selections'> & { motorMpn: string };
+type DemoDesign = Omit<DesignInput, 'motor' | 'selections'> & { motorMpn: string; ready?: boolean };
 
 export const demoDesigns: DemoDesign[] = [
   {
@@ -50,6 +50,7 @@ export const demoDesigns: DemoDesign[] = [
     margins: { ...DEFAULT_DESIGN_MARGINS },
     driverSupplyV: null,
     boardQuantity: 500,
+    ready: true,
   },
   {
     name: 'AG-3 agitator, 24 V, 1.8 V logic through a gate driver',
@@ -79,13 +80,16 @@ export async function seedDesigns(knex: Knex, ownerId: number): Promise<number> 
   let added = 0;
   for (const demo of demoDesigns) {
     if (await knex('designs').where({ owner_id: ownerId, name: demo.name }).first()) continue;
-    const { motorMpn, ...rest } = demo;
+    const { motorMpn, ready, ...rest } = demo;
     const motor = await motorPart(knex, motorMpn);
     const draft: DesignInput = { ...rest, motor: { source: 'catalogue', partId: motor.id as number }, selections: noSelections() };
     const match = matchDesign(draft, motor.mpn, motor.params, await loadCandidates(knex, draft, motor.params, false));
     const input: DesignInput = { ...draft, selections: suggestSelections(match) };
     await knex.transaction(async (trx) => {
-      const [id] = await trx('designs').insert({ owner_id: ownerId, name: input.name, current_revision: 1 });
+      const [id] = await trx('designs').insert({
+        owner_id: ownerId, name: input.name, current_revision: 1,
+        status: ready ? 'ready' : 'draft', ready_at: ready ? trx.fn.now(3) : null,
+      });
       await insertRevision(trx, id, 1, input, ownerId);
       await replaceDesignParts(trx, id, input);
     });

@@ -102,3 +102,9 @@ export const LOGIC_PRESETS: readonly { id: string; label: string; railV: number;
 
 /** Defaults from the engineering notes: voltage derating 0.8, thermal margin 25 K (common practice). */
 export const DEFAULT_DESIGN_MARGINS = { voltageDerating: 0.8, thermalMarginC: 25 } as const;
+
+/** A catalogue motor as offered in the workspace's motor picker. */
+export interface MotorOption {
+  id: number;
+  label: string;
+}

@@ -1,0 +1,115 @@
+import { Fragment, useState } from 'react';
+import type { MatchEntry } from '../../lib/design-match.ts';
+import type { CandidateResult } from '../../lib/ranking.ts';
+import type { RoleSelection } from '../../lib/domain/design.ts';
+import Verdict, { CheckMark } from './Verdict.tsx';
+
+export interface ExtraColumn<T> {
+  header: string;
+  cell: (entry: T) => string;
+}
+
+interface Props<T extends MatchEntry> {
+  role: 'switch' | 'driver' | 'diode';
+  caption: string;
+  entries: T[];
+  extra: ExtraColumn<T>[];
+  selection: RoleSelection;
+  onSelect: (selection: RoleSelection) => void;
+  readOnly: boolean;
+}
+
+const fmt = (v: number | null, unit: string): string => (v == null ? '—' : `${Number(v.toPrecision(3))} ${unit}`.trim());
+const margin = (m: number | null): string => (m == null ? '' : `${(m * 100).toFixed(0)} %`);
+const LIFE: Record<string, string> = { active: 'Active', nrnd: 'NRND', 'last-buy': 'Last buy', obsolete: 'Obsolete' };
+
+function Reasons({ checks }: { checks: CandidateResult['checks'] }) {
+  return (
+    <table className="w-full text-xs my-1">
+      <thead><tr className="text-ink-soft"><th className="text-left font-semibold w-6"></th><th className="text-left font-semibold">Check</th><th className="text-right font-semibold">Value</th><th className="text-right font-semibold">Limit</th><th className="text-right font-semibold">Margin</th><th className="text-left font-semibold pl-3">Why</th></tr></thead>
+      <tbody>
+        {checks.map((c) => (
+          <tr key={c.id} data-check={c.id}>
+            <td><CheckMark ok={c.ok} severity={c.severity} /></td>
+            <td className="whitespace-nowrap pr-2">{c.id}</td>
+            <td className="text-right num whitespace-nowrap">{fmt(c.value, c.unit)}</td>
+            <td className="text-right num whitespace-nowrap">{fmt(c.limit, c.unit)}</td>
+            <td className="text-right num">{margin(c.margin)}</td>
+            <td className="pl-3">{c.note}</td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}
+
+/** Ranked candidates for one line of the design, with expandable reasons and pick controls. */
+export default function CandidateTable<T extends MatchEntry>({ role, caption, entries, extra, selection, onSelect, readOnly }: Props<T>) {
+  const [open, setOpen] = useState<Set<string>>(new Set());
+  const [showAll, setShowAll] = useState(false);
+  const rows = showAll ? entries : entries.slice(0, 10);
+  const toggle = (key: string) => setOpen((s) => { const n = new Set(s); if (n.has(key)) n.delete(key); else n.add(key); return n; });
+  const choose = (id: number) => onSelect({ chosenPartId: id, alternatePartIds: selection.alternatePartIds.filter((a) => a !== id) });
+  const toggleAlt = (id: number) => {
+    const has = selection.alternatePartIds.includes(id);
+    const next = has ? selection.alternatePartIds.filter((a) => a !== id) : [...selection.alternatePartIds, id].slice(0, 3);
+    onSelect({ chosenPartId: selection.chosenPartId === id ? null : selection.chosenPartId, alternatePartIds: next });
+  };
+  if (entries.length === 0) return <p className="text-sm text-ink-soft p-3">No candidates in the catalogue for this line.</p>;
+  return (
+    <div className="overflow-x-auto">
+      <table className="data-table w-full text-sm" data-testid={`candidates-${role}`}>
+        <caption className="sr-only">{caption}</caption>
+        <thead>
+          <tr>
+            <th>Verdict</th><th>Part number</th><th>Maker</th><th>Package</th>
+            {extra.map((c) => <th key={c.header} className="num">{c.header}</th>)}
+            <th className="num">Score</th><th className="num">Price</th><th>Lifecycle</th>
+            {!readOnly && <th>Use</th>}{!readOnly && <th>Alt.</th>}<th></th>
+          </tr>
+        </thead>
+        <tbody>
+          {rows.map((e) => {
+            const key = `${e.partId}-${e.mpn}`;
+            const id = e.partId ?? -1;
+            const isOpen = open.has(key);
+            return (
+              <Fragment key={key}>
+                <tr data-mpn={e.mpn} data-verdict={e.verdict}>
+                  <td><Verdict verdict={e.verdict} /></td>
+                  <td className="font-semibold whitespace-nowrap">{e.mpn}{e.reviewStatus === 'pending' ? <span className="tag ml-1">pending review</span> : null}</td>
+                  <td className="whitespace-nowrap">{e.manufacturer}</td>
+                  <td className="whitespace-nowrap">{e.package}</td>
+                  {extra.map((c) => <td key={c.header} className="num whitespace-nowrap">{c.cell(e)}</td>)}
+                  <td className="num">{e.score.toFixed(0)}</td>
+                  <td className="num whitespace-nowrap">{e.priceAtQty ? `${e.priceAtQty.unitPrice.toFixed(3)} ${e.priceAtQty.currency}` : '—'}</td>
+                  <td>{LIFE[e.lifecycle]}</td>
+                  {!readOnly && (
+                    <td><input type="radio" name={`use-${role}`} aria-label={`Use ${e.mpn}`} checked={selection.chosenPartId === id} onChange={() => choose(id)} /></td>
+                  )}
+                  {!readOnly && (
+                    <td><input type="checkbox" aria-label={`Alternate ${e.mpn}`} checked={selection.alternatePartIds.includes(id)}
+                      disabled={!selection.alternatePartIds.includes(id) && selection.alternatePartIds.length >= 3} onChange={() => toggleAlt(id)} /></td>
+                  )}
+                  <td>
+                    <button type="button" className="btn-quiet text-xs px-1.5 rounded" aria-expanded={isOpen} onClick={() => toggle(key)}>
+                      {isOpen ? 'Hide reasons' : 'Reasons'}
+                    </button>
+                  </td>
+                </tr>
+                {isOpen && (
+                  <tr className="bg-paper"><td colSpan={99}><Reasons checks={e.checks} /></td></tr>
+                )}
+              </Fragment>
+            );
+          })}
+        </tbody>
+      </table>
+      {entries.length > 10 && (
+        <button type="button" className="btn-quiet text-sm px-2 py-1 rounded mt-1" onClick={() => setShowAll((v) => !v)}>
+          {showAll ? 'Show the top 10' : `Show all ${entries.length}`}
+        </button>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,80 @@
+import type { ComponentType, ReactNode } from 'react';
+import type { DesignInput, PartRole, RoleSelection } from '../../lib/domain/design.ts';
+import { effectiveSwitchList, type DesignMatch } from '../../lib/design-match.ts';
+import CandidateTable, { type ExtraColumn } from './CandidateTable.tsx';
+
+type StepComponent = ComponentType<{ n: number; title: string; children: ReactNode; testId?: string }>;
+
+interface Props {
+  match: DesignMatch;
+  input: DesignInput;
+  onSelect: (role: PartRole) => (sel: RoleSelection) => void;
+  readOnly: boolean;
+  Step: StepComponent;
+}
+
+type SwitchEntry = DesignMatch['switch'][number];
+type DriverEntry = DesignMatch['driver'][number];
+type DiodeEntry = DesignMatch['diode'][number];
+
+const n = (v: number | null | undefined, unit: string, scale = 1, d = 3) => (v == null ? '—' : `${Number((v * scale).toPrecision(d))} ${unit}`);
+const checkValue = (e: { checks: { id: string; value: number | null; unit: string }[] }, id: string, scale = 1) => {
+  const c = e.checks.find((x) => x.id === id);
+  return c ? n(c.value, c.unit === 'A' && scale !== 1 ? 'mA' : c.unit, scale) : '—';
+};
+
+const SWITCH_COLS: ExtraColumn<SwitchEntry>[] = [
+  { header: 'RDS(on) @ drive', cell: (e) => n(e.evaluation.rdsOnAtDriveOhms, 'mΩ', 1000) },
+  { header: 'Tj', cell: (e) => n(e.evaluation.junctionC, '°C') },
+  { header: 'Loss', cell: (e) => (e.evaluation.conductionLossW == null ? '—' : n(e.evaluation.conductionLossW + (e.evaluation.switchingLossW ?? 0), 'mW', 1000)) },
+];
+const DRIVER_COLS: ExtraColumn<DriverEntry>[] = [
+  { header: 'Output high', cell: (e) => checkValue(e, 'output-high') },
+  { header: 'Polarity', cell: (e) => (e.pairing.inverting ? 'inverting' : 'non-inverting') },
+  { header: 'Paired switch', cell: (e) => `${e.pairing.switchMpn} (${e.pairing.switchVerdict})` },
+];
+const DIODE_COLS: ExtraColumn<DiodeEntry>[] = [
+  { header: 'Mean I', cell: (e) => checkValue(e, 'mean-current') },
+  { header: 'trr', cell: (e) => checkValue(e, 'reverse-recovery') },
+  { header: 'VRRM need', cell: (e) => checkValue(e, 'reverse-voltage') },
+];
+
+function Excluded({ count, what }: { count: number; what: string }) {
+  if (!count) return null;
+  return <p className="text-xs text-ink-faint mt-1">{count} {what} left out before ranking: a rating can never pass (or the part is obsolete).</p>;
+}
+
+/** Steps 3–5: switch, gate drive, freewheel diode. */
+export default function CandidatesSection({ match, input, onSelect, readOnly, Step }: Props) {
+  const switches = effectiveSwitchList(match);
+  return (
+    <>
+      <Step n={3} title={match.driverNeeded ? 'Switch (driven through a gate driver)' : 'Switch (driven straight from the logic pin)'} testId="step-switch">
+        <div className="card p-2">
+          <CandidateTable role="switch" caption="Switch candidates" entries={switches} extra={SWITCH_COLS} selection={input.selections.switch} onSelect={onSelect('switch')} readOnly={readOnly} />
+          <Excluded count={match.excluded.switch} what="MOSFETs" />
+        </div>
+      </Step>
+      <Step n={4} title="Gate drive" testId="step-gate-drive">
+        {match.driverNeeded ? (
+          <div className="card p-2">
+            <p className="p-2 mb-2 rounded border border-warn bg-warn-wash text-warn text-sm" role="note" data-testid="driver-needed">
+              <strong>! A gate driver is needed.</strong> {match.driverNeededNote}
+            </p>
+            <CandidateTable role="driver" caption="Gate driver candidates" entries={match.driver} extra={DRIVER_COLS} selection={input.selections.driver} onSelect={onSelect('driver')} readOnly={readOnly} />
+            <Excluded count={match.excluded.driver} what="drivers" />
+          </div>
+        ) : (
+          <p className="card p-3 text-sm" data-testid="direct-drive">✓ Direct drive: the logic high of {match.worstCase.gateDriveMinV} V enhances the passing switches; no driver needed. Keep the gate trace short and add a gate resistor footprint.</p>
+        )}
+      </Step>
+      <Step n={5} title="Freewheel diode" testId="step-diode">
+        <div className="card p-2">
+          <p className="text-xs text-ink-soft px-1 pb-1">⚠ Inductive spike: fit the diode across the motor, cathode to the positive supply. The MOSFET's body diode does not do this job.</p>
+          <CandidateTable role="diode" caption="Diode candidates" entries={match.diode} extra={DIODE_COLS} selection={input.selections.diode} onSelect={onSelect('diode')} readOnly={readOnly} />
+          <Excluded count={match.excluded.diode} what="diodes" />
+        </div>
+      </Step>
+    </>
+  );
+}

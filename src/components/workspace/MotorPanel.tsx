@@ -1,0 +1,42 @@
+import LineChart, { type ChartMarker } from '../calc/LineChart.tsx';
+import type { MotorView } from '../../lib/design-match.ts';
+import type { WorstCase } from '../../lib/design-case.ts';
+
+const f = (v: number, d = 3) => Number(v.toPrecision(d)).toString();
+
+/** Motor curves at minimum and maximum supply with the operating point and stall marked, and worst-case currents. */
+export default function MotorPanel({ motor, worstCase }: { motor: MotorView; worstCase: WorstCase }) {
+  const mNm = (nm: number) => nm * 1000;
+  const line = (r: MotorView['atMin'], pick: (p: MotorView['atMin']['curve'][number]) => number) => r.curve.map((p) => ({ x: mNm(p.torqueNm), y: pick(p) }));
+  const series = (pick: (p: MotorView['atMin']['curve'][number]) => number) => [
+    { label: `max supply ${f(motor.atMax.atSupply.supplyV)} V`, points: line(motor.atMax, pick), tone: 'copper' as const },
+    { label: `min supply ${f(motor.atMin.atSupply.supplyV)} V`, points: line(motor.atMin, pick), tone: 'graphite' as const, dashed: true },
+  ];
+  const op = (o: MotorView['operatingMax'], v: number, tone: ChartMarker['tone'], y: 'speed' | 'current'): ChartMarker[] =>
+    o ? [{ x: mNm(o.torqueNm), y: y === 'speed' ? o.speedRpm : o.currentA, shape: 'circle', tone, label: `operating point @ ${f(v)} V` }] : [];
+  const stall = (r: MotorView['atMin'], tone: ChartMarker['tone']): ChartMarker => ({
+    x: mNm(r.atSupply.stallTorqueNm), y: r.atSupply.stallCurrentA, shape: 'square', tone, label: `stall ${f(r.atSupply.stallCurrentA)} A @ ${f(r.atSupply.supplyV)} V`,
+  });
+  return (
+    <div className="grid gap-3 lg:grid-cols-[1fr_1fr_0.9fr]" data-testid="motor-panel">
+      <LineChart title="Speed" testId="ws-chart-speed" xLabel="torque (mN·m)" yLabel="speed (rpm)" series={series((p) => p.speedRpm)}
+        markers={[...op(motor.operatingMax, motor.atMax.atSupply.supplyV, 'copper', 'speed'), ...op(motor.operatingMin, motor.atMin.atSupply.supplyV, 'graphite', 'speed')]} />
+      <LineChart title="Current" testId="ws-chart-current" xLabel="torque (mN·m)" yLabel="current (A)" series={series((p) => p.currentA)}
+        markers={[...op(motor.operatingMax, motor.atMax.atSupply.supplyV, 'copper', 'current'), stall(motor.atMax, 'copper'), stall(motor.atMin, 'graphite')]} />
+      <div className="card p-3 text-sm" data-testid="worst-case">
+        <h3 className="font-semibold mb-1">Worst-case currents</h3>
+        <dl className="grid grid-cols-[1fr_auto] gap-x-3 gap-y-0.5 num">
+          <dt className="text-ink-soft">Start-up / stall (max supply, {f(worstCase.windingColdC)} °C winding)</dt><dd className="font-semibold">{f(worstCase.stallCurrentMaxA)} A</dd>
+          <dt className="text-ink-soft">Running, switch on (duty {f(worstCase.switchDuty * 100)} %)</dt><dd>{f(worstCase.runningCurrentA)} A</dd>
+          <dt className="text-ink-soft">Diode mean (freewheeling)</dt><dd>{f(worstCase.diodeMeanCurrentA)} A</dd>
+          <dt className="text-ink-soft">Gate drive available (logic high min)</dt><dd>{f(worstCase.gateDriveMinV)} V</dd>
+          <dt className="text-ink-soft">Hottest ambient</dt><dd>{f(worstCase.ambientMaxC)} °C</dd>
+        </dl>
+        {motor.atMax.consistency.warning ? (
+          <p className="mt-2 p-2 rounded border border-warn bg-warn-wash text-warn text-xs" role="note"><strong>⚠ Datasheet check:</strong> {motor.atMax.consistency.warning}</p>
+        ) : null}
+        <p className="mt-2 p-2 rounded border border-copper bg-copper-wash text-xs"><strong>⚠ Stall heat.</strong> At {f(worstCase.stallCurrentMaxA)} A the switch, diode and motor heat within seconds; fuse near the supply and size wiring for this current.</p>
+      </div>
+    </div>
+  );
+}

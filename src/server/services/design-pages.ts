@@ -1,0 +1,39 @@
+/** Data the design pages need besides the design itself. */
+import { db } from '../db.ts';
+import { listParts } from '../repos/parts.ts';
+import type { DesignInput, MotorOption } from '../../lib/domain/design.ts';
+import { DEFAULT_DESIGN_MARGINS, LOGIC_PRESETS, SUPPLY_PRESETS } from '../../lib/domain/design.ts';
+
+export async function motorOptions(): Promise<MotorOption[]> {
+  const motors = await listParts(db(), { category: 'motor', reviewStatuses: ['approved', 'pending'] });
+  return motors
+    .filter((m) => m.category === 'motor')
+    .map((m) => ({
+      id: m.id as number,
+      label: `${m.mpn} · ${m.manufacturer} · ${m.category === 'motor' ? `${m.params.ratedVoltageV} V, ${m.params.stallCurrentA} A stall` : ''}${m.reviewStatus === 'pending' ? ' (pending review)' : ''}`,
+    }));
+}
+
+/** A new design's starting point: 3.3 V logic on a 1S Li-ion pack, on/off, the first catalogue motor. */
+export function newDesignInput(firstMotorId: number | null): DesignInput {
+  const supply = SUPPLY_PRESETS.find((p) => p.id === '1s-liion')!;
+  const logic = LOGIC_PRESETS.find((p) => p.id === '3v3')!;
+  return {
+    name: 'New drive design',
+    motor: firstMotorId != null
+      ? { source: 'catalogue', partId: firstMotorId }
+      : { source: 'manual', label: 'Motor entered by hand', params: { ratedVoltageV: 3.7, voltageMinV: null, voltageMaxV: null, noLoadSpeedRpm: 14000, noLoadCurrentA: 0.22, stallTorqueNm: 0.0047, stallCurrentA: 2.4, terminalResistanceOhm: null, inductanceH: null, rotorInertiaKgM2: null } },
+    supply: { minV: supply.minV, nomV: supply.nomV, maxV: supply.maxV, preset: supply.id },
+    wiringResistanceOhm: 0.05,
+    shuntResistanceOhm: 0,
+    logic: { railV: logic.railV, highV: logic.highV, lowV: logic.lowV, pinSourceCurrentA: 0.004, pinSinkCurrentA: 0.004, resetPull: 'none', resetPullOhms: 0, resetPullTolerance: 0 },
+    drive: { mode: 'onoff' },
+    ambientMinC: 0,
+    ambientMaxC: 40,
+    load: { kind: 'stall-only' },
+    margins: { ...DEFAULT_DESIGN_MARGINS },
+    driverSupplyV: null,
+    boardQuantity: 100,
+    selections: { switch: { chosenPartId: null, alternatePartIds: [] }, driver: { chosenPartId: null, alternatePartIds: [] }, diode: { chosenPartId: null, alternatePartIds: [] } },
+  };
+}

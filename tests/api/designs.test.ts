@@ -1,0 +1,183 @@
+/**
+ * Designs over the API: CRUD with kept revisions, optimistic locking, role rules, and matching that equals
+ * the engineering core run directly on the same catalogue candidates.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import request from 'supertest';
+import Papa from 'papaparse';
+import { appDb, appUrl } from '../helpers/stack.ts';
+import { sessionCookie } from '../helpers/session.ts';
+import { hydrateParts } from '../../src/server/repos/parts.ts';
+import { rankDesign } from '../../src/lib/rank-design.ts';
+import { designCaseOf } from '../../src/lib/design-input.ts';
+import { VERDICT_RANK } from '../../src/lib/checks.ts';
+import type { DesignInput } from '../../src/lib/domain/design.ts';
+import type { Part, PartOf } from '../../src/lib/domain/parts.ts';
+import type { DesignMatch } from '../../src/lib/design-match.ts';
+import { demoDesigns } from '../../db/seeds/designs.ts';
+
+const knex = appDb();
+const api = () => request(appUrl());
+let designer = '';
+let buyer = '';
+let librarian = '';
+
+beforeAll(async () => {
+  [designer, buyer, librarian] = await Promise.all([sessionCookie('designer'), sessionCookie('buyer'), sessionCookie('librarian')]);
+});
+afterAll(() => knex.destroy());
+
+async function seededDesignId(name: string): Promise<number> {
+  const row = await knex('designs').where({ name }).first('id');
+  expect(row, `seeded design "${name}"`).toBeTruthy();
+  return row.id;
+}
+
+async function partsById(ids: number[]): Promise<Map<number, Part>> {
+  const parts = await hydrateParts(knex, await knex('parts').whereIn('id', ids));
+  return new Map(parts.map((p) => [p.id as number, p]));
+}
+
+function expectRankingInvariants(list: { verdict: 'pass' | 'marginal' | 'fail'; checks: { ok: boolean }[] }[]): void {
+  for (const e of list) if (e.verdict === 'pass') expect(e.checks.every((c) => c.ok)).toBe(true);
+  for (let i = 1; i < list.length; i++) expect(VERDICT_RANK[list[i - 1].verdict]).toBeLessThanOrEqual(VERDICT_RANK[list[i].verdict]);
+}
+
+describe('matching a seeded design', () => {
+  const [pump, , agitator] = demoDesigns;
+
+  it('equals the engineering core run directly on the same candidates', async () => {
+    const id = await seededDesignId(pump.name);
+    const design = (await api().get(`/api/designs/${id}`).set('Cookie', designer)).body as { input: DesignInput };
+    const res = await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({});
+    expect(res.status).toBe(200);
+    const match = res.body as DesignMatch;
+    const ids = [...match.switch, ...match.driver, ...match.diode].map((e) => e.partId as number);
+    const parts = await partsById(ids);
+    if (design.input.motor.source !== 'catalogue') throw new Error('seeded design uses a catalogue motor');
+    const motor = (await partsById([design.input.motor.partId])).get(design.input.motor.partId) as PartOf<'motor'>;
+    const direct = rankDesign(designCaseOf(design.input, motor.params), {
+      mosfets: match.switch.map((e) => parts.get(e.partId as number) as PartOf<'mosfet'>),
+      drivers: [...parts.values()].filter((p): p is PartOf<'driver'> => p.category === 'driver'),
+      diodes: match.diode.map((e) => parts.get(e.partId as number) as PartOf<'diode'>),
+    });
+    const strip = (l: { partId: number | null; verdict: string; score: number; checks: unknown[] }[]) => l.map((e) => ({ partId: e.partId, verdict: e.verdict, score: e.score, checks: e.checks }));
+    expect(strip(match.switch)).toEqual(strip(direct.switch));
+    expect(strip(match.diode)).toEqual(strip(direct.diode));
+    expect(match.driverNeeded).toBe(direct.driverNeeded);
+    expectRankingInvariants(match.switch);
+    expectRankingInvariants(match.diode);
+  });
+
+  it('leaves out in SQL only MOSFETs that the core would fail anyway', async () => {
+    const id = await seededDesignId(pump.name);
+    const design = (await api().get(`/api/designs/${id}`).set('Cookie', designer)).body as { input: DesignInput };
+    const match = (await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({})).body as DesignMatch;
+    const ranked = new Set(match.switch.map((e) => e.partId));
+    const eligibleRows = await knex('parts').where({ category: 'mosfet', review_status: 'approved' }).whereNot('lifecycle', 'obsolete');
+    const left = (await hydrateParts(knex, eligibleRows)).filter((p) => !ranked.has(p.id as number)) as PartOf<'mosfet'>[];
+    expect(left.length).toBe(match.excluded.switch);
+    if (design.input.motor.source !== 'catalogue') throw new Error('catalogue motor expected');
+    const motor = (await partsById([design.input.motor.partId])).get(design.input.motor.partId) as PartOf<'motor'>;
+    const core = rankDesign(designCaseOf(design.input, motor.params), { mosfets: left, drivers: [], diodes: [] });
+    expect(core.switch.every((e) => e.verdict === 'fail')).toBe(true);
+  });
+
+  it('rejects general-purpose rectifiers under PWM with the reverse-recovery reason', async () => {
+    const id = await seededDesignId(pump.name);
+    const match = (await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({})).body as DesignMatch;
+    const parts = await partsById(match.diode.map((e) => e.partId as number));
+    const general = match.diode.filter((e) => parts.get(e.partId as number)?.category === 'diode' && (parts.get(e.partId as number) as PartOf<'diode'>).params.kind === 'general');
+    expect(general.length).toBeGreaterThan(0);
+    for (const g of general) {
+      expect(g.verdict).toBe('fail');
+      const rr = g.checks.find((c) => c.id === 'reverse-recovery');
+      expect(rr?.ok).toBe(false);
+      expect(rr?.note).toMatch(/recover/i);
+    }
+  });
+
+  it('says a driver is needed for the 1.8 V agitator and ranks drivers with the paired switch', async () => {
+    const id = await seededDesignId(agitator.name);
+    const match = (await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({})).body as DesignMatch;
+    expect(match.switch.some((e) => e.verdict === 'pass')).toBe(false);
+    expect(match.driverNeeded).toBe(true);
+    expect(match.driverNeededNote).toMatch(/driver/i);
+    expect(match.driver.length).toBeGreaterThan(0);
+    expect(match.driver[0].pairing.switchMpn).toBe(match.switchWithDriver[0].mpn);
+    expect(match.driver.some((d) => d.verdict === 'pass')).toBe(true);
+    expectRankingInvariants(match.driver);
+  });
+});
+
+describe('designs CRUD', () => {
+  async function newInput(): Promise<DesignInput> {
+    const id = await seededDesignId(demoDesigns[1].name);
+    const base = (await api().get(`/api/designs/${id}`).set('Cookie', designer)).body.input as DesignInput;
+    return { ...base, name: `Test fan ${Date.now()}` };
+  }
+
+  it('creates, keeps the earlier revision on change, and refuses a stale version with 409', async () => {
+    const input = await newInput();
+    const created = await api().post('/api/designs').set('Cookie', designer).send(input);
+    expect(created.status).toBe(201);
+    expect(created.body.revision).toBe(1);
+    const id = created.body.id;
+    const same = await api().put(`/api/designs/${id}`).set('Cookie', designer).send({ version: created.body.version, input });
+    expect(same.body.revision).toBe(1); // nothing changed: no new revision
+    const changed = await api().put(`/api/designs/${id}`).set('Cookie', designer).send({ version: created.body.version, input: { ...input, ambientMaxC: 50 } });
+    expect(changed.status).toBe(200);
+    expect(changed.body.revision).toBe(2);
+    const first = await api().get(`/api/designs/${id}?revision=1`).set('Cookie', designer);
+    expect(first.body.input.ambientMaxC).toBe(input.ambientMaxC);
+    const stale = await api().put(`/api/designs/${id}`).set('Cookie', designer).send({ version: created.body.version, input: { ...input, ambientMaxC: 55 } });
+    expect(stale.status).toBe(409);
+    expect(stale.body.issues[0].path).toBe('version');
+  });
+
+  it('names the wrong field on bad input and writes nothing', async () => {
+    const input = await newInput();
+    const before = Number((await knex('designs').count({ n: '*' }))[0].n);
+    const res = await api().post('/api/designs').set('Cookie', designer).send({ ...input, supply: { ...input.supply, minV: 20 } });
+    expect(res.status).toBe(400);
+    expect(res.body.issues.map((i: { path: string }) => i.path)).toContain('supply.nomV');
+    const missing = await api().post('/api/designs').set('Cookie', designer).send({ ...input, selections: { ...input.selections, diode: { chosenPartId: 99999999, alternatePartIds: [] } } });
+    expect(missing.status).toBe(400);
+    expect(missing.body.issues[0].path).toBe('selections.diode.chosenPartId');
+    expect(Number((await knex('designs').count({ n: '*' }))[0].n)).toBe(before);
+  });
+
+  it('lets buyers and librarians read designs but not create or change them', async () => {
+    const input = await newInput();
+    expect((await api().post('/api/designs').set('Cookie', buyer).send(input)).status).toBe(403);
+    expect((await api().post('/api/designs').set('Cookie', librarian).send(input)).status).toBe(403);
+    const list = await api().get('/api/designs?q=fan').set('Cookie', buyer);
+    expect(list.status).toBe(200);
+    expect(list.body.items.length).toBeGreaterThan(0);
+    expect(list.body.items.every((d: { name: string }) => /fan/i.test(d.name))).toBe(true);
+  });
+});
+
+describe('bill of materials', () => {
+  it('round-trips through papaparse with the chosen parts and alternates', async () => {
+    const id = await seededDesignId(demoDesigns[1].name);
+    const design = (await api().get(`/api/designs/${id}`).set('Cookie', buyer)).body as { input: DesignInput };
+    const res = await api().get(`/api/designs/${id}/bom.csv`).set('Cookie', buyer).buffer(true).parse((r, cb) => {
+      let text = '';
+      r.setEncoding('utf8');
+      r.on('data', (c: string) => (text += c));
+      r.on('end', () => cb(null, text));
+    });
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toMatch(/text\/csv/);
+    expect(res.headers['content-disposition']).toMatch(/attachment; filename=".+-rev\d+\.csv"/);
+    const parsed = Papa.parse<Record<string, string>>(res.body as string, { header: true, skipEmptyLines: true });
+    expect(parsed.errors).toEqual([]);
+    expect(parsed.meta.fields).toEqual(['Line', 'Role', 'Quantity', 'Manufacturer', 'Part number', 'Description', 'Alternates', 'Reference designators']);
+    const sw = await knex('parts').where({ id: design.input.selections.switch.chosenPartId }).first();
+    const q1 = parsed.data.find((r) => r['Reference designators'] === 'Q1');
+    expect(q1?.['Part number']).toBe(sw.mpn);
+    expect(q1?.Alternates.split('; ').filter(Boolean)).toHaveLength(design.input.selections.switch.alternatePartIds.length);
+    expect(Papa.unparse(parsed.data)).toContain(sw.mpn);
+  });
+});
