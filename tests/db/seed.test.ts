@@ -1,12 +1,13 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import { scratchDb } from '../helpers/stack.ts';
 import { seed, demoParts } from '../../db/seeds/demo.ts';
+import { demoDesigns } from '../../db/seeds/designs.ts';
 
 const db = scratchDb();
 afterAll(() => db.destroy());
 
 const TABLES = ['users', 'user_roles', 'parts', 'mosfet_params', 'mosfet_rds_on_points', 'driver_params',
-  'diode_params', 'motor_params', 'part_sources', 'part_price_breaks'];
+  'diode_params', 'motor_params', 'part_sources', 'part_price_breaks', 'designs', 'design_revisions', 'design_parts'];
 
 async function counts(): Promise<Record<string, number>> {
   const out: Record<string, number> = {};
@@ -21,9 +22,10 @@ describe('demo seed', () => {
     await seed(db);
     const once = await counts();
     const report = await seed(db);
-    expect(report.partsAdded).toBe(0);
+    expect(report).toEqual({ partsAdded: 0, designsAdded: 0 });
     expect(await counts()).toEqual(once);
     expect(once.parts).toBe(demoParts().length);
+    expect(once.designs).toBe(demoDesigns.length);
   });
 
   it('meets the catalogue minimums of the demo scenario', async () => {
