@@ -9,20 +9,19 @@
  *   import { makeDatasheetPdf } from '../scripts/make-sample-datasheets';
  *   const bytes = await makeDatasheetPdf(part);
  *
- * Text uses Source Sans 3 (the .woff files shipped by @fontsource/source-sans-3, Latin plus Greek subsets
+ * Text uses Source Sans 3 through the shared loader in src/server/reports/fonts.ts (Latin plus Greek subsets
  * for Ω and θ). If those files cannot be found it falls back to the standard Helvetica font and spells
  * Greek letters out.
  */
-import fontkit from '@pdf-lib/fontkit';
-import { PDFDocument, type PDFFont, type PDFPage, rgb, StandardFonts } from 'pdf-lib';
-import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
-import { createRequire } from 'node:module';
-import { dirname, join } from 'node:path';
+import { PDFDocument, type PDFPage, rgb } from 'pdf-lib';
+import { mkdirSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 
 import type { DiodeParams, DriverParams, MosfetParams, MotorParams, Part, PartSource } from '../src/lib/domain/parts';
 import { demoDiodes, demoDrivers, demoMosfets } from '../db/seeds/data/index';
 import type { AnyDemoPart } from '../db/seeds/data/types';
+import { drawTextRuns, type FontPair, loadSourceSans, measureText } from '../src/server/reports/fonts';
 
 /** A part as stored (with id/version) or as seeded (without). */
 export type DatasheetPart = AnyDemoPart | Part;
@@ -36,117 +35,6 @@ export const SAMPLE_DATASHEET_MPNS = ['MQN20T06-S3', 'ORS20-40-MA', 'PLR1NL20-S6
 // Fonts and text
 // ---------------------------------------------------------------------------------------------
 
-interface FontFace {
-  /** Primary (Latin) font. */
-  main: PDFFont;
-  /** Font for characters the primary font lacks (Greek), when available. */
-  extra: PDFFont | null;
-  mainChars: Set<number>;
-  extraChars: Set<number>;
-  /** True when only a standard (WinAnsi) font is available. */
-  standard: boolean;
-}
-
-interface Fonts {
-  regular: FontFace;
-  bold: FontFace;
-}
-
-const FONT_FILES = {
-  regular: ['source-sans-3-latin-400-normal.woff', 'source-sans-3-greek-400-normal.woff'],
-  bold: ['source-sans-3-latin-700-normal.woff', 'source-sans-3-greek-700-normal.woff'],
-} as const;
-
-function readFontFile(name: string): Uint8Array | null {
-  const candidates: string[] = [];
-  try {
-    const require = createRequire(import.meta.url);
-    candidates.push(require.resolve(`@fontsource/source-sans-3/files/${name}`));
-  } catch {
-    // fall through to path guesses
-  }
-  const here = dirname(fileURLToPath(import.meta.url));
-  candidates.push(join(here, '..', 'node_modules', '@fontsource', 'source-sans-3', 'files', name));
-  candidates.push(join(process.cwd(), 'node_modules', '@fontsource', 'source-sans-3', 'files', name));
-  for (const path of candidates) {
-    try {
-      return readFileSync(path);
-    } catch {
-      // try the next candidate
-    }
-  }
-  return null;
-}
-
-async function loadFonts(pdf: PDFDocument, forceStandard: boolean): Promise<Fonts> {
-  const latinRegular = forceStandard ? null : readFontFile(FONT_FILES.regular[0]);
-  const latinBold = forceStandard ? null : readFontFile(FONT_FILES.bold[0]);
-  if (latinRegular && latinBold) {
-    pdf.registerFontkit(fontkit);
-    const face = async (latin: Uint8Array, greekName: string): Promise<FontFace> => {
-      const main = await pdf.embedFont(latin, { subset: true });
-      const greekBytes = readFontFile(greekName);
-      const extra = greekBytes ? await pdf.embedFont(greekBytes, { subset: true }) : null;
-      return {
-        main,
-        extra,
-        mainChars: new Set(main.getCharacterSet()),
-        extraChars: new Set(extra ? extra.getCharacterSet() : []),
-        standard: false,
-      };
-    };
-    return {
-      regular: await face(latinRegular, FONT_FILES.regular[1]),
-      bold: await face(latinBold, FONT_FILES.bold[1]),
-    };
-  }
-  const standard = async (name: StandardFonts): Promise<FontFace> => {
-    const main = await pdf.embedFont(name);
-    return { main, extra: null, mainChars: new Set(main.getCharacterSet()), extraChars: new Set(), standard: true };
-  };
-  return { regular: await standard(StandardFonts.Helvetica), bold: await standard(StandardFonts.HelveticaBold) };
-}
-
-const SPELLED: Record<string, string> = {
-  'Ω': 'Ohm',
-  'θ': 'th',
-  'µ': 'u',
-  'μ': 'u',
-  '−': '-',
-  '≤': '<=',
-  '≥': '>=',
-  '·': '*',
-};
-
-interface Run {
-  text: string;
-  font: PDFFont;
-}
-
-/** Splits text into runs that each font can draw; characters neither font has are spelled out. */
-function toRuns(face: FontFace, text: string): Run[] {
-  const runs: Run[] = [];
-  const push = (ch: string, font: PDFFont) => {
-    const last = runs[runs.length - 1];
-    if (last && last.font === font) last.text += ch;
-    else runs.push({ text: ch, font });
-  };
-  for (const ch of text) {
-    const cp = ch.codePointAt(0) ?? 0x3f;
-    if (face.mainChars.has(cp)) push(ch, face.main);
-    else if (face.extra && face.extraChars.has(cp)) push(ch, face.extra);
-    else {
-      const alt = SPELLED[ch] ?? '?';
-      for (const a of alt) push(face.mainChars.has(a.codePointAt(0) ?? 0) ? a : '?', face.main);
-    }
-  }
-  return runs;
-}
-
-function textWidth(face: FontFace, text: string, size: number): number {
-  return toRuns(face, text).reduce((w, r) => w + r.font.widthOfTextAtSize(r.text, size), 0);
-}
-
 interface TextOpts {
   size?: number;
   bold?: boolean;
@@ -157,22 +45,19 @@ interface TextOpts {
 class Writer {
   constructor(
     readonly page: PDFPage,
-    readonly fonts: Fonts,
+    readonly fonts: FontPair,
   ) {}
 
   text(text: string, x: number, y: number, opts: TextOpts = {}): void {
     const size = opts.size ?? 9;
     const face = opts.bold ? this.fonts.bold : this.fonts.regular;
-    const width = textWidth(face, text, size);
-    let cx = opts.align === 'right' ? x - width : opts.align === 'center' ? x - width / 2 : x;
-    for (const run of toRuns(face, text)) {
-      this.page.drawText(run.text, { x: cx, y, size, font: run.font, color: opts.color ?? INK });
-      cx += run.font.widthOfTextAtSize(run.text, size);
-    }
+    const width = measureText(face, text, size);
+    const cx = opts.align === 'right' ? x - width : opts.align === 'center' ? x - width / 2 : x;
+    drawTextRuns(this.page, face, text, { x: cx, y, sizePt: size, color: opts.color ?? INK });
   }
 
   width(text: string, size = 9, bold = false): number {
-    return textWidth(bold ? this.fonts.bold : this.fonts.regular, text, size);
+    return measureText(bold ? this.fonts.bold : this.fonts.regular, text, size);
   }
 
   /** Wraps text into lines no wider than maxWidth; returns the y below the last line. */
@@ -673,7 +558,7 @@ export interface DatasheetOptions {
 /** Builds a two-page example datasheet for one invented catalogue part. */
 export async function makeDatasheetPdf(part: DatasheetPart, options: DatasheetOptions = {}): Promise<Uint8Array> {
   const pdf = await PDFDocument.create();
-  const fonts = await loadFonts(pdf, options.standardFonts ?? false);
+  const fonts = await loadSourceSans(pdf, { boldWeight: 700, standard: options.standardFonts ?? false });
   const sheet = sheetFor(part);
   const fixedDate = new Date('2025-01-01T00:00:00Z');
   pdf.setTitle(`${part.mpn} example datasheet (invented part)`);

@@ -1,0 +1,97 @@
+/**
+ * A complete throwaway stack for tests and benchmarks: private MariaDB on a free port under a temp folder,
+ * migrated and seeded, local service fakes, and the built app on a free port. cleanup() stops it all.
+ */
+import path from 'node:path';
+import os from 'node:os';
+import net from 'node:net';
+import { existsSync, mkdtempSync, rmSync, mkdirSync } from 'node:fs';
+import {
+  aptInstall, describeInstance, ensureDatabaseAndUser, ensureMariaDbInstalled, initDataDir, startMariaDb, stopMariaDb,
+  type MariaDbInstance,
+} from './mariadb.ts';
+import { generatedSecret } from './env-file.ts';
+import { migrateAndSeed } from './db-setup.ts';
+import { buildIfChanged } from './build.ts';
+import { startHttpServer, type RunningServer } from './serve.ts';
+import { startServices, type Services } from './services.ts';
+import { log, fail } from './log.ts';
+
+export const CHROMIUM = '/usr/bin/chromium';
+
+export async function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const srv = net.createServer();
+    srv.once('error', reject);
+    srv.listen(0, '127.0.0.1', () => {
+      const addr = srv.address();
+      srv.close(() => resolve(typeof addr === 'object' && addr ? addr.port : 0));
+    });
+  });
+}
+
+export function ensureChromium(): void {
+  if (existsSync(CHROMIUM)) return;
+  const isRoot = typeof process.getuid === 'function' && process.getuid() === 0;
+  if (!isRoot) fail('Chromium is needed for the browser tests: install the Debian package "chromium".');
+  log('installing chromium with apt-get (one time)…');
+  aptInstall(['chromium']);
+}
+
+export interface ThrowawayStack {
+  env: NodeJS.ProcessEnv;
+  url: string;
+  db: MariaDbInstance;
+  cleanup(): Promise<void>;
+}
+
+export async function startThrowawayStack(root: string): Promise<ThrowawayStack> {
+  const tmp = mkdtempSync(path.join(os.tmpdir(), 'stallpoint-test-'));
+  let db: MariaDbInstance | null = null;
+  let http: RunningServer | null = null;
+  let services: Services | null = null;
+  const cleanup = async (): Promise<void> => {
+    await http?.close().catch(() => undefined);
+    await services?.close().catch(() => undefined);
+    if (db) await stopMariaDb(db).catch(() => undefined);
+    rmSync(tmp, { recursive: true, force: true });
+  };
+  try {
+    ensureMariaDbInstalled();
+    const dbPort = await freePort();
+    const env: NodeJS.ProcessEnv = {
+      ...process.env,
+      NODE_ENV: 'test',
+      ASTRO_TELEMETRY_DISABLED: '1',
+      DB_HOST: '127.0.0.1',
+      DB_PORT: String(dbPort),
+      DB_NAME: 'stallpoint_test',
+      DB_USER: 'stallpoint_test',
+      DB_PASSWORD: generatedSecret(),
+      DB_SCRATCH_NAME: 'stallpoint_scratch',
+      DATA_DIR: path.join(tmp, 'data'),
+    };
+    Object.assign(process.env, env);
+    mkdirSync(env.DATA_DIR!, { recursive: true });
+    db = describeInstance(path.join(tmp, 'mariadb'), dbPort);
+    initDataDir(db);
+    await startMariaDb(db);
+    ensureDatabaseAndUser(db, env.DB_NAME!, env.DB_USER!, env.DB_PASSWORD!);
+    ensureDatabaseAndUser(db, env.DB_SCRATCH_NAME!, env.DB_USER!, env.DB_PASSWORD!);
+    await migrateAndSeed(env, { seed: true });
+    buildIfChanged(root);
+    services = await startServices(env);
+    Object.assign(env, services.env);
+    Object.assign(process.env, services.env);
+    http = await startHttpServer(path.join(root, 'dist'), '127.0.0.1', await freePort());
+    return {
+      env: { ...env, STALLPOINT_URL: http.url, MARIADB_DATADIR: db.dataDir, MARIADB_SOCKET: db.socketPath, MARIADB_PORT: String(dbPort) },
+      url: http.url,
+      db,
+      cleanup,
+    };
+  } catch (err) {
+    await cleanup();
+    throw err;
+  }
+}

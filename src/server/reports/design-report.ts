@@ -1,0 +1,85 @@
+/**
+ * The design report PDF (GET /api/designs/:id/report.pdf): a design read top to bottom, motor → supply
+ * and logic → switch → gate drive → diode → power-on state → bill of materials, then assumptions and
+ * cautions. Built with pdf-lib in Source Sans 3; curves are vector paths. Pure apart from reading the
+ * shipped font files.
+ */
+import { PDFDocument } from 'pdf-lib';
+import type { BomLine } from '../../lib/bom.ts';
+import type { DesignInput, DesignStatus } from '../../lib/domain/design.ts';
+import type { Part } from '../../lib/domain/parts.ts';
+import type { DesignMatch } from '../../lib/design-match.ts';
+import { faceHasChars, loadSourceSans } from './fonts.ts';
+import { drawAssumptions, drawBom, drawCautions, drawPowerOn } from './report-closing.ts';
+import { isoDate, isoMinute, sig, VERDICT_MARKS } from './report-format.ts';
+import { drawInputs, drawMotorModel, drawWorstCase } from './report-inputs.ts';
+import { stampHeaders } from './report-header.ts';
+import { MUTED, ReportLayout } from './report-layout.ts';
+import { drawDiodeRole, drawGateDriveRole, drawSwitchRole, type RoleContext } from './report-roles.ts';
+
+export interface DesignReportData {
+  design: { id: number; name: string; revision: number; ownerName: string; status: DesignStatus; generatedAt: Date };
+  input: DesignInput;
+  match: DesignMatch;
+  bom: BomLine[];
+  partsById: Map<number, Part>;
+}
+
+export interface DesignReportOptions {
+  /** Use the standard Helvetica faces instead of Source Sans 3 (as when the font files are missing). */
+  standardFonts?: boolean;
+}
+
+export const REPORT_PRODUCER = 'Stallpoint';
+
+export function reportTitle(design: DesignReportData['design']): string {
+  return `${design.name} (Rev ${design.revision}): Stallpoint design report`;
+}
+
+function drawTitleBlock(layout: ReportLayout, data: DesignReportData): void {
+  const d = data.design;
+  layout.y -= 20;
+  layout.textAt(d.name, layout.left, layout.y, { sizePt: 18, bold: true });
+  layout.y -= 8;
+  const status = d.status === 'ready' ? 'marked ready' : 'draft';
+  layout.paragraph(`Design ${d.id}, revision ${d.revision} (${status}), owned by ${d.ownerName}. Generated ${isoMinute(d.generatedAt)}.`, { color: MUTED });
+  layout.paragraph(`Motor ${data.match.motor.label} on a ${sig(data.input.supply.nomV)} V supply, switched low-side from ${sig(data.input.logic.railV)} V logic.`, { color: MUTED });
+}
+
+function setMetadata(pdf: PDFDocument, design: DesignReportData['design']): void {
+  pdf.setTitle(reportTitle(design), { showInWindowTitleBar: true });
+  pdf.setAuthor(design.ownerName);
+  pdf.setSubject(`Drive design ${design.id}, revision ${design.revision}`);
+  pdf.setKeywords(['Stallpoint', 'design report', 'brushed DC motor drive']);
+  pdf.setCreator(REPORT_PRODUCER);
+  pdf.setProducer(REPORT_PRODUCER);
+  pdf.setCreationDate(design.generatedAt);
+  pdf.setModificationDate(design.generatedAt);
+}
+
+/** Builds the whole report; long content flows onto further pages, each with the report header. */
+export async function buildDesignReportPdf(data: DesignReportData, options: DesignReportOptions = {}): Promise<Uint8Array> {
+  const pdf = await PDFDocument.create();
+  setMetadata(pdf, data.design);
+  const fonts = await loadSourceSans(pdf, { boldWeight: 600, standard: options.standardFonts ?? false });
+  const layout = new ReportLayout(pdf, fonts);
+  const ctx: RoleContext = {
+    match: data.match,
+    selections: data.input.selections,
+    partsById: data.partsById,
+    verdictMarks: faceHasChars(fonts.regular, VERDICT_MARKS) && faceHasChars(fonts.bold, VERDICT_MARKS),
+  };
+  drawTitleBlock(layout, data);
+  drawInputs(layout, data.input, data.match.motor);
+  drawMotorModel(layout, data.match.motor);
+  drawWorstCase(layout, data.match);
+  drawSwitchRole(layout, ctx);
+  drawGateDriveRole(layout, ctx);
+  drawDiodeRole(layout, ctx);
+  drawPowerOn(layout, data.match);
+  drawBom(layout, data.bom);
+  drawAssumptions(layout);
+  drawCautions(layout, data.match);
+  stampHeaders(layout, { designName: data.design.name, revision: data.design.revision, generatedDate: isoDate(data.design.generatedAt) });
+  return pdf.save();
+}

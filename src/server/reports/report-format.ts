@@ -1,0 +1,78 @@
+/** Text formatting for the design report: values with units, margins, verdicts, prices. */
+import type { Check, Verdict } from '../../lib/checks.ts';
+import type { PriceAtQty } from '../../lib/design-match.ts';
+import { formatSi } from '../../lib/units.ts';
+
+/** Units that take SI prefixes (µs, mA, kΩ); the rest print as plain numbers with their unit. */
+const PREFIXED_UNITS = new Set(['V', 'A', 's', 'W', 'Ω', 'Hz', 'J', 'H', 'N·m']);
+
+/** Three significant digits, no exponent for everyday magnitudes. */
+export function sig(value: number, digits = 3): string {
+  if (!Number.isFinite(value)) return '—';
+  return String(Number(value.toPrecision(digits)));
+}
+
+export function quantity(value: number | null, unit: string, digits = 3): string {
+  if (value == null || !Number.isFinite(value)) return '—';
+  if (PREFIXED_UNITS.has(unit) && value !== 0) return formatSi(value, unit, digits);
+  return unit ? `${sig(value, digits)} ${unit}` : sig(value, digits);
+}
+
+export function percent(fraction: number | null, digits = 0): string {
+  if (fraction == null || !Number.isFinite(fraction)) return '—';
+  return `${(fraction * 100).toFixed(digits)} %`;
+}
+
+export function range(min: number, max: number, unit: string): string {
+  return min === max ? quantity(min, unit) : `${sig(min)}–${sig(max)} ${unit}`;
+}
+
+/** Unit price at the build quantity; `short` gives "EUR 0.3620 @ 25" for table cells. */
+export function money(price: PriceAtQty | null, short = false): string {
+  if (price == null) return 'no price';
+  const amount = price.unitPrice < 1 ? price.unitPrice.toFixed(4) : price.unitPrice.toFixed(2);
+  return short ? `${price.currency} ${amount} @ ${price.qty}` : `${price.currency} ${amount} each at ${price.qty}`;
+}
+
+export function isoDate(at: Date): string {
+  return at.toISOString().slice(0, 10);
+}
+
+export function isoMinute(at: Date): string {
+  return `${at.toISOString().slice(0, 16).replace('T', ' ')} UTC`;
+}
+
+const VERDICT_SYMBOL: Readonly<Record<Verdict, string>> = { pass: '✓', marginal: '!', fail: '✕' };
+
+/** Verdict as words (never colour alone): "✓ pass" when the font has the marks, else "PASS". */
+export function verdictText(verdict: Verdict, fontHasMarks: boolean): string {
+  return fontHasMarks ? `${VERDICT_SYMBOL[verdict]} ${verdict}` : verdict.toUpperCase();
+}
+
+export const VERDICT_MARKS = '✓✕';
+
+/** "drain-voltage" → "Drain voltage"; keeps the stable id recognisable. */
+export function checkTitle(id: string): string {
+  const words = id.replace(/-/g, ' ');
+  return words.charAt(0).toUpperCase() + words.slice(1);
+}
+
+export function checkOkText(check: Check): string {
+  if (check.ok) return 'yes';
+  return check.severity === 'margin' ? 'no (margin)' : 'no (rating)';
+}
+
+/** One table row per check: check, value, limit, margin, ok, note. */
+export function checkRow(check: Check): string[] {
+  return [checkTitle(check.id), quantity(check.value, check.unit), quantity(check.limit, check.unit), percent(check.margin), checkOkText(check), check.note];
+}
+
+/** One line for an alternate: what falls short, or else the tightest margin. */
+export function summaryOf(checks: readonly Check[]): string {
+  const failing = checks.filter((c) => !c.ok);
+  if (failing.length > 0) return `Short on ${failing.map((c) => checkTitle(c.id).toLowerCase()).join(', ')}: ${failing[0].note}`;
+  const withMargin = checks.filter((c) => c.margin != null).sort((a, b) => (a.margin as number) - (b.margin as number));
+  const tightest = withMargin[0];
+  const all = `All ${checks.length} checks hold`;
+  return tightest ? `${all}; tightest is ${checkTitle(tightest.id).toLowerCase()} at ${percent(tightest.margin)} margin.` : `${all}.`;
+}
