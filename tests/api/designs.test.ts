@@ -181,3 +181,34 @@ describe('bill of materials', () => {
     expect(Papa.unparse(parsed.data)).toContain(sw.mpn);
   });
 });
+
+describe('design report PDF', () => {
+  it('parses, has several pages, and names the design, its chosen parts and the cautions', async () => {
+    const { PDFDocument } = await import('pdf-lib');
+    const { pdfPageTexts } = await import('../helpers/pdf-text.ts');
+    const { CAUTIONS } = await import('../../src/lib/safety-notes.ts');
+    const id = await seededDesignId(demoDesigns[2].name);
+    const design = (await api().get(`/api/designs/${id}`).set('Cookie', buyer)).body as { input: DesignInput; revision: number };
+    const res = await api().get(`/api/designs/${id}/report.pdf`).set('Cookie', buyer).buffer(true).parse((r, cb) => {
+      const chunks: Buffer[] = [];
+      r.on('data', (c: Buffer) => chunks.push(c));
+      r.on('end', () => cb(null, Buffer.concat(chunks)));
+    });
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toBe('application/pdf');
+    const bytes = new Uint8Array(res.body as Buffer);
+    const doc = await PDFDocument.load(bytes);
+    expect(doc.getPageCount()).toBeGreaterThanOrEqual(3);
+    const text = (await pdfPageTexts(bytes)).join(' ');
+    expect(text).toContain(demoDesigns[2].name);
+    expect(text).toContain(`Rev ${design.revision}`);
+    const chosen = [design.input.selections.switch.chosenPartId, design.input.selections.driver.chosenPartId, design.input.selections.diode.chosenPartId];
+    for (const partId of chosen) {
+      expect(partId).not.toBeNull();
+      const part = await knex('parts').where({ id: partId }).first('mpn');
+      expect(text).toContain(part.mpn);
+    }
+    for (const c of CAUTIONS) expect(text).toContain(c.title);
+    expect(text).toMatch(/qualified engineer/);
+  });
+});
