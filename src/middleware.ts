@@ -1,13 +1,61 @@
 import { defineMiddleware } from 'astro:middleware';
+import type { APIContext } from 'astro';
 import { SECURITY_HEADERS } from './server/http/security-headers.ts';
+import { jsonError } from './server/http/responses.ts';
+import { db } from './server/db.ts';
+import { sessionFromCookies } from './server/auth/request-session.ts';
+import { accessFor, allowedMethods, decide, isApiRoute, type Decision } from './server/auth/policy.ts';
 
-/** Sets locals.user / locals.session (null when absent) and adds security headers to every response. */
+/**
+ * Every request: the session cookie → locals.user / locals.session (null when absent), the route's rule
+ * from src/server/auth/policy.ts (deny by default), then security headers on the response.
+ * OWASP ASVS 5.0 V8.3.1 (access enforced at a trusted service layer), V3.4 (security headers).
+ */
 export const onRequest = defineMiddleware(async (context, next) => {
-  context.locals.user = null;
-  context.locals.session = null;
-  const response = await next();
+  const response = await guarded(context, next);
   for (const [name, value] of Object.entries(SECURITY_HEADERS)) {
     if (!response.headers.has(name)) response.headers.set(name, value);
   }
+  if (context.locals.user && !response.headers.has('Cache-Control')) response.headers.set('Cache-Control', 'private, no-store');
   return response;
 });
+
+async function guarded(context: APIContext, next: () => Promise<Response>): Promise<Response> {
+  context.locals.user = null;
+  context.locals.session = null;
+  try {
+    Object.assign(context.locals, await sessionFromCookies(db(), context.cookies, context.url));
+  } catch {
+    // The database is down: public routes (health check, calculators) still answer, the rest say so.
+    if (accessFor(context.routePattern, context.request.method) !== 'public') return unavailable(context);
+  }
+  const decision = decide(context.routePattern, context.request.method, context.locals.user);
+  return decision === 'allow' ? next() : refuse(context, decision);
+}
+
+function refuse(context: APIContext, decision: Exclude<Decision, 'allow'>): Response | Promise<Response> {
+  const api = isApiRoute(context.routePattern);
+  if (decision === 'method-not-allowed') {
+    return jsonError(405, `This address does not take ${context.request.method}.`, [], { Allow: allowedMethods(context.routePattern).join(', ') });
+  }
+  if (decision === 'sign-in') {
+    if (api) return jsonError(401, 'Sign in first.');
+    const next = context.url.pathname + context.url.search;
+    return context.redirect(`/signin?next=${encodeURIComponent(next)}`, 302);
+  }
+  if (api) return jsonError(403, 'Your role does not allow this.');
+  return forbiddenPage(context);
+}
+
+/** The page's address stays; the no-access page is shown with 403. */
+async function forbiddenPage(context: APIContext): Promise<Response> {
+  const page = await context.rewrite('/account/no-access');
+  return new Response(page.body, { status: 403, statusText: 'Forbidden', headers: page.headers });
+}
+
+function unavailable(context: APIContext): Response {
+  if (isApiRoute(context.routePattern)) return jsonError(503, 'The database is not answering; try again in a moment.');
+  return new Response('Stallpoint cannot reach its database right now. Try again in a moment.', {
+    status: 503, headers: { 'Content-Type': 'text/plain; charset=utf-8', 'Cache-Control': 'no-store' },
+  });
+}

@@ -1,4 +1,4 @@
-/** What the middleware puts into Astro.locals. */
+/** What the middleware puts into Astro.locals, and the people types pages hand to islands. */
 export const ROLES = ['admin', 'librarian', 'designer', 'buyer'] as const;
 export type Role = (typeof ROLES)[number];
 
@@ -12,4 +12,16 @@ export interface SessionUser {
 export interface SessionInfo {
   id: string;
   expiresAt: Date;
+}
+
+/** A person as the people page shows them: `invited` until they set a password. */
+export type PersonStatus = 'active' | 'invited' | 'deactivated';
+
+export interface Person {
+  id: number;
+  email: string;
+  name: string;
+  roles: Role[];
+  status: PersonStatus;
+  createdAt: string;
 }
