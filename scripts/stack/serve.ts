@@ -37,11 +37,22 @@ function staticFile(clientDir: string, urlPath: string): string | null {
   return file;
 }
 
+/**
+ * Astro takes the client address from X-Forwarded-For when present. Unless a trusted proxy sits in
+ * front (TRUST_PROXY=1), drop those headers so nobody can pick their own address and slip past the
+ * per-address sign-in limit (OWASP ASVS 5.0 V6.3.1).
+ */
+function dropUntrustedForwarding(req: http.IncomingMessage): void {
+  if (process.env.TRUST_PROXY === '1') return;
+  for (const h of ['x-forwarded-for', 'x-forwarded-host', 'x-forwarded-proto', 'x-forwarded-port']) delete req.headers[h];
+}
+
 export async function createListener(distDir: string): Promise<http.RequestListener> {
   const entry = pathToFileURL(path.join(distDir, 'server', 'entry.mjs')).href;
   const { handler } = (await import(entry)) as { handler: Handler };
   const clientDir = path.join(distDir, 'client');
   return (req, res) => {
+    dropUntrustedForwarding(req);
     const urlPath = (req.url ?? '/').split('?')[0];
     const file = req.method === 'GET' || req.method === 'HEAD' ? staticFile(clientDir, urlPath) : null;
     if (file) {

@@ -1,9 +1,90 @@
-/** Local stand-ins for hosted services (mail sink, …) that the start and test commands run. */
+/**
+ * Local stand-ins for hosted services that the start and test commands run:
+ * an SMTP sink on 127.0.0.1 (smtp-server) that parses every message (mailparser) and stores it in the
+ * captured_mail table, where admins read it on /mail and tests find it. Real mail is configured by
+ * setting SMTP_HOST (and MAIL_SINK unset); then no sink starts.
+ */
+import { SMTPServer } from 'smtp-server';
+import { simpleParser } from 'mailparser';
+import knexFactory, { type Knex } from 'knex';
+import { knexConfig } from '../../knexfile.ts';
+import { insertCapturedMail } from '../../src/server/mail/captured.ts';
+import { log } from './log.ts';
+
 export interface Services {
   env: Record<string, string>;
   close(): Promise<void>;
 }
 
-export async function startServices(_env: NodeJS.ProcessEnv): Promise<Services> {
-  return { env: {}, async close() {} };
+/** The sink's fixed port for npm start; npm test asks for a free one (SMTP_SINK_PORT=0). */
+export const DEFAULT_SINK_PORT = 2526;
+const MAX_MESSAGE_BYTES = 5 * 1024 * 1024;
+
+function readAll(stream: NodeJS.ReadableStream): Promise<Buffer> {
+  return new Promise((resolve, reject) => {
+    const chunks: Buffer[] = [];
+    stream.on('data', (c: Buffer) => chunks.push(c));
+    stream.on('end', () => resolve(Buffer.concat(chunks)));
+    stream.on('error', reject);
+  });
+}
+
+async function store(knex: Knex, raw: Buffer, from: string, to: string[]): Promise<void> {
+  const parsed = await simpleParser(raw);
+  await insertCapturedMail(knex, {
+    received_at: new Date(),
+    envelope_from: from.slice(0, 320),
+    envelope_to: to.map((a) => a.toLowerCase()).join(',').slice(0, 2000),
+    subject: (parsed.subject ?? '').slice(0, 500),
+    text_body: parsed.text ?? null,
+    html_body: typeof parsed.html === 'string' ? parsed.html : null,
+    message_id: parsed.messageId?.slice(0, 300) ?? null,
+    size_bytes: raw.length,
+  });
+}
+
+function createSink(knex: Knex): SMTPServer {
+  return new SMTPServer({
+    name: 'stallpoint-mail-sink',
+    banner: 'Stallpoint local mail sink: messages are kept in the database, never delivered',
+    authOptional: true,
+    disabledCommands: ['AUTH', 'STARTTLS'],
+    size: MAX_MESSAGE_BYTES,
+    logger: false,
+    onData(stream, session, callback) {
+      const from = session.envelope.mailFrom ? session.envelope.mailFrom.address : '';
+      const to = session.envelope.rcptTo.map((r) => r.address);
+      // Answer 250 only once the message is stored, so a sender that got "sent" can find it at once.
+      readAll(stream)
+        .then((raw) => store(knex, raw, from, to))
+        .then(() => callback(), (err: Error) => callback(err));
+    },
+  });
+}
+
+async function startMailSink(env: NodeJS.ProcessEnv): Promise<Services> {
+  const knex = knexFactory(knexConfig(env));
+  const sink = createSink(knex);
+  const wanted = Number(env.SMTP_SINK_PORT ?? (env.NODE_ENV === 'test' ? 0 : DEFAULT_SINK_PORT));
+  await new Promise<void>((resolve, reject) => {
+    sink.server.once('error', reject);
+    sink.listen(wanted, '127.0.0.1', () => resolve());
+  });
+  const address = sink.server.address();
+  const port = typeof address === 'object' && address ? address.port : wanted;
+  log(`mail sink on 127.0.0.1:${port} (admins read it at /mail)`);
+  const out: Record<string, string> = { SMTP_HOST: '127.0.0.1', SMTP_PORT: String(port), SMTP_SECURE: 'false', MAIL_SINK: 'local' };
+  if (!env.PUBLIC_URL && env.NODE_ENV !== 'test') out.PUBLIC_URL = `http://${env.HOST ?? '127.0.0.1'}:${env.PORT ?? 4321}`;
+  return {
+    env: out,
+    async close() {
+      await new Promise<void>((resolve) => sink.close(() => resolve()));
+      await knex.destroy();
+    },
+  };
+}
+
+export async function startServices(env: NodeJS.ProcessEnv): Promise<Services> {
+  if (env.SMTP_HOST && env.MAIL_SINK !== 'local') return { env: {}, async close() {} };
+  return startMailSink(env);
 }

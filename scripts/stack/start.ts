@@ -44,6 +44,7 @@ ensureDatabaseAndUser(db, process.env.DB_NAME, process.env.DB_USER, process.env.
 await migrateAndSeed(process.env, { seed: true });
 buildIfChanged(root);
 const services: Services = await startServices(process.env);
+Object.assign(process.env, services.env);
 const http = await startHttpServer(path.join(root, 'dist'), host, port);
 
 console.log('');
