@@ -22,7 +22,12 @@ describe('home page (catalogue)', () => {
     const errors: string[] = [];
     page.on('console', (m) => m.type() === 'error' && errors.push(m.text()));
     page.on('pageerror', (e) => errors.push(e.message));
+    // The catalogue needs a signed-in person: sign in as the demo designer first.
     await page.goto(appUrl() + '/');
+    await page.getByLabel('E-mail address').fill('designer@kestrel-fluidics.example');
+    await page.getByLabel('Password', { exact: true }).fill('stallpoint-demo');
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.waitForURL(appUrl() + '/');
     for (const s of samples) {
       await expect(page.locator(`section[data-category="${s.category}"] tr[data-mpn="${s.mpn}"]`).count()).resolves.toBe(1);
     }
