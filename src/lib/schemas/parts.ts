@@ -331,3 +331,53 @@ export interface PartListPage<T> {
   page: number;
   pageSize: number;
 }
+
+/* ---------- What the part page and its islands receive (never raw rows) ---------- */
+
+export interface DatasheetView {
+  id: number;
+  originalName: string;
+  bytes: number;
+  pages: number;
+  revision: string | null;
+  sha256: string;
+  uploadedBy: string | null;
+  uploadedAt: string;
+}
+
+export interface HistoryChange {
+  field: string;
+  before: string;
+  after: string;
+}
+
+export interface HistoryEntry {
+  id: number;
+  occurredAt: string;
+  actor: string | null;
+  action: string;
+  note: string | null;
+  changes: HistoryChange[];
+}
+
+/** Flattens two states to dotted paths and lists what differs (the history's "before → after"). */
+export function diffStates(before: unknown, after: unknown, ignore: readonly string[] = ['version', 'id']): HistoryChange[] {
+  const flat = (value: unknown, prefix: string, out: Map<string, string>): Map<string, string> => {
+    if (value !== null && typeof value === 'object') {
+      for (const [k, v] of Object.entries(value as Record<string, unknown>)) {
+        if (!prefix && ignore.includes(k)) continue;
+        if (k === 'id' && prefix) continue;
+        flat(v, prefix ? `${prefix}.${k}` : k, out);
+      }
+    } else if (prefix) {
+      out.set(prefix, value === null || value === undefined ? '—' : String(value));
+    }
+    return out;
+  };
+  const a = flat(before, '', new Map());
+  const b = flat(after, '', new Map());
+  const fields = [...new Set([...a.keys(), ...b.keys()])];
+  return fields
+    .filter((f) => a.get(f) !== b.get(f))
+    .map((f) => ({ field: f, before: a.get(f) ?? '—', after: b.get(f) ?? '—' }));
+}

@@ -58,7 +58,7 @@ export async function insertSources(db: Db, partId: number, sources: PartSource[
   }
 }
 
-async function insertParams(db: Db, partId: number, part: NewPart): Promise<void> {
+export async function insertParams(db: Db, partId: number, part: NewPart): Promise<void> {
   switch (part.category) {
     case 'mosfet':
       await db('mosfet_params').insert(mosfetToRow(partId, part.params));

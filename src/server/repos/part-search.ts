@@ -1,0 +1,153 @@
+/**
+ * SQL for the catalogue list: every parameter filter runs on the typed, indexed columns of the
+ * category tables. The rules, in one place (README "Searching the catalogue" repeats them):
+ *  - RDS(on) ≤ X at VGS = V: among the part's 25 °C RDS(on) lines, take the one at the highest VGS not
+ *    above V; its maximum must be ≤ X. RDS(on) falls as VGS rises, so that line bounds the resistance at
+ *    the drive from above without interpolating. A part with no line at or below V is not characterised
+ *    at that drive and is left out. `rdsOnAtVgsV` alone keeps the parts characterised at or below V.
+ *  - Driver supply S (`supplyV`) must lie inside the supply range. Output high = S − output drop ≥
+ *    `outputHighMinV`, with S the highest rated supply when no supplyV is given.
+ *  - Driver input compatible with a logic rail L (`logicRailV`, logic high taken as L): fixed thresholds
+ *    VIH ≤ L; supply-ratio thresholds VIH·S ≤ L with S = supplyV or else the lowest rated supply;
+ *    input-rail translators (thresholds a fraction of L) always.
+ *  - Diode `trrMaxNs`: trr ≤ X, and Schottky parts without a trr (no stored charge) pass.
+ */
+import type { Knex } from 'knex';
+import type { Db } from '../db.ts';
+import type { PartListQuery } from '../../lib/schemas/parts.ts';
+import type { PartCategory } from '../../lib/domain/parts.ts';
+
+const PARAM_TABLE: Record<PartCategory, { table: string; alias: string }> = {
+  mosfet: { table: 'mosfet_params', alias: 'm' },
+  driver: { table: 'driver_params', alias: 'd' },
+  diode: { table: 'diode_params', alias: 'g' },
+  motor: { table: 'motor_params', alias: 'w' },
+};
+
+const SORT_COLUMNS: Record<string, string> = {
+  mpn: 'parts.mpn',
+  manufacturer: 'parts.manufacturer',
+  package: 'parts.package',
+  lifecycle: 'parts.lifecycle',
+  reviewStatus: 'parts.review_status',
+  updatedAt: 'parts.updated_at',
+  vdsMaxV: 'm.vds_max_v',
+  vgsThMaxV: 'm.vgs_th_max_v',
+  idContinuousA: 'm.id_continuous_a',
+  qgTotalNc: 'm.qg_total_nc',
+  rthJaCPerW: 'm.rth_ja_c_per_w',
+  minRdsOnVgsV: 'm.min_rds_on_vgs_v',
+  supplyMinV: 'd.supply_min_v',
+  supplyMaxV: 'd.supply_max_v',
+  sourceCurrentA: 'd.source_current_a',
+  propagationDelayNs: 'd.propagation_delay_ns',
+  vrrmV: 'g.vrrm_v',
+  ifAvA: 'g.if_av_a',
+  vfV: 'g.vf_v',
+  trrNs: 'g.trr_ns',
+  ratedVoltageV: 'w.rated_voltage_v',
+  noLoadSpeedRpm: 'w.no_load_speed_rpm',
+  stallTorqueNm: 'w.stall_torque_nm',
+  stallCurrentA: 'w.stall_current_a',
+};
+
+/** Lines measured at Tj = 25 °C (within a kelvin). */
+const AT_25C = 'tj_c between 24 and 26';
+
+function mosfetFilters(q: Knex.QueryBuilder, f: PartListQuery): void {
+  if (f.channel) q.where('m.channel', f.channel);
+  if (f.vdsMinV !== undefined) q.where('m.vds_max_v', '>=', f.vdsMinV);
+  if (f.vgsThMaxV !== undefined) q.where('m.vgs_th_max_v', '<=', f.vgsThMaxV);
+  if (f.idMinA !== undefined) q.where('m.id_continuous_a', '>=', f.idMinA);
+  if (f.qgMaxNc !== undefined) q.where('m.qg_total_nc', '<=', f.qgMaxNc);
+  if (f.rdsOnAtVgsV !== undefined && f.rdsOnMaxOhm === undefined) q.where('m.min_rds_on_vgs_v', '<=', f.rdsOnAtVgsV);
+  if (f.rdsOnAtVgsV !== undefined && f.rdsOnMaxOhm !== undefined) {
+    q.whereRaw(
+      `exists (select 1 from mosfet_rds_on_points r where r.part_id = parts.id and r.${AT_25C} and r.max_ohm <= ?
+         and r.vgs_v = (select max(r2.vgs_v) from mosfet_rds_on_points r2 where r2.part_id = parts.id and r2.${AT_25C} and r2.vgs_v <= ?))`,
+      [f.rdsOnMaxOhm, f.rdsOnAtVgsV],
+    );
+  }
+}
+
+function driverFilters(q: Knex.QueryBuilder, f: PartListQuery): void {
+  if (f.inverting !== undefined) q.where('d.inverting', f.inverting);
+  if (f.supplyV !== undefined) q.where('d.supply_min_v', '<=', f.supplyV).where('d.supply_max_v', '>=', f.supplyV);
+  if (f.outputHighMinV !== undefined) {
+    if (f.supplyV !== undefined) q.whereRaw('? - d.output_high_drop_v >= ?', [f.supplyV, f.outputHighMinV]);
+    else q.whereRaw('d.supply_max_v - d.output_high_drop_v >= ?', [f.outputHighMinV]);
+  }
+  if (f.logicRailV !== undefined) {
+    const ratioSupply = f.supplyV !== undefined ? '?' : 'd.supply_min_v';
+    const ratioBindings = f.supplyV !== undefined ? [f.supplyV, f.logicRailV] : [f.logicRailV];
+    q.where((w) =>
+      w
+        .where((x) => x.where('d.input_logic', 'fixed').where('d.input_high_min', '<=', f.logicRailV!))
+        .orWhere((x) => x.where('d.input_logic', 'ratio').whereRaw(`d.input_high_min * ${ratioSupply} <= ?`, ratioBindings))
+        .orWhere((x) => x.where('d.input_logic', 'input-rail').where('d.input_high_min', '<=', 1)),
+    );
+  }
+}
+
+function diodeFilters(q: Knex.QueryBuilder, f: PartListQuery): void {
+  if (f.kind) q.where('g.kind', f.kind);
+  if (f.vrrmMinV !== undefined) q.where('g.vrrm_v', '>=', f.vrrmMinV);
+  if (f.ifAvMinA !== undefined) q.where('g.if_av_a', '>=', f.ifAvMinA);
+  if (f.trrMaxNs !== undefined) {
+    q.where((w) => w.where('g.trr_ns', '<=', f.trrMaxNs!).orWhere((x) => x.whereNull('g.trr_ns').where('g.kind', 'schottky')));
+  }
+}
+
+function motorFilters(q: Knex.QueryBuilder, f: PartListQuery): void {
+  if (f.ratedVoltageMinV !== undefined) q.where('w.rated_voltage_v', '>=', f.ratedVoltageMinV);
+  if (f.ratedVoltageMaxV !== undefined) q.where('w.rated_voltage_v', '<=', f.ratedVoltageMaxV);
+  if (f.noLoadSpeedMinRpm !== undefined) q.where('w.no_load_speed_rpm', '>=', f.noLoadSpeedMinRpm);
+  if (f.stallTorqueMinNm !== undefined) q.where('w.stall_torque_nm', '>=', f.stallTorqueMinNm);
+}
+
+/** parts joined to the category table (when a category is chosen), with every filter of the query applied. */
+export function filteredParts(db: Db, f: PartListQuery): Knex.QueryBuilder {
+  const q = db('parts');
+  if (f.category) {
+    const { table, alias } = PARAM_TABLE[f.category];
+    q.join(`${table} as ${alias}`, `${alias}.part_id`, 'parts.id').where('parts.category', f.category);
+    ({ mosfet: mosfetFilters, driver: driverFilters, diode: diodeFilters, motor: motorFilters })[f.category](q, f);
+  }
+  if (f.lifecycle?.length) q.whereIn('parts.lifecycle', f.lifecycle);
+  if (f.reviewStatus?.length) q.whereIn('parts.review_status', f.reviewStatus);
+  if (f.package) q.where('parts.package', f.package);
+  return q;
+}
+
+/** Applies the requested sort (validated against the category by the schema), then a stable tie-break. */
+export function applySort(q: Knex.QueryBuilder, sort: string | undefined): Knex.QueryBuilder {
+  const desc = sort?.startsWith('-') ?? false;
+  const column = sort ? SORT_COLUMNS[sort.replace(/^-/, '')] : undefined;
+  if (column) q.orderByRaw(`${column} is null, ${column} ${desc ? 'desc' : 'asc'}`);
+  if (!sort) q.orderBy([{ column: 'parts.category' }, { column: 'parts.manufacturer' }]);
+  return q.orderBy([{ column: 'parts.mpn' }, { column: 'parts.id' }]);
+}
+
+export async function countFiltered(db: Db, f: PartListQuery): Promise<number> {
+  const row = await filteredParts(db, f).count({ n: 'parts.id' }).first();
+  return Number(row?.n ?? 0);
+}
+
+export interface SearchTextRow {
+  id: number;
+  manufacturer: string;
+  mpn: string;
+  description: string;
+}
+
+/** Id and text of every part the filters keep, in sort order (the input of the fuzzy text match). */
+export async function filteredTextRows(db: Db, f: PartListQuery, limit: number): Promise<SearchTextRow[]> {
+  const q = filteredParts(db, f).select('parts.id', 'parts.manufacturer', 'parts.mpn', 'parts.description');
+  return applySort(q, f.sort).limit(limit);
+}
+
+/** One page of part ids in sort order. */
+export async function filteredIdsPage(db: Db, f: PartListQuery, offset: number, limit: number): Promise<number[]> {
+  const rows: { id: number }[] = await applySort(filteredParts(db, f).select('parts.id'), f.sort).offset(offset).limit(limit);
+  return rows.map((r) => r.id);
+}

@@ -1,0 +1,104 @@
+/**
+ * Datasheet PDFs: checked by their bytes and by parsing (pdf-lib, page count), SHA-256 recorded, a
+ * duplicate refused, stored under a generated name in the datasheet store, recorded in the audit trail.
+ */
+import { createHash, randomUUID } from 'node:crypto';
+import { PDFDocument } from 'pdf-lib';
+import { db } from '../db.ts';
+import type { SessionUser } from '../auth/types.ts';
+import { datasheetRevisionSchema, type DatasheetView } from '../../lib/schemas/parts.ts';
+import { deleteDatasheetRow, findDatasheet, findDatasheetBySha, insertDatasheet, type DatasheetRecord } from '../repos/datasheets.ts';
+import { findPartRow } from '../repos/part-writes.ts';
+import { insertAuditEvent } from '../repos/audit.ts';
+import { datasheetStore } from '../storage/index.ts';
+import { canCurate, requireThat, requireUser } from './parts-access.ts';
+import { notFound, ServiceError } from './parts-errors.ts';
+
+export const MAX_DATASHEET_BYTES = 20 * 1024 * 1024;
+const PDF_MAGIC = [0x25, 0x50, 0x44, 0x46, 0x2d]; // "%PDF-"
+
+/** The original name reduced to a harmless base name ending in .pdf (never used as a storage path). */
+export function safePdfName(name: string): string {
+  const base = (name.split(/[\\/]/).pop() ?? '').normalize('NFKC');
+  let s = base.replace(/[\u0000-\u001f\u007f"<>:|?*;]/g, '').replace(/\s+/g, ' ').trim().replace(/^[.\s]+/, '');
+  s = s.replace(/\.pdf$/i, '').replace(/[.\s]+$/, '');
+  if (s === '') s = 'datasheet';
+  return `${s.slice(0, 110)}.pdf`;
+}
+
+function view(r: DatasheetRecord): DatasheetView {
+  const { storageKey: _key, partId: _part, ...rest } = r;
+  return rest;
+}
+
+async function pageCount(bytes: Uint8Array): Promise<number> {
+  const isPdf = PDF_MAGIC.every((b, i) => bytes[i] === b);
+  if (!isPdf) throw new ServiceError(415, 'Only PDF datasheets are accepted; this file is not a PDF.', [{ path: 'file', message: 'does not start with %PDF-' }]);
+  try {
+    const doc = await PDFDocument.load(bytes, { ignoreEncryption: true, updateMetadata: false });
+    const pages = doc.getPageCount();
+    if (pages < 1) throw new Error('no pages');
+    return pages;
+  } catch {
+    throw new ServiceError(415, 'The file starts like a PDF but could not be read as one.', [{ path: 'file', message: 'not a readable PDF' }]);
+  }
+}
+
+export interface DatasheetUpload {
+  name: string;
+  bytes: Uint8Array;
+  revision: string;
+}
+
+export async function addDatasheet(actor: SessionUser | null, partId: number, upload: DatasheetUpload): Promise<DatasheetView> {
+  const user = requireThat(actor, canCurate, 'add datasheets');
+  if (!(await findPartRow(db(), partId))) throw notFound('The part');
+  const revision = datasheetRevisionSchema.safeParse(upload.revision);
+  if (!revision.success) throw new ServiceError(400, 'The revision label is not valid.', [{ path: 'revision', message: revision.error.issues[0].message }]);
+  if (upload.bytes.byteLength === 0) throw new ServiceError(400, 'The file is empty.', [{ path: 'file', message: '0 bytes' }]);
+  if (upload.bytes.byteLength > MAX_DATASHEET_BYTES) throw new ServiceError(413, 'The file is larger than 20 MB.', [{ path: 'file', message: `at most ${MAX_DATASHEET_BYTES} bytes` }]);
+  const pages = await pageCount(upload.bytes);
+  const sha256 = createHash('sha256').update(upload.bytes).digest('hex');
+  const duplicate = await findDatasheetBySha(db(), partId, sha256);
+  if (duplicate) throw new ServiceError(409, 'This exact file is already attached to the part.', [{ path: 'file', message: `same SHA-256 as datasheet ${duplicate.id}` }]);
+  const storageKey = `${randomUUID()}.pdf`;
+  await datasheetStore().put(storageKey, upload.bytes);
+  try {
+    const id = await db().transaction(async (trx) => {
+      const newId = await insertDatasheet(trx, { partId, originalName: safePdfName(upload.name), storageKey, sha256, bytes: upload.bytes.byteLength, pages, revision: revision.data || null, uploadedByUserId: user.id });
+      await insertAuditEvent(trx, { actorUserId: user.id, action: 'datasheet.add', entityType: 'part', entityId: partId, before: null, after: { datasheet: { id: newId, name: safePdfName(upload.name), revision: revision.data || null, pages, sha256 } } });
+      return newId;
+    });
+    return view((await findDatasheet(db(), id))!);
+  } catch (err) {
+    await datasheetStore().delete(storageKey);
+    if ((err as { code?: string }).code === 'ER_DUP_ENTRY') throw new ServiceError(409, 'This exact file is already attached to the part.', [{ path: 'file', message: 'same SHA-256' }]);
+    throw err;
+  }
+}
+
+export async function removeDatasheet(actor: SessionUser | null, id: number): Promise<void> {
+  const user = requireThat(actor, canCurate, 'remove datasheets');
+  const sheet = await findDatasheet(db(), id);
+  if (!sheet) throw notFound('The datasheet');
+  await db().transaction(async (trx) => {
+    await deleteDatasheetRow(trx, id);
+    await insertAuditEvent(trx, { actorUserId: user.id, action: 'datasheet.remove', entityType: 'part', entityId: sheet.partId, before: { datasheet: { id, name: sheet.originalName, revision: sheet.revision, sha256: sheet.sha256 } }, after: null });
+  });
+  await datasheetStore().delete(sheet.storageKey);
+}
+
+export async function datasheetFile(actor: SessionUser | null, id: number): Promise<{ name: string; bytes: Uint8Array }> {
+  requireUser(actor);
+  const sheet = await findDatasheet(db(), id);
+  if (!sheet) throw notFound('The datasheet');
+  const bytes = await datasheetStore().get(sheet.storageKey);
+  if (!bytes) throw notFound('The datasheet file');
+  return { name: sheet.originalName, bytes };
+}
+
+/** attachment; an ASCII fallback name and the exact UTF-8 name (RFC 6266 / RFC 8187). */
+export function attachmentDisposition(name: string): string {
+  const ascii = name.replace(/[^\x20-\x7e]/g, '_').replace(/["\\]/g, '_');
+  return `attachment; filename="${ascii}"; filename*=UTF-8''${encodeURIComponent(name)}`;
+}

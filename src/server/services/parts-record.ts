@@ -1,0 +1,54 @@
+/** Everything the part page shows about one part, assembled from the repos into view types. */
+import { db } from '../db.ts';
+import type { Part } from '../../lib/domain/parts.ts';
+import { diffStates, type DatasheetView, type HistoryEntry } from '../../lib/schemas/parts.ts';
+import { findPartRow, loadPart } from '../repos/part-writes.ts';
+import { findPerson, listAuditEvents } from '../repos/audit.ts';
+import { listDatasheets } from '../repos/datasheets.ts';
+import { designsUsingPart } from '../repos/designs.ts';
+
+export interface PartRecordView {
+  part: Part;
+  lifecycleNote: string | null;
+  reviewNote: string | null;
+  proposer: { id: number; name: string } | null;
+  createdAt: string;
+  updatedAt: string;
+  datasheets: DatasheetView[];
+  history: HistoryEntry[];
+  whereUsed: { designId: number; designName: string; role: string; chosen: boolean; designStatus: string }[];
+}
+
+/** The full record, or null when there is no such part. */
+export async function partRecord(id: number): Promise<PartRecordView | null> {
+  const k = db();
+  const row = await findPartRow(k, id);
+  if (!row) return null;
+  const [part, proposer, sheets, events, uses] = await Promise.all([
+    loadPart(k, id),
+    findPerson(k, row.created_by),
+    listDatasheets(k, id),
+    listAuditEvents(k, 'part', id),
+    designsUsingPart(k, id),
+  ]);
+  if (!part) return null;
+  return {
+    part,
+    lifecycleNote: row.lifecycle_note,
+    reviewNote: row.review_note,
+    proposer: proposer ? { id: proposer.id, name: proposer.name } : null,
+    createdAt: new Date(row.created_at).toISOString(),
+    updatedAt: new Date(row.updated_at).toISOString(),
+    datasheets: sheets.map(({ storageKey: _key, partId: _part, ...rest }) => rest),
+    whereUsed: uses.map((u) => ({ designId: u.id, designName: u.name, role: u.role, chosen: u.position === 0, designStatus: u.status })),
+    history: events.map((e) => ({
+      id: e.id,
+      occurredAt: e.occurredAt,
+      actor: e.actorName,
+      action: e.action,
+      note: e.note,
+      changes: e.before && e.after ? diffStates(e.before, e.after) : [],
+    })),
+  };
+}
+

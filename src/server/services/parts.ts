@@ -1,0 +1,110 @@
+/** Creating, editing and deleting catalogue parts: role rules, optimistic locking, audit trail, one transaction each. */
+import { db } from '../db.ts';
+import type { SessionUser } from '../auth/types.ts';
+import type { Part, ReviewStatus } from '../../lib/domain/parts.ts';
+import type { PartInput, PartUpdate } from '../../lib/schemas/parts.ts';
+import { insertPart, type NewPart } from '../repos/parts.ts';
+import {
+  deletePartRow,
+  findPartIdByMakerMpn,
+  loadPart,
+  lockPartRow,
+  replaceParams,
+  replaceSources,
+  updatePartHead,
+} from '../repos/part-writes.ts';
+import { insertAuditEvent } from '../repos/audit.ts';
+import { listDatasheets } from '../repos/datasheets.ts';
+import { designsUsingPart } from '../repos/designs.ts';
+import { datasheetStore } from '../storage/index.ts';
+import { canCurate, canPropose, requireThat, requireUser } from './parts-access.ts';
+import { notFound, ServiceError, staleVersion } from './parts-errors.ts';
+
+/** Curators get what they ask for (approved by default); everyone else proposes (pending). */
+export function initialReviewStatus(user: SessionUser, requested: PartInput['reviewStatus']): ReviewStatus {
+  if (!canCurate(user)) return 'pending';
+  return requested ?? 'approved';
+}
+
+export function toNewPart(input: PartInput, reviewStatus: ReviewStatus): NewPart {
+  return { ...input, reviewStatus, sources: input.sources ?? [] } as NewPart;
+}
+
+function duplicate(manufacturer: string, mpn: string, id: number): ServiceError {
+  return new ServiceError(409, `${manufacturer} ${mpn} is already in the catalogue.`, [
+    { path: 'mpn', message: `already in the catalogue as part ${id}` },
+  ]);
+}
+
+export async function createPart(actor: SessionUser | null, input: PartInput): Promise<Part> {
+  const user = requireThat(actor, canPropose, 'add or propose parts');
+  const part = toNewPart(input, initialReviewStatus(user, input.reviewStatus));
+  return db().transaction(async (trx) => {
+    const existing = await findPartIdByMakerMpn(trx, part.manufacturer, part.mpn);
+    if (existing !== null) throw duplicate(part.manufacturer, part.mpn, existing);
+    const id = await insertPart(trx, part, user.id);
+    const created = (await loadPart(trx, id))!;
+    await insertAuditEvent(trx, { actorUserId: user.id, action: canCurate(user) ? 'part.create' : 'part.propose', entityType: 'part', entityId: id, before: null, after: created });
+    return created;
+  });
+}
+
+/**
+ * The whole record is replaced by what the form sends, at the version it was loaded at.
+ * Curators may edit any part; a proposer may revise their own part until it is approved (it returns to pending).
+ * Lifecycle moves go through changeLifecycle (with date and note), so an edit must keep the lifecycle.
+ */
+export async function updatePart(actor: SessionUser | null, id: number, input: PartUpdate): Promise<Part> {
+  const user = requireUser(actor);
+  return db().transaction(async (trx) => {
+    const row = await lockPartRow(trx, id);
+    if (!row) throw notFound('The part');
+    const curator = canCurate(user);
+    const ownProposal = row.created_by === user.id && row.review_status !== 'approved' && canPropose(user);
+    if (!curator && !ownProposal) throw new ServiceError(403, 'Your role may not edit this part.');
+    if (row.version !== input.version) throw staleVersion(row.version);
+    if (row.category !== input.category) throw new ServiceError(400, 'A part cannot change category.', [{ path: 'category', message: `the part is a ${row.category}` }]);
+    if (row.lifecycle !== input.lifecycle) {
+      throw new ServiceError(400, 'Change the lifecycle with its own action, which records the effective date and a note.', [{ path: 'lifecycle', message: `the part is ${row.lifecycle}` }]);
+    }
+    const other = await findPartIdByMakerMpn(trx, input.manufacturer, input.mpn);
+    if (other !== null && other !== id) throw duplicate(input.manufacturer, input.mpn, other);
+    const before = (await loadPart(trx, id))!;
+    const reviewStatus: ReviewStatus = curator ? (input.reviewStatus ?? row.review_status) : 'pending';
+    const next = toNewPart(input, reviewStatus);
+    await updatePartHead(trx, id, { ...next, reviewStatus });
+    await replaceParams(trx, id, next);
+    if (input.sources !== undefined) await replaceSources(trx, id, next.sources);
+    const after = (await loadPart(trx, id))!;
+    await insertAuditEvent(trx, { actorUserId: user.id, action: 'part.update', entityType: 'part', entityId: id, before, after });
+    return after;
+  });
+}
+
+/** Deletes a part with its parameters, sources and datasheet records; the files go once the rows are gone. */
+export async function deletePart(actor: SessionUser | null, id: number, version: number | null): Promise<void> {
+  const user = requireThat(actor, canCurate, 'delete parts');
+  const keys = await db().transaction(async (trx) => {
+    const row = await lockPartRow(trx, id);
+    if (!row) throw notFound('The part');
+    if (version !== null && row.version !== version) throw staleVersion(row.version);
+    const uses = await designsUsingPart(trx, id);
+    if (uses.length > 0) {
+      throw new ServiceError(409, `The part is used by ${uses.length} design line(s); take it out of those designs or mark it obsolete instead.`, [
+        { path: 'id', message: `used by ${[...new Set(uses.map((u) => u.name))].slice(0, 3).join(', ')}` },
+      ]);
+    }
+    const before = await loadPart(trx, id);
+    const sheets = await listDatasheets(trx, id);
+    await deletePartRow(trx, id);
+    await insertAuditEvent(trx, { actorUserId: user.id, action: 'part.delete', entityType: 'part', entityId: id, before, after: null });
+    return sheets.map((s) => s.storageKey);
+  });
+  for (const key of keys) await datasheetStore().delete(key);
+}
+
+export async function getPart(id: number): Promise<Part> {
+  const part = await loadPart(db(), id);
+  if (!part) throw notFound('The part');
+  return part;
+}
