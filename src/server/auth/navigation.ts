@@ -18,6 +18,8 @@ interface NavEntry extends NavLink {
 
 const NAV: readonly NavEntry[] = [
   { href: '/', label: 'Catalogue' },
+  { href: '/parts', label: 'Find parts' },
+  { href: '/review', label: 'Review' },
   { href: '/designs', label: 'Designs' },
   { href: '/shortlist', label: 'Shortlist' },
   { href: '/calculators', label: 'Calculators' },

@@ -62,6 +62,25 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
   '/api/designs/[id]/status': { POST: ['designer'] },
   '/api/designs/[id]/report.pdf': { GET: 'signed-in' },
   '/api/designs/[id]/bom.csv': { GET: 'signed-in' },
+
+  // Catalogue: everyone signed in reads; designers propose parts (the service makes them pending and lets a
+  // proposer revise only their own); librarians curate parts, datasheets, imports, review and lifecycle;
+  // buyers keep supply data.
+  '/parts': 'signed-in',
+  '/parts/[id]': 'signed-in',
+  '/parts/new': ['designer', 'librarian'],
+  '/parts/[id]/edit': ['designer', 'librarian'],
+  '/parts/import': ['librarian'],
+  '/review': ['librarian'],
+  '/api/parts': { GET: 'signed-in', POST: ['designer', 'librarian'] },
+  '/api/parts.csv': { GET: 'signed-in' },
+  '/api/parts/[id]': { GET: 'signed-in', PUT: ['designer', 'librarian'], DELETE: ['librarian'] },
+  '/api/parts/[id]/review': { POST: ['librarian'] },
+  '/api/parts/[id]/lifecycle': { POST: ['librarian'] },
+  '/api/parts/[id]/sources': { PUT: ['buyer', 'librarian'] },
+  '/api/parts/[id]/datasheets': { POST: ['librarian'] },
+  '/api/datasheets/[id]': { GET: 'signed-in', DELETE: ['librarian'] },
+  '/api/imports': { POST: ['librarian'] },
 };
 
 export type Decision = 'allow' | 'sign-in' | 'forbidden' | 'method-not-allowed';

@@ -10,7 +10,7 @@ import { notFound, ServiceError, staleVersion } from './parts-errors.ts';
 import { sendRejectionNotice } from './parts-review-mail.ts';
 
 /** Approve a pending (or draft) part, or reject a pending one with a reason the proposer is sent. */
-export async function reviewPart(actor: SessionUser | null, id: number, decision: ReviewDecision): Promise<Part> {
+export async function reviewPart(actor: SessionUser | null, id: number, decision: ReviewDecision, baseUrl: string): Promise<Part> {
   const user = requireThat(actor, canCurate, 'review parts');
   const { part, proposerId } = await db().transaction(async (trx) => {
     const row = await lockPartRow(trx, id);
@@ -31,7 +31,7 @@ export async function reviewPart(actor: SessionUser | null, id: number, decision
   });
   if (decision.decision === 'reject') {
     const proposer = await findPerson(db(), proposerId);
-    if (proposer) await sendRejectionNotice({ to: proposer, part, reason: decision.reason, reviewer: user });
+    if (proposer) await sendRejectionNotice({ to: proposer, part, reason: decision.reason, reviewer: user, link: `${baseUrl}/parts/${id}` });
   }
   return part;
 }

@@ -1,0 +1,175 @@
+/**
+ * Datasheet uploads: a real PDF made here with pdf-lib is accepted and downloads back byte for byte;
+ * a text file named .pdf, an oversized file (also streamed without a length), an empty file and a
+ * name with ../ are refused or sanitised, and nothing is stored for a refused upload.
+ */
+import { createHash } from 'node:crypto';
+import { existsSync, readdirSync } from 'node:fs';
+import http from 'node:http';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import request from 'supertest';
+import { PDFDocument, StandardFonts } from 'pdf-lib';
+import { appDb, appUrl } from '../helpers/stack.ts';
+import { sessionCookie } from '../helpers/session.ts';
+
+const knex = appDb();
+const STORE = path.join(process.env.DATA_DIR ?? '.data', 'datasheets');
+let librarian = '';
+let partId = 0;
+
+async function makePdf(title: string, pages = 2): Promise<Buffer> {
+  const doc = await PDFDocument.create();
+  const font = await doc.embedFont(StandardFonts.Helvetica);
+  for (let i = 0; i < pages; i++) doc.addPage([595, 842]).drawText(`${title} page ${i + 1} (invented test datasheet)`, { x: 50, y: 780, size: 12, font });
+  return Buffer.from(await doc.save());
+}
+const files = (): string[] => (existsSync(STORE) ? readdirSync(STORE).sort() : []);
+const rows = async (): Promise<number> => Number((await knex('datasheets').count({ n: '*' }).first())!.n);
+
+function upload(bytes: Buffer, filename: string, cookie = librarian, revision?: string) {
+  const req = request(appUrl()).post(`/api/parts/${partId}/datasheets`).set('Cookie', cookie).set('Origin', appUrl());
+  if (revision !== undefined) req.field('revision', revision);
+  return req.attach('file', bytes, { filename, contentType: 'application/pdf' });
+}
+
+/** Streams a multipart body in chunks without Content-Length; resolves with the status as soon as it arrives. */
+function streamUpload(totalBytes: number, cookie: string): Promise<number> {
+  const boundary = '----stallpoint-test-boundary';
+  const url = new URL(`/api/parts/${partId}/datasheets`, appUrl());
+  return new Promise((resolve, reject) => {
+    const req = http.request(url, {
+      method: 'POST',
+      headers: { 'Content-Type': `multipart/form-data; boundary=${boundary}`, 'Transfer-Encoding': 'chunked', Cookie: cookie, Origin: appUrl() },
+    });
+    req.on('response', (res) => {
+      res.resume();
+      resolve(res.statusCode ?? 0);
+    });
+    req.on('error', (err) => ((err as NodeJS.ErrnoException).code === 'EPIPE' || (err as NodeJS.ErrnoException).code === 'ECONNRESET' ? undefined : reject(err)));
+    req.write(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="huge.pdf"\r\nContent-Type: application/pdf\r\n\r\n%PDF-1.7\n`);
+    const chunk = Buffer.alloc(1024 * 1024, 0x20);
+    let sent = 0;
+    const pump = (): void => {
+      while (sent < totalBytes) {
+        sent += chunk.length;
+        if (!req.write(chunk)) return void req.once('drain', pump);
+      }
+      req.end(`\r\n--${boundary}--\r\n`);
+    };
+    pump();
+  });
+}
+
+beforeAll(async () => {
+  librarian = await sessionCookie('librarian');
+  partId = (await knex('parts').where({ mpn: 'CWN30L02-S3' }).first('id')).id;
+});
+afterAll(() => knex.destroy());
+
+describe('POST /api/parts/:id/datasheets', () => {
+  it('accepts a real PDF: page count, SHA-256 and revision recorded, file stored under a generated name, downloads back equal', async () => {
+    const pdf = await makePdf('CWN30L02-S3 rev B', 3);
+    const res = await upload(pdf, 'CWN30L02-S3 rev B.pdf', librarian, 'Rev. B');
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    expect(res.body).toMatchObject({ originalName: 'CWN30L02-S3 rev B.pdf', pages: 3, bytes: pdf.length, revision: 'Rev. B', sha256: createHash('sha256').update(pdf).digest('hex') });
+    const row = await knex('datasheets').where({ id: res.body.id }).first();
+    expect(row.storage_key).toMatch(/^[0-9a-f-]{36}\.pdf$/);
+    expect(files()).toContain(row.storage_key);
+    const audit = await knex('audit_events').where({ entity_type: 'part', entity_id: partId, action: 'datasheet.add' }).orderBy('id', 'desc').first();
+    expect(JSON.parse(audit.after_json).datasheet.id).toBe(res.body.id);
+
+    const down = await request(appUrl()).get(`/api/datasheets/${res.body.id}`).set('Cookie', await sessionCookie('designer')).buffer(true)
+      .parse((r, cb) => { const c: Buffer[] = []; r.on('data', (d: Buffer) => c.push(d)); r.on('end', () => cb(null, Buffer.concat(c))); });
+    expect(down.status).toBe(200);
+    expect(down.headers['content-type']).toBe('application/pdf');
+    expect(down.headers['content-disposition']).toMatch(/^attachment; filename="CWN30L02-S3 rev B\.pdf"/);
+    expect(down.headers['x-content-type-options']).toBe('nosniff');
+    expect(Buffer.compare(down.body as Buffer, pdf)).toBe(0);
+
+    const again = await upload(pdf, 'copy.pdf');
+    expect(again.status).toBe(409);
+    expect(again.body.issues[0].path).toBe('file');
+  });
+
+  it('sanitises a file name with ../ and never uses it as a path', async () => {
+    const res = await upload(await makePdf('traversal'), '../../../etc/cron.d/evil.pdf');
+    expect(res.status).toBe(201);
+    expect(res.body.originalName).toBe('evil.pdf');
+    const row = await knex('datasheets').where({ id: res.body.id }).first();
+    expect(row.storage_key).not.toContain('evil');
+    expect(files()).toContain(row.storage_key);
+    const odd = await upload(await makePdf('odd'), '..\\..\\windows\\..pdf');
+    expect(odd.status).toBe(201);
+    expect(odd.body.originalName).toBe('pdf.pdf'); // base name "..pdf": leading dots dropped, extension added
+  });
+
+  describe('refusals store nothing', () => {
+    let before: { rows: number; files: string[] };
+    beforeAll(async () => {
+      before = { rows: await rows(), files: files() };
+    });
+    const unchanged = async () => {
+      expect(await rows()).toBe(before.rows);
+      expect(files()).toEqual(before.files);
+    };
+
+    it('a text file named .pdf → 415', async () => {
+      const res = await upload(Buffer.from('Just some text pretending to be a datasheet.\n'), 'fake.pdf');
+      expect(res.status).toBe(415);
+      expect(res.body.issues[0].path).toBe('file');
+      await unchanged();
+    });
+
+    it('a file that starts like a PDF but does not parse → 415', async () => {
+      const res = await upload(Buffer.from('%PDF-1.7\nthis is not really a PDF body\n'), 'broken.pdf');
+      expect(res.status).toBe(415);
+      await unchanged();
+    });
+
+    it('an empty file → 400', async () => {
+      const res = await upload(Buffer.alloc(0), 'empty.pdf');
+      expect(res.status).toBe(400);
+      expect(res.body.issues[0].path).toBe('file');
+      await unchanged();
+    });
+
+    it('an oversized file with a declared length → 413', async () => {
+      const big = Buffer.concat([Buffer.from('%PDF-1.7\n'), Buffer.alloc(20 * 1024 * 1024 + 1, 0x20)]);
+      const res = await upload(big, 'big.pdf').catch((err) => err.response ?? { status: 413, fromError: err.code });
+      expect(res.status).toBe(413);
+      await unchanged();
+    });
+
+    it('an oversized file streamed without a length → 413 before it has all arrived', async () => {
+      expect(await streamUpload(40 * 1024 * 1024, librarian)).toBe(413);
+      await unchanged();
+    });
+
+    it('no file field, a JSON body, a bad revision label, a designer, an unknown part', async () => {
+      const noFile = await request(appUrl()).post(`/api/parts/${partId}/datasheets`).set('Cookie', librarian).set('Origin', appUrl()).field('revision', 'A');
+      expect(noFile.status).toBe(400);
+      const json = await request(appUrl()).post(`/api/parts/${partId}/datasheets`).set('Cookie', librarian).set('Content-Type', 'application/json').send('{}');
+      expect(json.status).toBe(415);
+      const badRevision = await upload(await makePdf('rev'), 'rev.pdf', librarian, '<script>');
+      expect(badRevision.status).toBe(400);
+      expect(badRevision.body.issues[0].path).toBe('revision');
+      expect((await upload(await makePdf('designer'), 'd.pdf', await sessionCookie('designer'))).status).toBe(403);
+      const unknown = await request(appUrl()).post('/api/parts/99999999/datasheets').set('Cookie', librarian).set('Origin', appUrl()).attach('file', await makePdf('x'), 'x.pdf');
+      expect(unknown.status).toBe(404);
+      await unchanged();
+    });
+  });
+});
+
+describe('GET and DELETE /api/datasheets/:id', () => {
+  it('needs a sign-in to download; librarians remove (record and file), others may not', async () => {
+    const created = (await upload(await makePdf('to remove'), 'remove-me.pdf')).body;
+    const key = (await knex('datasheets').where({ id: created.id }).first()).storage_key;
+    expect((await request(appUrl()).get(`/api/datasheets/${created.id}`)).status).toBe(401);
+    expect((await request(appUrl()).delete(`/api/datasheets/${created.id}`).set('Cookie', await sessionCookie('buyer')).set('Content-Type', 'application/json')).status).toBe(403);
+    expect((await request(appUrl()).delete(`/api/datasheets/${created.id}`).set('Cookie', librarian).set('Content-Type', 'application/json')).status).toBe(204);
+    expect(files()).not.toContain(key);
+    expect((await request(appUrl()).get(`/api/datasheets/${created.id}`).set('Cookie', librarian)).status).toBe(404);
+  });
+});

@@ -1,0 +1,135 @@
+/**
+ * CSV import: the data-samples file previews clean and commits once per Idempotency-Key; a file with a
+ * bad row reports line and column and writes nothing.
+ */
+import { readFileSync } from 'node:fs';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import request from 'supertest';
+import Papa from 'papaparse';
+import { appDb, appUrl } from '../helpers/stack.ts';
+import { sessionCookie } from '../helpers/session.ts';
+
+const knex = appDb();
+const SAMPLE = readFileSync('data-samples/parts-import.csv', 'utf8');
+const sampleRows = Papa.parse<Record<string, string>>(SAMPLE, { header: true, skipEmptyLines: true }).data;
+let librarian = '';
+beforeAll(async () => {
+  librarian = await sessionCookie('librarian');
+});
+afterAll(() => knex.destroy());
+
+const post = (mode: string, csv: string, key?: string, cookie = librarian) => {
+  const req = request(appUrl()).post(`/api/imports?mode=${mode}`).set('Cookie', cookie).set('Content-Type', 'text/csv');
+  if (key) req.set('Idempotency-Key', key);
+  return req.send(csv);
+};
+const partCount = async (): Promise<number> => Number((await knex('parts').count({ n: '*' }).first())!.n);
+
+/** The sample with part numbers made unique for this test, so each test imports its own parts. */
+function renamed(suffix: string): { csv: string; mpns: string[] } {
+  const rows = sampleRows.map((r) => ({ ...r, mpn: `${r.mpn}-${suffix}`, sku: r.sku ? `${r.sku}${suffix}` : r.sku }));
+  return { csv: Papa.unparse(rows), mpns: rows.map((r) => r.mpn) };
+}
+
+describe('POST /api/imports', () => {
+  it('previews the data-samples file: every row ready, nothing written', async () => {
+    const before = await partCount();
+    const res = await post('preview', SAMPLE);
+    expect(res.status, JSON.stringify(res.body.errors)).toBe(200);
+    expect(res.body.errors).toEqual([]);
+    expect(res.body.counts).toMatchObject({ rows: sampleRows.length, ready: sampleRows.length, invalid: 0 });
+    expect(res.body.rows.map((r: { line: number }) => r.line)).toEqual(sampleRows.map((_, i) => i + 2));
+    expect(await partCount()).toBe(before);
+  });
+
+  it('commits the data-samples file once: the same key again replays and imports nothing more', async () => {
+    const before = await partCount();
+    const key = `test-sample-${Date.now()}`;
+    const first = await post('commit', SAMPLE, key);
+    expect(first.status, JSON.stringify(first.body)).toBe(201);
+    expect(first.body.counts.created).toBe(sampleRows.length);
+    expect(await partCount()).toBe(before + sampleRows.length);
+    const imported = await knex('parts').whereIn('mpn', sampleRows.map((r) => r.mpn));
+    expect(imported.map((p) => p.review_status)).toEqual(sampleRows.map(() => 'pending'));
+    const again = await post('commit', SAMPLE, key);
+    expect(again.status).toBe(200);
+    expect(again.body.replayed).toBe(true);
+    expect(again.body.counts.created).toBe(sampleRows.length);
+    expect(await partCount()).toBe(before + sampleRows.length);
+    const otherFile = await post('commit', renamed('K').csv, key);
+    expect(otherFile.status).toBe(409);
+    expect(await partCount()).toBe(before + sampleRows.length);
+    // The imported MOSFET reads back with its RDS(on) lines and its source.
+    const mosfet = sampleRows.find((r) => r.category === 'mosfet')!;
+    const id = imported.find((p) => p.mpn === mosfet.mpn)!.id;
+    const part = (await request(appUrl()).get(`/api/parts/${id}`).set('Cookie', librarian)).body;
+    expect(part.params.rdsOn.map((r: { vgsV: number }) => r.vgsV)).toEqual([1, 2, 3, 4].map((i) => mosfet[`rdsOn${i}VgsV`]).filter(Boolean).map(Number));
+    expect(part.sources[0].sku).toBe(mosfet.sku);
+  });
+
+  it('a file with bad rows reports line and column and writes nothing, also on commit', async () => {
+    const { mpns } = renamed('B');
+    const rows: Record<string, string>[] = sampleRows.map((r, i) => ({ ...r, mpn: mpns[i], sku: r.sku ? `${r.sku}B` : '' }));
+    const mosfetIndex = rows.findIndex((r) => r.category === 'mosfet');
+    const diodeIndex = rows.findIndex((r) => r.category === 'diode');
+    rows[mosfetIndex] = { ...rows[mosfetIndex], vdsMaxV: 'forty' };
+    rows[diodeIndex] = { ...rows[diodeIndex], vdsMaxV: '30' };
+    const csv = Papa.unparse(rows);
+    const before = await partCount();
+    const preview = await post('preview', csv);
+    expect(preview.status).toBe(200);
+    expect(preview.body.errors).toEqual(expect.arrayContaining([
+      expect.objectContaining({ line: mosfetIndex + 2, column: 'vdsMaxV' }),
+      expect.objectContaining({ line: diodeIndex + 2, column: 'vdsMaxV', message: expect.stringContaining('does not apply') }),
+    ]));
+    expect(preview.body.counts.invalid).toBe(2);
+    const commit = await post('commit', csv, `test-bad-${Date.now()}`);
+    expect(commit.status).toBe(400);
+    expect(commit.body.issues.length).toBeGreaterThan(0);
+    expect(commit.body.errors).toEqual(preview.body.errors);
+    expect(await partCount()).toBe(before);
+    expect(await knex('parts').whereIn('mpn', mpns)).toEqual([]);
+  });
+
+  it('reports a missing required value and a duplicate inside the file', async () => {
+    const { csv } = renamed('D');
+    const rows = Papa.parse<Record<string, string>>(csv, { header: true }).data;
+    const motor = rows.findIndex((r) => r.category === 'motor');
+    rows[motor] = { ...rows[motor], stallCurrentA: '' };
+    rows.push({ ...rows[0] });
+    const res = await post('preview', Papa.unparse(rows));
+    expect(res.body.errors).toEqual(expect.arrayContaining([
+      expect.objectContaining({ line: motor + 2, column: 'stallCurrentA' }),
+      expect.objectContaining({ line: rows.length + 1, column: 'mpn', message: 'the same maker and part number as line 2' }),
+    ]));
+  });
+
+  it('refuses an unknown column (line 1), a commit without a key, a non-CSV body and a designer', async () => {
+    const unknown = await post('preview', SAMPLE.replace('vdsMaxV', 'vdsMax'));
+    expect(unknown.body.errors).toEqual(expect.arrayContaining([{ line: 1, column: 'vdsMax', message: 'unknown column' }]));
+    const noKey = await post('commit', SAMPLE);
+    expect(noKey.status).toBe(400);
+    expect(noKey.body.issues.map((i: { path: string }) => i.path)).toContain('(headers).idempotency-key');
+    const json = await request(appUrl()).post('/api/imports?mode=preview').set('Cookie', librarian).set('Content-Type', 'application/json').send('{}');
+    expect(json.status).toBe(415);
+    const badMode = await post('apply', SAMPLE);
+    expect(badMode.status).toBe(400);
+    expect(badMode.body.issues.map((i: { path: string }) => i.path)).toContain('mode');
+    expect((await post('preview', SAMPLE, undefined, await sessionCookie('designer'))).status).toBe(403);
+  });
+
+  it('a librarian can approve an imported part and a designer then finds it by parameters', async () => {
+    const { csv, mpns } = renamed('R');
+    const created = await post('commit', csv, `test-review-${Date.now()}`);
+    expect(created.status).toBe(201);
+    const diode = created.body.rows.find((r: { category: string }) => r.category === 'diode');
+    const part = (await request(appUrl()).get(`/api/parts/${diode.partId}`).set('Cookie', librarian)).body;
+    const approved = await request(appUrl()).post(`/api/parts/${part.id}/review`).set('Cookie', librarian).set('Content-Type', 'application/json')
+      .send(JSON.stringify({ decision: 'approve', version: part.version }));
+    expect(approved.body.reviewStatus).toBe('approved');
+    const found = await request(appUrl()).get('/api/parts').set('Cookie', await sessionCookie('designer'))
+      .query({ category: 'diode', vrrmMinV: part.params.vrrmV, kind: part.params.kind, reviewStatus: 'approved', pageSize: 200 });
+    expect(found.body.items.map((p: { mpn: string }) => p.mpn)).toContain(part.mpn);
+    expect(mpns).toContain(part.mpn);
+  });
+});
