@@ -1,0 +1,80 @@
+/** Every parameter of a part as label, value, unit and the test condition it was stated at. */
+import type { Part } from '../../lib/domain/parts.ts';
+
+export interface ParameterRow {
+  label: string;
+  value: string;
+  unit: string;
+  condition: string;
+}
+
+const v = (x: number | null | undefined, digits = 4): string => (x === null || x === undefined ? '—' : String(Number(x.toPrecision(digits))));
+const row = (label: string, value: string, unit = '', condition = ''): ParameterRow => ({ label, value, unit, condition });
+
+export function parameterRows(part: Part): ParameterRow[] {
+  switch (part.category) {
+    case 'mosfet': {
+      const p = part.params;
+      return [
+        row('Channel', p.channel === 'n' ? 'N-channel' : 'P-channel (magnitudes shown)'),
+        row('Drain-source breakdown V(BR)DSS', v(p.vdsMaxV), 'V'),
+        row('Gate-source maximum VGS(max)', `±${v(p.vgsMaxV)}`, 'V', 'absolute maximum'),
+        row('Gate threshold VGS(th)', `${v(p.vgsThMinV)} – ${v(p.vgsThMaxV)}`, 'V', `ID = ${v(p.vgsThTestCurrentA * 1e6)} µA`),
+        row('Continuous drain current ID', v(p.idContinuousA), 'A', 'TA = 25 °C, datasheet test board'),
+        row('Pulsed drain current IDM', v(p.idPulsedA), 'A'),
+        row('Total gate charge Qg', v(p.qgTotalNc), 'nC', `VGS = ${v(p.qgTestVgsV)} V`),
+        row('Gate-source charge Qgs', v(p.qgsNc), 'nC'),
+        row('Gate-drain charge Qgd', v(p.qgdNc), 'nC'),
+        row('Miller plateau', v(p.vPlateauV), 'V'),
+        row('Thermal resistance RθJA', v(p.rthJaCPerW), 'K/W', 'datasheet test board'),
+        row('Maximum junction temperature', v(p.tjMaxC), '°C'),
+        row('Body-diode forward voltage', v(p.bodyDiodeVfV), 'V', 'typical'),
+      ];
+    }
+    case 'driver': {
+      const p = part.params;
+      const ref = p.inputLogic === 'fixed' ? 'V' : p.inputLogic === 'ratio' ? '× own supply' : '× input rail';
+      return [
+        row('Kind', p.kind === 'gate-driver' ? 'Gate driver' : 'Level shifter'),
+        row('Channels', String(p.channels)),
+        row('Polarity', p.inverting ? 'Inverting' : 'Non-inverting'),
+        row('Supply range', `${v(p.supplyMinV)} – ${v(p.supplyMaxV)}`, 'V', 'output side'),
+        row('Input thresholds', p.inputLogic === 'fixed' ? 'fixed (TTL-style)' : p.inputLogic === 'ratio' ? 'ratio of own supply (CMOS)' : 'ratio of the input rail'),
+        row('Input high VIH min', v(p.inputHighMin), ref),
+        row('Input low VIL max', v(p.inputLowMax), ref),
+        row('Output high drop', v(p.outputHighDropV), 'V', 'below supply, at rated source current'),
+        row('Output low VOL max', v(p.outputLowMaxV), 'V', 'at rated sink current'),
+        row('Peak source current', v(p.sourceCurrentA), 'A'),
+        row('Peak sink current', v(p.sinkCurrentA), 'A'),
+        row('Propagation delay', v(p.propagationDelayNs), 'ns', 'worst case'),
+        row('Output with input open', p.inputDefault === 'floating' ? 'undefined (input floats)' : `${p.inputDefault === 'low' ? 'as for input low' : 'as for input high'}`, '', 'internal input pull'),
+      ];
+    }
+    case 'diode': {
+      const p = part.params;
+      return [
+        row('Kind', p.kind === 'general' ? 'General purpose' : p.kind[0].toUpperCase() + p.kind.slice(1)),
+        row('Repetitive reverse voltage VRRM', v(p.vrrmV), 'V'),
+        row('Average forward current IF(AV)', v(p.ifAvA), 'A'),
+        row('Surge current IFSM', v(p.ifsmA), 'A', 'non-repetitive'),
+        row('Forward voltage VF max', v(p.vfV), 'V', `IF = ${v(p.vfAtIfA)} A`),
+        row('Reverse recovery trr', p.trrNs === null ? 'none (no stored charge)' : v(p.trrNs), p.trrNs === null ? '' : 'ns'),
+      ];
+    }
+    case 'motor': {
+      const p = part.params;
+      const at = `at ${v(p.ratedVoltageV)} V`;
+      return [
+        row('Rated voltage', v(p.ratedVoltageV), 'V'),
+        row('Operating range', p.voltageMinV !== null && p.voltageMaxV !== null ? `${v(p.voltageMinV)} – ${v(p.voltageMaxV)}` : '—', 'V', 'recommended'),
+        row('No-load speed', v(p.noLoadSpeedRpm, 5), 'rpm', at),
+        row('No-load current', v(p.noLoadCurrentA), 'A', at),
+        row('Stall torque', v(p.stallTorqueNm * 1000), 'mN·m', at),
+        row('Stall current', v(p.stallCurrentA), 'A', at),
+        row('Terminal resistance', v(p.terminalResistanceOhm), 'Ω', '20 °C'),
+        row('Terminal inductance', p.inductanceH === null ? '—' : v(p.inductanceH * 1000), 'mH'),
+        row('Rotor inertia', p.rotorInertiaKgM2 === null ? '—' : v(p.rotorInertiaKgM2 * 1e7), 'g·cm²'),
+      ];
+    }
+  }
+}
