@@ -67,9 +67,13 @@ async function startMailSink(env: NodeJS.ProcessEnv): Promise<Services> {
   const sink = createSink(knex);
   const wanted = Number(env.SMTP_SINK_PORT ?? (env.NODE_ENV === 'test' ? 0 : DEFAULT_SINK_PORT));
   await new Promise<void>((resolve, reject) => {
-    sink.server.once('error', reject);
+    sink.once('error', (err: NodeJS.ErrnoException) => {
+      const inUse = err.code === 'EADDRINUSE';
+      reject(new Error(inUse ? `port ${wanted} for the mail sink is in use: set SMTP_SINK_PORT to a free one` : err.message));
+    });
     sink.listen(wanted, '127.0.0.1', () => resolve());
   });
+  sink.on('error', (err: Error) => log(`mail sink: ${err.message}`));
   const address = sink.server.address();
   const port = typeof address === 'object' && address ? address.port : wanted;
   log(`mail sink on 127.0.0.1:${port} (admins read it at /mail)`);
