@@ -39,9 +39,9 @@ export default function SignInForm({ next, notice = null }: Props): ReactNode {
   return (
     <form onSubmit={submit} noValidate method="post" className="flex flex-col gap-3" aria-label="Sign in" data-testid="signin-form">
       {notice && !error && <StatusLine tone="ok">{notice}</StatusLine>}
-      <Field id="email" label="E-mail address" type="email" value={email} onChange={setEmail} autoComplete="username" autoFocus
+      <Field readOnly={!hydrated} id="email" label="E-mail address" type="email" value={email} onChange={setEmail} autoComplete="username" autoFocus
         error={issueFor(issues, 'email')} />
-      <Field id="password" label="Password" type="password" value={password} onChange={setPassword} autoComplete="current-password"
+      <Field readOnly={!hydrated} id="password" label="Password" type="password" value={password} onChange={setPassword} autoComplete="current-password"
         error={issueFor(issues, 'password')} />
       {error && <StatusLine tone="bad">{error}</StatusLine>}
       {busy && <StatusLine tone="busy">Signing in…</StatusLine>}

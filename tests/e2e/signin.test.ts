@@ -43,6 +43,24 @@ async function signInThroughForm(page: Page, email: string, password: string): P
   await page.getByRole('button', { name: 'Sign in' }).click();
 }
 
+/** Waits for the page the sign-in leads to; if the form shows an error instead, fails with its words. */
+async function landOn(page: Page, url: string): Promise<void> {
+  const alert = page.getByRole('alert');
+  const pending = new Set<string>();
+  page.on('request', (r) => pending.add(`${r.method()} ${r.url()}`));
+  page.on('requestfinished', (r) => pending.delete(`${r.method()} ${r.url()}`));
+  page.on('requestfailed', (r) => pending.delete(`${r.method()} ${r.url()}`));
+  await Promise.race([
+    page.waitForURL(url, { waitUntil: 'domcontentloaded' }).catch(async (err: Error) => {
+      const status = await page.getByTestId('form-status').allInnerTexts().catch(() => []);
+      throw new Error(`${err.message}\nat ${page.url()}, status ${JSON.stringify(status)}, unfinished ${JSON.stringify([...pending])}`);
+    }),
+    alert.waitFor({ timeout: 60_000 }).then(async () => {
+      throw new Error(`sign-in stayed on ${page.url()}: ${await alert.innerText()}`);
+    }, () => undefined),
+  ]);
+}
+
 async function navLabels(page: Page): Promise<string[]> {
   return page.locator('[data-testid="main-nav"] a').allInnerTexts();
 }
@@ -53,7 +71,7 @@ describe.each(PEOPLE)('$role', ({ role, name }) => {
     await page.goto(`${appUrl()}/`);
     expect(new URL(page.url()).pathname).toBe('/signin');
     await signInThroughForm(page, `${role}@kestrel-fluidics.example`, PASSWORD);
-    await page.waitForURL(`${appUrl()}/`);
+    await landOn(page, `${appUrl()}/`);
     await expect(page.getByTestId('user-name').innerText()).resolves.toContain(name);
     const nav = await navLabels(page);
     expect(nav).toContain('Catalogue');
@@ -97,7 +115,7 @@ describe('admin invites someone', () => {
     const { page, errors } = await watchedPage();
     await page.goto(`${appUrl()}/signin?next=%2Fpeople`);
     await signInThroughForm(page, 'admin@kestrel-fluidics.example', PASSWORD);
-    await page.waitForURL(`${appUrl()}/people`);
+    await landOn(page, `${appUrl()}/people`);
     await page.getByLabel('E-mail address').fill(invitee);
     await page.getByLabel('Name', { exact: true }).fill('Noor Newcomer');
     await page.getByRole('checkbox', { name: 'buyer', exact: true }).check();

@@ -38,9 +38,9 @@ function ChangePassword({ minChars, maxChars }: Props): ReactNode {
   return (
     <form onSubmit={submit} noValidate method="post" className="card p-4 flex flex-col gap-3" aria-labelledby="h-password">
       <h2 id="h-password" className="text-lg">Change password</h2>
-      <Field id="currentPassword" label="Current password" type="password" value={current} onChange={setCurrent}
+      <Field readOnly={!hydrated} id="currentPassword" label="Current password" type="password" value={current} onChange={setCurrent}
         autoComplete="current-password" error={issueFor(issues, 'currentPassword')} />
-      <Field id="newPassword" label="New password" type="password" value={next} onChange={setNext} autoComplete="new-password"
+      <Field readOnly={!hydrated} id="newPassword" label="New password" type="password" value={next} onChange={setNext} autoComplete="new-password"
         hint={`${minChars} to ${maxChars} characters; very common passwords are refused.`} error={issueFor(issues, 'newPassword')} />
       {status && <StatusLine tone={status.tone}>{status.text}</StatusLine>}
       <div><button type="submit" className="btn" disabled={status?.tone === 'busy' || !hydrated}>Change password</button></div>

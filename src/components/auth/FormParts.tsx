@@ -11,6 +11,8 @@ interface FieldProps {
   hint?: string;
   autoComplete?: string;
   autoFocus?: boolean;
+  /** Read-only until the island has hydrated, so nothing typed before then is lost. */
+  readOnly?: boolean;
 }
 
 export function Field(props: FieldProps): ReactNode {
@@ -28,6 +30,7 @@ export function Field(props: FieldProps): ReactNode {
         onChange={(e) => props.onChange(e.target.value)}
         autoComplete={props.autoComplete}
         autoFocus={props.autoFocus}
+        readOnly={props.readOnly}
         aria-invalid={props.error ? true : undefined}
         aria-describedby={describedBy}
       />

@@ -54,10 +54,10 @@ export default function SetPasswordForm({ mode, token, email, minChars, maxChars
   return (
     <form onSubmit={submit} noValidate method="post" className="flex flex-col gap-3" aria-label="Choose a password">
       <input type="email" name="username" value={email} autoComplete="username" readOnly hidden />
-      <Field id="password" label="New password" type="password" value={password} onChange={setPassword} autoComplete="new-password" autoFocus
+      <Field readOnly={!hydrated} id="password" label="New password" type="password" value={password} onChange={setPassword} autoComplete="new-password" autoFocus
         hint={`${minChars} to ${maxChars} characters; a phrase of several words works well. Very common passwords are refused.`}
         error={issueFor(issues, 'password')} />
-      <Field id="repeat" label="The same password again" type="password" value={repeat} onChange={setRepeat} autoComplete="new-password"
+      <Field readOnly={!hydrated} id="repeat" label="The same password again" type="password" value={repeat} onChange={setRepeat} autoComplete="new-password"
         error={issueFor(issues, 'repeat')} />
       {error && <StatusLine tone="bad">{error}</StatusLine>}
       {busy && <StatusLine tone="busy">Saving…</StatusLine>}

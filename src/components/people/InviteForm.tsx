@@ -45,14 +45,14 @@ export default function InviteForm({ onInvited }: { onInvited(person: PersonView
     <form onSubmit={submit} noValidate method="post" className="card p-4 flex flex-col gap-3" aria-labelledby="h-invite" data-testid="invite-form">
       <h2 id="h-invite" className="text-lg">Invite someone</h2>
       <div className="grid gap-3 md:grid-cols-2">
-        <Field id="invite-email" label="E-mail address" type="email" value={email} onChange={setEmail} error={issueFor(issues, 'email')} />
-        <Field id="invite-name" label="Name" value={name} onChange={setName} error={issueFor(issues, 'name')} />
+        <Field readOnly={!hydrated} id="invite-email" label="E-mail address" type="email" value={email} onChange={setEmail} error={issueFor(issues, 'email')} />
+        <Field readOnly={!hydrated} id="invite-name" label="Name" value={name} onChange={setName} error={issueFor(issues, 'name')} />
       </div>
       <fieldset className="flex flex-wrap gap-4 text-sm" aria-describedby={rolesError ? 'invite-roles-error' : undefined}>
         <legend className="text-ink-soft mb-1">Roles</legend>
         {ROLE_NAMES.map((role) => (
           <label key={role} className="inline-flex items-center gap-1">
-            <input type="checkbox" checked={roles.includes(role)} onChange={() => toggle(role)} name={`invite-role-${role}`} />
+            <input type="checkbox" checked={roles.includes(role)} onChange={() => toggle(role)} name={`invite-role-${role}`} disabled={!hydrated} />
             {role}
           </label>
         ))}

@@ -1,6 +1,7 @@
 /** Role checkboxes for one person, saved together. */
 import { useState, type ReactNode } from 'react';
 import { ROLE_NAMES, type PersonView, type RoleName } from './people-model.ts';
+import { useHydrated } from '../auth/use-hydrated.ts';
 
 interface Props {
   person: PersonView;
@@ -10,13 +11,14 @@ interface Props {
 
 export function RolesEditor({ person, isSelf, onSave }: Props): ReactNode {
   const [roles, setRoles] = useState<RoleName[]>(person.roles);
+  const hydrated = useHydrated();
   const changed = roles.slice().sort().join() !== person.roles.slice().sort().join();
   const toggle = (r: RoleName): void => setRoles((rs) => (rs.includes(r) ? rs.filter((x) => x !== r) : [...rs, r]));
   return (
     <span className="flex flex-wrap items-center gap-2" role="group" aria-label={`Roles of ${person.name}`}>
       {ROLE_NAMES.map((r) => (
         <label key={r} className="inline-flex items-center gap-1 whitespace-nowrap">
-          <input type="checkbox" checked={roles.includes(r)} onChange={() => toggle(r)} disabled={isSelf && r === 'admin'}
+          <input type="checkbox" checked={roles.includes(r)} onChange={() => toggle(r)} disabled={!hydrated || (isSelf && r === 'admin')}
             aria-label={`${r} (${person.name})`} />
           {r}
         </label>
