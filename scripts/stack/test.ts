@@ -5,7 +5,7 @@
  */
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { spawn } from 'node:child_process';
+import { spawn, spawnSync } from 'node:child_process';
 import { CHROMIUM, ensureChromium, startThrowawayStack, type ThrowawayStack } from './throwaway.ts';
 import { log } from './log.ts';
 
@@ -28,7 +28,15 @@ const stop = async (code: number): Promise<never> => {
 process.on('SIGINT', () => void stop(130));
 process.on('SIGTERM', () => void stop(143));
 
+/** Type errors fail the run before anything starts (vitest itself does not type-check). */
+function typeCheck(): boolean {
+  log('type-checking (tsc --noEmit)…');
+  const r = spawnSync('npx', ['tsc', '--noEmit', '-p', 'tsconfig.json'], { cwd: root, stdio: 'inherit' });
+  return r.status === 0;
+}
+
 try {
+  if (!typeCheck()) throw new Error('TypeScript reported errors (see above).');
   ensureChromium();
   stack = await startThrowawayStack(root);
   log(`test server at ${stack.url}, MariaDB on port ${stack.env.MARIADB_PORT}`);

@@ -57,7 +57,7 @@ describe('bill of materials', () => {
     const { input, motor } = inputFor('P-20');
     const match = matchDesign(input, motor.mpn, motor.params, catalogue(mosfets.filter((m) => m.params.channel === 'n')));
     const withSel = { ...input, selections: suggestSelections(match) };
-    const partsById = new Map<number, Part>([...mosfets, ...diodes, ...drivers].map((p) => [p.id, p]));
+    const partsById = new Map<number, Part>([...mosfets, ...diodes, ...drivers].map((p) => [p.id as number, p]));
     const lines = buildBom({ input: withSel, motor: { manufacturer: motor.manufacturer, mpn: motor.mpn, description: motor.description }, partsById, pull: match.powerOn?.recommendedPull ?? null });
     expect(lines.map((l) => l.referenceDesignators)).toEqual(expect.arrayContaining(['M1', 'Q1', 'D1']));
     expect(lines.every((l) => l.quantity === input.boardQuantity)).toBe(true);

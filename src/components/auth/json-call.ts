@@ -1,35 +1,12 @@
-/** Browser-side JSON writes for the auth and people islands; understands the one error shape. */
-export interface FieldIssue {
-  path: string;
-  message: string;
-}
+/** JSON calls for the auth and people islands, through the shared client (src/components/api-client.ts). */
+import { sendJson, type ApiIssue, type ApiResult } from '../api-client.ts';
 
-export type CallResult<T> =
-  | { ok: true; status: number; data: T }
-  | { ok: false; status: number; error: string; issues: FieldIssue[]; retryAfterSeconds: number | null };
+export type FieldIssue = ApiIssue;
+export type CallResult<T> = ApiResult<T>;
 
-export async function callJson<T>(method: string, url: string, body: unknown = {}): Promise<CallResult<T>> {
-  let res: Response;
-  try {
-    res = await fetch(url, {
-      method,
-      headers: { 'Content-Type': 'application/json', Accept: 'application/json' },
-      body: method === 'GET' ? undefined : JSON.stringify(body),
-      credentials: 'same-origin',
-    });
-  } catch {
-    return { ok: false, status: 0, error: 'Could not reach Stallpoint. Check the connection and try again.', issues: [], retryAfterSeconds: null };
-  }
-  const payload = await res.json().catch(() => null);
-  if (res.ok) return { ok: true, status: res.status, data: payload as T };
-  const retry = Number(res.headers.get('Retry-After'));
-  return {
-    ok: false,
-    status: res.status,
-    error: (payload && typeof payload.error === 'string' && payload.error) || `Stallpoint answered ${res.status}.`,
-    issues: Array.isArray(payload?.issues) ? payload.issues : [],
-    retryAfterSeconds: Number.isFinite(retry) && retry > 0 ? retry : null,
-  };
+/** A JSON call whose writes always carry a body ({} when none is given). */
+export function callJson<T>(method: string, url: string, body: unknown = {}): Promise<CallResult<T>> {
+  return sendJson<T>(method, url, body);
 }
 
 /** The message for one field, from an error's issues. */

@@ -2,6 +2,7 @@
  * Request schemas of the three calculators [api-contract.md] and the issue list they produce.
  */
 import { z } from 'zod';
+import { issuesOf, type ApiIssue } from './issues.ts';
 import { E_SERIES_NAMES } from '../eseries.ts';
 
 const positive = (): z.ZodNumber => z.number().positive();
@@ -89,15 +90,7 @@ export const calcSwitchRequestSchema = z.object({
 });
 export type CalcSwitchRequest = z.infer<typeof calcSwitchRequestSchema>;
 
-export interface ApiIssue {
-  path: string;
-  message: string;
-}
-
-/** zod issues as the contract's issue list: dotted paths like "motor.noLoadCurrentA". */
-export function issuesOf(error: z.ZodError): ApiIssue[] {
-  return error.issues.map((issue) => ({ path: issue.path.map(String).join('.'), message: issue.message }));
-}
+export type { ApiIssue };
 
 export type ParseResult<T> = { ok: true; data: T } | { ok: false; error: string; issues: ApiIssue[] };
 

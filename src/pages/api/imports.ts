@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
-import { answer, readQuery, ServiceError } from '../../server/services/parts-errors.ts';
+import { answer, readQuery, ServiceError } from '../../server/services/errors.ts';
 import { canCurate, requireThat } from '../../server/services/parts-access.ts';
 import { readCappedBody } from '../../server/services/datasheets-multipart.ts';
 import { commitImport, IDEMPOTENCY_KEY_PATTERN, ImportRefused, MAX_IMPORT_BYTES, previewImport } from '../../server/services/imports.ts';

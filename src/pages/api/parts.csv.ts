@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
 import { partListQuerySchema } from '../../lib/schemas/parts.ts';
-import { answer, readQuery } from '../../server/services/parts-errors.ts';
+import { answer, readQuery } from '../../server/services/errors.ts';
 import { requireUser } from '../../server/services/parts-access.ts';
 import { csvResponse, exportPartsCsv } from '../../server/services/parts-export.ts';
 

@@ -1,18 +1,14 @@
 /** The one error shape: {"error": sentence, "issues": [{path, message}]}, and helpers for JSON endpoints. */
 import type { z } from 'zod';
+import { issuesOf, type ApiIssue } from '../../lib/schemas/issues.ts';
 
-export interface ApiIssue {
-  path: string;
-  message: string;
-}
+export type { ApiIssue };
 
 export function jsonError(status: number, error: string, issues: ApiIssue[] = [], headers: Record<string, string> = {}): Response {
   return Response.json({ error, issues }, { status, headers: { 'Cache-Control': 'no-store', ...headers } });
 }
 
-export function zodIssues(error: z.ZodError): ApiIssue[] {
-  return error.issues.map((i) => ({ path: i.path.map(String).join('.') || '(body)', message: i.message }));
-}
+export const zodIssues = (error: z.ZodError): ApiIssue[] => issuesOf(error);
 
 export const MAX_JSON_BYTES = 256 * 1024;
 

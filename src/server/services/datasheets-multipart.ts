@@ -3,7 +3,7 @@
  * and the request is refused as soon as the cap is passed, so an oversized upload is never buffered whole.
  * Only then is the (bounded) body handed to the web FormData parser.
  */
-import { ServiceError } from './parts-errors.ts';
+import { ServiceError } from './errors.ts';
 
 /** Room for the multipart envelope (boundaries, part headers, the revision field) beyond the file itself. */
 export const MULTIPART_OVERHEAD_BYTES = 64 * 1024;

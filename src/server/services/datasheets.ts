@@ -12,7 +12,7 @@ import { findPartRow } from '../repos/part-writes.ts';
 import { insertAuditEvent } from '../repos/audit.ts';
 import { datasheetStore } from '../storage/index.ts';
 import { canCurate, requireThat, requireUser } from './parts-access.ts';
-import { notFound, ServiceError } from './parts-errors.ts';
+import { notFound, ServiceError } from './errors.ts';
 
 export const MAX_DATASHEET_BYTES = 20 * 1024 * 1024;
 const PDF_MAGIC = [0x25, 0x50, 0x44, 0x46, 0x2d]; // "%PDF-"

@@ -9,7 +9,7 @@ import { findDesignRow, insertRevision, listDesignRows, loadDesign, replaceDesig
 import { hydrateParts } from '../repos/parts.ts';
 import type { DbPartRow } from '../repos/part-rows.ts';
 import { insertAuditEvent } from '../repos/audit.ts';
-import { ServiceError, notFound } from './parts-errors.ts';
+import { ServiceError, notFound } from './errors.ts';
 import { loadCandidates } from './design-candidates.ts';
 
 export const canEditDesign = (user: SessionUser, ownerId: number): boolean => user.roles.includes('admin') || user.id === ownerId;

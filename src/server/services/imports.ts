@@ -13,7 +13,7 @@ import { loadPart } from '../repos/part-writes.ts';
 import { insertAuditEvent } from '../repos/audit.ts';
 import { claimImportKey, completeImportRequest, findImportRequest } from '../repos/import-requests.ts';
 import { canCurate, requireThat } from './parts-access.ts';
-import { ServiceError } from './parts-errors.ts';
+import { ServiceError } from './errors.ts';
 import { CSV_COLUMNS, columnForPath, csvRowToInput } from './parts-csv.ts';
 import { toNewPart } from './parts.ts';
 

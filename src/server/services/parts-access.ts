@@ -4,7 +4,7 @@
  * inside an allowed call (a designer's new part enters as pending, a proposer may revise their own).
  */
 import type { SessionUser } from '../auth/types.ts';
-import { ServiceError } from './parts-errors.ts';
+import { ServiceError } from './errors.ts';
 
 const has = (user: SessionUser | null, ...roles: string[]): boolean => !!user && user.roles.some((r) => roles.includes(r));
 

@@ -6,7 +6,7 @@ import type { LifecycleChange, ReviewDecision, SourcesUpdate } from '../../lib/s
 import { loadPart, lockPartRow, replaceSources, setLifecycle, setReview, touchPart } from '../repos/part-writes.ts';
 import { findPerson, insertAuditEvent } from '../repos/audit.ts';
 import { canCurate, canManageSupply, requireThat } from './parts-access.ts';
-import { notFound, ServiceError, staleVersion } from './parts-errors.ts';
+import { notFound, ServiceError, staleVersion } from './errors.ts';
 import { sendRejectionNotice } from './parts-review-mail.ts';
 
 /** Approve a pending (or draft) part, or reject a pending one with a reason the proposer is sent. */

@@ -18,7 +18,7 @@ import { listDatasheets } from '../repos/datasheets.ts';
 import { designsUsingPart } from '../repos/designs.ts';
 import { datasheetStore } from '../storage/index.ts';
 import { canCurate, canPropose, requireThat, requireUser } from './parts-access.ts';
-import { notFound, ServiceError, staleVersion } from './parts-errors.ts';
+import { notFound, ServiceError, staleVersion } from './errors.ts';
 
 /** Curators get what they ask for (approved by default); everyone else proposes (pending). */
 export function initialReviewStatus(user: SessionUser, requested: PartInput['reviewStatus']): ReviewStatus {

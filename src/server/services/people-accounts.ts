@@ -15,7 +15,7 @@ import { consume, reset, type RateLimit } from '../auth/rate-limit.ts';
 import { accountBucket, SIGNIN_ACCOUNT_LIMIT } from '../auth/signin.ts';
 import { resetMessage } from '../mail/messages.ts';
 import { sendMailInBackground } from '../mail/send.ts';
-import { PeopleError } from './people-errors.ts';
+import { ServiceError } from './errors.ts';
 import { auditPerson } from './people-audit.ts';
 
 /** Reset mails per address per hour, so the form cannot be used to flood someone's inbox. */
@@ -29,7 +29,7 @@ export interface NewSession {
 
 function checkNewPassword(password: string, path: string): void {
   const problem = passwordProblem(password);
-  if (problem) throw new PeopleError(400, problem, [{ path, message: problem }]);
+  if (problem) throw new ServiceError(400, problem, [{ path, message: problem }]);
 }
 
 /** Who an open invitation or reset link is for (name and e-mail for the page), or null. */
@@ -45,7 +45,7 @@ async function setPasswordWithToken(db: Knex, token: string, password: string, p
   return db.transaction(async (trx) => {
     const userId = await consumeToken(trx, token, purpose, now);
     const row = userId === null ? null : await findUserById(trx, userId);
-    if (!row || !row.active) throw new PeopleError(400, 'This link has expired or was already used. Ask for a new one.', [{ path: 'token', message: 'expired or used' }]);
+    if (!row || !row.active) throw new ServiceError(400, 'This link has expired or was already used. Ask for a new one.', [{ path: 'token', message: 'expired or used' }]);
     await setPasswordHash(trx, row.id, passwordHash, now);
     await invalidateUserSessions(trx, row.id);
     await auditPerson(trx, row.id, purpose === 'invite' ? 'person.invite-accept' : 'person.password-reset', row.id, undefined, now);
@@ -83,10 +83,10 @@ export interface PasswordChange {
 /** Ends every session of the person, then opens a fresh one for the browser that asked. */
 export async function changePassword(db: Knex, user: SessionUser, change: PasswordChange, now = new Date()): Promise<NewSession> {
   const limited = !(await consume(db, accountBucket(user.email), SIGNIN_ACCOUNT_LIMIT, now)).allowed;
-  if (limited) throw new PeopleError(429, 'Too many wrong passwords; wait a few minutes and try again.', [{ path: 'currentPassword', message: 'too many attempts' }]);
+  if (limited) throw new ServiceError(429, 'Too many wrong passwords; wait a few minutes and try again.', [{ path: 'currentPassword', message: 'too many attempts' }]);
   const row = await findUserById(db, user.id);
   if (!row?.password_hash || !(await verifyPassword(row.password_hash, change.currentPassword))) {
-    throw new PeopleError(400, 'The current password is not right.', [{ path: 'currentPassword', message: 'not right' }]);
+    throw new ServiceError(400, 'The current password is not right.', [{ path: 'currentPassword', message: 'not right' }]);
   }
   checkNewPassword(change.newPassword, 'newPassword');
   await reset(db, accountBucket(user.email));

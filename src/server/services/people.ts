@@ -10,7 +10,7 @@ import { INVITE_VALID_HOURS, issueToken, withdrawTokens } from '../auth/account-
 import { invalidateUserSessions } from '../auth/session.ts';
 import { inviteMessage } from '../mail/messages.ts';
 import { sendMail } from '../mail/send.ts';
-import { PeopleError } from './people-errors.ts';
+import { ServiceError } from './errors.ts';
 import { auditPerson } from './people-audit.ts';
 
 export async function listPeople(db: Db): Promise<Person[]> {
@@ -19,7 +19,7 @@ export async function listPeople(db: Db): Promise<Person[]> {
 
 async function personById(db: Db, id: number): Promise<Person> {
   const row = await findUserById(db, id);
-  if (!row) throw new PeopleError(404, 'There is no such person.');
+  if (!row) throw new ServiceError(404, 'There is no such person.');
   return toPerson(row, await rolesOf(db, id));
 }
 
@@ -48,7 +48,7 @@ async function mailInvite(person: Person, actor: SessionUser, token: string, bas
 
 export async function invitePerson(db: Knex, input: InviteInput, actor: SessionUser, baseUrl: string, now = new Date()): Promise<InviteOutcome> {
   if (await findUserByEmail(db, input.email)) {
-    throw new PeopleError(409, 'Someone with this e-mail address is already on the list.', [{ path: 'email', message: 'already in use' }]);
+    throw new ServiceError(409, 'Someone with this e-mail address is already on the list.', [{ path: 'email', message: 'already in use' }]);
   }
   const { id, token } = await db.transaction(async (trx) => {
     const userId = await insertUser(trx, input, now);
@@ -62,7 +62,7 @@ export async function invitePerson(db: Knex, input: InviteInput, actor: SessionU
 
 export async function resendInvite(db: Knex, id: number, actor: SessionUser, baseUrl: string, now = new Date()): Promise<InviteOutcome> {
   const person = await personById(db, id);
-  if (person.status !== 'invited') throw new PeopleError(409, 'Only people who have not yet set a password can be invited again.');
+  if (person.status !== 'invited') throw new ServiceError(409, 'Only people who have not yet set a password can be invited again.');
   const token = await issueToken(db, { userId: id, purpose: 'invite', createdBy: actor.id }, now);
   await auditPerson(db, actor.id, 'person.invite-resend', id, undefined, now);
   return { person, mailSent: await mailInvite(person, actor, token, baseUrl) };
@@ -71,7 +71,7 @@ export async function resendInvite(db: Knex, id: number, actor: SessionUser, bas
 export async function setRoles(db: Knex, id: number, roles: Role[], actor: SessionUser, now = new Date()): Promise<Person> {
   await personById(db, id);
   if (id === actor.id && !roles.includes('admin')) {
-    throw new PeopleError(409, 'You cannot take the admin role from yourself; ask another admin.', [{ path: 'roles', message: 'must keep admin' }]);
+    throw new ServiceError(409, 'You cannot take the admin role from yourself; ask another admin.', [{ path: 'roles', message: 'must keep admin' }]);
   }
   await db.transaction(async (trx) => {
     await replaceRoles(trx, id, roles);
@@ -83,7 +83,7 @@ export async function setRoles(db: Knex, id: number, roles: Role[], actor: Sessi
 /** Deactivation ends every session and withdraws open links at once (ASVS 5.0 V7.4.2). */
 export async function deactivatePerson(db: Knex, id: number, actor: SessionUser, now = new Date()): Promise<Person> {
   await personById(db, id);
-  if (id === actor.id) throw new PeopleError(409, 'You cannot deactivate yourself; ask another admin.');
+  if (id === actor.id) throw new ServiceError(409, 'You cannot deactivate yourself; ask another admin.');
   await db.transaction(async (trx) => {
     await setActive(trx, id, false, now);
     await invalidateUserSessions(trx, id);

@@ -3,7 +3,7 @@ import { readJson } from '../../../server/http/responses.ts';
 import { db } from '../../../server/db.ts';
 import { tokenPasswordBody } from '../../../server/auth/schemas.ts';
 import { acceptInvite } from '../../../server/services/people-accounts.ts';
-import { peopleErrorResponse } from '../../../server/services/people-errors.ts';
+import { serviceErrorResponse } from '../../../server/services/errors.ts';
 import { setSessionCookie } from '../../../server/auth/session-cookie.ts';
 
 /** POST {token, password}: the invitee sets a first password and is signed in. */
@@ -16,6 +16,6 @@ export const POST: APIRoute = async (context) => {
     const { email, name, roles } = fresh.user;
     return Response.json({ user: { email, name, roles } }, { headers: { 'Cache-Control': 'no-store' } });
   } catch (err) {
-    return peopleErrorResponse(err);
+    return serviceErrorResponse(err);
   }
 };

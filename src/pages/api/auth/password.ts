@@ -3,7 +3,7 @@ import { readJson } from '../../../server/http/responses.ts';
 import { db } from '../../../server/db.ts';
 import { passwordChangeBody } from '../../../server/auth/schemas.ts';
 import { changePassword } from '../../../server/services/people-accounts.ts';
-import { peopleErrorResponse } from '../../../server/services/people-errors.ts';
+import { serviceErrorResponse } from '../../../server/services/errors.ts';
 import { setSessionCookie } from '../../../server/auth/session-cookie.ts';
 
 /** POST {currentPassword, newPassword}: every session ends; this browser gets a fresh one. */
@@ -15,6 +15,6 @@ export const POST: APIRoute = async (context) => {
     setSessionCookie(context.cookies, context.url, fresh.token, fresh.session.expiresAt);
     return Response.json({ changed: true }, { headers: { 'Cache-Control': 'no-store' } });
   } catch (err) {
-    return peopleErrorResponse(err);
+    return serviceErrorResponse(err);
   }
 };

@@ -3,7 +3,7 @@ import { readJson } from '../../../server/http/responses.ts';
 import { db } from '../../../server/db.ts';
 import { tokenPasswordBody } from '../../../server/auth/schemas.ts';
 import { resetPassword } from '../../../server/services/people-accounts.ts';
-import { peopleErrorResponse } from '../../../server/services/people-errors.ts';
+import { serviceErrorResponse } from '../../../server/services/errors.ts';
 
 /** POST {token, password}: sets the new password once; every session of the person ends. */
 export const POST: APIRoute = async (context) => {
@@ -13,6 +13,6 @@ export const POST: APIRoute = async (context) => {
     await resetPassword(db(), body.token, body.password);
     return Response.json({ changed: true }, { headers: { 'Cache-Control': 'no-store' } });
   } catch (err) {
-    return peopleErrorResponse(err);
+    return serviceErrorResponse(err);
   }
 };

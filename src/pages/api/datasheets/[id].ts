@@ -1,5 +1,5 @@
 import type { APIRoute } from 'astro';
-import { answer, routeId } from '../../../server/services/parts-errors.ts';
+import { answer, routeId } from '../../../server/services/errors.ts';
 import { attachmentDisposition, datasheetFile, removeDatasheet } from '../../../server/services/datasheets.ts';
 
 /** GET /api/datasheets/:id: the PDF as a download (never rendered inline, never sniffed). */

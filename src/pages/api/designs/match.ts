@@ -3,7 +3,7 @@ import { z } from 'zod';
 import { readJson } from '../../../server/http/responses.ts';
 import { designInputSchema } from '../../../lib/schemas/design.ts';
 import { matchInput } from '../../../server/services/designs.ts';
-import { answer } from '../../../server/services/parts-errors.ts';
+import { answer } from '../../../server/services/errors.ts';
 import type { DesignInput } from '../../../lib/domain/design.ts';
 
 const body = z.object({ includePending: z.boolean().default(false), input: designInputSchema });

@@ -2,7 +2,7 @@ import type { APIRoute } from 'astro';
 import { z } from 'zod';
 import { readJson } from '../../../server/http/responses.ts';
 import { partUpdateSchema } from '../../../lib/schemas/parts.ts';
-import { answer, readQuery, routeId } from '../../../server/services/parts-errors.ts';
+import { answer, readQuery, routeId } from '../../../server/services/errors.ts';
 import { requireUser } from '../../../server/services/parts-access.ts';
 import { deletePart, getPart, updatePart } from '../../../server/services/parts.ts';
 

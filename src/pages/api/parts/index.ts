@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
 import { readJson } from '../../../server/http/responses.ts';
 import { partInputSchema, partListQuerySchema } from '../../../lib/schemas/parts.ts';
-import { answer, readQuery } from '../../../server/services/parts-errors.ts';
+import { answer, readQuery } from '../../../server/services/errors.ts';
 import { requireUser } from '../../../server/services/parts-access.ts';
 import { searchParts } from '../../../server/services/parts-search.ts';
 import { csvResponse, exportPartsCsv } from '../../../server/services/parts-export.ts';

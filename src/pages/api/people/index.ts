@@ -3,7 +3,7 @@ import { readJson } from '../../../server/http/responses.ts';
 import { db } from '../../../server/db.ts';
 import { inviteBody } from '../../../server/auth/schemas.ts';
 import { invitePerson, listPeople } from '../../../server/services/people.ts';
-import { peopleErrorResponse } from '../../../server/services/people-errors.ts';
+import { serviceErrorResponse } from '../../../server/services/errors.ts';
 import { publicBaseUrl } from '../../../server/mail/config.ts';
 
 /** GET → {people}: everyone with roles and status (admins only, see policy). */
@@ -19,6 +19,6 @@ export const POST: APIRoute = async (context) => {
     const outcome = await invitePerson(db(), body, context.locals.user!, publicBaseUrl(context.url.origin));
     return Response.json(outcome, { status: 201, headers: { 'Cache-Control': 'no-store' } });
   } catch (err) {
-    return peopleErrorResponse(err);
+    return serviceErrorResponse(err);
   }
 };

@@ -3,7 +3,7 @@ import { z } from 'zod';
 import { readJson, jsonError } from '../../../../server/http/responses.ts';
 import { designInputSchema } from '../../../../lib/schemas/design.ts';
 import { getDesign, updateDesign } from '../../../../server/services/designs.ts';
-import { answer, readQuery, routeId } from '../../../../server/services/parts-errors.ts';
+import { answer, readQuery, routeId } from '../../../../server/services/errors.ts';
 import type { DesignInput } from '../../../../lib/domain/design.ts';
 
 const getQuery = z.object({ revision: z.coerce.number().int().min(1).optional() });

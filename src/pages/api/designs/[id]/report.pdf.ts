@@ -2,7 +2,7 @@ import type { APIRoute } from 'astro';
 import { z } from 'zod';
 import { designOutputs, bomFileName } from '../../../../server/services/design-outputs.ts';
 import { buildDesignReportPdf } from '../../../../server/reports/design-report.ts';
-import { answer, readQuery, routeId } from '../../../../server/services/parts-errors.ts';
+import { answer, readQuery, routeId } from '../../../../server/services/errors.ts';
 
 const query = z.object({ revision: z.coerce.number().int().min(1).optional() });
 

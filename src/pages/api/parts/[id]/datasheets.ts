@@ -1,5 +1,5 @@
 import type { APIRoute } from 'astro';
-import { answer, routeId } from '../../../../server/services/parts-errors.ts';
+import { answer, routeId } from '../../../../server/services/errors.ts';
 import { requireThat, canCurate } from '../../../../server/services/parts-access.ts';
 import { readMultipartFile } from '../../../../server/services/datasheets-multipart.ts';
 import { addDatasheet, MAX_DATASHEET_BYTES } from '../../../../server/services/datasheets.ts';

@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
 import { readJson } from '../../../../server/http/responses.ts';
 import { reviewDecisionSchema } from '../../../../lib/schemas/parts.ts';
-import { answer, routeId } from '../../../../server/services/parts-errors.ts';
+import { answer, routeId } from '../../../../server/services/errors.ts';
 import { requireUser } from '../../../../server/services/parts-access.ts';
 import { reviewPart } from '../../../../server/services/parts-workflow.ts';
 import { publicBaseUrl } from '../../../../server/mail/config.ts';

@@ -3,7 +3,7 @@ import { jsonError, readJson } from '../../../../server/http/responses.ts';
 import { db } from '../../../../server/db.ts';
 import { emptyBody, personId } from '../../../../server/auth/schemas.ts';
 import { deactivatePerson } from '../../../../server/services/people.ts';
-import { peopleErrorResponse } from '../../../../server/services/people-errors.ts';
+import { serviceErrorResponse } from '../../../../server/services/errors.ts';
 
 /** POST {} → {person}: no more sign-in; every session and open link of the person ends. */
 export const POST: APIRoute = async (context) => {
@@ -14,6 +14,6 @@ export const POST: APIRoute = async (context) => {
   try {
     return Response.json({ person: await deactivatePerson(db(), id, context.locals.user!) });
   } catch (err) {
-    return peopleErrorResponse(err);
+    return serviceErrorResponse(err);
   }
 };

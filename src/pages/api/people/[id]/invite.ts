@@ -3,7 +3,7 @@ import { jsonError, readJson } from '../../../../server/http/responses.ts';
 import { db } from '../../../../server/db.ts';
 import { emptyBody, personId } from '../../../../server/auth/schemas.ts';
 import { resendInvite } from '../../../../server/services/people.ts';
-import { peopleErrorResponse } from '../../../../server/services/people-errors.ts';
+import { serviceErrorResponse } from '../../../../server/services/errors.ts';
 import { publicBaseUrl } from '../../../../server/mail/config.ts';
 
 /** POST {} → {person, mailSent}: a fresh 72 h link; the earlier one stops working. */
@@ -15,6 +15,6 @@ export const POST: APIRoute = async (context) => {
   try {
     return Response.json(await resendInvite(db(), id, context.locals.user!, publicBaseUrl(context.url.origin)));
   } catch (err) {
-    return peopleErrorResponse(err);
+    return serviceErrorResponse(err);
   }
 };

@@ -3,7 +3,7 @@ import { jsonError, readJson } from '../../../../server/http/responses.ts';
 import { db } from '../../../../server/db.ts';
 import { emptyBody, personId } from '../../../../server/auth/schemas.ts';
 import { reactivatePerson } from '../../../../server/services/people.ts';
-import { peopleErrorResponse } from '../../../../server/services/people-errors.ts';
+import { serviceErrorResponse } from '../../../../server/services/errors.ts';
 
 /** POST {} → {person}: the person may sign in again with their existing password. */
 export const POST: APIRoute = async (context) => {
@@ -14,6 +14,6 @@ export const POST: APIRoute = async (context) => {
   try {
     return Response.json({ person: await reactivatePerson(db(), id, context.locals.user!) });
   } catch (err) {
-    return peopleErrorResponse(err);
+    return serviceErrorResponse(err);
   }
 };

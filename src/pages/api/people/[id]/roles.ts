@@ -3,7 +3,7 @@ import { jsonError, readJson } from '../../../../server/http/responses.ts';
 import { db } from '../../../../server/db.ts';
 import { personId, rolesBody } from '../../../../server/auth/schemas.ts';
 import { setRoles } from '../../../../server/services/people.ts';
-import { peopleErrorResponse } from '../../../../server/services/people-errors.ts';
+import { serviceErrorResponse } from '../../../../server/services/errors.ts';
 
 /** PUT {roles} → {person}: replaces the person's roles. */
 export const PUT: APIRoute = async (context) => {
@@ -14,6 +14,6 @@ export const PUT: APIRoute = async (context) => {
   try {
     return Response.json({ person: await setRoles(db(), id, body.roles, context.locals.user!) });
   } catch (err) {
-    return peopleErrorResponse(err);
+    return serviceErrorResponse(err);
   }
 };

@@ -1,9 +1,10 @@
-/** Refusals the catalogue services raise, and their translation into the one error shape. */
+/** Refusals the services raise (bad input, not found, conflicts, limits), and their translation into the one error shape. */
 import { jsonError, type ApiIssue } from '../http/responses.ts';
+import { issuesOf } from '../../lib/schemas/issues.ts';
 
 export class ServiceError extends Error {
   constructor(
-    readonly status: 400 | 401 | 403 | 404 | 409 | 413 | 415,
+    readonly status: 400 | 401 | 403 | 404 | 409 | 413 | 415 | 429,
     message: string,
     readonly issues: ApiIssue[] = [],
   ) {
@@ -46,7 +47,7 @@ export function readQuery<S extends import('zod').ZodType>(url: URL, schema: S):
   for (const [k, v] of url.searchParams.entries()) raw[k] = v;
   const parsed = schema.safeParse(raw);
   if (!parsed.success) {
-    const issues = parsed.error.issues.map((i) => ({ path: i.path.map(String).join('.') || '(query)', message: i.message }));
+    const issues = issuesOf(parsed.error, '(query)');
     throw new ServiceError(400, `Some search parameters are not valid: ${issues.map((i) => i.path).slice(0, 3).join(', ')}.`, issues);
   }
   return parsed.data;
