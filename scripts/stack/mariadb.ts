@@ -83,11 +83,11 @@ export function adminPing(db: MariaDbInstance): boolean {
   return r.status === 0;
 }
 
-/** Starts mariadbd (or reuses one already serving this data dir) and waits until it answers. */
-export async function startMariaDb(db: MariaDbInstance): Promise<void> {
+/** Starts mariadbd (or reuses one already serving this data dir) and waits until it answers. True when started here. */
+export async function startMariaDb(db: MariaDbInstance): Promise<boolean> {
   if (alive(db)) {
     log(`reusing the MariaDB already running on ${db.socketPath}`);
-    return;
+    return false;
   }
   const errLog = openSync(`${db.dataDir}.err`, 'a');
   const child = spawn(
@@ -120,6 +120,7 @@ export async function startMariaDb(db: MariaDbInstance): Promise<void> {
     }
     await new Promise((r) => setTimeout(r, 100));
   }
+  return true;
 }
 
 /** Runs SQL as root over the socket. */

@@ -16,8 +16,8 @@ import {
 } from './mariadb.ts';
 import { migrateAndSeed } from './db-setup.ts';
 import { buildIfChanged } from './build.ts';
-import { startHttpServer } from './serve.ts';
-import { log } from './log.ts';
+import { startHttpServer, type RunningServer } from './serve.ts';
+import { fail, log } from './log.ts';
 import { demoPeople, DEMO_PASSWORD } from '../../db/seeds/demo.ts';
 import { startServices, type Services } from './services.ts';
 
@@ -38,14 +38,28 @@ const port = Number(process.env.PORT ?? 4321);
 ensureMariaDbInstalled();
 mkdirSync(process.env.DATA_DIR, { recursive: true });
 const db = describeInstance(path.join(process.env.DATA_DIR, 'mariadb'), Number(process.env.DB_PORT));
-if (initDataDir(db)) log(`created a new MariaDB data folder at ${db.dataDir}`);
-await startMariaDb(db);
-ensureDatabaseAndUser(db, process.env.DB_NAME, process.env.DB_USER, process.env.DB_PASSWORD ?? '');
-await migrateAndSeed(process.env, { seed: true });
-buildIfChanged(root);
-const services: Services = await startServices(process.env);
-Object.assign(process.env, services.env);
-const http = await startHttpServer(path.join(root, 'dist'), host, port);
+let startedDb = false;
+let services: Services | null = null;
+let http: RunningServer | null = null;
+
+try {
+  if (initDataDir(db)) log(`created a new MariaDB data folder at ${db.dataDir}`);
+  startedDb = await startMariaDb(db);
+  ensureDatabaseAndUser(db, process.env.DB_NAME, process.env.DB_USER, process.env.DB_PASSWORD ?? '');
+  await migrateAndSeed(process.env, { seed: true });
+  buildIfChanged(root);
+  services = await startServices(process.env);
+  Object.assign(process.env, services.env);
+  http = await startHttpServer(path.join(root, 'dist'), host, port);
+} catch (err) {
+  const e = err as NodeJS.ErrnoException;
+  const message = e.code === 'EADDRINUSE'
+    ? `port ${port} is in use (is Stallpoint already running?): stop the other server or set PORT to a free one.`
+    : e.message;
+  await services?.close().catch(() => undefined);
+  if (startedDb) await stopMariaDb(db);
+  fail(`could not start: ${message}`);
+}
 
 console.log('');
 log(`Stallpoint is running at ${http.url}`);
@@ -59,8 +73,8 @@ async function shutdown(signal: string): Promise<void> {
   if (stopping) return;
   stopping = true;
   log(`${signal}: finishing requests and shutting down…`);
-  await http.close();
-  await services.close();
+  await http?.close();
+  await services?.close();
   await stopMariaDb(db);
   log('stopped cleanly');
   process.exit(0);
