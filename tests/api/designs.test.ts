@@ -212,3 +212,32 @@ describe('design report PDF', () => {
     expect(text).toMatch(/qualified engineer/);
   });
 });
+
+describe('marking a design ready', () => {
+  it('refuses picks that do not hold in the design, then puts a safe design on the shortlist', async () => {
+    const id = await seededDesignId(demoDesigns[1].name);
+    const base = (await api().get(`/api/designs/${id}`).set('Cookie', designer)).body.input as DesignInput;
+    const match = (await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({})).body as DesignMatch;
+    const failing = match.switch.find((e) => e.verdict === 'fail');
+    expect(failing, 'the bench fan has failing switch candidates').toBeTruthy();
+    const unsafe: DesignInput = {
+      ...base,
+      name: `Ready check ${Date.now()}`,
+      selections: { ...base.selections, switch: { chosenPartId: base.selections.switch.chosenPartId, alternatePartIds: [failing!.partId as number] } },
+    };
+    const created = await api().post('/api/designs').set('Cookie', designer).send(unsafe);
+    expect(created.status).toBe(201);
+    const refused = await api().post(`/api/designs/${created.body.id}/status`).set('Cookie', designer).send({ status: 'ready', version: created.body.version });
+    expect(refused.status).toBe(409);
+    expect(refused.body.issues.map((i: { path: string }) => i.path)).toEqual(['selections.switch.alternatePartIds.0']);
+
+    const safe = await api().put(`/api/designs/${created.body.id}`).set('Cookie', designer)
+      .send({ version: created.body.version, input: { ...unsafe, selections: base.selections } });
+    const ready = await api().post(`/api/designs/${created.body.id}/status`).set('Cookie', designer).send({ status: 'ready', version: safe.body.version });
+    expect(ready.status).toBe(200);
+    expect(ready.body.status).toBe('ready');
+    const shortlist = await api().get('/shortlist').set('Cookie', buyer);
+    expect(shortlist.status).toBe(200);
+    expect(shortlist.text).toContain(unsafe.name);
+  });
+});

@@ -85,11 +85,13 @@ export default function CandidateTable<T extends MatchEntry>({ role, caption, en
                   <td className="num whitespace-nowrap">{e.priceAtQty ? `${e.priceAtQty.unitPrice.toFixed(3)} ${e.priceAtQty.currency}` : '—'}</td>
                   <td>{LIFE[e.lifecycle]}</td>
                   {!readOnly && (
-                    <td><input type="radio" name={`use-${role}`} aria-label={`Use ${e.mpn}`} checked={selection.chosenPartId === id} onChange={() => choose(id)} /></td>
+                    <td><input type="radio" name={`use-${role}`} aria-label={`Use ${e.mpn}`} checked={selection.chosenPartId === id}
+                      disabled={e.verdict === 'fail' && selection.chosenPartId !== id} title={e.verdict === 'fail' ? 'A failing part cannot be chosen' : undefined} onChange={() => choose(id)} /></td>
                   )}
                   {!readOnly && (
                     <td><input type="checkbox" aria-label={`Alternate ${e.mpn}`} checked={selection.alternatePartIds.includes(id)}
-                      disabled={!selection.alternatePartIds.includes(id) && selection.alternatePartIds.length >= 3} onChange={() => toggleAlt(id)} /></td>
+                      disabled={!selection.alternatePartIds.includes(id) && (selection.alternatePartIds.length >= 3 || e.verdict !== 'pass')}
+                      title={e.verdict !== 'pass' ? 'Alternates must pass every check' : undefined} onChange={() => toggleAlt(id)} /></td>
                   )}
                   <td>
                     <button type="button" className="btn-quiet text-xs px-1.5 rounded" aria-expanded={isOpen} onClick={() => toggle(key)}>

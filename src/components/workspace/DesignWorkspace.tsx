@@ -69,7 +69,7 @@ export default function DesignWorkspace({ design, initialInput, motors, canEdit 
     if (res.ok) {
       setMeta({ ...meta, version: res.data.version, status: res.data.status });
       setSaveMsg({ tone: 'ok', text: next === 'ready' ? 'Marked ready: its lines and alternates are on the buyers’ shortlist.' : 'Back to draft.' });
-    } else setSaveMsg({ tone: 'bad', text: res.error });
+    } else setSaveMsg({ tone: 'bad', text: [res.error, ...res.issues.map((i) => `${i.message}.`)].join(' ') });
   }
 
   return (

@@ -4,7 +4,7 @@ import { db } from '../db.ts';
 import type { Design, DesignInput, DesignStatus, DesignSummary } from '../../lib/domain/design.ts';
 import type { MotorParams, Part } from '../../lib/domain/parts.ts';
 import type { SessionUser } from '../auth/types.ts';
-import { matchDesign, type DesignMatch } from '../../lib/design-match.ts';
+import { effectiveSwitchList, matchDesign, type DesignMatch } from '../../lib/design-match.ts';
 import { findDesignRow, insertRevision, listDesignRows, loadDesign, replaceDesignParts, type DesignListQuery } from '../repos/designs.ts';
 import { hydrateParts } from '../repos/parts.ts';
 import type { DbPartRow } from '../repos/part-rows.ts';
@@ -87,7 +87,36 @@ export async function updateDesign(user: SessionUser, id: number, input: DesignI
   return getDesign(id);
 }
 
+/**
+ * A design goes on the buyers' shortlist only when its picks are electrically safe in it: every chosen part
+ * at least marginal and every alternate passing, all approved and not obsolete (the match's candidates).
+ */
+async function readinessIssues(input: DesignInput): Promise<{ path: string; message: string }[]> {
+  const match = await matchInput(input, false);
+  const lists = { switch: effectiveSwitchList(match), driver: match.driver, diode: match.diode };
+  const issues: { path: string; message: string }[] = [];
+  for (const role of ['switch', 'driver', 'diode'] as const) {
+    const sel = input.selections[role];
+    const find = (partId: number) => lists[role].find((e) => e.partId === partId);
+    const needed = role !== 'driver' || match.driverNeeded;
+    if (sel.chosenPartId == null) {
+      if (needed) issues.push({ path: `selections.${role}.chosenPartId`, message: `choose a ${role} first` });
+    } else if (!find(sel.chosenPartId) || find(sel.chosenPartId)!.verdict === 'fail') {
+      issues.push({ path: `selections.${role}.chosenPartId`, message: `${find(sel.chosenPartId)?.mpn ?? `part ${sel.chosenPartId}`} does not hold in this design (or is not approved)` });
+    }
+    sel.alternatePartIds.forEach((partId, i) => {
+      const e = find(partId);
+      if (!e || e.verdict !== 'pass') issues.push({ path: `selections.${role}.alternatePartIds.${i}`, message: `${e?.mpn ?? `part ${partId}`} does not pass every check in this design` });
+    });
+  }
+  return issues;
+}
+
 export async function setDesignStatus(user: SessionUser, id: number, status: DesignStatus, expectedVersion: number): Promise<Design> {
+  if (status === 'ready') {
+    const issues = await readinessIssues((await getDesign(id)).input);
+    if (issues.length) throw new ServiceError(409, 'This design cannot go on the shortlist yet: some picks do not hold with its inputs.', issues);
+  }
   await db().transaction(async (trx) => {
     const row = await trx('designs').where({ id }).forUpdate().first();
     if (!row) throw notFound('The design');
