@@ -92,18 +92,20 @@ const NO_JUNCTION_NOTES: Record<NoJunctionReason, string> = {
 export function checkJunctionTemperature(junctionC: number | null, tjMaxC: number, thermalMarginC: number, ambientC: number, reason: NoJunctionReason = 'runaway'): Check {
   if (junctionC == null) {
     const note = NO_JUNCTION_NOTES[reason];
-    return makeCheck({ id: 'junction-temperature', ok: false, value: null, limit: tjMaxC, unit: '°C', margin: null, note });
+    return makeCheck({ id: 'junction-temperature', ok: false, value: null, limit: tjMaxC - thermalMarginC, unit: '°C', margin: null, note });
   }
   const targetC = tjMaxC - thermalMarginC;
   const hardOk = junctionC <= tjMaxC;
   const ok = junctionC <= targetC;
-  const riseC = tjMaxC - ambientC;
-  const margin = riseC > 0 ? (tjMaxC - junctionC) / riseC : null;
+  // Limit and margin are against the target (Tj,max less the thermal margin), so ok ⇔ value ≤ limit;
+  // margin is the share of the ambient-to-target rise still unused.
+  const riseC = targetC - ambientC;
+  const margin = riseC > 0 ? (targetC - junctionC) / riseC : null;
   const board = 'RθJA is the test-board figure; a real board differs.';
   const note = ok
     ? `Junction about ${fmt(junctionC)} °C, below the ${fmt(targetC)} °C target (Tj,max ${fmt(tjMaxC)} °C less ${fmt(thermalMarginC)} K). ${board}`
     : `Junction about ${fmt(junctionC)} °C, ${hardOk ? 'inside Tj,max but above' : 'above Tj,max and'} the ${fmt(targetC)} °C target: add copper, lower RDS(on) or switching loss. ${board}`;
-  return makeCheck({ id: 'junction-temperature', ok, value: junctionC, limit: tjMaxC, unit: '°C', margin, note }, hardOk ? 'margin' : 'hard');
+  return makeCheck({ id: 'junction-temperature', ok, value: junctionC, limit: targetC, unit: '°C', margin, note }, hardOk ? 'margin' : 'hard');
 }
 
 /** Share of the PWM period spent in edges above which edges count as slow, and as unusable [practice, judgement]. */
