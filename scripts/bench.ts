@@ -8,6 +8,7 @@ import { fileURLToPath } from 'node:url';
 import autocannon from 'autocannon';
 import { demoDiodes, demoDrivers, demoMosfets, demoMotors } from '../db/seeds/data/index.ts';
 import { demoDesigns } from '../db/seeds/designs.ts';
+import { DEMO_DOMAIN, DEMO_PASSWORD } from '../db/seeds/demo.ts';
 import { matchDesign } from '../src/lib/design-match.ts';
 import type { DesignInput } from '../src/lib/domain/design.ts';
 import type { PartOf } from '../src/lib/domain/parts.ts';
@@ -57,7 +58,7 @@ const stack = await startThrowawayStack(root);
 try {
   const signin = await fetch(`${stack.url}/api/auth/signin`, {
     method: 'POST', headers: { 'Content-Type': 'application/json' },
-    body: JSON.stringify({ email: 'designer@kestrel-fluidics.example', password: 'stallpoint-demo' }),
+    body: JSON.stringify({ email: `designer@${DEMO_DOMAIN}`, password: DEMO_PASSWORD }),
   });
   const cookie = (signin.headers.get('set-cookie') ?? '').split(';')[0];
   const designs = (await (await fetch(`${stack.url}/api/designs`, { headers: { cookie } })).json()) as { items: { id: number; name: string }[] };

@@ -3,6 +3,7 @@ import Papa from 'papaparse';
 import type { DesignInput, PartRole } from './domain/design.ts';
 import type { Part } from './domain/parts.ts';
 import type { RecommendedPull } from './power-on.ts';
+import { formatOhms } from './units.ts';
 
 export interface BomLine {
   line: number;
@@ -39,8 +40,6 @@ export interface BomInput {
   pull: RecommendedPull | null;
 }
 
-const ohmsText = (ohm: number): string => (ohm >= 1000 ? `${Number((ohm / 1000).toPrecision(3))} kΩ` : `${Number(ohm.toPrecision(3))} Ω`);
-
 export function buildBom({ input, motor, partsById, pull }: BomInput): BomLine[] {
   const boards = input.boardQuantity;
   const lines: Omit<BomLine, 'line'>[] = [];
@@ -60,7 +59,7 @@ export function buildBom({ input, motor, partsById, pull }: BomInput): BomLine[]
   }
   if (pull && pull.ok && pull.chosenOhms != null) {
     lines.push({
-      role: `Pull-${pull.to} resistor (power-on state)`, quantity: boards, manufacturer: 'any', partNumber: `${ohmsText(pull.chosenOhms)} ±1 %, 0.1 W`,
+      role: `Pull-${pull.to} resistor (power-on state)`, quantity: boards, manufacturer: 'any', partNumber: `${formatOhms(pull.chosenOhms)} ±1 %, 0.1 W`,
       description: `Holds the control line ${pull.to === 'down' ? 'low' : 'high'} through reset (to ${pull.railV} V)`, alternates: '', referenceDesignators: 'R1',
     });
   }

@@ -80,3 +80,8 @@ export function formatSi(value: number, unit: string, digits = 3): string {
   const text = Math.abs(scaled) >= 10 ** safeDigits ? scaled.toFixed(0) : scaled.toPrecision(safeDigits);
   return `${text} ${prefix.symbol}${unit}`;
 }
+
+/** A resistor value as people write it: "6.8 kΩ", "820 Ω" (three significant figures, no trailing zeros). */
+export function formatOhms(ohm: number): string {
+  return ohm >= 1000 ? `${Number((ohm / 1000).toPrecision(3))} kΩ` : `${Number(ohm.toPrecision(3))} Ω`;
+}

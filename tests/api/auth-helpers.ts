@@ -7,8 +7,7 @@ import { createSession } from '../../src/server/auth/session.ts';
 import { SESSION_COOKIE } from '../../src/server/auth/session-cookie.ts';
 import type { Role } from '../../src/server/auth/types.ts';
 
-export const DEMO_PASSWORD = 'stallpoint-demo';
-export const demoEmail = (role: Role): string => `${role}@kestrel-fluidics.example`;
+export { DEMO_PASSWORD, demoAddress as demoEmail } from '../helpers/session.ts';
 
 let counter = 0;
 /** A unique address at the invented demo domain, so tests never collide with each other or the demo. */

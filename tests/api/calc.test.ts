@@ -1,12 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { appUrl } from '../helpers/stack.ts';
+import { MOTOR_M1, SWITCH_BODY } from '../helpers/contract-examples.ts';
 
 const api = () => request(appUrl());
 
 // domain.md §2 worked example M1 (invented, self-consistent), re-derived here from the linear model:
 // R = V/Is, Ke = (V − I0·R)/ω0, Ts = Ke·(Is − I0).
-const M1 = { ratedVoltageV: 3, noLoadSpeedRpm: 12000, noLoadCurrentA: 0.2, stallCurrentA: 1.8, stallTorqueNm: 0.0033953 };
+const M1 = MOTOR_M1;
 const R = 3 / 1.8;
 const omega0 = (12000 * 2 * Math.PI) / 60;
 const Ke = (3 - 0.2 * R) / omega0;
@@ -91,13 +92,7 @@ describe('POST /api/calc/pull-resistor', () => {
   });
 });
 
-const SWITCH = {
-  mosfet: { vdsMaxV: 30, vgsMaxV: 20, vgsThMaxV: 2.5, idPulsedA: 20, tjMaxC: 150, rthJaCPerW: 250, qgTotalNc: 6,
-    qgdNc: 2, qgsNc: 1.5, vPlateauV: 2.6, rdsOn: [{ vgsV: 4.5, ohms: 0.05 }, { vgsV: 10, ohms: 0.035 }], rdsOnTempCoeffPerC: 0.005 },
-  operating: { supplyMaxV: 5, runningCurrentA: 0.8, stallCurrentA: 3, gateDriveV: 5, gateDriveCurrentA: 0.02,
-    gateResistanceOhm: 0, pwmHz: 20000, duty: 0.6, ambientC: 40, diodeForwardV: 0.5 },
-  margins: { voltageDerating: 0.8, thermalMarginC: 25 },
-};
+const SWITCH = SWITCH_BODY;
 
 describe('POST /api/calc/switch', () => {
   it('answers the contract example with every required check id', async () => {

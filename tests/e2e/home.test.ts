@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { launchBrowser, screenshotPath } from '../helpers/browser.ts';
 import { appUrl, appDb } from '../helpers/stack.ts';
+import { DEMO_PASSWORD, demoAddress } from '../helpers/session.ts';
 
 let browser: Browser;
 beforeAll(async () => {
@@ -24,8 +25,8 @@ describe('home page (catalogue)', () => {
     page.on('pageerror', (e) => errors.push(e.message));
     // The catalogue needs a signed-in person: sign in as the demo designer first.
     await page.goto(appUrl() + '/');
-    await page.getByLabel('E-mail address').fill('designer@kestrel-fluidics.example');
-    await page.getByLabel('Password', { exact: true }).fill('stallpoint-demo');
+    await page.getByLabel('E-mail address').fill(demoAddress('designer'));
+    await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
     await page.getByRole('button', { name: 'Sign in' }).click();
     await page.waitForURL(appUrl() + '/');
     for (const s of samples) {

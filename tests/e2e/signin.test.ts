@@ -7,8 +7,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { launchBrowser, screenshotPath } from '../helpers/browser.ts';
 import { appDb, appUrl } from '../helpers/stack.ts';
+import { DEMO_PASSWORD } from '../helpers/session.ts';
 
-const PASSWORD = 'stallpoint-demo';
+const PASSWORD = DEMO_PASSWORD;
 const ADMIN_ONLY = ['People', 'Mail sink'];
 const PEOPLE = [
   { role: 'designer', name: 'Dana Okafor' },

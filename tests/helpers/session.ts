@@ -6,9 +6,12 @@ import request from 'supertest';
 import type { BrowserContext } from 'playwright-core';
 import { appUrl } from './stack.ts';
 
-export type DemoRole = 'admin' | 'librarian' | 'designer' | 'buyer';
-export const DEMO_PASSWORD = 'stallpoint-demo';
-export const demoAddress = (role: DemoRole): string => `${role}@kestrel-fluidics.example`;
+import { DEMO_DOMAIN, DEMO_PASSWORD } from '../../db/seeds/demo.ts';
+import type { Role } from '../../src/lib/domain/roles.ts';
+
+export type DemoRole = Role;
+export { DEMO_PASSWORD };
+export const demoAddress = (role: DemoRole): string => `${role}@${DEMO_DOMAIN}`;
 
 const cache = new Map<DemoRole, string>();
 

@@ -5,22 +5,7 @@ import {
 } from '../../src/lib/schemas/calc.ts';
 
 /** api-contract.md request examples. */
-const MOTOR_BODY = { motor: { ratedVoltageV: 3, noLoadSpeedRpm: 12000, noLoadCurrentA: 0.2, stallCurrentA: 1.8, stallTorqueNm: 0.0033953 }, supplyV: 3 };
-const PULL_BODY = {
-  pin: { internalPull: 'up', internalPullOhms: 40000, railV: 3.3, maxCurrentA: 0.004 },
-  external: { to: 'down', railV: 0 }, node: { mustBe: 'low', limitV: 0.5 }, series: 'E12',
-};
-const SWITCH_BODY = {
-  mosfet: {
-    vdsMaxV: 30, vgsMaxV: 20, vgsThMaxV: 2.5, idPulsedA: 20, tjMaxC: 150, rthJaCPerW: 250, qgTotalNc: 6, qgdNc: 2, qgsNc: 1.5,
-    vPlateauV: 2.6, rdsOn: [{ vgsV: 4.5, ohms: 0.05 }, { vgsV: 10, ohms: 0.035 }], rdsOnTempCoeffPerC: 0.005,
-  },
-  operating: {
-    supplyMaxV: 5, runningCurrentA: 0.8, stallCurrentA: 3, gateDriveV: 5, gateDriveCurrentA: 0.02, gateResistanceOhm: 0,
-    pwmHz: 20000, duty: 0.6, ambientC: 40, diodeForwardV: 0.5,
-  },
-  margins: { voltageDerating: 0.8, thermalMarginC: 25 },
-};
+import { MOTOR_BODY, PULL_BODY, SWITCH_BODY } from '../helpers/contract-examples.ts';
 
 describe('valid bodies', () => {
   it('motor: defaults and the contract response (api-contract.md example values)', () => {

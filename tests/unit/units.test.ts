@@ -1,6 +1,6 @@
 import { all, create } from 'mathjs';
 import { describe, expect, it } from 'vitest';
-import { convertTorque, formatSi, radPerSToRpm, rpmToRadPerS, torqueFromNm, torqueToNm, type TorqueUnit } from '../../src/lib/units.ts';
+import { convertTorque, formatOhms, formatSi, radPerSToRpm, rpmToRadPerS, torqueFromNm, torqueToNm, type TorqueUnit } from '../../src/lib/units.ts';
 
 // Independent reference: mathjs, with gram-force and ounce-force built from its own standard gravity
 // (g_n = 9.80665 m/s², SI Brochure) and rpm from its 'cycle' unit; kgf is mathjs' built-in unit.
@@ -68,4 +68,14 @@ describe('formatSi', () => {
   it('prints non-finite values as a dash', () => {
     expect(formatSi(Number.NaN, 'V', 3)).toBe('— V');
   });
+});
+
+// Resistor values written the way E-series values are printed (IEC 60063 lists 6.8, 68, 680 …).
+describe.each([
+  { ohm: 6800, text: '6.8 kΩ' },
+  { ohm: 820, text: '820 Ω' },
+  { ohm: 100000, text: '100 kΩ' },
+  { ohm: 1000, text: '1 kΩ' },
+])('formatOhms($ohm)', ({ ohm, text }) => {
+  it(`is ${text}`, () => expect(formatOhms(ohm)).toBe(text));
 });

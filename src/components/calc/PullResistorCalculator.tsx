@@ -2,6 +2,7 @@ import { useEffect, useRef, useState } from 'react';
 import { postJson } from '../api-client.ts';
 import type { PullResistorResult } from '../../lib/pull-resistor.ts';
 import NumberField from './NumberField.tsx';
+import { formatOhms } from '../../lib/units.ts';
 
 interface Form {
   internalPull: 'up' | 'down' | 'none';
@@ -35,7 +36,7 @@ function Select<T extends string>({ label, value, options, onChange }: { label: 
   );
 }
 
-const fmtOhm = (ohm: number | null) => (ohm === null ? '—' : ohm >= 1000 ? `${Number((ohm / 1000).toPrecision(3))} kΩ` : `${Number(ohm.toPrecision(3))} Ω`);
+const fmtOhm = (ohm: number | null) => (ohm === null ? '—' : formatOhms(ohm));
 
 /** Size an external pull resistor that overrides a pin's internal pull at reset. */
 export default function PullResistorCalculator() {

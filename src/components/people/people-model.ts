@@ -1,6 +1,8 @@
 /** The shape the people islands receive from the page (plain data; islands never import src/server). */
-export const ROLE_NAMES = ['admin', 'librarian', 'designer', 'buyer'] as const;
-export type RoleName = (typeof ROLE_NAMES)[number];
+import { ROLES, type Role } from '../../lib/domain/roles.ts';
+
+export const ROLE_NAMES = ROLES;
+export type RoleName = Role;
 
 export interface PersonView {
   id: number;

@@ -1,4 +1,5 @@
 import type { PowerOnResult } from '../../lib/power-on.ts';
+import { formatOhms } from '../../lib/units.ts';
 
 const STAGE: Record<string, string> = { pin: 'Controller pin', 'pull-network': 'Pull network', driver: 'Driver', gate: 'Gate', motor: 'Motor' };
 
@@ -22,7 +23,7 @@ export default function PowerOnPanel({ powerOn }: { powerOn: PowerOnResult | nul
       </p>
       {pull && pull.ok && pull.chosenOhms != null ? (
         <p className="mt-1 text-sm" data-testid="recommended-pull">
-          Recommended: <strong>{pull.chosenOhms >= 1000 ? `${Number((pull.chosenOhms / 1000).toPrecision(3))} kΩ` : `${pull.chosenOhms} Ω`} pull-{pull.to}</strong>
+          Recommended: <strong>{formatOhms(pull.chosenOhms)} pull-{pull.to}</strong>
           {pull.nodeV != null ? <> (node {pull.nodeV.toFixed(2)} V at reset</> : null}{pull.activeCurrentA != null ? <>, pin current {(pull.activeCurrentA * 1000).toFixed(2)} mA when driving)</> : ')'}.
         </p>
       ) : null}

@@ -22,7 +22,3 @@ export const inviteBody = z.object({
 export const rolesBody = z.object({ roles });
 export const emptyBody = z.object({}).strict();
 
-/** `[id]` route parameter: a positive integer. */
-export function personId(param: string | undefined): number | null {
-  return param && /^[1-9]\d{0,9}$/.test(param) ? Number(param) : null;
-}

@@ -1,6 +1,6 @@
 /** What the middleware puts into Astro.locals, and the people types pages hand to islands. */
-export const ROLES = ['admin', 'librarian', 'designer', 'buyer'] as const;
-export type Role = (typeof ROLES)[number];
+export { ROLES, type Role } from '../../lib/domain/roles.ts';
+import type { Role } from '../../lib/domain/roles.ts';
 
 export interface SessionUser {
   id: number;

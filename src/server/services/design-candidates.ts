@@ -49,15 +49,15 @@ export async function loadCandidates(db: Db, input: DesignInput, motor: MotorPar
   const [mosfetRows, driverRows, diodeRows, mosfetTotal, driverTotal, diodeTotal] = await Promise.all([
     mosfetQ, driverQ, diodeQ, countOf(mosfetAll), countOf(driverAll), countOf(diodeAll),
   ]);
-  const [mosfets, drivers, diodes] = await Promise.all([
-    hydrateParts(db, mosfetRows as DbPartRow[]),
-    hydrateParts(db, driverRows as DbPartRow[]),
-    hydrateParts(db, diodeRows as DbPartRow[]),
-  ]);
+  // One hydration for all three lists: its six queries run once, not once per category.
+  const parts = await hydrateParts(db, [...mosfetRows, ...driverRows, ...diodeRows] as DbPartRow[]);
+  const mosfets = parts.filter((p): p is PartOf<'mosfet'> => p.category === 'mosfet');
+  const drivers = parts.filter((p): p is PartOf<'driver'> => p.category === 'driver');
+  const diodes = parts.filter((p): p is PartOf<'diode'> => p.category === 'diode');
   return {
-    mosfets: mosfets as PartOf<'mosfet'>[],
-    drivers: drivers as PartOf<'driver'>[],
-    diodes: diodes as PartOf<'diode'>[],
+    mosfets,
+    drivers,
+    diodes,
     excluded: {
       switch: mosfetTotal - mosfets.length,
       driver: driverTotal - drivers.length,

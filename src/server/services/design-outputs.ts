@@ -19,7 +19,8 @@ export async function designOutputs(id: number, revision?: number): Promise<Desi
     ...(input.selections[r].chosenPartId != null ? [input.selections[r].chosenPartId as number] : []),
     ...input.selections[r].alternatePartIds,
   ]);
-  const [match, partsById, motor] = await Promise.all([matchInput(input, true), partsByIds(ids), resolveMotor(input)]);
+  const motor = await resolveMotor(input);
+  const [match, partsById] = await Promise.all([matchInput(input, true, motor), partsByIds(ids)]);
   const motorLine = motor.part
     ? { manufacturer: motor.part.manufacturer, mpn: motor.part.mpn, description: motor.part.description }
     : { manufacturer: '(entered by hand)', mpn: motor.label, description: 'Motor from datasheet points entered in the design' };

@@ -139,8 +139,11 @@ export async function resolveMotor(input: DesignInput): Promise<{ label: string;
   return { label: `${part.mpn} (${part.manufacturer})`, params: part.params, part };
 }
 
-export async function matchInput(input: DesignInput, includePending: boolean): Promise<DesignMatch> {
-  const motor = await resolveMotor(input);
+export type ResolvedMotor = Awaited<ReturnType<typeof resolveMotor>>;
+
+/** Ranks the catalogue for a design; pass the motor when the caller has already resolved it. */
+export async function matchInput(input: DesignInput, includePending: boolean, resolved?: ResolvedMotor): Promise<DesignMatch> {
+  const motor = resolved ?? (await resolveMotor(input));
   const catalogue = await loadCandidates(db(), input, motor.params, includePending);
   return matchDesign(input, motor.label, motor.params, catalogue);
 }
