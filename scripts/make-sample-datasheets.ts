@@ -334,7 +334,7 @@ function driverSheet(p: DriverParams): Sheet {
       : p.inputLogic === 'ratio'
         ? { vih: `${fmt(p.inputHighMin)} × VDD`, vil: `${fmt(p.inputLowMax)} × VDD`, cond: 'referred to the driver supply VDD', unit: '' }
         : { vih: `${fmt(p.inputHighMin)} × VL`, vil: `${fmt(p.inputLowMax)} × VL`, cond: 'referred to the logic-side rail VL', unit: '' };
-  const outOpen = p.inputDefault === 'floating' ? 'undefined (no input pull)' : p.inputDefault === 'high' ? 'HIGH' : 'LOW';
+  const outOpen = p.inputPull === 'none' ? 'undefined (no input pull)' : (p.inputPull === 'up') !== p.inverting ? 'HIGH' : 'LOW';
   const kind = p.kind === 'gate-driver' ? 'low-side gate driver' : 'level shifter';
   return {
     subtitle: `${p.channels === 1 ? 'Single' : p.channels === 2 ? 'Dual' : `${p.channels}-channel`} ${p.inverting ? 'inverting' : 'non-inverting'} ${kind}, ${fmt(p.supplyMinV)} V to ${fmt(p.supplyMaxV)} V`,

@@ -3,6 +3,7 @@
  * Worst cases: highest supply and coldest winding for stall current, highest supply for voltages,
  * hottest ambient for thermal, lowest logic high for gate drive.
  */
+import type { SharedLogicSupply, StallProtection } from './domain/design.ts';
 import type { MotorParams } from './domain/parts.ts';
 import type { SupplyRange } from './driver-checks.ts';
 import type { ESeriesName } from './eseries.ts';
@@ -29,7 +30,7 @@ export interface DesignCase {
   supplyMinV: number;
   supplyNomV: number;
   supplyMaxV: number;
-  /** Wiring, shunt, connector: resistance in series with the motor besides the switch. */
+  /** Wiring, shunt, connector and the source's internal resistance: everything in series with the motor besides the switch. */
   seriesResistanceOhm: number;
   logic: LogicRail;
   drive: DriveMode;
@@ -44,6 +45,12 @@ export interface DesignCase {
   diodeForwardV?: number;
   /** Series for pull resistors; default E12. */
   resistorSeries?: ESeriesName;
+  /** The source's limits (seriesResistanceOhm already includes its internal resistance). */
+  source?: { internalResistanceOhm: number; continuousCurrentA: number | null; currentLimitA: number | null };
+  /** The controller fed from the motor's source; null or absent when it has its own supply. */
+  logicSupply?: SharedLogicSupply | null;
+  /** What limits a jammed motor; absent = none (steady state at stall). */
+  stallProtection?: StallProtection;
 }
 
 export const DEFAULT_DIODE_FORWARD_V = 0.7;

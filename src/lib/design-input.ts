@@ -10,7 +10,8 @@ export function designCaseOf(input: DesignInput, motor: MotorParams): DesignCase
     supplyMinV: input.supply.minV,
     supplyNomV: input.supply.nomV,
     supplyMaxV: input.supply.maxV,
-    seriesResistanceOhm: input.wiringResistanceOhm + input.shuntResistanceOhm,
+    // The source's internal resistance joins the loop wherever the motor is re-scaled.
+    seriesResistanceOhm: input.wiringResistanceOhm + input.shuntResistanceOhm + input.supply.internalResistanceOhm,
     logic: {
       highV: input.logic.highV,
       lowV: input.logic.lowV,
@@ -29,5 +30,12 @@ export function designCaseOf(input: DesignInput, motor: MotorParams): DesignCase
     load: input.load,
     margins: input.margins,
     driverSupply: driverSupplyV == null ? undefined : { minV: driverSupplyV * 0.95, maxV: driverSupplyV * 1.05 },
+    source: {
+      internalResistanceOhm: input.supply.internalResistanceOhm,
+      continuousCurrentA: input.supply.continuousCurrentA,
+      currentLimitA: input.supply.currentLimitA,
+    },
+    logicSupply: input.logic.sharedSupply,
+    stallProtection: input.stallProtection,
   };
 }

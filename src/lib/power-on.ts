@@ -84,7 +84,11 @@ function firstStageThresholds(input: PowerOnInput): { lowMaxV: number; highMinV:
 }
 
 function driverOutput(params: DriverParams, inputState: LineState, floating: boolean): LineState {
-  if (floating) return params.inputDefault === 'floating' ? 'undetermined' : params.inputDefault;
+  if (floating) {
+    if (params.inputPull === 'none') return 'undetermined';
+    const inputHigh = params.inputPull === 'up';
+    return inputHigh !== params.inverting ? 'high' : 'low';
+  }
   if (inputState === 'undetermined') return 'undetermined';
   const flipped: LineState = inputState === 'high' ? 'low' : 'high';
   return params.inverting ? flipped : inputState;

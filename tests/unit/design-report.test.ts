@@ -38,20 +38,20 @@ const noSelections: DesignInput['selections'] = {
 const fanMotor = motorByMpn('HVM-390F-120A');
 const benchFan: DesignInput = {
   name: 'Fume bench fan, 12 V', motor: { source: 'catalogue', partId: fanMotor.id as number },
-  supply: { minV: 11.4, nomV: 12, maxV: 12.6, preset: 'bench-12v' }, wiringResistanceOhm: 0.05, shuntResistanceOhm: 0,
-  logic: { railV: 3.3, highV: 2.9, lowV: 0.4, pinSourceCurrentA: 0.008, pinSinkCurrentA: 0.008, resetPull: 'none', resetPullOhms: 40_000, resetPullTolerance: 0.3 },
+  supply: { minV: 11.4, nomV: 12, maxV: 12.6, preset: 'bench-12v', internalResistanceOhm: 0, continuousCurrentA: null, currentLimitA: null }, wiringResistanceOhm: 0.05, shuntResistanceOhm: 0,
+  logic: { railV: 3.3, highV: 2.9, lowV: 0.4, pinSourceCurrentA: 0.008, pinSinkCurrentA: 0.008, resetPull: 'none', resetPullOhms: 40_000, resetPullTolerance: 0.3, sharedSupply: null },
   drive: { mode: 'onoff' }, ambientMinC: 0, ambientMaxC: 40, load: { kind: 'speed', speedRpm: 15_000 },
-  margins: { voltageDerating: 0.8, thermalMarginC: 25 }, driverSupplyV: null, boardQuantity: 25, selections: noSelections,
+  margins: { voltageDerating: 0.8, thermalMarginC: 25 }, driverSupplyV: null, boardQuantity: 25, stallProtection: { kind: 'none' }, resetStartIntent: null, selections: noSelections,
 };
 
 /** Invented battery dosing pump: 2S Li-ion, PWM from 1.8 V logic (needs a gate driver), motor entered by hand. */
 const pumpParams = motorByMpn('HVM-370P-072A').params;
 const batteryPump: DesignInput = {
   name: 'Portable sampler pump (PWM)', motor: { source: 'manual', label: 'Gear-pump motor, 7.2 V (entered by hand)', params: pumpParams },
-  supply: { minV: 6, nomV: 7.4, maxV: 8.4, preset: '2s-liion' }, wiringResistanceOhm: 0.08, shuntResistanceOhm: 0.05,
-  logic: { railV: 1.8, highV: 1.35, lowV: 0.45, pinSourceCurrentA: 0.004, pinSinkCurrentA: 0.004, resetPull: 'down', resetPullOhms: 40_000, resetPullTolerance: 0.3 },
+  supply: { minV: 6, nomV: 7.4, maxV: 8.4, preset: '2s-liion', internalResistanceOhm: 0, continuousCurrentA: null, currentLimitA: null }, wiringResistanceOhm: 0.08, shuntResistanceOhm: 0.05,
+  logic: { railV: 1.8, highV: 1.35, lowV: 0.45, pinSourceCurrentA: 0.004, pinSinkCurrentA: 0.004, resetPull: 'down', resetPullOhms: 40_000, resetPullTolerance: 0.3, sharedSupply: null },
   drive: { mode: 'pwm', frequencyHz: 20_000, dutyMin: 0.3, dutyMax: 0.9 }, ambientMinC: -10, ambientMaxC: 45, load: { kind: 'torque', torqueNm: 0.008 },
-  margins: { voltageDerating: 0.8, thermalMarginC: 25 }, driverSupplyV: null, boardQuantity: 100, selections: noSelections,
+  margins: { voltageDerating: 0.8, thermalMarginC: 25 }, driverSupplyV: null, boardQuantity: 100, stallProtection: { kind: 'none' }, resetStartIntent: null, selections: noSelections,
 };
 
 function reportData(base: DesignInput, choose = true): DesignReportData {

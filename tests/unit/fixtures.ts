@@ -19,7 +19,7 @@ export function mosfetPart(id: number, mpn: string, params: Partial<MosfetParams
     params: {
       channel: 'n', vdsMaxV: 30, vgsMaxV: 20, vgsThMinV: 1.0, vgsThMaxV: 2.5, vgsThTestCurrentA: 250e-6,
       idContinuousA: 4, idPulsedA: 20, qgTotalNc: 6, qgTestVgsV: 4.5, qgsNc: 1.5, qgdNc: 2, vPlateauV: 2.6,
-      rthJaCPerW: 250, tjMaxC: 150, bodyDiodeVfV: 0.8,
+      rthJaCPerW: 250, tjMaxC: 150, bodyDiodeVfV: 0.8, zthPoints: [],
       rdsOn: [
         { vgsV: 2.5, tjC: 25, maxOhm: 0.08, typOhm: 0.06, idA: 1 },
         { vgsV: 4.5, tjC: 25, maxOhm: 0.05, typOhm: 0.04, idA: 2 },
@@ -35,7 +35,7 @@ export function driverPart(id: number, mpn: string, params: Partial<DriverParams
     params: {
       kind: 'gate-driver', channels: 1, inverting: false, supplyMinV: 4.5, supplyMaxV: 18, inputLogic: 'fixed',
       inputHighMin: 2.0, inputLowMax: 0.8, outputHighDropV: 0.1, outputLowMaxV: 0.1,
-      sourceCurrentA: 1, sinkCurrentA: 1, propagationDelayNs: 50, inputDefault: 'low',
+      sourceCurrentA: 1, sinkCurrentA: 1, propagationDelayNs: 50, inputPull: 'down', inputPullOhms: 100_000,
       ...params,
     },
   };
@@ -44,7 +44,7 @@ export function driverPart(id: number, mpn: string, params: Partial<DriverParams
 export function diodePart(id: number, mpn: string, params: Partial<DiodeParams> = {}): PartOf<'diode'> {
   return {
     ...base, id, mpn, manufacturer: 'Invented Rectifiers', category: 'diode',
-    params: { kind: 'schottky', vrrmV: 40, ifAvA: 1, ifsmA: 25, vfV: 0.45, vfAtIfA: 1, trrNs: null, ...params },
+    params: { kind: 'schottky', vrrmV: 40, ifAvA: 1, ifsmA: 25, vfV: 0.45, vfAtIfA: 1, trrNs: null, ifrmA: null, rthJaCPerW: 100, tjMaxC: 150, ...params },
   };
 }
 

@@ -6,8 +6,11 @@ const pin = (pull: 'up' | 'down' | 'none'): PowerOnInput['pin'] => ({
   railV: 3.3, resetDefault: { pull, pullOhms: 40000, pullTolerance: 0.3 }, sourceCurrentA: 0.004, sinkCurrentA: 0.004,
 });
 const gate = { vgsThMinV: 1.0 };
-const driver = (inverting: boolean, inputDefault: 'low' | 'high' | 'floating' = 'low') => ({
-  params: driverPart(1, 'INV-GD1', { inverting, inputDefault }).params, supply: { minV: 11, maxV: 13 },
+// The open-input output level these cases were written for, as the input pull that gives it.
+const pullFor = (inverting: boolean, openOutput: 'low' | 'high' | 'floating') =>
+  openOutput === 'floating' ? 'none' : (openOutput === 'high') !== inverting ? 'up' : 'down';
+const driver = (inverting: boolean, openOutput: 'low' | 'high' | 'floating' = 'low') => ({
+  params: driverPart(1, 'INV-GD1', { inverting, inputPull: pullFor(inverting, openOutput) }).params, supply: { minV: 11, maxV: 13 },
 });
 
 describe('reset walk, pin → pull → driver → gate → motor (domain.md §6)', () => {

@@ -17,7 +17,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'schottky', vrrmV: 30, ifAvA: 0.5, ifsmA: 5, vfV: 0.47, vfAtIfA: 0.5, trrNs: null },
+    params: { kind: 'schottky', vrrmV: 30, ifAvA: 0.5, ifsmA: 5, vfV: 0.47, vfAtIfA: 0.5, trrNs: null, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -59,7 +59,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'schottky', vrrmV: 20, ifAvA: 1, ifsmA: 25, vfV: 0.4, vfAtIfA: 1, trrNs: null },
+    params: { kind: 'schottky', vrrmV: 20, ifAvA: 1, ifsmA: 25, vfV: 0.4, vfAtIfA: 1, trrNs: null, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -101,7 +101,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'schottky', vrrmV: 40, ifAvA: 1, ifsmA: 25, vfV: 0.52, vfAtIfA: 1, trrNs: null },
+    params: { kind: 'schottky', vrrmV: 40, ifAvA: 1, ifsmA: 25, vfV: 0.52, vfAtIfA: 1, trrNs: null, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -142,7 +142,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'schottky', vrrmV: 40, ifAvA: 2, ifsmA: 50, vfV: 0.5, vfAtIfA: 2, trrNs: null },
+    params: { kind: 'schottky', vrrmV: 40, ifAvA: 2, ifsmA: 50, vfV: 0.5, vfAtIfA: 2, trrNs: null, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
     sources: [
       {
         distributor: 'Kelderhaus Bauteile',
@@ -170,7 +170,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'schottky', vrrmV: 40, ifAvA: 3, ifsmA: 80, vfV: 0.5, vfAtIfA: 3, trrNs: null },
+    params: { kind: 'schottky', vrrmV: 40, ifAvA: 3, ifsmA: 80, vfV: 0.5, vfAtIfA: 3, trrNs: null, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -211,7 +211,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'schottky', vrrmV: 60, ifAvA: 2, ifsmA: 50, vfV: 0.68, vfAtIfA: 2, trrNs: null },
+    params: { kind: 'schottky', vrrmV: 60, ifAvA: 2, ifsmA: 50, vfV: 0.68, vfAtIfA: 2, trrNs: null, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -252,7 +252,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'schottky', vrrmV: 100, ifAvA: 1, ifsmA: 30, vfV: 0.8, vfAtIfA: 1, trrNs: null },
+    params: { kind: 'schottky', vrrmV: 100, ifAvA: 1, ifsmA: 30, vfV: 0.8, vfAtIfA: 1, trrNs: null, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -308,7 +308,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'schottky', vrrmV: 100, ifAvA: 3, ifsmA: 80, vfV: 0.82, vfAtIfA: 3, trrNs: null },
+    params: { kind: 'schottky', vrrmV: 100, ifAvA: 3, ifsmA: 80, vfV: 0.82, vfAtIfA: 3, trrNs: null, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
     sources: [
       {
         distributor: 'Kelderhaus Bauteile',
@@ -336,7 +336,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'pending',
-    params: { kind: 'schottky', vrrmV: 45, ifAvA: 5, ifsmA: 150, vfV: 0.55, vfAtIfA: 5, trrNs: null },
+    params: { kind: 'schottky', vrrmV: 45, ifAvA: 5, ifsmA: 150, vfV: 0.55, vfAtIfA: 5, trrNs: null, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
     sources: [
       {
         distributor: 'Ashdown Component Supply',
@@ -363,7 +363,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'ultrafast', vrrmV: 200, ifAvA: 1, ifsmA: 30, vfV: 0.95, vfAtIfA: 1, trrNs: 35 },
+    params: { kind: 'ultrafast', vrrmV: 200, ifAvA: 1, ifsmA: 30, vfV: 0.95, vfAtIfA: 1, trrNs: 35, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -420,7 +420,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'ultrafast', vrrmV: 200, ifAvA: 2, ifsmA: 50, vfV: 0.98, vfAtIfA: 2, trrNs: 25 },
+    params: { kind: 'ultrafast', vrrmV: 200, ifAvA: 2, ifsmA: 50, vfV: 0.98, vfAtIfA: 2, trrNs: 25, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
     sources: [
       {
         distributor: 'Kelderhaus Bauteile',
@@ -448,7 +448,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'ultrafast', vrrmV: 400, ifAvA: 2, ifsmA: 40, vfV: 1.25, vfAtIfA: 2, trrNs: 50 },
+    params: { kind: 'ultrafast', vrrmV: 400, ifAvA: 2, ifsmA: 40, vfV: 1.25, vfAtIfA: 2, trrNs: 50, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -476,7 +476,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'ultrafast', vrrmV: 600, ifAvA: 1, ifsmA: 30, vfV: 1.7, vfAtIfA: 1, trrNs: 75 },
+    params: { kind: 'ultrafast', vrrmV: 600, ifAvA: 1, ifsmA: 30, vfV: 1.7, vfAtIfA: 1, trrNs: 75, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
     sources: [
       {
         distributor: 'Ashdown Component Supply',
@@ -517,7 +517,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'fast', vrrmV: 200, ifAvA: 1.5, ifsmA: 40, vfV: 1.2, vfAtIfA: 1.5, trrNs: 150 },
+    params: { kind: 'fast', vrrmV: 200, ifAvA: 1.5, ifsmA: 40, vfV: 1.2, vfAtIfA: 1.5, trrNs: 150, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -574,7 +574,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'fast', vrrmV: 400, ifAvA: 1, ifsmA: 30, vfV: 1.3, vfAtIfA: 1, trrNs: 250 },
+    params: { kind: 'fast', vrrmV: 400, ifAvA: 1, ifsmA: 30, vfV: 1.3, vfAtIfA: 1, trrNs: 250, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -631,7 +631,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'nrnd',
     lifecycleEffectiveDate: '2025-09-30',
     reviewStatus: 'approved',
-    params: { kind: 'fast', vrrmV: 800, ifAvA: 1, ifsmA: 30, vfV: 1.3, vfAtIfA: 1, trrNs: 500 },
+    params: { kind: 'fast', vrrmV: 800, ifAvA: 1, ifsmA: 30, vfV: 1.3, vfAtIfA: 1, trrNs: 500, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -659,7 +659,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'obsolete',
     lifecycleEffectiveDate: '2023-09-30',
     reviewStatus: 'approved',
-    params: { kind: 'general', vrrmV: 50, ifAvA: 1, ifsmA: 30, vfV: 1.1, vfAtIfA: 1, trrNs: 2000 },
+    params: { kind: 'general', vrrmV: 50, ifAvA: 1, ifsmA: 30, vfV: 1.1, vfAtIfA: 1, trrNs: 2000, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
     sources: [
       {
         distributor: 'Ashdown Component Supply',
@@ -685,7 +685,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'general', vrrmV: 400, ifAvA: 1, ifsmA: 30, vfV: 1.1, vfAtIfA: 1, trrNs: 3000 },
+    params: { kind: 'general', vrrmV: 400, ifAvA: 1, ifsmA: 30, vfV: 1.1, vfAtIfA: 1, trrNs: 3000, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
     sources: [
       {
         distributor: 'Ashdown Component Supply',
@@ -712,7 +712,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'general', vrrmV: 1000, ifAvA: 1, ifsmA: 30, vfV: 1.1, vfAtIfA: 1, trrNs: 30000 },
+    params: { kind: 'general', vrrmV: 1000, ifAvA: 1, ifsmA: 30, vfV: 1.1, vfAtIfA: 1, trrNs: 30000, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
     sources: [
       {
         distributor: 'Ashdown Component Supply',
@@ -739,7 +739,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'general', vrrmV: 600, ifAvA: 1, ifsmA: 30, vfV: 1.1, vfAtIfA: 1, trrNs: 2500 },
+    params: { kind: 'general', vrrmV: 600, ifAvA: 1, ifsmA: 30, vfV: 1.1, vfAtIfA: 1, trrNs: 2500, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -780,7 +780,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'general', vrrmV: 200, ifAvA: 3, ifsmA: 150, vfV: 1.2, vfAtIfA: 3, trrNs: 3000 },
+    params: { kind: 'general', vrrmV: 200, ifAvA: 3, ifsmA: 150, vfV: 1.2, vfAtIfA: 3, trrNs: 3000, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',

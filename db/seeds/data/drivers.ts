@@ -35,7 +35,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 1.5,
       sinkCurrentA: 1.5,
       propagationDelayNs: 25,
-      inputDefault: 'low',
+      inputPull: 'down',
+      inputPullOhms: null,
     },
     sources: [
       {
@@ -91,7 +92,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 1.5,
       sinkCurrentA: 1.5,
       propagationDelayNs: 25,
-      inputDefault: 'high',
+      inputPull: 'down',
+      inputPullOhms: null,
     },
     sources: [
       {
@@ -163,7 +165,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 3,
       sinkCurrentA: 3,
       propagationDelayNs: 30,
-      inputDefault: 'low',
+      inputPull: 'down',
+      inputPullOhms: null,
     },
     sources: [
       {
@@ -235,7 +238,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 3,
       sinkCurrentA: 3,
       propagationDelayNs: 30,
-      inputDefault: 'high',
+      inputPull: 'down',
+      inputPullOhms: null,
     },
     sources: [
       {
@@ -278,7 +282,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 4,
       sinkCurrentA: 4,
       propagationDelayNs: 18,
-      inputDefault: 'low',
+      inputPull: 'down',
+      inputPullOhms: null,
     },
     sources: [
       {
@@ -321,7 +326,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 4,
       sinkCurrentA: 4,
       propagationDelayNs: 18,
-      inputDefault: 'high',
+      inputPull: 'down',
+      inputPullOhms: null,
     },
     sources: [
       {
@@ -377,7 +383,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 1,
       sinkCurrentA: 1,
       propagationDelayNs: 40,
-      inputDefault: 'floating',
+      inputPull: 'none',
+      inputPullOhms: null,
     },
     sources: [
       {
@@ -449,7 +456,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 2,
       sinkCurrentA: 2,
       propagationDelayNs: 45,
-      inputDefault: 'floating',
+      inputPull: 'none',
+      inputPullOhms: null,
     },
     sources: [
       {
@@ -519,7 +527,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 2,
       sinkCurrentA: 2.5,
       propagationDelayNs: 35,
-      inputDefault: 'low',
+      inputPull: 'down',
+      inputPullOhms: null,
     },
     sources: [
       {
@@ -576,7 +585,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 0.6,
       sinkCurrentA: 0.6,
       propagationDelayNs: 20,
-      inputDefault: 'low',
+      inputPull: 'down',
+      inputPullOhms: null,
     },
     sources: [
       {
@@ -618,7 +628,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 0.5,
       sinkCurrentA: 0.5,
       propagationDelayNs: 15,
-      inputDefault: 'low',
+      inputPull: 'down',
+      inputPullOhms: null,
     },
     sources: [
       {
@@ -660,7 +671,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 4,
       sinkCurrentA: 4,
       propagationDelayNs: 22,
-      inputDefault: 'low',
+      inputPull: 'down',
+      inputPullOhms: null,
     },
     sources: [
       {
@@ -701,7 +713,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 0.05,
       sinkCurrentA: 0.05,
       propagationDelayNs: 15,
-      inputDefault: 'floating',
+      inputPull: 'none',
+      inputPullOhms: null,
     },
     sources: [
       {
@@ -772,7 +785,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 0.05,
       sinkCurrentA: 0.05,
       propagationDelayNs: 18,
-      inputDefault: 'floating',
+      inputPull: 'none',
+      inputPullOhms: null,
     },
     sources: [
       {
@@ -844,7 +858,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 0.2,
       sinkCurrentA: 0.4,
       propagationDelayNs: 120,
-      inputDefault: 'low',
+      inputPull: 'down',
+      inputPullOhms: null,
     },
     sources: [
       {
@@ -915,7 +930,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 0.05,
       sinkCurrentA: 0.3,
       propagationDelayNs: 300,
-      inputDefault: 'high',
+      inputPull: 'down',
+      inputPullOhms: null,
     },
     sources: [
       {

@@ -44,6 +44,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 340,
       tjMaxC: 150,
       bodyDiodeVfV: 0.78,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 1.8, tjC: 25, maxOhm: 0.19, typOhm: 0.15, idA: 0.3 },
         { vgsV: 2.5, tjC: 25, maxOhm: 0.12, typOhm: 0.094, idA: 0.5 },
@@ -93,6 +94,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 350,
       tjMaxC: 150,
       bodyDiodeVfV: 0.8,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 1.8, tjC: 25, maxOhm: 0.4, typOhm: 0.31, idA: 0.2 },
         { vgsV: 2.5, tjC: 25, maxOhm: 0.26, typOhm: 0.2, idA: 0.4 },
@@ -172,6 +174,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 280,
       tjMaxC: 150,
       bodyDiodeVfV: 0.82,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 1.8, tjC: 25, maxOhm: 0.075, typOhm: 0.058, idA: 1 },
         { vgsV: 2.5, tjC: 25, maxOhm: 0.052, typOhm: 0.041, idA: 1.5 },
@@ -237,6 +240,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 125,
       tjMaxC: 150,
       bodyDiodeVfV: 0.72,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 1.8, tjC: 25, maxOhm: 0.032, typOhm: 0.025, idA: 2 },
         { vgsV: 2.5, tjC: 25, maxOhm: 0.024, typOhm: 0.019, idA: 3 },
@@ -315,6 +319,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 130,
       tjMaxC: 150,
       bodyDiodeVfV: 0.74,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 1.8, tjC: 25, maxOhm: 0.045, typOhm: 0.035, idA: 2 },
         { vgsV: 2.5, tjC: 25, maxOhm: 0.032, typOhm: 0.025, idA: 3 },
@@ -365,6 +370,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 250,
       tjMaxC: 150,
       bodyDiodeVfV: 0.76,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 1.8, tjC: 25, maxOhm: 0.06, typOhm: 0.047, idA: 1.5 },
         { vgsV: 2.5, tjC: 25, maxOhm: 0.042, typOhm: 0.033, idA: 2 },
@@ -429,6 +435,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 230,
       tjMaxC: 150,
       bodyDiodeVfV: 0.74,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 1.8, tjC: 25, maxOhm: 0.042, typOhm: 0.033, idA: 2 },
         { vgsV: 2.5, tjC: 25, maxOhm: 0.03, typOhm: 0.023, idA: 3 },
@@ -507,6 +514,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 260,
       tjMaxC: 150,
       bodyDiodeVfV: 0.8,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 1.8, tjC: 25, maxOhm: 0.11, typOhm: 0.086, idA: 1 },
         { vgsV: 2.5, tjC: 25, maxOhm: 0.07, typOhm: 0.055, idA: 1.5 },
@@ -571,6 +579,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 350,
       tjMaxC: 150,
       bodyDiodeVfV: 0.82,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 1.8, tjC: 25, maxOhm: 0.65, typOhm: 0.51, idA: 0.1 },
         { vgsV: 2.5, tjC: 25, maxOhm: 0.45, typOhm: 0.35, idA: 0.2 },
@@ -621,6 +630,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 240,
       tjMaxC: 150,
       bodyDiodeVfV: 0.78,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 2.5, tjC: 25, maxOhm: 0.055, typOhm: 0.043, idA: 2 },
         { vgsV: 4.5, tjC: 25, maxOhm: 0.036, typOhm: 0.028, idA: 3 },
@@ -699,6 +709,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 250,
       tjMaxC: 150,
       bodyDiodeVfV: 0.8,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 1.8, tjC: 25, maxOhm: 0.085, typOhm: 0.066, idA: 1 },
         { vgsV: 2.5, tjC: 25, maxOhm: 0.06, typOhm: 0.047, idA: 2 },
@@ -777,6 +788,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 350,
       tjMaxC: 150,
       bodyDiodeVfV: 0.85,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 1.8, tjC: 25, maxOhm: 0.8, typOhm: 0.62, idA: 0.1 },
         { vgsV: 2.5, tjC: 25, maxOhm: 0.55, typOhm: 0.43, idA: 0.2 },
@@ -854,6 +866,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 125,
       tjMaxC: 150,
       bodyDiodeVfV: 0.78,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 1.8, tjC: 25, maxOhm: 0.08, typOhm: 0.062, idA: 1.5 },
         { vgsV: 2.5, tjC: 25, maxOhm: 0.055, typOhm: 0.043, idA: 2 },
@@ -919,6 +932,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 250,
       tjMaxC: 150,
       bodyDiodeVfV: 0.8,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 4.5, tjC: 25, maxOhm: 0.048, typOhm: 0.037, idA: 2.5 },
         { vgsV: 10, tjC: 25, maxOhm: 0.034, typOhm: 0.027, idA: 3 },
@@ -997,6 +1011,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 250,
       tjMaxC: 150,
       bodyDiodeVfV: 0.8,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 2.5, tjC: 25, maxOhm: 0.085, typOhm: 0.066, idA: 1 },
         { vgsV: 4.5, tjC: 25, maxOhm: 0.045, typOhm: 0.035, idA: 2.5 },
@@ -1076,6 +1091,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 260,
       tjMaxC: 150,
       bodyDiodeVfV: 0.8,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 3.3, tjC: 25, maxOhm: 0.07, typOhm: 0.055, idA: 1.5 },
         { vgsV: 4.5, tjC: 25, maxOhm: 0.048, typOhm: 0.037, idA: 2 },
@@ -1126,6 +1142,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 270,
       tjMaxC: 150,
       bodyDiodeVfV: 0.82,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 4.5, tjC: 25, maxOhm: 0.16, typOhm: 0.12, idA: 1 },
         { vgsV: 10, tjC: 25, maxOhm: 0.12, typOhm: 0.094, idA: 1.5 },
@@ -1188,6 +1205,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 280,
       tjMaxC: 150,
       bodyDiodeVfV: 0.85,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 4.5, tjC: 25, maxOhm: 0.72, typOhm: 0.56, idA: 0.3 },
         { vgsV: 10, tjC: 25, maxOhm: 0.55, typOhm: 0.43, idA: 0.5 },
@@ -1237,6 +1255,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 110,
       tjMaxC: 150,
       bodyDiodeVfV: 0.82,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 4.5, tjC: 25, maxOhm: 0.06, typOhm: 0.047, idA: 2 },
         { vgsV: 10, tjC: 25, maxOhm: 0.045, typOhm: 0.035, idA: 3 },
@@ -1300,6 +1319,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 75,
       tjMaxC: 150,
       bodyDiodeVfV: 0.78,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 4.5, tjC: 25, maxOhm: 0.018, typOhm: 0.014, idA: 6 },
         { vgsV: 10, tjC: 25, maxOhm: 0.013, typOhm: 0.01, idA: 8 },
@@ -1349,6 +1369,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 330,
       tjMaxC: 150,
       bodyDiodeVfV: 0.82,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 4.5, tjC: 25, maxOhm: 0.3, typOhm: 0.23, idA: 0.3 },
         { vgsV: 10, tjC: 25, maxOhm: 0.22, typOhm: 0.17, idA: 0.5 },
@@ -1398,6 +1419,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 270,
       tjMaxC: 150,
       bodyDiodeVfV: 0.8,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 4.5, tjC: 25, maxOhm: 0.07, typOhm: 0.055, idA: 1.5 },
         { vgsV: 10, tjC: 25, maxOhm: 0.05, typOhm: 0.039, idA: 2 },
@@ -1475,6 +1497,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 250,
       tjMaxC: 150,
       bodyDiodeVfV: 0.8,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 4.5, tjC: 25, maxOhm: 0.065, typOhm: 0.051, idA: 2 },
         { vgsV: 10, tjC: 25, maxOhm: 0.046, typOhm: 0.036, idA: 3 },
@@ -1539,6 +1562,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 60,
       tjMaxC: 150,
       bodyDiodeVfV: 0.8,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 4.5, tjC: 25, maxOhm: 0.0165, typOhm: 0.013, idA: 8 },
         { vgsV: 10, tjC: 25, maxOhm: 0.012, typOhm: 0.0094, idA: 10 },
@@ -1616,6 +1640,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 60,
       tjMaxC: 150,
       bodyDiodeVfV: 0.78,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 2.5, tjC: 25, maxOhm: 0.02, typOhm: 0.016, idA: 5 },
         { vgsV: 4.5, tjC: 25, maxOhm: 0.011, typOhm: 0.0086, idA: 8 },
@@ -1666,6 +1691,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 55,
       tjMaxC: 175,
       bodyDiodeVfV: 0.9,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 4.5, tjC: 25, maxOhm: 0.036, typOhm: 0.028, idA: 10 },
         { vgsV: 10, tjC: 25, maxOhm: 0.028, typOhm: 0.022, idA: 15 },
@@ -1714,6 +1740,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 55,
       tjMaxC: 175,
       bodyDiodeVfV: 0.88,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 4.5, tjC: 25, maxOhm: 0.02, typOhm: 0.016, idA: 15 },
         { vgsV: 10, tjC: 25, maxOhm: 0.015, typOhm: 0.012, idA: 20 },
@@ -1777,6 +1804,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 62,
       tjMaxC: 175,
       bodyDiodeVfV: 0.9,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 4.5, tjC: 25, maxOhm: 0.06, typOhm: 0.047, idA: 15 },
         { vgsV: 10, tjC: 25, maxOhm: 0.045, typOhm: 0.035, idA: 20 },
@@ -1840,6 +1868,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 250,
       tjMaxC: 150,
       bodyDiodeVfV: 0.82,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 4.5, tjC: 25, maxOhm: 0.085, typOhm: 0.066, idA: 2 },
         { vgsV: 10, tjC: 25, maxOhm: 0.055, typOhm: 0.043, idA: 3 },
@@ -1888,6 +1917,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 250,
       tjMaxC: 150,
       bodyDiodeVfV: 0.8,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 4.5, tjC: 25, maxOhm: 0.095, typOhm: 0.074, idA: 2 },
         { vgsV: 10, tjC: 25, maxOhm: 0.068, typOhm: 0.053, idA: 2.5 },
@@ -1949,6 +1979,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 270,
       tjMaxC: 150,
       bodyDiodeVfV: 0.85,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 4.5, tjC: 25, maxOhm: 0.45, typOhm: 0.35, idA: 0.5 },
         { vgsV: 10, tjC: 25, maxOhm: 0.32, typOhm: 0.25, idA: 1 },
@@ -1997,6 +2028,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 55,
       tjMaxC: 175,
       bodyDiodeVfV: 0.9,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 4.5, tjC: 25, maxOhm: 0.05, typOhm: 0.039, idA: 8 },
         { vgsV: 10, tjC: 25, maxOhm: 0.035, typOhm: 0.027, idA: 10 },
@@ -2046,6 +2078,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 75,
       tjMaxC: 150,
       bodyDiodeVfV: 0.8,
+      zthPoints: [],
       rdsOn: [
         { vgsV: 4.5, tjC: 25, maxOhm: 0.032, typOhm: 0.025, idA: 4 },
         { vgsV: 10, tjC: 25, maxOhm: 0.022, typOhm: 0.017, idA: 6 },
@@ -2108,6 +2141,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 280,
       tjMaxC: 150,
       bodyDiodeVfV: 0.85,
+      zthPoints: [],
       rdsOn: [{ vgsV: 10, tjC: 25, maxOhm: 0.25, typOhm: 0.2, idA: 0.5 }],
     },
     sources: [
@@ -2154,6 +2188,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 300,
       tjMaxC: 150,
       bodyDiodeVfV: 0.88,
+      zthPoints: [],
       rdsOn: [{ vgsV: 10, tjC: 25, maxOhm: 1.2, typOhm: 0.94, idA: 0.2 }],
     },
     sources: [
@@ -2214,6 +2249,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 250,
       tjMaxC: 150,
       bodyDiodeVfV: 0.82,
+      zthPoints: [],
       rdsOn: [{ vgsV: 10, tjC: 25, maxOhm: 0.06, typOhm: 0.047, idA: 2 }],
     },
     sources: [
@@ -2274,6 +2310,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 110,
       tjMaxC: 150,
       bodyDiodeVfV: 0.85,
+      zthPoints: [],
       rdsOn: [{ vgsV: 10, tjC: 25, maxOhm: 0.11, typOhm: 0.086, idA: 2 }],
     },
     sources: [
@@ -2349,6 +2386,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 60,
       tjMaxC: 175,
       bodyDiodeVfV: 0.9,
+      zthPoints: [],
       rdsOn: [{ vgsV: 10, tjC: 25, maxOhm: 0.04, typOhm: 0.031, idA: 15 }],
     },
     sources: [
@@ -2393,6 +2431,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 60,
       tjMaxC: 175,
       bodyDiodeVfV: 0.9,
+      zthPoints: [],
       rdsOn: [{ vgsV: 10, tjC: 25, maxOhm: 0.06, typOhm: 0.047, idA: 10 }],
     },
     sources: [
@@ -2468,6 +2507,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 62,
       tjMaxC: 175,
       bodyDiodeVfV: 0.92,
+      zthPoints: [],
       rdsOn: [{ vgsV: 10, tjC: 25, maxOhm: 0.018, typOhm: 0.014, idA: 25 }],
     },
     sources: [
@@ -2528,6 +2568,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 62,
       tjMaxC: 175,
       bodyDiodeVfV: 0.92,
+      zthPoints: [],
       rdsOn: [{ vgsV: 10, tjC: 25, maxOhm: 0.03, typOhm: 0.023, idA: 20 }],
     },
     sources: [
@@ -2573,6 +2614,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 62,
       tjMaxC: 175,
       bodyDiodeVfV: 0.92,
+      zthPoints: [],
       rdsOn: [{ vgsV: 10, tjC: 25, maxOhm: 0.025, typOhm: 0.02, idA: 20 }],
     },
     sources: [
@@ -2617,6 +2659,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 75,
       tjMaxC: 150,
       bodyDiodeVfV: 0.85,
+      zthPoints: [],
       rdsOn: [{ vgsV: 10, tjC: 25, maxOhm: 0.022, typOhm: 0.017, idA: 5 }],
     },
     sources: [
@@ -2691,6 +2734,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 60,
       tjMaxC: 175,
       bodyDiodeVfV: 0.95,
+      zthPoints: [],
       rdsOn: [{ vgsV: 10, tjC: 25, maxOhm: 0.08, typOhm: 0.062, idA: 8 }],
     },
     sources: [
@@ -2751,6 +2795,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 62,
       tjMaxC: 175,
       bodyDiodeVfV: 0.95,
+      zthPoints: [],
       rdsOn: [{ vgsV: 10, tjC: 25, maxOhm: 0.2, typOhm: 0.16, idA: 6 }],
     },
     sources: [
@@ -2811,6 +2856,7 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 280,
       tjMaxC: 150,
       bodyDiodeVfV: 0.88,
+      zthPoints: [],
       rdsOn: [{ vgsV: 10, tjC: 25, maxOhm: 0.6, typOhm: 0.47, idA: 0.5 }],
     },
     sources: [

@@ -47,7 +47,7 @@ export function parameterRows(part: Part): ParameterRow[] {
         row('Peak source current', v(p.sourceCurrentA), 'A'),
         row('Peak sink current', v(p.sinkCurrentA), 'A'),
         row('Propagation delay', v(p.propagationDelayNs), 'ns', 'worst case'),
-        row('Output with input open', p.inputDefault === 'floating' ? 'undefined (input floats)' : `${p.inputDefault === 'low' ? 'as for input low' : 'as for input high'}`, '', 'internal input pull'),
+        row('Internal input pull', p.inputPull === 'none' ? 'none (an open input floats)' : `pull-${p.inputPull}${p.inputPullOhms != null ? `, ${p.inputPullOhms / 1000} kΩ` : ''}`, '', 'datasheet input structure'),
       ];
     }
     case 'diode': {

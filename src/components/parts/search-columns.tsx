@@ -62,7 +62,7 @@ const CATEGORY_COLUMNS: Record<PartCategory, SearchColumn[]> = {
     { id: 'source', label: 'Source', unit: 'A', sortKey: 'sourceCurrentA', numeric: true, defaultVisible: true, cell: (p) => (p.category === 'driver' ? sig(p.params.sourceCurrentA) : '') },
     { id: 'sink', label: 'Sink', unit: 'A', numeric: true, cell: (p) => (p.category === 'driver' ? sig(p.params.sinkCurrentA) : '') },
     { id: 'tpd', label: 'Delay', unit: 'ns', sortKey: 'propagationDelayNs', numeric: true, cell: (p) => (p.category === 'driver' ? sig(p.params.propagationDelayNs) : '') },
-    { id: 'openInput', label: 'Open input', cell: (p) => (p.category === 'driver' ? p.params.inputDefault : '') },
+    { id: 'openInput', label: 'Open input', cell: (p) => (p.category === 'driver' ? p.params.inputPull : '') },
   ],
   diode: [
     { id: 'kind', label: 'Kind', defaultVisible: true, cell: (p) => (p.category === 'diode' ? p.params.kind : '') },

@@ -68,7 +68,7 @@ export default function InputsPanel({ input, motors, errors, onChange, readOnly 
         <label className="field col-span-2">Preset
           <select value={input.supply.preset ?? ''} onChange={(ev) => {
             const p = SUPPLY_PRESETS.find((s) => s.id === ev.target.value);
-            set({ supply: p ? { minV: p.minV, nomV: p.nomV, maxV: p.maxV, preset: p.id } : { ...input.supply, preset: null } });
+            set({ supply: p ? { ...input.supply, minV: p.minV, nomV: p.nomV, maxV: p.maxV, preset: p.id } : { ...input.supply, preset: null } });
           }}>
             <option value="">custom</option>
             {SUPPLY_PRESETS.map((p) => <option key={p.id} value={p.id}>{p.label} ({p.minV}–{p.maxV} V)</option>)}

@@ -17,6 +17,26 @@ export interface DesignSupply {
   maxV: number;
   /** Id of the preset the numbers came from, if any (informative). */
   preset: string | null;
+  /** The source's own internal resistance (per cell × cells for a pack; ~0 for a regulated supply). */
+  internalResistanceOhm: number;
+  /** Current the source may deliver continuously; null when not stated (not checked). */
+  continuousCurrentA: number | null;
+  /** Current at which the source limits (USB port, bench supply setting); null when it does not limit. */
+  currentLimitA: number | null;
+}
+
+/** What happens to the drive when the shaft jams with the switch on. */
+export type StallProtection =
+  | { kind: 'none' }
+  | { kind: 'current-limit'; limitA: number }
+  | { kind: 'cut-off'; afterS: number };
+
+/** The controller fed from the motor's own source (directly or through a regulator). */
+export interface SharedLogicSupply {
+  /** Lowest supply at which the controller keeps running (its brown-out level). */
+  minSupplyV: number;
+  /** Dropout of the regulator between the source and the controller; 0 when fed directly. */
+  regulatorDropoutV: number;
 }
 
 export interface DesignLogic {
@@ -31,6 +51,8 @@ export interface DesignLogic {
   resetPullOhms: number;
   /** Fractional tolerance of the internal pull, e.g. 0.3 for ±30 %. */
   resetPullTolerance: number;
+  /** The controller shares the motor's source; null when it has a supply of its own. */
+  sharedSupply: SharedLogicSupply | null;
 }
 
 export type DesignDrive = { mode: 'onoff' } | { mode: 'pwm'; frequencyHz: number; dutyMin: number; dutyMax: number };
@@ -59,6 +81,10 @@ export interface DesignInput {
   driverSupplyV: number | null;
   /** Boards per build, for the bill of materials and price breaks. */
   boardQuantity: number;
+  /** What limits a jammed motor; 'none' (the default) judges a jam as a steady state at stall current. */
+  stallProtection: StallProtection;
+  /** Set only when the designer records that the motor running at reset is intended, with the reason. */
+  resetStartIntent: { reason: string } | null;
   selections: Record<PartRole, RoleSelection>;
 }
 

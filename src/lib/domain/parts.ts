@@ -45,6 +45,14 @@ export interface MosfetParams {
   /** Body-diode forward voltage (typ.), informative only. */
   bodyDiodeVfV: number | null;
   rdsOn: RdsOnSpecPoint[];
+  /** Single-pulse transient thermal impedance points, when the datasheet gives its Zth curve (may be empty). */
+  zthPoints: ZthPoint[];
+}
+
+/** One point of a datasheet's single-pulse Zth(j-a) curve: the impedance after a pulse of pulseS seconds. */
+export interface ZthPoint {
+  pulseS: number;
+  zthCPerW: number;
 }
 
 /** How a driver's input thresholds are stated. */
@@ -69,8 +77,13 @@ export interface DriverParams {
   sourceCurrentA: number;
   sinkCurrentA: number;
   propagationDelayNs: number;
-  /** What the output does while the input is left open (internal input pull). */
-  inputDefault: 'low' | 'high' | 'floating';
+  /**
+   * The input's internal pull as the datasheet states it: 'down' (to ground), 'up' (to the driver's
+   * input-side supply), or 'none'. With `inverting`, this fixes the output while the input is left open.
+   */
+  inputPull: 'up' | 'down' | 'none';
+  /** Typical value of that internal pull; null when the datasheet does not state it. */
+  inputPullOhms: number | null;
 }
 
 export type DiodeKind = 'schottky' | 'ultrafast' | 'fast' | 'general';
@@ -85,6 +98,12 @@ export interface DiodeParams {
   vfAtIfA: number;
   /** Reverse recovery time; null for Schottky parts (no stored charge). */
   trrNs: number | null;
+  /** Repetitive peak forward current IFRM; null when the datasheet gives none. */
+  ifrmA: number | null;
+  /** Junction-to-ambient thermal resistance on the datasheet's test board; null when not stated. */
+  rthJaCPerW: number | null;
+  /** Maximum junction temperature; null when not stated. */
+  tjMaxC: number | null;
 }
 
 export interface MotorParams {

@@ -34,7 +34,15 @@ export const designInputSchema = z
       z.object({ source: z.literal('catalogue'), partId: id() }),
       z.object({ source: z.literal('manual'), label: z.string().trim().min(1).max(120), params: motorParams }),
     ]),
-    supply: z.object({ minV: pos().max(60), nomV: pos().max(60), maxV: pos().max(60), preset: z.string().max(40).nullable().default(null) }),
+    supply: z.object({
+      minV: pos().max(60),
+      nomV: pos().max(60),
+      maxV: pos().max(60),
+      preset: z.string().max(40).nullable().default(null),
+      internalResistanceOhm: nonNeg().max(100).default(0),
+      continuousCurrentA: pos().max(1000).nullable().default(null),
+      currentLimitA: pos().max(1000).nullable().default(null),
+    }),
     wiringResistanceOhm: nonNeg().max(100).default(0),
     shuntResistanceOhm: nonNeg().max(100).default(0),
     logic: z.object({
@@ -46,6 +54,10 @@ export const designInputSchema = z
       resetPull: z.enum(['up', 'down', 'none']),
       resetPullOhms: nonNeg().max(10_000_000),
       resetPullTolerance: nonNeg().max(0.9),
+      sharedSupply: z
+        .object({ minSupplyV: pos().max(60), regulatorDropoutV: nonNeg().max(10).default(0) })
+        .nullable()
+        .default(null),
     }),
     drive: z.discriminatedUnion('mode', [
       z.object({ mode: z.literal('onoff') }),
@@ -61,6 +73,17 @@ export const designInputSchema = z
     margins: z.object({ voltageDerating: z.number().gt(0).max(1).default(0.8), thermalMarginC: nonNeg().max(100).default(25) }),
     driverSupplyV: pos().max(40).nullable().default(null),
     boardQuantity: z.number().int().min(1).max(1_000_000).default(100),
+    stallProtection: z
+      .discriminatedUnion('kind', [
+        z.object({ kind: z.literal('none') }),
+        z.object({ kind: z.literal('current-limit'), limitA: pos().max(1000) }),
+        z.object({ kind: z.literal('cut-off'), afterS: pos().max(3600) }),
+      ])
+      .default({ kind: 'none' }),
+    resetStartIntent: z
+      .object({ reason: z.string().trim().min(10, { error: 'Say in a sentence why the motor may run at reset.' }).max(500) })
+      .nullable()
+      .default(null),
     selections: z
       .object({ switch: selection.default(emptySelection), driver: selection.default(emptySelection), diode: selection.default(emptySelection) })
       .default({ switch: emptySelection, driver: emptySelection, diode: emptySelection }),

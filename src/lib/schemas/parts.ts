@@ -25,6 +25,11 @@ export const mpnSchema = text('Part number', 80).regex(/^[A-Za-z0-9][A-Za-z0-9._
   error: 'Part number: letters, digits and . _ - / + # only, starting with a letter or digit',
 });
 
+export const zthPointSchema = z.object({
+  pulseS: pos('Zth pulse length').max(10_000),
+  zthCPerW: pos('Zth'),
+});
+
 export const rdsOnPointSchema = z.object({
   vgsV: pos('VGS'),
   tjC: num('Tj').min(-55).max(200).default(25),
@@ -52,6 +57,7 @@ export const mosfetParamsSchema = z
     tjMaxC: num('Tj max').min(25).max(250),
     bodyDiodeVfV: optPos('Body-diode VF'),
     rdsOn: z.array(rdsOnPointSchema).min(1, { error: 'Give at least one RDS(on) line with its VGS' }).max(8),
+    zthPoints: z.array(zthPointSchema).max(12).default([]),
   })
   .superRefine((p, ctx) => {
     if (p.vgsThMinV > p.vgsThMaxV) ctx.addIssue({ code: 'custom', path: ['vgsThMinV'], message: 'VGS(th) min is above VGS(th) max' });
@@ -82,7 +88,8 @@ export const driverParamsSchema = z
     sourceCurrentA: pos('Source current'),
     sinkCurrentA: pos('Sink current'),
     propagationDelayNs: pos('Propagation delay'),
-    inputDefault: z.enum(['low', 'high', 'floating'], { error: 'Input default is low, high or floating' }),
+    inputPull: z.enum(['up', 'down', 'none'], { error: 'Input pull is up, down or none' }),
+    inputPullOhms: optPos('Input pull resistance'),
   })
   .superRefine((p, ctx) => {
     if (p.supplyMinV > p.supplyMaxV) ctx.addIssue({ code: 'custom', path: ['supplyMinV'], message: 'Supply min is above supply max' });
@@ -100,6 +107,9 @@ export const diodeParamsSchema = z.object({
   vfV: pos('VF'),
   vfAtIfA: pos('VF test current'),
   trrNs: optPos('trr'),
+  ifrmA: optPos('IFRM'),
+  rthJaCPerW: optPos('RθJA'),
+  tjMaxC: optPos('Tj max'),
 });
 
 export const motorParamsSchema = z

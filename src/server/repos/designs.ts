@@ -1,6 +1,9 @@
 /** Data access for designs and their revisions. Row types stay here; services get domain objects. */
 import type { Db } from '../db.ts';
 import type { Design, DesignInput, DesignStatus, DesignSummary } from '../../lib/domain/design.ts';
+import { designInputSchema } from '../../lib/schemas/design.ts';
+import { issuesOf } from '../../lib/schemas/issues.ts';
+import { ServiceError } from '../services/errors.ts';
 
 export interface DbDesignRow {
   id: number;
@@ -23,6 +26,16 @@ export interface DbDesignRevisionRow {
   created_by: number | null;
   created_at: Date;
   created_by_name?: string | null;
+}
+
+/**
+ * A stored revision, validated on read: fields added since it was saved take their schema defaults
+ * (the worst-case ones), and a row that no longer validates is refused plainly instead of crashing later.
+ */
+export function parseStoredInput(json: string, designId: number, revision: number): DesignInput {
+  const parsed = designInputSchema.safeParse(JSON.parse(json));
+  if (parsed.success) return parsed.data as DesignInput;
+  throw new ServiceError(409, `Revision ${revision} of design ${designId} no longer validates; open it and save it again.`, issuesOf(parsed.error));
 }
 
 const iso = (d: Date | string): string => (d instanceof Date ? d.toISOString() : new Date(d).toISOString());
@@ -86,7 +99,7 @@ export async function loadDesign(db: Db, id: number, revision?: number): Promise
     ...summaryFromRow(row),
     revision: wanted.revision,
     version: row.version,
-    input: JSON.parse(wanted.input_json) as DesignInput,
+    input: parseStoredInput(wanted.input_json, id, wanted.revision),
     revisions: revisions.map((r) => ({ revision: r.revision, createdAt: iso(r.created_at), createdByName: r.created_by_name ?? null })),
   };
 }

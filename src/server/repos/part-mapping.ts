@@ -80,6 +80,7 @@ export function mosfetFromRows(row: DbMosfetRow, points: DbRdsOnRow[]): MosfetPa
     rdsOn: points
       .map((r) => ({ vgsV: r.vgs_v, tjC: r.tj_c, maxOhm: r.max_ohm, typOhm: r.typ_ohm, idA: r.id_a }))
       .sort((a, b) => a.vgsV - b.vgsV || a.tjC - b.tjC),
+    zthPoints: [],
   };
 }
 
@@ -99,7 +100,8 @@ export function driverToRow(partId: number, p: DriverParams): DbDriverRow {
     source_current_a: p.sourceCurrentA,
     sink_current_a: p.sinkCurrentA,
     propagation_delay_ns: p.propagationDelayNs,
-    input_default: p.inputDefault,
+    // Interim until the driver input-structure migration: the open-input output level.
+    input_default: p.inputPull === 'none' ? 'floating' : (p.inputPull === 'up') !== p.inverting ? 'high' : 'low',
   };
 }
 
@@ -118,7 +120,8 @@ export function driverFromRow(row: DbDriverRow): DriverParams {
     sourceCurrentA: row.source_current_a,
     sinkCurrentA: row.sink_current_a,
     propagationDelayNs: row.propagation_delay_ns,
-    inputDefault: row.input_default,
+    inputPull: row.input_default === 'floating' ? 'none' : (row.input_default === 'high') !== Boolean(row.inverting) ? 'up' : 'down',
+    inputPullOhms: null,
   };
 }
 
@@ -144,6 +147,9 @@ export function diodeFromRow(row: DbDiodeRow): DiodeParams {
     vfV: row.vf_v,
     vfAtIfA: row.vf_at_if_a,
     trrNs: row.trr_ns,
+    ifrmA: null,
+    rthJaCPerW: null,
+    tjMaxC: null,
   };
 }
 

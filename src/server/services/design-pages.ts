@@ -23,10 +23,10 @@ export function newDesignInput(firstMotorId: number | null): DesignInput {
     motor: firstMotorId != null
       ? { source: 'catalogue', partId: firstMotorId }
       : { source: 'manual', label: 'Motor entered by hand', params: { ratedVoltageV: 3.7, voltageMinV: null, voltageMaxV: null, noLoadSpeedRpm: 14000, noLoadCurrentA: 0.22, stallTorqueNm: 0.0047, stallCurrentA: 2.4, terminalResistanceOhm: null, inductanceH: null, rotorInertiaKgM2: null } },
-    supply: { minV: supply.minV, nomV: supply.nomV, maxV: supply.maxV, preset: supply.id },
+    supply: { minV: supply.minV, nomV: supply.nomV, maxV: supply.maxV, preset: supply.id, internalResistanceOhm: 0, continuousCurrentA: null, currentLimitA: null },
     wiringResistanceOhm: 0.05,
     shuntResistanceOhm: 0,
-    logic: { railV: logic.railV, highV: logic.highV, lowV: logic.lowV, pinSourceCurrentA: 0.004, pinSinkCurrentA: 0.004, resetPull: 'none', resetPullOhms: 0, resetPullTolerance: 0 },
+    logic: { railV: logic.railV, highV: logic.highV, lowV: logic.lowV, pinSourceCurrentA: 0.004, pinSinkCurrentA: 0.004, resetPull: 'none', resetPullOhms: 0, resetPullTolerance: 0, sharedSupply: null },
     drive: { mode: 'onoff' },
     ambientMinC: 0,
     ambientMaxC: 40,
@@ -34,6 +34,8 @@ export function newDesignInput(firstMotorId: number | null): DesignInput {
     margins: { ...DEFAULT_DESIGN_MARGINS },
     driverSupplyV: null,
     boardQuantity: 100,
+    stallProtection: { kind: 'none' },
+    resetStartIntent: null,
     selections: { switch: { chosenPartId: null, alternatePartIds: [] }, driver: { chosenPartId: null, alternatePartIds: [] }, diode: { chosenPartId: null, alternatePartIds: [] } },
   };
 }

@@ -4,6 +4,7 @@ import type { DesignInput, PartRole } from '../../lib/domain/design.ts';
 import type { Part } from '../../lib/domain/parts.ts';
 import { bestUnitPrice } from '../../lib/part-summary.ts';
 import { partsByIds } from './designs.ts';
+import { parseStoredInput } from '../repos/designs.ts';
 
 export interface ShortlistPart {
   partId: number;
@@ -46,7 +47,7 @@ export async function readyShortlist(): Promise<ShortlistDesign[]> {
     .where('designs.status', 'ready')
     .select('designs.id', 'designs.name', 'designs.current_revision', 'designs.ready_at', 'users.name as owner_name', 'design_revisions.input_json')
     .orderBy('designs.ready_at', 'desc');
-  const inputs = rows.map((r) => JSON.parse(r.input_json) as DesignInput);
+  const inputs = rows.map((r) => parseStoredInput(r.input_json, r.id, r.current_revision));
   const ids = inputs.flatMap((i) => [
     ...(i.motor.source === 'catalogue' ? [i.motor.partId] : []),
     ...(['switch', 'driver', 'diode'] as const).flatMap((r) => [...(i.selections[r].chosenPartId != null ? [i.selections[r].chosenPartId as number] : []), ...i.selections[r].alternatePartIds]),
