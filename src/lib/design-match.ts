@@ -12,6 +12,7 @@ import { bestUnitPrice } from './part-summary.ts';
 import { calcMotor, type CalcMotorResponse } from './calc.ts';
 import { operatingPointAtSpeed, operatingPointAtTorque } from './motor-curve.ts';
 import { motorAtSupply, motorModelFromDatasheet } from './motor.ts';
+import type { SupplyReport } from './supply.ts';
 
 export interface PriceAtQty {
   qty: number;
@@ -50,6 +51,8 @@ export interface DesignMatch {
   driver: MatchEntry<Ranked['driver'][number]>[];
   diode: MatchEntry<Ranked['diode'][number]>[];
   powerOn: Ranked['powerOn'];
+  /** The source against the motor (start current, current limit, shared logic rail); null until computed. */
+  supply: SupplyReport | null;
   cautions: string[];
   /** Candidates left out before ranking because a rating can never pass (or obsolete). */
   excluded: { switch: number; driver: number; diode: number };
@@ -126,6 +129,7 @@ export function matchDesign(input: DesignInput, motorLabel: string, motor: Motor
     driver: decorate(ranking.driver, all, qty),
     diode: decorate(ranking.diode, all, qty),
     powerOn: selectedPowerOn(designCase, input, catalogue) ?? ranking.powerOn,
+    supply: null,
     cautions: ranking.cautions,
     excluded: catalogue.excluded,
   };
