@@ -37,6 +37,17 @@ function handRippleA(v: number, vf: number, r: number, l: number, d: number, f: 
   return (((v + vf) / r) * (1 - a) * (1 - b)) / (1 - a * b);
 }
 
+/** Hand derivation: the continuous fixed point i1 = Aon(1 − a) + a·i0, i0 = Aoff(1 − b) + b·i1, Aon = (V − E)/R, Aoff = −(VF + E)/R. */
+function handContinuousA(input: RippleInput): { turnOnA: number; turnOffA: number } {
+  const tauS = input.inductanceH / input.resistanceOhm;
+  const a = Math.exp(-input.duty / (input.frequencyHz * tauS));
+  const b = Math.exp(-(1 - input.duty) / (input.frequencyHz * tauS));
+  const onA = (input.supplyV - input.backEmfV) / input.resistanceOhm;
+  const offA = -(input.diodeForwardV + input.backEmfV) / input.resistanceOhm;
+  const turnOffA = (onA * (1 - a) + a * offA * (1 - b)) / (1 - a * b);
+  return { turnOnA: offA * (1 - b) + b * turnOffA, turnOffA };
+}
+
 // docs/engineering.md "Ripple and discontinuous conduction" (worked example, checked by simulation and closed form)
 const WORKED = { supplyV: 12.6, resistanceOhm: 2.4, inductanceH: 1.2e-3, diodeForwardV: 0.7, duty: 0.5 };
 const WORKED_MEAN_A = 0.745;
@@ -122,9 +133,15 @@ describe.each<[string, RippleInput]>([
   ['duty 1: DC', { supplyV: 12, resistanceOhm: 2, inductanceH: 1e-3, diodeForwardV: 0.5, duty: 1, frequencyHz: 5000, backEmfV: 4 }],
   ['duty 0', { supplyV: 12, resistanceOhm: 2, inductanceH: 1e-3, diodeForwardV: 0.5, duty: 0, frequencyHz: 5000, backEmfV: 4 }],
   ['V below E', { supplyV: 5, resistanceOhm: 2, inductanceH: 1e-3, diodeForwardV: 0.5, duty: 0.6, frequencyHz: 5000, backEmfV: 6 }],
-])('closed form against simulation: %s', (_name, input) => {
+])('closed form against simulation: %s', (name, input) => {
   it('agree within 1e-5 of the current scale', () => {
     expectAgreement(periodicCurrent(input), simulatePeriodicCurrent(input), input);
+  });
+
+  it('the mode in the name is the one the hand fixed point gives (continuous iff its turn-on current is positive)', () => {
+    if (name.startsWith('CCM')) expect(handContinuousA(input).turnOnA).toBeGreaterThan(0);
+    if (name.startsWith('DCM')) expect(handContinuousA(input).turnOnA).toBeLessThanOrEqual(0);
+    if (/^(CCM|DCM)/.test(name)) expect(periodicCurrent(input).continuous).toBe(name.startsWith('CCM'));
   });
 });
 
@@ -197,5 +214,142 @@ describe('limits', () => {
   ])('bad %s is refused with its name', (field, change) => {
     const input = { supplyV: 12, resistanceOhm: 2, inductanceH: 1e-3, diodeForwardV: 0.7, duty: 0.5, frequencyHz: 5000, backEmfV: 4, ...change };
     expect(() => periodicCurrent(input)).toThrow(field);
+  });
+});
+
+describe('back-EMF for a mean current', () => {
+  const base = { ...WORKED, frequencyHz: 1000 };
+
+  it('a target above the E = 0 current stalls the motor: E = 0', () => {
+    const stalledA = periodicCurrent({ ...base, backEmfV: 0 }).meanA;
+    const { backEmfV, result } = solveBackEmfForMeanCurrentV(base, stalledA * 1.5);
+    expect(backEmfV).toBe(0); // brief: the motor stalls at that duty
+    expect(result.meanA).toBeCloseTo(stalledA, 12);
+  });
+
+  it('a target of zero needs no current: E = V', () => {
+    expect(solveBackEmfForMeanCurrentV(base, 0).backEmfV).toBe(12.6);
+  });
+});
+
+// Invented motor for the motor-level call: 2.2 Ω winding + 0.2 Ω series = the worked example's 2.4 Ω loop.
+const MOTOR: MotorModel = { ratedVoltageV: 12, resistanceOhm: 2.2, keVsPerRad: 0.01, ktNmPerA: 0.01, noLoadCurrentA: 0.1, frictionTorqueNm: 0.001 };
+const AT = { model: MOTOR, supplyV: 12.6, duty: 0.5, diodeForwardV: 0.7, seriesResistanceOhm: 0.2, inductanceH: 1.2e-3 };
+const RPM_PER_RAD_S = 30 / Math.PI; // domain.md §8: 1 rpm = π/30 rad/s
+
+describe('rippleOperatingPoint', () => {
+  it('torque load: mean current I0 + T/Kt, so the worked example again (E ≈ 5.70 V at 1 kHz)', () => {
+    const torqueNm = (0.745 - 0.1) * 0.01; // domain.md §2: I = I0 + T/Kt → T = (0.745 − 0.1)·Kt
+    const p = rippleOperatingPoint({ ...AT, frequencyHz: 1000, load: { kind: 'torque', torqueNm } });
+    expect(p.ripple.meanA).toBeCloseTo(0.745, 9);
+    expect(Math.abs(p.backEmfV - 5.7)).toBeLessThan(0.005); // docs/engineering.md "Ripple and discontinuous conduction"
+    expect(p.speedRpm).toBeCloseTo((p.backEmfV / 0.01) * RPM_PER_RAD_S, 9); // domain.md §2: ω = E/Ke
+  });
+
+  it.each<[string, { kind: 'speed'; speedRpm: number } | { kind: 'stall-only' }, number]>([
+    ['speed 3000 rpm', { kind: 'speed', speedRpm: 3000 }, 0.01 * 3000 / RPM_PER_RAD_S], // domain.md §2: E = Ke·ω
+    ['stall-only', { kind: 'stall-only' }, 0], // stalled: ω = 0
+  ])('%s at 20 kHz: E from the load, mean current from the mean-voltage model', (_name, load, backEmfV) => {
+    const p = rippleOperatingPoint({ ...AT, frequencyHz: 20000, load });
+    expect(p.backEmfV).toBeCloseTo(backEmfV, 12);
+    expect(p.ripple.continuous).toBe(true);
+    expect(p.ripple.meanA).toBeCloseTo((0.5 * 12.6 - 0.5 * 0.7 - backEmfV) / 2.4, 9); // domain.md §3, exact in continuous conduction
+  });
+
+  it('a negative speed is refused with the field named', () => {
+    expect(() => rippleOperatingPoint({ ...AT, frequencyHz: 20000, load: { kind: 'speed', speedRpm: -10 } })).toThrow('load.speedRpm');
+  });
+});
+
+describe('PWM frequency caution', () => {
+  it.each<[number, number, boolean]>([
+    [1000, 0.5e-3, true], // worked example at 1 kHz: f·τe 0.5, discontinuous
+    [9800, 0.5e-3, true], // f·τe 4.9, just below the threshold
+    [10000, 0.5e-3, false], // f·τe 5: at the threshold
+    [20000, 0.5e-3, false], // worked example at 20 kHz: f·τe 10, continuous
+    [1000, 0, false], // τe unknown: nothing to judge
+  ])('%d Hz, τe %d s → caution %s', (f, tauS, cautioned) => {
+    const text = pwmFrequencyCaution(f, tauS);
+    expect(text !== null).toBe(cautioned);
+    if (text) {
+      expect(text).toContain('discontinuous');
+      expect(text).toContain(`${MIN_PERIODS_PER_TAU / tauS / 1000} kHz`); // the frequency that reaches the threshold, 5/τe
+      expect(text).toContain('18–25 kHz'); // domain.md §3: above hearing [practice]
+    }
+  });
+
+  it('the threshold f·τe = 5 keeps the D = 0.5 ripple near 5 % of stall current, so a 3 % load stays continuous and 2 % does not', () => {
+    const l = 1e-3;
+    const input = { supplyV: 12, resistanceOhm: 2, inductanceH: l, diodeForwardV: 0, duty: 0.5, frequencyHz: (MIN_PERIODS_PER_TAU * 2) / l };
+    expect(handRippleA(12, 0, 2, l, 0.5, input.frequencyHz) / 6).toBeCloseTo(0.05, 3); // domain.md §3 formula: (1 − a)/(1 + a), a = e^(−0.1)
+    expect(solveBackEmfForMeanCurrentV(input, 0.03 * 6).result.continuous).toBe(true); // mean above ΔI/2 (2.5 % of V/R)
+    expect(solveBackEmfForMeanCurrentV(input, 0.02 * 6).result.continuous).toBe(false); // mean below ΔI/2
+  });
+});
+
+const num = (min: number, max: number): fc.Arbitrary<number> => fc.double({ min, max, noNaN: true, noDefaultInfinity: true });
+/** Random drives: L from a chosen f·τe so both modes and both sides of the caution appear. */
+const rippleInputs = (minPeriodsPerTau: number, maxPeriodsPerTau: number): fc.Arbitrary<RippleInput> =>
+  fc
+    .record({
+      supplyV: num(1, 48), resistanceOhm: num(0.05, 20), periodsPerTau: num(minPeriodsPerTau, maxPeriodsPerTau),
+      diodeForwardV: num(0, 1), duty: num(0, 1), emfFraction: num(0, 1.1), frequencyHz: num(100, 100000),
+    })
+    .map(({ periodsPerTau, emfFraction, ...c }) => ({
+      ...c, inductanceH: (periodsPerTau * c.resistanceOhm) / c.frequencyHz, backEmfV: emfFraction * c.supplyV,
+    }));
+
+describe('properties', () => {
+  it('closed form and simulation agree (1e-5 of the current scale) for random drives, f·τe 0.05 to 30', () => {
+    fc.assert(fc.property(rippleInputs(0.05, 30), (input) => expectAgreement(periodicCurrent(input), simulatePeriodicCurrent(input), input)), {
+      numRuns: 60,
+    });
+  });
+
+  it('outputs are finite and hang together (RMS partition, means, bounds, the volt-second balance), f·τe 1e-4 to 1e4', () => {
+    fc.assert(
+      fc.property(rippleInputs(1e-4, 1e4), (input) => {
+        const r = periodicCurrent(input);
+        for (const value of Object.values(r)) expect(Number.isFinite(value) || typeof value === 'boolean').toBe(true);
+        const slackA = 1e-9 * Math.max(r.peakA, 1e-12);
+        expect(r.switchRmsA ** 2 + r.diodeRmsA ** 2).toBeCloseTo(r.motorRmsA ** 2, 9); // the intervals split the period
+        expect(Math.abs(r.switchMeanA + r.diodeMeanA - r.meanA)).toBeLessThanOrEqual(slackA);
+        expect(r.meanA).toBeLessThanOrEqual(r.motorRmsA + slackA); // RMS ≥ mean
+        expect(r.motorRmsA).toBeLessThanOrEqual(r.peakA + slackA); // RMS ≤ peak
+        expect(r.switchRmsA).toBeLessThanOrEqual(r.motorRmsA + slackA);
+        expect(r.turnOnA).toBeLessThanOrEqual(r.turnOffA + slackA);
+        expect(r.zeroFraction >= 0 && r.zeroFraction <= 1).toBe(true);
+        if (!r.continuous) expect(r.turnOnA).toBe(0);
+        if (r.continuous) {
+          const { supplyV, diodeForwardV, resistanceOhm, inductanceH, duty, frequencyHz } = input;
+          expect(r.rippleA).toBeCloseTo(handRippleA(supplyV, diodeForwardV, resistanceOhm, inductanceH, duty, frequencyHz), 9);
+          const hand = handContinuousA(input);
+          const scaleA = Math.max(r.peakA, (supplyV + diodeForwardV) / resistanceOhm);
+          expect(Math.abs(r.turnOnA - hand.turnOnA)).toBeLessThanOrEqual(1e-9 * scaleA);
+          expect(Math.abs(r.turnOffA - hand.turnOffA)).toBeLessThanOrEqual(1e-9 * scaleA);
+        }
+        if (input.duty > 0 && input.supplyV > input.backEmfV) {
+          // Mean of L·di/dt over a period is zero: R·Ī = D·(V − E) − (1 − D − z)·(VF + E) (hand derivation from the ODEs)
+          const balanceA = (input.duty * (input.supplyV - input.backEmfV) - (1 - input.duty - r.zeroFraction) * (input.diodeForwardV + input.backEmfV)) / input.resistanceOhm;
+          expect(Math.abs(r.meanA - balanceA)).toBeLessThanOrEqual(1e-8 * Math.max(r.peakA, (input.supplyV + input.diodeForwardV) / input.resistanceOhm));
+        }
+      }),
+      { numRuns: 300 },
+    );
+  });
+
+  it('the mean current falls as E rises, and the solver hits any target below the stall current', () => {
+    fc.assert(
+      fc.property(rippleInputs(0.01, 100), num(0, 1), num(0, 1), (input, f1, f2) => {
+        const [lo, hi] = [Math.min(f1, f2), Math.max(f1, f2)].map((k) => k * input.supplyV);
+        expect(periodicCurrent({ ...input, backEmfV: hi }).meanA).toBeLessThanOrEqual(periodicCurrent({ ...input, backEmfV: lo }).meanA + 1e-12);
+        const { backEmfV: _ignored, ...base } = input;
+        const targetA = f1 * periodicCurrent({ ...input, backEmfV: 0 }).meanA;
+        const solved = solveBackEmfForMeanCurrentV(base, targetA);
+        expect(solved.backEmfV >= 0 && solved.backEmfV <= input.supplyV).toBe(true);
+        expect(Math.abs(solved.result.meanA - targetA)).toBeLessThanOrEqual(1e-9 * input.supplyV / input.resistanceOhm);
+      }),
+      { numRuns: 100 },
+    );
   });
 });
