@@ -6,8 +6,8 @@
 import type { DesignInput } from './domain/design.ts';
 import type { Lifecycle, MotorParams, Part, PartOf, ReviewStatus } from './domain/parts.ts';
 import { designCaseOf } from './design-input.ts';
-import { powerOnFor, rankDesign, type DesignRanking } from './rank-design.ts';
-import type { CandidateResult } from './ranking.ts';
+import { rankDesign, type DesignRanking } from './rank-design.ts';
+import { SCORE_EXPLANATION, sortCandidates, type CandidateResult } from './ranking.ts';
 import { bestUnitPrice } from './part-summary.ts';
 import { calcMotor, type CalcMotorResponse } from './calc.ts';
 import { operatingPointAtSpeed, operatingPointAtTorque } from './motor-curve.ts';
@@ -25,6 +25,8 @@ export type MatchEntry<T extends CandidateResult = CandidateResult> = T & {
   lifecycle: Lifecycle;
   reviewStatus: ReviewStatus;
   priceAtQty: PriceAtQty | null;
+  /** True when a part is chosen for this line and this one comes in another package (a footprint change). */
+  footprintChange: boolean;
 };
 
 type Ranked = DesignRanking;
@@ -48,7 +50,13 @@ export interface DesignMatch {
   driverNeededNote: string | null;
   requiredGateDriveV: number | null;
   switchWithDriver: MatchEntry<Ranked['switchWithDriver'][number]>[];
+  /** What the effective switch list is judged at (the pin, or the chosen / best real driver). */
+  switchDrive: Ranked['switchDrive'];
   driver: MatchEntry<Ranked['driver'][number]>[];
+  /** Which diode's VF the currents use. */
+  diodeForward: Ranked['diodeForward'];
+  /** One line saying what the score weighs. */
+  scoreExplanation: string;
   diode: MatchEntry<Ranked['diode'][number]>[];
   powerOn: Ranked['powerOn'];
   /** The source against the motor (start current, current limit, shared logic rail); null until computed. */
@@ -65,10 +73,19 @@ export interface MatchCatalogue {
   excluded: DesignMatch['excluded'];
 }
 
-function decorate<T extends CandidateResult>(results: T[], parts: Part[], qty: number): MatchEntry<T>[] {
-  const byId = new Map(parts.map((p) => [p.id, p]));
-  return results.map((r) => {
-    const part = r.partId == null ? undefined : byId.get(r.partId);
+const LIFECYCLE_RANK: Readonly<Record<Lifecycle, number>> = { active: 0, nrnd: 1, 'last-buy': 2, obsolete: 3 };
+
+/** Ties on verdict and score: the lower price at the build quantity first, then the healthier lifecycle. */
+function tiebreak(a: MatchEntry, b: MatchEntry): number {
+  const pa = a.priceAtQty?.unitPrice ?? Infinity;
+  const pb = b.priceAtQty?.unitPrice ?? Infinity;
+  return (pa === pb ? 0 : pa < pb ? -1 : 1) || LIFECYCLE_RANK[a.lifecycle] - LIFECYCLE_RANK[b.lifecycle];
+}
+
+function decorate<T extends CandidateResult>(results: T[], parts: Map<number | undefined, Part>, qty: number, chosenId: number | null): MatchEntry<T>[] {
+  const chosenPackage = chosenId == null ? null : (parts.get(chosenId)?.package ?? null);
+  const entries = results.map((r) => {
+    const part = r.partId == null ? undefined : parts.get(r.partId);
     const price = part ? bestUnitPrice(part, qty) : null;
     return {
       ...r,
@@ -76,8 +93,10 @@ function decorate<T extends CandidateResult>(results: T[], parts: Part[], qty: n
       lifecycle: part?.lifecycle ?? 'active',
       reviewStatus: part?.reviewStatus ?? 'approved',
       priceAtQty: price ? { qty, unitPrice: price.price, currency: price.currency } : null,
+      footprintChange: chosenPackage != null && r.partId !== chosenId && (part?.package ?? '') !== chosenPackage,
     };
   });
+  return sortCandidates(entries, tiebreak);
 }
 
 function operatingPoint(params: MotorParams, input: DesignInput, supplyV: number): MotorView['operatingMin'] {
@@ -104,31 +123,30 @@ export function motorView(label: string, params: MotorParams, input: DesignInput
   };
 }
 
-/** The power-on walk for the parts the designer picked, when a switch is picked. */
-function selectedPowerOn(c: ReturnType<typeof designCaseOf>, input: DesignInput, catalogue: MatchCatalogue): DesignRanking['powerOn'] {
-  const sw = catalogue.mosfets.find((m) => m.id === input.selections.switch.chosenPartId);
-  if (!sw) return null;
-  const driver = catalogue.drivers.find((d) => d.id === input.selections.driver.chosenPartId);
-  return powerOnFor(c, sw, driver);
-}
-
 /** Ranks the catalogue candidates for a design and decorates each with price and lifecycle. */
 export function matchDesign(input: DesignInput, motorLabel: string, motor: MotorParams, catalogue: MatchCatalogue): DesignMatch {
   const designCase = designCaseOf(input, motor);
-  const ranking = rankDesign(designCase, catalogue);
+  const sel = input.selections;
+  const ranking = rankDesign(designCase, catalogue, {
+    switchId: sel.switch.chosenPartId, driverId: sel.driver.chosenPartId, diodeId: sel.diode.chosenPartId,
+    resetStartIntended: input.resetStartIntent != null,
+  });
   const qty = input.boardQuantity;
-  const all: Part[] = [...catalogue.mosfets, ...catalogue.drivers, ...catalogue.diodes];
+  const all = new Map<number | undefined, Part>([...catalogue.mosfets, ...catalogue.drivers, ...catalogue.diodes].map((p) => [p.id, p]));
   return {
     worstCase: ranking.worstCase,
     motor: motorView(motorLabel, motor, input),
-    switch: decorate(ranking.switch, all, qty),
+    switch: decorate(ranking.switch, all, qty, sel.switch.chosenPartId),
     driverNeeded: ranking.driverNeeded,
     driverNeededNote: ranking.driverNeededNote,
     requiredGateDriveV: ranking.requiredGateDriveV,
-    switchWithDriver: decorate(ranking.switchWithDriver, all, qty),
-    driver: decorate(ranking.driver, all, qty),
-    diode: decorate(ranking.diode, all, qty),
-    powerOn: selectedPowerOn(designCase, input, catalogue) ?? ranking.powerOn,
+    switchWithDriver: decorate(ranking.switchWithDriver, all, qty, sel.switch.chosenPartId),
+    switchDrive: ranking.switchDrive,
+    driver: decorate(ranking.driver, all, qty, sel.driver.chosenPartId),
+    diode: decorate(ranking.diode, all, qty, sel.diode.chosenPartId),
+    diodeForward: ranking.diodeForward,
+    scoreExplanation: SCORE_EXPLANATION,
+    powerOn: ranking.powerOn,
     supply: null,
     cautions: ranking.cautions,
     excluded: catalogue.excluded,

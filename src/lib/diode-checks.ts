@@ -31,8 +31,15 @@ export interface DiodeCheckInput {
   supplyMaxV: number;
   /** Worst (1 − D)·I over the duty range; ignored for on/off drive. */
   meanCurrentA: number;
-  /** Motor current at turn-off, up to the worst-case stall current. */
+  /**
+   * Motor current the diode takes over at turn-off: under PWM the repetitive peak (ripple peak, jam included),
+   * for on/off the one-off current at a turn-off, up to the worst-case stall current.
+   */
   peakCurrentA: number;
+  /** Ambient for the diode's own junction (hottest case). */
+  ambientC?: number;
+  /** Worst (1 − D)·Is,pwm while jammed under PWM (0 for on/off). */
+  stallMeanCurrentA?: number;
   pwmHz: number | null;
   voltageDerating: number;
   motorInductanceH?: number | null;
@@ -41,14 +48,55 @@ export interface DiodeCheckInput {
   turnOffS?: number;
 }
 
+/** Judged against the derated VRRM (limit = VRRM·derating, ok ⇔ value ≤ limit); above VRRM itself a hard fail. */
 function checkReverseVoltage(d: DiodeParams, supplyMaxV: number, derating: number): Check {
   const deratedV = d.vrrmV * derating;
   const hardOk = supplyMaxV <= d.vrrmV;
   const ok = supplyMaxV <= deratedV;
   const note = ok
     ? `Supply up to ${fmt(supplyMaxV)} V is within VRRM ${fmt(d.vrrmV)} V derated to ${fmt(deratedV)} V.`
-    : `Supply up to ${fmt(supplyMaxV)} V exceeds VRRM ${hardOk ? `derated to ${fmt(deratedV)} V` : fmt(d.vrrmV) + ' V'}: choose a diode rated at least ${fmt(supplyMaxV / derating)} V.`;
-  return makeCheck({ id: 'reverse-voltage', ok, value: supplyMaxV, limit: d.vrrmV, unit: 'V', margin: marginBelow(supplyMaxV, d.vrrmV), note }, hardOk ? 'margin' : 'hard');
+    : `Supply up to ${fmt(supplyMaxV)} V exceeds VRRM ${hardOk ? `${fmt(d.vrrmV)} V derated to ${fmt(deratedV)} V` : `${fmt(d.vrrmV)} V itself`}: choose a diode rated at least ${fmt(supplyMaxV / derating)} V.`;
+  return makeCheck({ id: 'reverse-voltage', ok, value: supplyMaxV, limit: deratedV, unit: 'V', margin: marginBelow(supplyMaxV, deratedV), note }, hardOk ? 'margin' : 'hard');
+}
+
+/** Without a stated IFRM, take 2 × IF(AV) as the repetitive peak a small rectifier tolerates [practice, rule of thumb]. */
+export const IFRM_FROM_IFAV_FACTOR = 2;
+
+/**
+ * Hard, under PWM: the current handed over at every turn-off (the ripple peak, a jam included) against the
+ * repetitive peak rating IFRM (or the rule of thumb) [docs/engineering.md §8].
+ */
+function checkRepetitivePeak(d: DiodeParams, peakA: number): Check {
+  const stated = d.ifrmA != null;
+  const limitA = stated ? (d.ifrmA as number) : IFRM_FROM_IFAV_FACTOR * d.ifAvA;
+  const basis = stated ? `IFRM ${fmt(limitA)} A` : `${fmt(limitA)} A (no IFRM on record: ${IFRM_FROM_IFAV_FACTOR} × IF(AV), a rule of thumb)`;
+  const ok = peakA <= limitA;
+  const note = ok
+    ? `Every turn-off hands the diode up to ${fmt(peakA)} A, within ${basis}.`
+    : `Every turn-off hands the diode up to ${fmt(peakA)} A, above ${basis}: choose a diode with a higher repetitive peak rating.`;
+  return makeCheck({ id: 'peak-current', ok, value: peakA, limit: limitA, unit: 'A', margin: marginBelow(peakA, limitA), note });
+}
+
+/**
+ * Hard: the diode's own junction Tj,d = TA + VF·I_F(AV)·RθJA,d ≤ Tj,max,d at the worst mean current, a jam under
+ * PWM included [docs/engineering.md §6]. On/off drive leaves only brief decays: nothing steady to heat it.
+ */
+function checkDiodeThermal(d: DiodeParams, meanA: number, ambientC: number, pwmHz: number | null): Check {
+  const id = 'diode-thermal';
+  if (pwmHz == null) {
+    return makeCheck({ id, ok: true, value: null, limit: d.tjMaxC, unit: '°C', margin: null, note: 'On/off drive: the diode carries only the brief decay after each turn-off, no steady heat.' });
+  }
+  if (d.rthJaCPerW == null || d.tjMaxC == null) {
+    const note = `The diode's RθJA or Tj,max is not on record, so its junction at ${fmt(meanA)} A mean cannot be verified: add them from the datasheet.`;
+    return makeCheck({ id, ok: false, value: null, limit: d.tjMaxC, unit: '°C', margin: null, note });
+  }
+  const junctionC = ambientC + d.vfV * meanA * d.rthJaCPerW;
+  const ok = junctionC <= d.tjMaxC;
+  const rise = d.tjMaxC - ambientC;
+  const note = ok
+    ? `At ${fmt(meanA)} A mean (a jam under PWM included) the diode's junction reaches about ${fmt(junctionC)} °C, within Tj,max ${fmt(d.tjMaxC)} °C.`
+    : `At ${fmt(meanA)} A mean (a jam under PWM included) the diode's junction would reach about ${fmt(junctionC)} °C, above Tj,max ${fmt(d.tjMaxC)} °C: choose a larger package or a lower-VF diode, or limit the stall current.`;
+  return makeCheck({ id, ok, value: junctionC, limit: d.tjMaxC, unit: '°C', margin: rise > 0 ? (d.tjMaxC - junctionC) / rise : null, note });
 }
 
 function checkMeanCurrent(d: DiodeParams, meanA: number, pwmHz: number | null): Check {
@@ -63,12 +111,12 @@ function checkMeanCurrent(d: DiodeParams, meanA: number, pwmHz: number | null): 
   return makeCheck({ id: 'mean-current', ok, value: meanA, limit: d.ifAvA, unit: 'A', margin: marginBelow(meanA, d.ifAvA), note });
 }
 
-/** The turn-off current recurs every cycle; above even the one-off surge rating the part cannot survive. */
-function checkPeakCurrent(d: DiodeParams, peakA: number): Check {
+/** On/off: a turn-off (at worst after a jam) is a rare one-off event, judged against the surge rating IFSM. */
+function checkOneOffPeak(d: DiodeParams, peakA: number): Check {
   const ok = peakA <= d.ifsmA;
   const note = ok
-    ? `Each turn-off hands the diode up to ${fmt(peakA)} A (stall); that is within IFSM ${fmt(d.ifsmA)} A, confirm the repetitive peak rating on the datasheet.`
-    : `Each turn-off hands the diode up to ${fmt(peakA)} A, above even its ${fmt(d.ifsmA)} A surge rating: choose a larger diode.`;
+    ? `A turn-off hands the diode up to ${fmt(peakA)} A once (after a jam), within its ${fmt(d.ifsmA)} A surge rating IFSM.`
+    : `A turn-off hands the diode up to ${fmt(peakA)} A, above even its ${fmt(d.ifsmA)} A surge rating: choose a larger diode.`;
   return makeCheck({ id: 'peak-current', ok, value: peakA, limit: d.ifsmA, unit: 'A', margin: marginBelow(peakA, d.ifsmA), note });
 }
 
@@ -89,7 +137,7 @@ function checkReverseRecovery(d: DiodeParams, pwmHz: number | null): Check {
   }
   const limitNs = (TRR_SHARE_OF_PERIOD / pwmHz) * 1e9;
   if (d.kind === 'schottky') {
-    return makeCheck({ id: 'reverse-recovery', ok: true, value: d.trrNs ?? 0, limit: limitNs, unit: 'ns', margin: null, note: 'Schottky: no stored charge, suited to PWM.' });
+    return makeCheck({ id: 'reverse-recovery', ok: true, value: null, limit: limitNs, unit: 'ns', margin: null, note: 'Schottky: no stored charge (no reverse recovery to speak of), suited to PWM.' });
   }
   if (d.trrNs == null) {
     const note = `Reverse recovery time not on record for this ${d.kind} diode: confirm it is below ${fmt(limitNs)} ns (1 % of the PWM period).`;
@@ -116,7 +164,8 @@ export function checkDiode(input: DiodeCheckInput): Check[] {
   return [
     checkReverseVoltage(d, input.supplyMaxV, input.voltageDerating),
     checkMeanCurrent(d, input.meanCurrentA, input.pwmHz),
-    checkPeakCurrent(d, input.peakCurrentA),
+    input.pwmHz == null ? checkOneOffPeak(d, input.peakCurrentA) : checkRepetitivePeak(d, input.peakCurrentA),
+    checkDiodeThermal(d, Math.max(input.meanCurrentA, input.stallMeanCurrentA ?? 0), input.ambientC ?? 25, input.pwmHz),
     surgeInfo(d, input.peakCurrentA, input.motorInductanceH, input.motorResistanceOhm),
     checkReverseRecovery(d, input.pwmHz),
     spikeInfo(d, input),

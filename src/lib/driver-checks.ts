@@ -42,26 +42,43 @@ function checkDriverSupply(driver: DriverParams, supply: SupplyRange): Check {
   return makeCheck({ id: 'driver-supply', ok, value, limit, unit: 'V', margin: lowSide ? marginAbove(value, limit) : marginBelow(value, limit), note });
 }
 
-/** Input high worst case: the highest VIH over the supply range; input low: the lowest VIL. */
+/** Noise margin each way, as a share of the logic rail: VOH,min − VIH,max and VIL,max − VOL,max [practice]. */
+export const NOISE_MARGIN_SHARE_OF_RAIL = 0.1;
+
+/**
+ * Input high worst case: the highest VIH over the supply range; input low: the lowest VIL. Each is judged with a
+ * noise margin of 10 % of the logic rail (limit = VIH + margin, VIL − margin); inside the threshold but short of the
+ * margin is marginal, beyond the threshold a hard fail [docs/engineering.md §7].
+ */
 function checkInputLevels(driver: DriverParams, supply: SupplyRange, logic: LogicLevels): Check[] {
   const vihV = driverInputThresholdsV(driver, supply.maxV, logic.railV).highMinV;
   const vilV = driverInputThresholdsV(driver, supply.minV, logic.railV).lowMaxV;
-  const highOk = logic.highV >= vihV;
-  const lowOk = logic.lowV <= vilV;
+  const marginV = NOISE_MARGIN_SHARE_OF_RAIL * logic.railV;
+  const highLimitV = vihV + marginV;
+  const lowLimitV = vilV - marginV;
+  const highHard = logic.highV >= vihV;
+  const lowHard = logic.lowV <= vilV;
+  const highOk = logic.highV >= highLimitV;
+  const lowOk = logic.lowV <= lowLimitV;
   const ratioHint = driver.inputLogic === 'ratio' ? ' (its thresholds scale with its own supply; a logic-level or translating input is needed)' : '';
+  const mv = `${fmt(marginV * 1000)} mV`;
   return [
     makeCheck({
-      id: 'input-high', ok: highOk, value: logic.highV, limit: vihV, unit: 'V', margin: marginAbove(logic.highV, vihV),
+      id: 'input-high', ok: highOk, value: logic.highV, limit: highLimitV, unit: 'V', margin: marginAbove(logic.highV, highLimitV),
       note: highOk
-        ? `Logic high ${fmt(logic.highV)} V meets the driver's VIH of ${fmt(vihV)} V.`
-        : `Logic high ${fmt(logic.highV)} V is below the driver's VIH of ${fmt(vihV)} V${ratioHint}: choose a driver with TTL-level or input-rail thresholds.`,
-    }),
+        ? `Logic high ${fmt(logic.highV)} V clears the driver's VIH of ${fmt(vihV)} V by ${fmt((logic.highV - vihV) * 1000)} mV (at least ${mv}, 10 % of the rail).`
+        : highHard
+          ? `Logic high ${fmt(logic.highV)} V clears VIH ${fmt(vihV)} V by only ${fmt((logic.highV - vihV) * 1000)} mV, less than the ${mv} noise margin: choose a driver with a lower VIH.`
+          : `Logic high ${fmt(logic.highV)} V is below the driver's VIH of ${fmt(vihV)} V${ratioHint}: choose a driver with TTL-level or input-rail thresholds.`,
+    }, highHard ? 'margin' : 'hard'),
     makeCheck({
-      id: 'input-low', ok: lowOk, value: logic.lowV, limit: vilV, unit: 'V', margin: marginBelow(logic.lowV, vilV),
+      id: 'input-low', ok: lowOk, value: logic.lowV, limit: lowLimitV, unit: 'V', margin: marginBelow(logic.lowV, lowLimitV),
       note: lowOk
-        ? `Logic low ${fmt(logic.lowV)} V is under the driver's VIL of ${fmt(vilV)} V.`
-        : `Logic low ${fmt(logic.lowV)} V is above the driver's VIL of ${fmt(vilV)} V: the driver may not switch off; choose one with a higher VIL.`,
-    }),
+        ? `Logic low ${fmt(logic.lowV)} V is under the driver's VIL of ${fmt(vilV)} V by ${fmt((vilV - logic.lowV) * 1000)} mV (at least ${mv}).`
+        : lowHard
+          ? `Logic low ${fmt(logic.lowV)} V is under VIL ${fmt(vilV)} V by only ${fmt((vilV - logic.lowV) * 1000)} mV, less than the ${mv} noise margin: choose a driver with a higher VIL.`
+          : `Logic low ${fmt(logic.lowV)} V is above the driver's VIL of ${fmt(vilV)} V: the driver may not switch off; choose one with a higher VIL.`,
+    }, lowHard ? 'margin' : 'hard'),
   ];
 }
 

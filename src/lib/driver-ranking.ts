@@ -1,13 +1,14 @@
 /**
- * Ranks gate drivers / level shifters for one chosen switch, with pairing information.
+ * Ranks gate drivers / level shifters for one switch (the chosen one, or the top candidate before a choice), each
+ * paired with that switch's evaluation at the driver's own real output.
  */
 import { fmt, makeCheck, verdictOf, type Check, type Verdict } from './checks.ts';
 import type { PartOf } from './domain/parts.ts';
 import { checkDriver, driverOutputHighV, type SupplyRange } from './driver-checks.ts';
-import { worstCaseOf, type DesignCase } from './design-case.ts';
+import { worstCaseOf, type DesignCase, type WorstCase } from './design-case.ts';
 import { walkPowerOn, type PowerOnResult } from './power-on.ts';
 import { lowestSpecVgsV, rdsOnPointsAt25C } from './rdson.ts';
-import { evaluateSwitchPart, minMarginScore, sortCandidates, type CandidateResult } from './ranking.ts';
+import { evaluateSwitchPart, scoreOf, sortCandidates, type CandidateResult, type GateDrive } from './ranking.ts';
 import { switchingChargeNc } from './switching.ts';
 
 export interface DriverPairing {
@@ -24,10 +25,38 @@ export interface DriverCandidateResult extends CandidateResult {
   powerOn: PowerOnResult;
 }
 
-const DRIVER_SCORED = ['driver-supply', 'input-high', 'input-low', 'output-high', 'gate-voltage-rating', 'switching-edges', 'duty-error'] as const;
-
 export function driverSupplyOf(c: DesignCase): SupplyRange {
   return c.driverSupply ?? { minV: c.supplyMinV, maxV: c.supplyMaxV };
+}
+
+/** The gate drive a real driver delivers: output high at its lowest supply, its rated source and sink currents. */
+export function gateDriveOfDriver(c: DesignCase, driver: PartOf<'driver'>): GateDrive {
+  const supply = driverSupplyOf(c);
+  return {
+    voltageV: driverOutputHighV(driver.params, supply.minV), maxVoltageV: supply.maxV,
+    sourceCurrentA: driver.params.sourceCurrentA, sinkCurrentA: driver.params.sinkCurrentA,
+    driverPartId: driver.id ?? null, driverMpn: driver.mpn,
+  };
+}
+
+/** Checks of a driver that do not depend on the switch: supply range, input levels, duty error. */
+const STANDALONE = new Set(['driver-supply', 'input-high', 'input-low', 'duty-error']);
+
+/** A driver that holds on its own (no hard failure of the switch-independent checks). */
+export function driverHoldsAlone(c: DesignCase, driver: PartOf<'driver'>, wc: WorstCase): boolean {
+  const checks = checkDriver({ driver: driver.params, supply: driverSupplyOf(c), logic: c.logic, requiredGateV: null, vgsMaxV: Infinity, switchingChargeNc: 0, pwmHz: wc.pwmHz });
+  return !checks.some((x) => STANDALONE.has(x.id) && !x.ok && x.severity !== 'margin');
+}
+
+/**
+ * Before a driver is chosen, switches are judged at a real catalogue driver: among those that hold on their own,
+ * the one giving the highest output at the lowest driver supply (then the most source current).
+ */
+export function provisionalDriver(c: DesignCase, drivers: PartOf<'driver'>[], wc: WorstCase): PartOf<'driver'> | null {
+  const viable = drivers.filter((d) => driverHoldsAlone(c, d, wc));
+  const supply = driverSupplyOf(c);
+  viable.sort((a, b) => driverOutputHighV(b.params, supply.minV) - driverOutputHighV(a.params, supply.minV) || b.params.sourceCurrentA - a.params.sourceCurrentA || a.mpn.localeCompare(b.mpn));
+  return viable[0] ?? null;
 }
 
 function pairedSwitchCheck(mpn: string, verdict: Verdict): Check {
@@ -37,46 +66,56 @@ function pairedSwitchCheck(mpn: string, verdict: Verdict): Check {
   return makeCheck({ id: 'paired-switch', ok: verdict === 'pass', value: null, limit: null, unit: '', margin: null, note }, verdict === 'marginal' ? 'margin' : 'hard');
 }
 
-function powerOnCheck(powerOn: PowerOnResult): Check {
-  // A start-up at reset is fixable with one resistor, so it lowers the verdict to marginal rather than failing the part.
-  return makeCheck({ id: 'power-on', ok: !powerOn.motorCanStart, value: null, limit: null, unit: '', margin: null, note: powerOn.note }, 'margin');
+type WalkWithPull = PowerOnResult & { withRecommendedPull?: { motorState: string } | null };
+
+/**
+ * The motor must stay off at reset. A chain that starts it but is held off by the recommended pull (it goes on the
+ * bill of materials) is marginal; one that no pull can fix fails unless the designer recorded the start as intended.
+ */
+function powerOnCheck(powerOn: PowerOnResult, startIntended: boolean): Check {
+  const walk = powerOn as WalkWithPull;
+  if (!powerOn.motorCanStart) return makeCheck({ id: 'power-on', ok: true, value: null, limit: null, unit: '', margin: null, note: powerOn.note });
+  const fixed = powerOn.recommendedPull?.ok === true && (walk.withRecommendedPull == null || walk.withRecommendedPull.motorState === 'off');
+  if (startIntended) return makeCheck({ id: 'power-on', ok: true, value: null, limit: null, unit: '', margin: null, note: `${powerOn.note} The designer recorded this start at reset as intended.` });
+  return makeCheck({ id: 'power-on', ok: false, value: null, limit: null, unit: '', margin: null, note: powerOn.note }, fixed ? 'margin' : 'hard');
 }
 
-function evaluateDriverPart(c: DesignCase, driver: PartOf<'driver'>, forSwitch: PartOf<'mosfet'>): DriverCandidateResult {
-  const supply = driverSupplyOf(c);
-  const sw = forSwitch.params;
-  const wc = worstCaseOf(c);
-  const gateDriveV = driverOutputHighV(driver.params, supply.minV);
-  const paired = evaluateSwitchPart(c, forSwitch, {
-    voltageV: gateDriveV, maxVoltageV: supply.maxV,
-    sourceCurrentA: driver.params.sourceCurrentA, sinkCurrentA: driver.params.sinkCurrentA,
-  }, wc);
-  const powerOn = walkPowerOn({
+export function powerOnForPair(c: DesignCase, driver: PartOf<'driver'> | null, sw: PartOf<'mosfet'>): PowerOnResult {
+  return walkPowerOn({
     pin: { railV: c.logic.railV, resetDefault: c.logic.resetDefault, sourceCurrentA: c.logic.pinSourceCurrentA, sinkCurrentA: c.logic.pinSinkCurrentA },
-    driver: { params: driver.params, supply },
-    mosfet: { vgsThMinV: sw.vgsThMinV },
+    driver: driver ? { params: driver.params, supply: driverSupplyOf(c) } : null,
+    mosfet: { vgsThMinV: sw.params.vgsThMinV },
     series: c.resistorSeries,
   });
+}
+
+function evaluateDriverPart(c: DesignCase, driver: PartOf<'driver'>, forSwitch: PartOf<'mosfet'>, wc: WorstCase, startIntended: boolean): DriverCandidateResult {
+  const supply = driverSupplyOf(c);
+  const sw = forSwitch.params;
+  const drive = gateDriveOfDriver(c, driver);
+  const paired = evaluateSwitchPart(c, forSwitch, drive, wc);
+  const powerOn = powerOnForPair(c, driver, forSwitch);
   const checks = [
     ...checkDriver({
       driver: driver.params, supply, logic: c.logic,
       requiredGateV: lowestSpecVgsV(rdsOnPointsAt25C(sw.rdsOn)), vgsMaxV: sw.vgsMaxV,
       switchingChargeNc: switchingChargeNc(sw.qgTotalNc, sw.qgdNc, sw.qgsNc), pwmHz: wc.pwmHz,
     }),
-    powerOnCheck(powerOn),
+    powerOnCheck(powerOn, startIntended),
     pairedSwitchCheck(forSwitch.mpn, paired.verdict),
   ];
+  const verdict = verdictOf(checks);
   return {
     partId: driver.id ?? null, mpn: driver.mpn, manufacturer: driver.manufacturer,
-    verdict: verdictOf(checks), score: minMarginScore(checks, DRIVER_SCORED), checks,
-    pairing: { switchPartId: forSwitch.id ?? null, switchMpn: forSwitch.mpn, switchVerdict: paired.verdict, gateDriveV, inverting: driver.params.inverting },
+    verdict, score: scoreOf(checks, verdict), checks,
+    pairing: { switchPartId: forSwitch.id ?? null, switchMpn: forSwitch.mpn, switchVerdict: paired.verdict, gateDriveV: drive.voltageV, inverting: driver.params.inverting },
     powerOn,
   };
 }
 
 /** Drivers ranked for one switch, each paired with that switch's evaluation at the driver's output. */
-export function rankDriverCandidates(c: DesignCase, drivers: PartOf<'driver'>[], forSwitch: PartOf<'mosfet'>): DriverCandidateResult[] {
-  return sortCandidates(drivers.map((d) => evaluateDriverPart(c, d, forSwitch)));
+export function rankDriverCandidates(c: DesignCase, drivers: PartOf<'driver'>[], forSwitch: PartOf<'mosfet'>, wc: WorstCase = worstCaseOf(c), startIntended = false): DriverCandidateResult[] {
+  return sortCandidates(drivers.map((d) => evaluateDriverPart(c, d, forSwitch, wc, startIntended)));
 }
 
 export function describeDriverNeed(logicHighV: number, mpn: string, requiredV: number, railV: number | null): string {

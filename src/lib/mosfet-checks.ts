@@ -11,7 +11,10 @@ export function suggestedDriveRailV(requiredV: number, vgsMaxV: number): number 
   return COMMON_DRIVE_RAILS_V.find((rail) => rail >= requiredV && rail <= vgsMaxV) ?? null;
 }
 
-/** Hard: V(BR)DSS ≥ V_supply,max + V_F; margin: V(BR)DSS·derating ≥ the same [domain.md §4, derating 0.8 practice]. */
+/**
+ * Judged against the derated rating: V_supply,max + V_F ≤ V(BR)DSS·derating (limit = the derated value, so
+ * ok ⇔ value ≤ limit); above the raw rating it is a hard fail [docs/engineering.md §5, derating 0.8 practice].
+ */
 export function checkDrainVoltage(vdsMaxV: number, supplyMaxV: number, diodeForwardV: number, derating: number): Check {
   const valueV = supplyMaxV + diodeForwardV;
   const deratedV = vdsMaxV * derating;
@@ -21,8 +24,94 @@ export function checkDrainVoltage(vdsMaxV: number, supplyMaxV: number, diodeForw
     ? `Drain sees up to ${fmt(valueV)} V (supply plus diode drop); the ${fmt(vdsMaxV)} V rating derated to ${fmt(deratedV)} V covers it.`
     : hardOk
       ? `Drain sees up to ${fmt(valueV)} V, inside the ${fmt(vdsMaxV)} V rating but above its ${fmt(deratedV)} V derated value: choose a part rated at least ${fmt(valueV / derating)} V.`
-      : `Drain sees up to ${fmt(valueV)} V, above the ${fmt(vdsMaxV)} V rating: choose a part rated at least ${fmt(valueV / derating)} V.`;
-  return makeCheck({ id: 'drain-voltage', ok, value: valueV, limit: vdsMaxV, unit: 'V', margin: marginBelow(valueV, vdsMaxV), note }, hardOk ? 'margin' : 'hard');
+      : `Drain sees up to ${fmt(valueV)} V, above the ${fmt(vdsMaxV)} V rating itself: choose a part rated at least ${fmt(valueV / derating)} V.`;
+  return makeCheck({ id: 'drain-voltage', ok, value: valueV, limit: deratedV, unit: 'V', margin: marginBelow(valueV, deratedV), note }, hardOk ? 'margin' : 'hard');
+}
+
+/** Without a stated plateau, VGS(th) max plus this stands in for it [judgement: the plateau sits a little above threshold]. */
+export const PLATEAU_MARGIN_OVER_VTH_V = 0.5;
+
+/**
+ * Hard, in on/off and PWM alike: the drive must exceed the Miller plateau (or VGS(th) max + 0.5 V when no plateau
+ * is stated); below it the channel cannot carry the load current fully enhanced [docs/engineering.md §5].
+ */
+export function checkMillerPlateau(driveV: number, plateauV: number | null | undefined, vgsThMaxV: number): Check {
+  const stated = plateauV != null;
+  const requiredV = stated ? plateauV : vgsThMaxV + PLATEAU_MARGIN_OVER_VTH_V;
+  const ok = driveV > requiredV;
+  const basis = stated ? `the ${fmt(requiredV)} V Miller plateau` : `VGS(th) max ${fmt(vgsThMaxV)} V plus ${fmt(PLATEAU_MARGIN_OVER_VTH_V)} V (no plateau on record)`;
+  const note = ok
+    ? `The ${fmt(driveV)} V drive clears ${basis}, so the channel enhances fully.`
+    : `The ${fmt(driveV)} V drive does not clear ${basis}: the part cannot carry the load current fully enhanced and heats in its linear region; raise the gate drive (a gate driver) or choose a part with a lower plateau.`;
+  return makeCheck({ id: 'miller-plateau', ok, value: driveV, limit: requiredV, unit: 'V', margin: marginAbove(driveV, requiredV), note });
+}
+
+/** A drive this close to VGS(th) max, with a current this many times the line's test current, is at best marginal [judgement]. */
+export const TEST_CURRENT_NEAR_THRESHOLD_V = 1.0;
+export const TEST_CURRENT_FACTOR = 2;
+
+/**
+ * Margin: an RDS(on) line holds only up to about its test current at a low VGS; a worst-case current well above it
+ * at a drive near VGS(th) max may pull the part out of full enhancement [docs/engineering.md §5].
+ */
+export function checkRdsOnTestCurrent(driveV: number, vgsThMaxV: number, line: { vgsV: number; testCurrentA?: number | null } | null, worstCurrentA: number): Check {
+  const id = 'rdson-test-current';
+  if (line == null) {
+    return makeCheck({ id, ok: true, value: worstCurrentA, limit: null, unit: 'A', margin: null, note: 'No RDS(on) line at or below this drive (see the gate-drive check).' });
+  }
+  if (line.testCurrentA == null) {
+    return makeCheck({ id, ok: true, value: worstCurrentA, limit: null, unit: 'A', margin: null, note: `The ${fmt(line.vgsV)} V RDS(on) line states no test current; confirm on the datasheet that it holds at ${fmt(worstCurrentA)} A.` });
+  }
+  const near = driveV < vgsThMaxV + TEST_CURRENT_NEAR_THRESHOLD_V;
+  const limitA = TEST_CURRENT_FACTOR * line.testCurrentA;
+  const ok = !near || worstCurrentA <= limitA;
+  const note = ok
+    ? near
+      ? `Worst-case ${fmt(worstCurrentA)} A is within ${TEST_CURRENT_FACTOR}× the ${fmt(line.testCurrentA)} A the ${fmt(line.vgsV)} V line was measured at.`
+      : `The ${fmt(driveV)} V drive is well above VGS(th) max ${fmt(vgsThMaxV)} V, so the line's ${fmt(line.testCurrentA)} A test current does not limit.`
+    : `At ${fmt(driveV)} V, within ${fmt(TEST_CURRENT_NEAR_THRESHOLD_V)} V of VGS(th) max, the ${fmt(line.vgsV)} V line was measured at only ${fmt(line.testCurrentA)} A but the worst case is ${fmt(worstCurrentA)} A: the part may leave full enhancement; drive the gate harder or choose a part specified at this current.`;
+  return makeCheck({ id, ok, value: worstCurrentA, limit: near ? limitA : null, unit: 'A', margin: near ? marginBelow(worstCurrentA, limitA) : null, note }, 'margin');
+}
+
+/** How a jammed shaft is judged for the switch (and what it is judged at). */
+export interface StallThermalInput {
+  protection: 'none' | 'current-limit' | 'cut-off';
+  /** RMS current the switch carries while jammed. */
+  currentRmsA: number;
+  junctionC: number | null;
+  tjMaxC: number;
+  ambientC: number;
+  /** Seconds until the cut-off, for the transient case. */
+  afterS?: number;
+  /** True when the transient case used datasheet Zth points; false falls back to steady state. */
+  usedZth?: boolean;
+  notCharacterised?: boolean;
+}
+
+/** Hard: a jam (a steady state unless cut off) must keep Tj ≤ Tj,max; the limit is Tj,max [docs/engineering.md §6]. */
+export function checkStallThermal(s: StallThermalInput): Check {
+  const id = 'stall-thermal';
+  const how = s.protection === 'none'
+    ? `With no stall protection a jam is a steady state at ${fmt(s.currentRmsA)} A (RMS)`
+    : s.protection === 'current-limit'
+      ? `With the current limit a jam settles at ${fmt(s.currentRmsA)} A (RMS)`
+      : s.usedZth
+        ? `With the cut-off after ${fmt(s.afterS ?? 0)} s a jam heats the junction for that long at ${fmt(s.currentRmsA)} A (single-pulse Zth)`
+        : `With the cut-off after ${fmt(s.afterS ?? 0)} s but no Zth curve on record, the jam is judged as a steady state at ${fmt(s.currentRmsA)} A`;
+  if (s.notCharacterised) {
+    return makeCheck({ id, ok: false, value: null, limit: s.tjMaxC, unit: '°C', margin: null, note: `${how}; RDS(on) is not characterised at this drive, so the jam cannot be assessed.` });
+  }
+  if (s.junctionC == null) {
+    const note = `${how}: the RDS(on) rise with heat runs away (no steady junction temperature). Limit the stall current, cut the drive off after a short time, or choose a part with lower RDS(on) or RθJA.`;
+    return makeCheck({ id, ok: false, value: null, limit: s.tjMaxC, unit: '°C', margin: null, note });
+  }
+  const ok = s.junctionC <= s.tjMaxC;
+  const rise = s.tjMaxC - s.ambientC;
+  const margin = rise > 0 ? (s.tjMaxC - s.junctionC) / rise : null;
+  const note = ok
+    ? `${how}: the junction reaches about ${fmt(s.junctionC)} °C, within Tj,max ${fmt(s.tjMaxC)} °C.`
+    : `${how}: the junction would reach about ${fmt(s.junctionC)} °C, above Tj,max ${fmt(s.tjMaxC)} °C. Add a stall protection (current limit or a timed cut-off), or choose a part with lower RDS(on) or RθJA.`;
+  return makeCheck({ id, ok, value: s.junctionC, limit: s.tjMaxC, unit: '°C', margin, note });
 }
 
 /** Hard: VGS(max) ≥ the highest level the gate can see. */

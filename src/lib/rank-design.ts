@@ -1,30 +1,54 @@
 /**
- * The whole design: switch (direct drive first), driver when needed, diode, power-on walk and cautions.
+ * The whole design: diode first (its VF feeds the currents), switch (direct drive, or at a real driver's output),
+ * driver for the chosen switch, power-on walk and cautions [docs/engineering.md §5–§9].
+ * Every list is judged at the drive the design really has: the controller pin, or the chosen driver (before one
+ * is chosen, the best real catalogue driver) — never an ideal one.
  */
-import { fmt } from './checks.ts';
+import { fmt, type Check } from './checks.ts';
 import { avalancheEnergyJ, avalanchePowerW } from './diode-checks.ts';
 import type { PartOf } from './domain/parts.ts';
-import { describeDriverNeed, driverSupplyOf, rankDriverCandidates, type DriverCandidateResult } from './driver-ranking.ts';
-import { motorConsistencyOf, worstCaseOf, type DesignCase, type WorstCase } from './design-case.ts';
+import {
+  describeDriverNeed, driverSupplyOf, gateDriveOfDriver, powerOnForPair, provisionalDriver, rankDriverCandidates, type DriverCandidateResult,
+} from './driver-ranking.ts';
+import { DEFAULT_DIODE_FORWARD_V, motorConsistencyOf, motorModelOf, worstCaseOf, type DesignCase, type WorstCase } from './design-case.ts';
 import { suggestedDriveRailV } from './mosfet-checks.ts';
-import { walkPowerOn, type PowerOnResult } from './power-on.ts';
-import { evaluateSwitchPart, rankDiodeCandidates, sortCandidates, type CandidateResult, type SwitchCandidateResult } from './ranking.ts';
+import type { PowerOnResult } from './power-on.ts';
+import { evaluateSwitchPart, pinGateDrive, rankDiodeCandidates, sortCandidates, type CandidateResult, type GateDrive, type SwitchCandidateResult } from './ranking.ts';
 import { lowestSpecVgsV, rdsOnPointsAt25C } from './rdson.ts';
+import { pwmFrequencyCaution } from './ripple.ts';
 import { formatSi } from './units.ts';
 import { CAUTIONS } from './safety-notes.ts';
+
+/** The drive the switch list was judged at. */
+export interface SwitchDrive {
+  by: 'pin' | 'driver';
+  gateV: number;
+  sourceCurrentA: number;
+  driverPartId: number | null;
+  driverMpn: string | null;
+  /** True while no driver is chosen: the list is judged at the best real driver in the catalogue. */
+  provisional: boolean;
+  /** Current a recommended gate pull-down draws from the pin while it drives high (already subtracted). */
+  pullDownDrawA: number;
+}
 
 export interface DesignRanking {
   worstCase: WorstCase;
   /** Switches driven straight from the logic pin. */
   switch: SwitchCandidateResult[];
+  /** The design uses a driver: it is needed (a driver fixes the failures) or the designer chose one. */
   driverNeeded: boolean;
   driverNeededNote: string | null;
   /** Lowest RDS(on) spec VGS of the switch the design settles on. */
   requiredGateDriveV: number | null;
-  /** Switches driven by an ideal driver at each part's smallest suitable common rail (filled when a driver is needed). */
+  /** Switches judged at the chosen (or best real) driver's output; filled when a driver is used. */
   switchWithDriver: SwitchCandidateResult[];
+  /** What the effective switch list was judged at. */
+  switchDrive: SwitchDrive;
   driver: DriverCandidateResult[];
   diode: CandidateResult[];
+  /** Which diode's VF the currents use. */
+  diodeForward: { voltageV: number; basis: 'chosen' | 'lowest-passing' | 'default' };
   powerOn: PowerOnResult | null;
   cautions: string[];
 }
@@ -35,23 +59,65 @@ export interface DesignCatalogue {
   diodes: PartOf<'diode'>[];
 }
 
-/** Safety cautions shown with every result (src/lib/safety-notes.ts, domain.md §9). */
-export const STANDING_CAUTIONS: readonly string[] = CAUTIONS.map((c) => `${c.title}: ${c.text}`);
-
-/** An ideal driver for a part: its smallest suitable common rail (or its lowest spec VGS), 1 A each way. */
-function idealDriveFor(part: PartOf<'mosfet'>): { voltageV: number; sourceCurrentA: number; sinkCurrentA: number } | null {
-  const lowestV = lowestSpecVgsV(rdsOnPointsAt25C(part.params.rdsOn));
-  if (lowestV == null) return null;
-  const voltageV = suggestedDriveRailV(lowestV, part.params.vgsMaxV) ?? lowestV;
-  return { voltageV, sourceCurrentA: 1, sinkCurrentA: 1 };
+/** The designer's picks, when made (ids of catalogue parts). */
+export interface DesignPicks {
+  switchId?: number | null;
+  driverId?: number | null;
+  diodeId?: number | null;
+  /** The designer recorded that the motor running at reset is intended. */
+  resetStartIntended?: boolean;
 }
 
-function rankWithIdealDriver(c: DesignCase, mosfets: PartOf<'mosfet'>[], wc: WorstCase): SwitchCandidateResult[] {
-  const results = mosfets.flatMap((m) => {
-    const drive = idealDriveFor(m);
-    return drive == null || m.params.channel !== 'n' ? [] : [evaluateSwitchPart(c, m, drive, wc)];
-  });
-  return sortCandidates(results);
+/** Safety cautions shown with every result (src/lib/safety-notes.ts, docs/engineering.md §11). */
+export const STANDING_CAUTIONS: readonly string[] = CAUTIONS.map((c) => `${c.title}: ${c.text}`);
+
+/** Failures a gate driver can fix: too little gate voltage or current [docs/engineering.md §7.1]. */
+export const DRIVER_FIXABLE = new Set(['gate-drive', 'miller-plateau', 'switching-edges', 'rdson-test-current']);
+
+const hardFails = (checks: readonly Check[]): Check[] => checks.filter((x) => !x.ok && x.severity !== 'margin');
+
+function byId<T extends { id?: number }>(parts: T[], id: number | null | undefined): T | undefined {
+  return id == null ? undefined : parts.find((p) => p.id === id);
+}
+
+/** The chosen diode's VF, else the lowest VF among passing diodes, else the conservative default. */
+function diodeForwardFor(c: DesignCase, catalogue: DesignCatalogue, picks: DesignPicks, wc0: WorstCase): DesignRanking['diodeForward'] {
+  const chosen = byId(catalogue.diodes, picks.diodeId);
+  if (chosen) return { voltageV: chosen.params.vfV, basis: 'chosen' };
+  const passing = rankDiodeCandidates(c, catalogue.diodes, wc0).filter((d) => d.verdict !== 'fail');
+  const vfs = passing.map((d) => byId(catalogue.diodes, d.partId)?.params.vfV).filter((v): v is number => v != null);
+  if (vfs.length > 0) return { voltageV: Math.min(...vfs), basis: 'lowest-passing' };
+  return { voltageV: c.diodeForwardV ?? DEFAULT_DIODE_FORWARD_V, basis: 'default' };
+}
+
+/** Direct drive: the pin, less what a recommended gate pull-down draws while the pin drives high. */
+function directDrive(c: DesignCase, wc: WorstCase, catalogue: DesignCatalogue, picks: DesignPicks): { drive: GateDrive; list: SwitchCandidateResult[]; draw: number } {
+  const bare = catalogue.mosfets.map((m) => evaluateSwitchPart(c, m, pinGateDrive(c, wc), wc));
+  const reference = byId(catalogue.mosfets, picks.switchId) ?? byId(catalogue.mosfets, sortCandidates(bare)[0]?.partId);
+  const pull = reference ? powerOnForPair(c, null, reference).recommendedPull : null;
+  const draw = pull?.ok && pull.to === 'down' && pull.chosenOhms ? c.logic.highV / pull.chosenOhms : 0;
+  if (draw === 0) return { drive: pinGateDrive(c, wc), list: sortCandidates(bare), draw };
+  const drive = pinGateDrive(c, wc, draw);
+  return { drive, list: sortCandidates(catalogue.mosfets.map((m) => evaluateSwitchPart(c, m, drive, wc))), draw };
+}
+
+function failureSummary(list: SwitchCandidateResult[]): string {
+  const counts = new Map<string, number>();
+  for (const e of list) for (const x of hardFails(e.checks)) counts.set(x.id, (counts.get(x.id) ?? 0) + 1);
+  return [...counts.entries()].sort((a, b) => b[1] - a[1]).slice(0, 4).map(([id, n]) => `${id} (${n})`).join(', ');
+}
+
+function driverNote(c: DesignCase, catalogue: DesignCatalogue, direct: SwitchCandidateResult[], needed: boolean, fixable: SwitchCandidateResult | undefined): string | null {
+  if (direct.some((e) => e.verdict === 'pass')) return null;
+  if (!needed) {
+    return direct.length === 0
+      ? 'No MOSFET in the catalogue can carry this design’s ratings.'
+      : `No switch holds, and a gate driver would not fix it: the failing checks are ${failureSummary(direct)}. These need another part (higher ratings, lower RDS(on) or RθJA), not more gate drive.`;
+  }
+  const part = byId(catalogue.mosfets, fixable?.partId);
+  const requiredV = part ? lowestSpecVgsV(rdsOnPointsAt25C(part.params.rdsOn)) : null;
+  if (!part || requiredV == null) return 'No switch passes with direct drive; a gate driver is needed.';
+  return describeDriverNeed(c.logic.highV, part.mpn, requiredV, suggestedDriveRailV(requiredV, part.params.vgsMaxV));
 }
 
 function dynamicCautions(c: DesignCase, wc: WorstCase, diode: CandidateResult[]): string[] {
@@ -59,7 +125,15 @@ function dynamicCautions(c: DesignCase, wc: WorstCase, diode: CandidateResult[])
   const consistency = motorConsistencyOf(c);
   if (consistency.warning) cautions.push(consistency.warning);
   cautions.push(`Worst-case start-up current is ${fmt(wc.stallCurrentMaxA)} A (stall at ${fmt(wc.supplyMaxV)} V with the winding at ${fmt(wc.windingColdC)} °C): fuse and wiring must carry it.`);
+  if ((c.stallProtection?.kind ?? 'none') === 'none') {
+    cautions.push('No stall protection is set: a jammed shaft holds the switch on at stall current until someone notices. Switch, diode and motor case can exceed 100 °C; consider a current limit or a timed cut-off.');
+  }
   cautions.push('Junction temperatures use the datasheet RθJA from its test board; your board may run hotter or cooler.');
+  if (wc.pwmHz != null && c.motor.inductanceH != null) {
+    const tauS = c.motor.inductanceH / motorModelOf(c).resistanceOhm;
+    const caution = pwmFrequencyCaution(wc.pwmHz, tauS);
+    if (caution) cautions.push(caution);
+  }
   const diodeOk = diode.some((d) => d.verdict !== 'fail');
   if (!diodeOk && c.motor.inductanceH != null) {
     const energyJ = avalancheEnergyJ(c.motor.inductanceH, wc.stallCurrentMaxA);
@@ -69,49 +143,52 @@ function dynamicCautions(c: DesignCase, wc: WorstCase, diode: CandidateResult[])
   return cautions;
 }
 
-function findPart<T extends { id?: number; mpn: string }>(parts: T[], result: CandidateResult | undefined): T | undefined {
-  if (result == null) return undefined;
-  return parts.find((p) => (p.id ?? null) === result.partId && p.mpn === result.mpn);
-}
-
 /** Power-on walk for a given switch and (optional) driver. */
 export function powerOnFor(c: DesignCase, sw: PartOf<'mosfet'> | undefined, driver: PartOf<'driver'> | undefined): PowerOnResult | null {
-  if (sw == null) return null;
-  return walkPowerOn({
-    pin: { railV: c.logic.railV, resetDefault: c.logic.resetDefault, sourceCurrentA: c.logic.pinSourceCurrentA, sinkCurrentA: c.logic.pinSinkCurrentA },
-    driver: driver ? { params: driver.params, supply: driverSupplyOf(c) } : null,
-    mosfet: { vgsThMinV: sw.params.vgsThMinV },
-    series: c.resistorSeries,
-  });
+  return sw == null ? null : powerOnForPair(c, driver ?? null, sw);
 }
 
-export function rankDesign(c: DesignCase, catalogue: DesignCatalogue): DesignRanking {
+export function rankDesign(c0: DesignCase, catalogue: DesignCatalogue, picks: DesignPicks = {}): DesignRanking {
+  const diodeForward = diodeForwardFor(c0, catalogue, picks, worstCaseOf(c0));
+  const c: DesignCase = { ...c0, diodeForwardV: diodeForward.voltageV };
   const wc = worstCaseOf(c);
-  const direct = sortCandidates(catalogue.mosfets.map((m) => evaluateSwitchPart(c, m, undefined, wc)));
-  const diode = rankDiodeCandidates(c, catalogue.diodes);
-  const driverNeeded = !direct.some((r) => r.verdict === 'pass');
-  const withDriver = driverNeeded ? rankWithIdealDriver(c, catalogue.mosfets, wc) : [];
-  const chosen = driverNeeded ? withDriver[0] : direct[0];
-  const chosenPart = findPart(catalogue.mosfets, chosen);
-  const requiredGateDriveV = chosenPart ? lowestSpecVgsV(rdsOnPointsAt25C(chosenPart.params.rdsOn)) : null;
-  const driver = driverNeeded && chosenPart ? rankDriverCandidates(c, catalogue.drivers, chosenPart) : [];
-  const bestDriver = driver.find((d) => d.verdict !== 'fail');
-  const driverNeededNote = !driverNeeded
-    ? null
-    : chosenPart && requiredGateDriveV != null
-      ? describeDriverNeed(c.logic.highV, chosenPart.mpn, requiredGateDriveV, suggestedDriveRailV(requiredGateDriveV, chosenPart.params.vgsMaxV))
-      : 'No switch passes with direct drive and none in the catalogue has RDS(on) data to size a driver for.';
-  const powerOn = powerOnFor(c, chosenPart, driverNeeded ? findPart(catalogue.drivers, bestDriver) : undefined);
+  const diode = rankDiodeCandidates(c, catalogue.diodes, wc);
+  const direct = directDrive(c, wc, catalogue, picks);
+
+  const chosenDriver = byId(catalogue.drivers, picks.driverId);
+  const refDriver = chosenDriver ?? provisionalDriver(c, catalogue.drivers, wc);
+  const directPasses = direct.list.some((e) => e.verdict === 'pass');
+  const withDriver = refDriver && (chosenDriver || !directPasses)
+    ? sortCandidates(catalogue.mosfets.map((m) => evaluateSwitchPart(c, m, gateDriveOfDriver(c, refDriver), wc)))
+    : [];
+  const fixable = withDriver.find((e) => e.verdict === 'pass') ?? direct.list.find((e) => hardFails(e.checks).length > 0 && hardFails(e.checks).every((x) => DRIVER_FIXABLE.has(x.id)));
+  const driverHelps = !directPasses && fixable != null;
+  const usesDriver = chosenDriver != null || driverHelps;
+
+  const effective = usesDriver ? withDriver : direct.list;
+  const switchPart = byId(catalogue.mosfets, picks.switchId) ?? byId(catalogue.mosfets, effective[0]?.partId);
+  const driver = usesDriver && switchPart ? rankDriverCandidates(c, catalogue.drivers, switchPart, wc, picks.resetStartIntended === true) : [];
+  const walkDriver = usesDriver ? chosenDriver ?? byId(catalogue.drivers, driver.find((d) => d.verdict !== 'fail')?.partId ?? driver[0]?.partId) : undefined;
+  const powerOn = powerOnFor(c, switchPart, walkDriver);
+  const drive = usesDriver && refDriver ? gateDriveOfDriver(c, refDriver) : direct.drive;
   return {
     worstCase: wc,
-    switch: direct,
-    driverNeeded,
-    driverNeededNote,
-    requiredGateDriveV,
-    switchWithDriver: withDriver,
+    switch: direct.list,
+    driverNeeded: usesDriver,
+    driverNeededNote: driverNote(c, catalogue, direct.list, driverHelps, fixable),
+    requiredGateDriveV: switchPart ? lowestSpecVgsV(rdsOnPointsAt25C(switchPart.params.rdsOn)) : null,
+    switchWithDriver: usesDriver ? withDriver : [],
+    switchDrive: {
+      by: usesDriver && refDriver ? 'driver' : 'pin', gateV: drive.voltageV, sourceCurrentA: drive.sourceCurrentA,
+      driverPartId: drive.driverPartId ?? null, driverMpn: drive.driverMpn ?? null,
+      provisional: usesDriver && chosenDriver == null, pullDownDrawA: usesDriver ? 0 : direct.draw,
+    },
     driver,
     diode,
+    diodeForward,
     powerOn,
     cautions: [...(powerOn?.motorCanStart ? [powerOn.note] : []), ...dynamicCautions(c, wc, diode), ...STANDING_CAUTIONS],
   };
 }
+
+export { driverSupplyOf };

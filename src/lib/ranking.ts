@@ -1,8 +1,8 @@
 /**
- * Ranks catalogue parts against a design case: pass > marginal > fail always, then score, then MPN.
- * Scores (higher is better, −100…100): switch = share of the thermal budget left,
- * 100·(Tj,lim − Tj)/(Tj,lim − TA) with Tj,lim = Tj,max − margin; driver and diode = 100 × the smallest
- * headroom fraction among their rated checks. Price is deliberately left out.
+ * Ranks catalogue parts against a design case: pass > marginal > fail always, then score, then (in the match,
+ * where prices are known) price at the build quantity and lifecycle, then MPN.
+ * One score for every role, 0–100: 100 × the smallest headroom among the part's rated checks (each headroom a
+ * fraction of the limit it is judged against), clamped to 0–100; a failing part scores 0 [docs/engineering.md §10].
  */
 import { VERDICT_RANK, verdictOf, type Check, type Verdict } from './checks.ts';
 import { checkDiode } from './diode-checks.ts';
@@ -22,21 +22,38 @@ export interface CandidateResult {
 
 export interface SwitchCandidateResult extends CandidateResult {
   evaluation: Omit<SwitchEvaluation, 'checks' | 'verdict'>;
+  /** The gate drive the switch was judged at. */
+  drive: { gateV: number; sourceCurrentA: number; sinkCurrentA: number; by: 'pin' | 'driver'; driverPartId: number | null; driverMpn: string | null };
 }
 
-/** A gate drive other than the controller pin: minimum output high, its rail maximum and its currents. */
+/** A gate drive other than the bare controller pin: a real driver's output high at its lowest supply, and its currents. */
 export interface GateDrive {
   voltageV: number;
   sourceCurrentA: number;
   sinkCurrentA: number;
   maxVoltageV?: number;
+  /** The catalogue driver delivering it; null for the controller pin itself. */
+  driverPartId?: number | null;
+  driverMpn?: string | null;
 }
 
-const clampScore = (score: number): number => Math.round(Math.min(100, Math.max(-100, score)) * 10) / 10;
+/** The line the workspace shows beside every list. */
+export const SCORE_EXPLANATION =
+  'Score 0–100: the smallest headroom among the part’s rated checks, as a share of each limit (100 = far from every limit, 0 = at one or failing). Ties: lower price at the build quantity, then lifecycle.';
 
-export function sortCandidates<T extends CandidateResult>(results: T[]): T[] {
+/** Checks that only inform (estimates without a rating to hold) do not weigh in the score. */
+const INFORMATIVE = new Set(['surge-current', 'drain-spike', 'polarity', 'paired-switch', 'power-on', 'channel']);
+
+export function scoreOf(checks: readonly Check[], verdict: Verdict = verdictOf(checks)): number {
+  if (verdict === 'fail') return 0;
+  const margins = checks.filter((c) => !INFORMATIVE.has(c.id) && c.limit != null && c.margin != null && Number.isFinite(c.margin)).map((c) => c.margin as number);
+  const smallest = margins.length > 0 ? Math.min(...margins) : 1;
+  return Math.round(Math.min(100, Math.max(0, 100 * smallest)) * 10) / 10;
+}
+
+export function sortCandidates<T extends CandidateResult>(results: T[], tiebreak?: (a: T, b: T) => number): T[] {
   return [...results].sort(
-    (a, b) => VERDICT_RANK[a.verdict] - VERDICT_RANK[b.verdict] || b.score - a.score || a.mpn.localeCompare(b.mpn),
+    (a, b) => VERDICT_RANK[a.verdict] - VERDICT_RANK[b.verdict] || b.score - a.score || (tiebreak?.(a, b) ?? 0) || a.mpn.localeCompare(b.mpn),
   );
 }
 
@@ -45,40 +62,43 @@ export function switchInputFromPart(part: PartOf<'mosfet'>): SwitchMosfetInput {
   return {
     vdsMaxV: p.vdsMaxV, vgsMaxV: p.vgsMaxV, vgsThMaxV: p.vgsThMaxV, idPulsedA: p.idPulsedA, tjMaxC: p.tjMaxC,
     rthJaCPerW: p.rthJaCPerW, qgTotalNc: p.qgTotalNc, qgdNc: p.qgdNc, qgsNc: p.qgsNc, vPlateauV: p.vPlateauV,
-    rdsOn: rdsOnPointsAt25C(p.rdsOn), channel: p.channel,
+    rdsOn: rdsOnPointsAt25C(p.rdsOn), channel: p.channel, zthPoints: p.zthPoints,
   };
 }
 
-/** The switch's operating values for this case, driven by the controller pin unless a gate drive is given. */
-export function switchOperatingFor(c: DesignCase, wc: WorstCase, gateDrive?: GateDrive): SwitchOperatingInput {
+/** The controller pin as a gate drive: its lowest high level and its current, less what a gate pull-down draws. */
+export function pinGateDrive(c: DesignCase, wc: WorstCase, pullDownDrawA = 0): GateDrive {
+  return {
+    voltageV: wc.gateDriveMinV, maxVoltageV: wc.gateDriveMaxV,
+    sourceCurrentA: Math.max(1e-6, c.logic.pinSourceCurrentA - pullDownDrawA), sinkCurrentA: c.logic.pinSinkCurrentA,
+    driverPartId: null, driverMpn: null,
+  };
+}
+
+/** The switch's operating values for this case at a given gate drive (the pin's, or a real driver's). */
+export function switchOperatingFor(c: DesignCase, wc: WorstCase, drive: GateDrive): SwitchOperatingInput {
   return {
     supplyMaxV: wc.supplyMaxV, runningCurrentA: wc.runningCurrentA, stallCurrentA: wc.stallCurrentMaxA,
-    gateDriveV: gateDrive?.voltageV ?? wc.gateDriveMinV,
-    gateDriveMaxV: gateDrive ? (gateDrive.maxVoltageV ?? gateDrive.voltageV) : wc.gateDriveMaxV,
-    gateDriveCurrentA: gateDrive?.sourceCurrentA ?? c.logic.pinSourceCurrentA,
-    gateDriveSinkCurrentA: gateDrive?.sinkCurrentA ?? c.logic.pinSinkCurrentA,
+    gateDriveV: drive.voltageV, gateDriveMaxV: drive.maxVoltageV ?? drive.voltageV,
+    gateDriveCurrentA: drive.sourceCurrentA, gateDriveSinkCurrentA: drive.sinkCurrentA,
     gateResistanceOhm: c.gateResistanceOhm ?? 0,
     ...(wc.pwmHz != null ? { pwmHz: wc.pwmHz, duty: wc.switchDuty } : {}),
     ambientC: wc.ambientMaxC, diodeForwardV: wc.diodeForwardV,
+    currentRmsA: wc.switchRmsA, turnOnCurrentA: wc.turnOnCurrentA, turnOffCurrentA: wc.turnOffCurrentA,
+    stallProtection: wc.stall.protection, stallDuty: wc.stall.duty, stallCurrentRmsA: wc.stall.currentRmsA,
   };
 }
 
-function switchScore(e: SwitchEvaluation, tjMaxC: number, thermalMarginC: number, ambientC: number): number {
-  if (e.junctionC == null) return -100;
-  const budgetC = tjMaxC - thermalMarginC - ambientC;
-  return budgetC > 0 ? clampScore((100 * (tjMaxC - thermalMarginC - e.junctionC)) / budgetC) : -100;
-}
-
-/** Evaluates one MOSFET part for the case; P-channel parts get a failing 'channel' check (low-side design). */
-export function evaluateSwitchPart(c: DesignCase, part: PartOf<'mosfet'>, gateDrive?: GateDrive, wc: WorstCase = worstCaseOf(c)): SwitchCandidateResult {
+/** Evaluates one MOSFET part for the case at a gate drive; P-channel parts get a failing 'channel' check (low-side design). */
+export function evaluateSwitchPart(c: DesignCase, part: PartOf<'mosfet'>, drive: GateDrive, wc: WorstCase = worstCaseOf(c)): SwitchCandidateResult {
   const margins = marginsOf(c);
-  const result = evaluateSwitch({ mosfet: switchInputFromPart(part), operating: switchOperatingFor(c, wc, gateDrive), margins });
+  const result = evaluateSwitch({ mosfet: switchInputFromPart(part), operating: switchOperatingFor(c, wc, drive), margins });
   return {
     partId: part.id ?? null,
     mpn: part.mpn,
     manufacturer: part.manufacturer,
     verdict: result.verdict,
-    score: switchScore(result, part.params.tjMaxC, margins.thermalMarginC, wc.ambientMaxC),
+    score: scoreOf(result.checks, result.verdict),
     checks: result.checks,
     evaluation: {
       rdsOnAtDriveOhms: result.rdsOnAtDriveOhms,
@@ -86,33 +106,36 @@ export function evaluateSwitchPart(c: DesignCase, part: PartOf<'mosfet'>, gateDr
       conductionLossW: result.conductionLossW,
       switchingLossW: result.switchingLossW,
       gateDrivePowerW: result.gateDrivePowerW,
+      stallJunctionC: result.stallJunctionC,
+      stallCurrentRmsA: result.stallCurrentRmsA,
+    },
+    drive: {
+      gateV: drive.voltageV, sourceCurrentA: drive.sourceCurrentA, sinkCurrentA: drive.sinkCurrentA,
+      by: drive.driverPartId != null ? 'driver' : 'pin', driverPartId: drive.driverPartId ?? null, driverMpn: drive.driverMpn ?? null,
     },
   };
 }
 
-export function rankSwitchCandidates(c: DesignCase, mosfets: PartOf<'mosfet'>[], gateDrive?: GateDrive): SwitchCandidateResult[] {
-  const wc = worstCaseOf(c);
-  return sortCandidates(mosfets.map((m) => evaluateSwitchPart(c, m, gateDrive, wc)));
+/** Switches ranked at one gate drive for all (the controller pin unless a driver's drive is given). */
+export function rankSwitchCandidates(c: DesignCase, mosfets: PartOf<'mosfet'>[], drive?: GateDrive, wc: WorstCase = worstCaseOf(c)): SwitchCandidateResult[] {
+  const d = drive ?? pinGateDrive(c, wc);
+  return sortCandidates(mosfets.map((m) => evaluateSwitchPart(c, m, d, wc)));
 }
 
-/** 100 × the smallest headroom among the listed checks, clamped to −100…100. */
-export function minMarginScore(checks: readonly Check[], ids: readonly string[]): number {
-  const margins = checks.filter((x) => ids.includes(x.id) && x.margin != null).map((x) => x.margin as number);
-  return margins.length > 0 ? clampScore(100 * Math.min(...margins)) : 0;
-}
-
-const DIODE_SCORED = ['reverse-voltage', 'mean-current', 'peak-current', 'reverse-recovery'] as const;
-
-export function rankDiodeCandidates(c: DesignCase, diodes: PartOf<'diode'>[]): CandidateResult[] {
-  const wc = worstCaseOf(c);
-  const model = { inductanceH: c.motor.inductanceH, resistanceOhm: c.motor.terminalResistanceOhm ?? c.motor.ratedVoltageV / c.motor.stallCurrentA };
-  const results = diodes.map((part): CandidateResult => {
-    const checks = checkDiode({
-      diode: part.params, supplyMaxV: wc.supplyMaxV, meanCurrentA: wc.diodeMeanCurrentA, peakCurrentA: wc.stallCurrentMaxA,
-      pwmHz: wc.pwmHz, voltageDerating: marginsOf(c).voltageDerating,
-      motorInductanceH: model.inductanceH, motorResistanceOhm: model.resistanceOhm,
-    });
-    return { partId: part.id ?? null, mpn: part.mpn, manufacturer: part.manufacturer, verdict: verdictOf(checks), score: minMarginScore(checks, DIODE_SCORED), checks };
+export function evaluateDiodePart(c: DesignCase, part: PartOf<'diode'>, wc: WorstCase): CandidateResult {
+  const resistanceOhm = c.motor.terminalResistanceOhm ?? c.motor.ratedVoltageV / c.motor.stallCurrentA;
+  const checks = checkDiode({
+    diode: part.params, supplyMaxV: wc.supplyMaxV, meanCurrentA: wc.diodeMeanCurrentA,
+    // Under PWM the turn-off current recurs every cycle; for on/off it is the one-off current after a jam.
+    peakCurrentA: wc.diodeRepetitivePeakA ?? wc.stall.currentA,
+    stallMeanCurrentA: wc.stall.diodeMeanA, ambientC: wc.ambientMaxC,
+    pwmHz: wc.pwmHz, voltageDerating: marginsOf(c).voltageDerating,
+    motorInductanceH: c.motor.inductanceH, motorResistanceOhm: resistanceOhm,
   });
-  return sortCandidates(results);
+  const verdict = verdictOf(checks);
+  return { partId: part.id ?? null, mpn: part.mpn, manufacturer: part.manufacturer, verdict, score: scoreOf(checks, verdict), checks };
+}
+
+export function rankDiodeCandidates(c: DesignCase, diodes: PartOf<'diode'>[], wc: WorstCase = worstCaseOf(c)): CandidateResult[] {
+  return sortCandidates(diodes.map((d) => evaluateDiodePart(c, d, wc)));
 }

@@ -7,6 +7,8 @@ import type { RdsOnSpecPoint } from './domain/parts.ts';
 export interface RdsOnPoint {
   vgsV: number;
   ohms: number;
+  /** Drain current the line was measured at, when stated: the line holds only up to about this current. */
+  testCurrentA?: number | null;
 }
 
 /** Default RDS(on) temperature coefficient [mem: parts rise ×1.4–1.8 by 125–150 °C]. */
@@ -25,8 +27,8 @@ export function rdsOnPointsAt25C(points: readonly RdsOnSpecPoint[], alphaPerC = 
   const at25 = points.filter((p) => Math.abs(p.tjC - 25) <= 1);
   const others = points
     .filter((p) => Math.abs(p.tjC - 25) > 1 && !at25.some((q) => q.vgsV === p.vgsV))
-    .map((p) => ({ vgsV: p.vgsV, maxOhm: p.maxOhm / (1 + alphaPerC * (p.tjC - 25)) }));
-  return [...at25, ...others].map((p) => ({ vgsV: p.vgsV, ohms: p.maxOhm }));
+    .map((p) => ({ vgsV: p.vgsV, maxOhm: p.maxOhm / (1 + alphaPerC * (p.tjC - 25)), idA: p.idA }));
+  return [...at25, ...others].map((p) => ({ vgsV: p.vgsV, ohms: p.maxOhm, testCurrentA: p.idA }));
 }
 
 /** Ascending by VGS; duplicate VGS keep the larger (conservative) resistance. */
@@ -58,4 +60,11 @@ export function rdsOnAtDriveOhm(points: readonly RdsOnPoint[], driveV: number): 
   const lower = sorted[upperIndex - 1];
   const fraction = (driveV - lower.vgsV) / (upper.vgsV - lower.vgsV);
   return Math.exp(Math.log(lower.ohms) + fraction * (Math.log(upper.ohms) - Math.log(lower.ohms)));
+}
+
+/** The spec line that bounds RDS(on) at a drive: the one at the highest VGS not above it (null below the lowest). */
+export function governingLineAt(points: readonly RdsOnPoint[], driveV: number): RdsOnPoint | null {
+  const below = points.filter((p) => p.vgsV > 0 && p.ohms > 0 && p.vgsV <= driveV);
+  if (below.length === 0) return null;
+  return below.reduce((best, p) => (p.vgsV > best.vgsV || (p.vgsV === best.vgsV && p.ohms > best.ohms) ? p : best));
 }

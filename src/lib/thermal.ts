@@ -50,3 +50,26 @@ export function maxCurrentAtAmbientA(tjMaxC: number, ambientC: number, rthJaCPer
   const riseC = tjMaxC - ambientC;
   return riseC > 0 ? Math.sqrt(riseC / (rthJaCPerW * rdsOnAtTjMaxOhm)) : 0;
 }
+
+/** One single-pulse Zth point: impedance after a pulse of pulseS seconds. */
+export interface ZthCurvePoint {
+  pulseS: number;
+  zthCPerW: number;
+}
+
+/**
+ * Single-pulse Zth(t) from datasheet points: log–log interpolation between neighbours; below the first pulse
+ * the first point's value (conservative, Zth rises with t); beyond the last, RθJA; never above RθJA
+ * [docs/engineering.md §6, calc].
+ */
+export function zthAtPulseCPerW(points: readonly ZthCurvePoint[], pulseS: number, rthJaCPerW: number): number {
+  const sorted = points.filter((p) => p.pulseS > 0 && p.zthCPerW > 0).sort((a, b) => a.pulseS - b.pulseS);
+  if (sorted.length === 0) return rthJaCPerW;
+  if (pulseS <= sorted[0].pulseS) return Math.min(rthJaCPerW, sorted[0].zthCPerW);
+  const upperIndex = sorted.findIndex((p) => p.pulseS >= pulseS);
+  if (upperIndex === -1) return rthJaCPerW;
+  const lo = sorted[upperIndex - 1];
+  const hi = sorted[upperIndex];
+  const f = (Math.log(pulseS) - Math.log(lo.pulseS)) / (Math.log(hi.pulseS) - Math.log(lo.pulseS));
+  return Math.min(rthJaCPerW, Math.exp(Math.log(lo.zthCPerW) + f * (Math.log(hi.zthCPerW) - Math.log(lo.zthCPerW))));
+}

@@ -3,7 +3,14 @@ import { worstCaseOf } from '../../src/lib/design-case.ts';
 import { rankDriverCandidates } from '../../src/lib/driver-ranking.ts';
 import { rankDesign } from '../../src/lib/rank-design.ts';
 import { rankDiodeCandidates, rankSwitchCandidates } from '../../src/lib/ranking.ts';
-import { caseM1, diodePart, driverPart, mosfetPart } from './fixtures.ts';
+import { MOTOR_M1, caseM1 as caseM1Raw, diodePart, driverPart, mosfetPart } from './fixtures.ts';
+import type { DesignCase } from '../../src/lib/design-case.ts';
+
+/**
+ * M1 with a 1 A stall current limit, so these rows isolate drive, rating and ranking behaviour: the small invented
+ * parts here cannot survive an unprotected jam (see "sustained stall" below and tests/unit/stall-thermal.test.ts).
+ */
+const caseM1 = (o: Partial<DesignCase> = {}): DesignCase => caseM1Raw({ stallProtection: { kind: 'current-limit', limitA: 1 }, ...o });
 
 const R_M1 = 3 / 1.8; // domain.md §2 M1
 const KE_M1 = (3 - 0.2 * R_M1) / ((12000 * 2 * Math.PI) / 60); // domain.md §2 M1, re-derived
@@ -17,8 +24,8 @@ const standardLevel = mosfetPart(2, 'INV-N30S', {
 });
 const weakPart = mosfetPart(3, 'INV-N12T', { vdsMaxV: 4, idPulsedA: 2 });
 
-describe('worst case (M1 case)', () => {
-  const wc = worstCaseOf(caseM1());
+describe('worst case (M1 case, mean-voltage model: inductance not known)', () => {
+  const wc = worstCaseOf(caseM1({ motor: { ...MOTOR_M1, inductanceH: null } }));
   it('stall current at the highest supply and coldest winding', () => {
     expect(wc.stallCurrentMaxA).toBeCloseTo(3.3 / (R_M1 * (1 + 0.00393 * (-10 - 20))), 10); // IEC 60028 α20, domain.md §2
   });
@@ -128,5 +135,15 @@ describe('diode ranking under 20 kHz PWM', () => {
       ['INV-SD04', 'marginal'], // 3.3 V within VRRM 4 V but above 0.8·4 V (practice)
       ['INV-GP1', 'fail'], // domain.md §7: t_rr 2 µs > 1 % of 50 µs
     ]);
+  });
+});
+
+describe('sustained stall (docs/engineering.md §6)', () => {
+  it('without stall protection, the small parts that pass at a 1 A limit fail stall-thermal', () => {
+    const [r] = rankSwitchCandidates(caseM1Raw(), [logicLevel]);
+    const check = r.checks.find((x) => x.id === 'stall-thermal');
+    expect(check?.ok).toBe(false); // §6.1: 2.24 A steady through 80 mΩ behind 250 K/W
+    expect(r.verdict).toBe('fail');
+    expect(check?.note).toMatch(/stall protection/);
   });
 });

@@ -34,8 +34,8 @@ describe('RDS(on) at a drive voltage (log-space interpolation, domain.md §4)', 
       { vgsV: 10, tjC: 125, maxOhm: 0.06, typOhm: null, idA: null },
     ]);
     expect(converted).toEqual([
-      { vgsV: 4.5, ohms: 0.05 },
-      { vgsV: 10, ohms: 0.06 / 1.5 }, // domain.md §4: RDS(on)(Tj) = RDS25·(1 + 0.005·100)
+      { vgsV: 4.5, ohms: 0.05, testCurrentA: null },
+      { vgsV: 10, ohms: 0.06 / 1.5, testCurrentA: null }, // docs/engineering.md §5.6: RDS(on)(Tj) = RDS25·(1 + 0.005·100)
     ]);
   });
 

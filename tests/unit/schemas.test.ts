@@ -35,8 +35,11 @@ describe('valid bodies', () => {
     const parsed = parseCalcBody(calcSwitchRequestSchema, SWITCH_BODY);
     if (!parsed.ok) throw new Error('expected valid');
     const r = calcSwitch(parsed.data);
-    expect(Object.keys(r).sort()).toEqual(['checks', 'conductionLossW', 'gateDrivePowerW', 'junctionC', 'rdsOnAtDriveOhms', 'switchingLossW', 'verdict']);
-    expect(r.verdict).toBe('pass');
+    // api-contract.md fields, plus the jam figures of its "Extensions"
+    expect(Object.keys(r).sort()).toEqual(['checks', 'conductionLossW', 'gateDrivePowerW', 'junctionC', 'rdsOnAtDriveOhms', 'stallCurrentRmsA', 'stallJunctionC', 'switchingLossW', 'verdict']);
+    // api-contract.md "Extensions": no stall protection given → a 3 A steady jam, which this SOT-23-class part cannot hold
+    expect(r.verdict).toBe('fail');
+    expect(r.checks.filter((c) => !c.ok).map((c) => c.id)).toEqual(['stall-thermal']);
   });
 
   it('switch: optional fields may be left out (plain on/off)', () => {

@@ -8,18 +8,36 @@ function contractExample(): SwitchEvaluationInput {
 }
 
 type Patch = { mosfet?: Partial<SwitchEvaluationInput['mosfet']>; operating?: Partial<SwitchEvaluationInput['operating']> };
+/**
+ * The contract example with a 1 A stall current limit, so each row below isolates one failure (without any
+ * protection the example's jam at 3 A fails stall-thermal: see the first describe).
+ */
 function withPatch(p: Patch): SwitchEvaluationInput {
   const base = contractExample();
-  return { ...base, mosfet: { ...base.mosfet, ...p.mosfet }, operating: { ...base.operating, ...p.operating } };
+  return { ...base, mosfet: { ...base.mosfet, ...p.mosfet }, operating: { ...base.operating, stallProtection: { kind: 'current-limit', limitA: 1 }, ...p.operating } };
 }
 
 describe('contract example', () => {
   const r = evaluateSwitch(contractExample());
-  it('passes and carries the contract fields and check ids', () => {
-    expect(r.verdict).toBe('pass'); // api-contract.md example verdict
-    for (const id of ['drain-voltage', 'gate-voltage-rating', 'gate-drive', 'stall-current', 'running-current', 'junction-temperature']) {
-      expect(r.checks.map((c) => c.id)).toContain(id); // api-contract.md: required check ids
+  it('carries the contract fields and check ids, and fails only the sustained-stall check', () => {
+    for (const id of ['drain-voltage', 'gate-voltage-rating', 'gate-drive', 'stall-current', 'running-current', 'junction-temperature', 'stall-thermal']) {
+      expect(r.checks.map((c) => c.id)).toContain(id); // api-contract.md: required check ids (stall-thermal from "Extensions")
     }
+    // api-contract.md "Extensions": absent stall protection = a jam judged as a steady state at stallCurrentA (3 A)
+    expect(r.checks.filter((c) => !c.ok).map((c) => c.id)).toEqual(['stall-thermal']);
+    expect(r.verdict).toBe('fail');
+  });
+
+  it('re-derives the jam junction by fixed-point iteration (a second method beside the closed form)', () => {
+    const rds = 0.05 * Math.pow(0.035 / 0.05, 0.5 / 5.5); // log-space interpolation at 5 V (docs/engineering.md §5.3)
+    let tj = 40;
+    for (let k = 0; k < 20000; k += 1) tj = 40 + 250 * 9 * rds * (1 + 0.005 * (tj - 25)); // Tj = TA + Rθ·I²·RDS(Tj)
+    expect(r.stallJunctionC).toBeCloseTo(tj, 6);
+    expect(tj).toBeGreaterThan(290); // about 297 °C: far above Tj,max 150 °C
+  });
+
+  it('passes once a 1 A current limit holds the jam', () => {
+    expect(evaluateSwitch(withPatch({})).verdict).toBe('pass');
   });
 
   it('re-derives losses and junction independently', () => {
@@ -48,6 +66,10 @@ describe.each([
   ['junction between Tj,max − margin and Tj,max', { operating: { runningCurrentA: 1.6, pwmHz: undefined, duty: undefined, ambientC: 80 } }, 'junction-temperature', 'marginal'], // domain.md §4, 25 K practice
   ['slow edges from a weak pin under PWM', { operating: { gateDriveCurrentA: 0.0002 } }, 'switching-edges', 'fail'], // domain.md §4: flag slow edges
   ['P-channel on the low side', { mosfet: { channel: 'p' as const } }, 'channel', 'fail'], // low side needs N-channel
+  // docs/engineering.md §5.4: below the plateau the channel cannot carry the current, in on/off drive too
+  ['on/off drive below the Miller plateau', { mosfet: { rdsOn: [{ vgsV: 2.5, ohms: 0.08 }, { vgsV: 4.5, ohms: 0.05 }] }, operating: { gateDriveV: 2.55, pwmHz: undefined, duty: undefined } }, 'miller-plateau', 'fail'],
+  // docs/engineering.md §5.5 [judgement]: 3 V is within 1 V of VGS(th) max 2.5 V; the 2.5 V line measured at 0.3 A, worst case 1 A (the limit) > 2 × 0.3 A
+  ['worst current far above the RDS(on) test current near threshold', { mosfet: { vPlateauV: 2.7, rdsOn: [{ vgsV: 2.5, ohms: 0.08, testCurrentA: 0.3 }, { vgsV: 4.5, ohms: 0.05 }] }, operating: { gateDriveV: 3, gateDriveCurrentA: 0.2 } }, 'rdson-test-current', 'marginal'],
 ] as const)('%s', (_name, patch, id, verdict) => {
   it(`${id} fails and the verdict is ${verdict}`, () => {
     const r = evaluateSwitch(withPatch(patch as Patch));

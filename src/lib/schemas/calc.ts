@@ -55,7 +55,15 @@ export const calcPullResistorRequestSchema = z
   });
 export type CalcPullResistorRequest = z.infer<typeof calcPullResistorRequestSchema>;
 
-const rdsOnPointSchema = z.object({ vgsV: positive(), ohms: positive() });
+const rdsOnPointSchema = z.object({ vgsV: positive(), ohms: positive(), testCurrentA: positive().optional() });
+
+/** Extensions for a jammed motor [api-contract.md "Extensions"]: absent = no protection, full-on jam. */
+const stallProtectionSchema = z.discriminatedUnion('kind', [
+  z.object({ kind: z.literal('none') }),
+  z.object({ kind: z.literal('current-limit'), limitA: positive().max(1000) }),
+  z.object({ kind: z.literal('cut-off'), afterS: positive().max(3600) }),
+]);
+const zthPointSchema = z.object({ pulseS: positive().max(10_000), zthCPerW: positive().max(10_000) });
 
 export const calcSwitchRequestSchema = z.object({
   mosfet: z.object({
@@ -71,6 +79,7 @@ export const calcSwitchRequestSchema = z.object({
     vPlateauV: positive().optional(),
     rdsOn: z.array(rdsOnPointSchema).min(1).max(20),
     rdsOnTempCoeffPerC: z.number().min(0).max(0.05).optional(),
+    zthPoints: z.array(zthPointSchema).max(20).optional(),
   }),
   operating: z.object({
     supplyMaxV: positive(),
@@ -83,6 +92,8 @@ export const calcSwitchRequestSchema = z.object({
     duty: z.number().min(0).max(1).optional(),
     ambientC: z.number().min(-60).max(200),
     diodeForwardV: nonNegative(),
+    stallProtection: stallProtectionSchema.optional(),
+    stallDuty: z.number().min(0).max(1).optional(),
   }),
   margins: z
     .object({ voltageDerating: z.number().gt(0).max(1).optional(), thermalMarginC: nonNegative().optional() })
