@@ -22,6 +22,7 @@ import type { DiodeParams, DriverParams, MosfetParams, MotorParams, Part, PartSo
 import { demoDiodes, demoDrivers, demoMosfets } from '../db/seeds/data/index';
 import type { AnyDemoPart } from '../db/seeds/data/types';
 import { drawTextRuns, type FontPair, loadSourceSans, measureText } from '../src/server/reports/fonts';
+import { openInputOutput } from '../src/lib/driver-input';
 
 /** A part as stored (with id/version) or as seeded (without). */
 export type DatasheetPart = AnyDemoPart | Part;
@@ -315,9 +316,14 @@ function diodeSheet(p: DiodeParams): Sheet {
       ['VRRM', 'Repetitive peak reverse voltage', fmt(p.vrrmV), 'V'],
       ['IF(AV)', 'Average forward current', fmt(p.ifAvA), 'A'],
       ['IFSM', 'Non-repetitive surge current, single 10 ms half sine', fmt(p.ifsmA), 'A'],
-      ['Tj', 'Operating junction temperature', p.kind === 'schottky' ? '−55 to 125' : '−55 to 150', '°C'],
+      ...(p.ifrmA !== null ? [['IFRM', 'Repetitive peak forward current', fmt(p.ifrmA), 'A']] : []),
+      ['Tj', 'Operating junction temperature', `−55 to ${fmt(p.tjMaxC ?? (p.kind === 'schottky' ? 125 : 150))}`, '°C'],
     ],
-    electrical: [['VF', 'Forward voltage', `IF = ${fmt(p.vfAtIfA)} A, Tj = 25 °C`, '', '', fmt(p.vfV), 'V'], trrRow],
+    electrical: [
+      ['VF', 'Forward voltage', `IF = ${fmt(p.vfAtIfA)} A, Tj = 25 °C`, '', '', fmt(p.vfV), 'V'],
+      trrRow,
+      ...(p.rthJaCPerW !== null ? [['RθJA', 'Thermal resistance, junction to ambient', 'minimal-pad test board', '', fmt(p.rthJaCPerW), '', 'K/W']] : []),
+    ],
     notes: [
       'As a motor freewheel diode: cathode to the positive supply, anode to the switched motor terminal.',
       p.trrNs === null
@@ -334,7 +340,9 @@ function driverSheet(p: DriverParams): Sheet {
       : p.inputLogic === 'ratio'
         ? { vih: `${fmt(p.inputHighMin)} × VDD`, vil: `${fmt(p.inputLowMax)} × VDD`, cond: 'referred to the driver supply VDD', unit: '' }
         : { vih: `${fmt(p.inputHighMin)} × VL`, vil: `${fmt(p.inputLowMax)} × VL`, cond: 'referred to the logic-side rail VL', unit: '' };
-  const outOpen = p.inputPull === 'none' ? 'undefined (no input pull)' : (p.inputPull === 'up') !== p.inverting ? 'HIGH' : 'LOW';
+  const outOpen = { undefined: 'undefined (no input pull)', high: 'HIGH', low: 'LOW' }[openInputOutput(p.inputPull, p.inverting)];
+  const pullName = p.inputPull === 'up' ? 'pull-up to the input supply' : 'pull-down to GND';
+  const pullText = p.inputPull === 'none' ? 'none (the input floats when open)' : `internal ${pullName}${p.inputPullOhms !== null ? `, ${fmt(p.inputPullOhms / 1000)} kΩ typ.` : ''}`;
   const kind = p.kind === 'gate-driver' ? 'low-side gate driver' : 'level shifter';
   return {
     subtitle: `${p.channels === 1 ? 'Single' : p.channels === 2 ? 'Dual' : `${p.channels}-channel`} ${p.inverting ? 'inverting' : 'non-inverting'} ${kind}, ${fmt(p.supplyMinV)} V to ${fmt(p.supplyMaxV)} V`,
@@ -343,6 +351,7 @@ function driverSheet(p: DriverParams): Sheet {
       `Peak output current ${amps(p.sourceCurrentA)} source, ${amps(p.sinkCurrentA)} sink`,
       `Input threshold: high from ${inputs.vih}${inputs.unit ? ' V' : ''}, low up to ${inputs.vil}${inputs.unit ? ' V' : ''} (${inputs.cond})`,
       `Propagation delay ${fmt(p.propagationDelayNs)} ns`,
+      `Input pull: ${pullText}`,
       `Output with input open: ${outOpen}`,
     ],
     absMax: [
@@ -357,6 +366,9 @@ function driverSheet(p: DriverParams): Sheet {
       ['VOH', 'Output high voltage', `IO = ${amps(p.sourceCurrentA)} source`, `VDD − ${fmt(p.outputHighDropV)}`, '', '', 'V'],
       ['VOL', 'Output low voltage', `IO = ${amps(p.sinkCurrentA)} sink`, '', '', fmt(p.outputLowMaxV), 'V'],
       ['tpd', 'Propagation delay', 'CL = 1 nF, 50 % to 50 %', '', fmt(p.propagationDelayNs), '', 'ns'],
+      ...(p.inputPull !== 'none' && p.inputPullOhms !== null
+        ? [[p.inputPull === 'up' ? 'RPU' : 'RPD', `Input ${pullName.replace(' to the input supply', '').replace(' to GND', '')} resistance`, p.inputPull === 'up' ? 'input to its supply' : 'input to GND', '', fmt(p.inputPullOhms / 1000), '', 'kΩ']]
+        : []),
     ],
     drawing: (w, y) => {
       y = sectionTitle(w, 'Logic table', y);

@@ -6,7 +6,7 @@ import { demoDesigns } from '../../db/seeds/designs.ts';
 const db = scratchDb();
 afterAll(() => db.destroy());
 
-const TABLES = ['users', 'user_roles', 'parts', 'mosfet_params', 'mosfet_rds_on_points', 'driver_params',
+const TABLES = ['users', 'user_roles', 'parts', 'mosfet_params', 'mosfet_rds_on_points', 'mosfet_zth_points', 'driver_params',
   'diode_params', 'motor_params', 'part_sources', 'part_price_breaks', 'designs', 'design_revisions', 'design_parts'];
 
 async function counts(): Promise<Record<string, number>> {

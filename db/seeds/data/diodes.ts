@@ -2,6 +2,10 @@
  * Invented demo freewheel diodes (Kestrel Fluidics scenario). All names are fictional.
  * Part numbers: OR + kind letter (S Schottky, U ultrafast, F fast, G general) + IF(AV)×10 + '-' + VRRM + '-' + package code.
  * Schottky parts have trrNs null (no stored charge); general-purpose rectifiers recover in microseconds.
+ * Thermal data (invented, typical of the package on a minimal-pad test board): RθJA about 380 K/W for
+ * SOD-323, 170–180 for SOD-123, 80–95 for SMA, 55–60 for SMB, 60–75 for DO-41, 35–40 for DO-201AD;
+ * Tj,max 125–150 °C for Schottky parts, 150–175 °C for the others. IFRM is given where such a
+ * datasheet would state one; the other parts leave it null (the checks then use IF(AV) by rule of thumb).
  *
  * Generated once and then kept as plain data; edit freely.
  */
@@ -17,7 +21,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'schottky', vrrmV: 30, ifAvA: 0.5, ifsmA: 5, vfV: 0.47, vfAtIfA: 0.5, trrNs: null, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
+    params: { kind: 'schottky', vrrmV: 30, ifAvA: 0.5, ifsmA: 5, vfV: 0.47, vfAtIfA: 0.5, trrNs: null, ifrmA: null, rthJaCPerW: 380, tjMaxC: 125 },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -59,7 +63,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'schottky', vrrmV: 20, ifAvA: 1, ifsmA: 25, vfV: 0.4, vfAtIfA: 1, trrNs: null, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
+    params: { kind: 'schottky', vrrmV: 20, ifAvA: 1, ifsmA: 25, vfV: 0.4, vfAtIfA: 1, trrNs: null, ifrmA: null, rthJaCPerW: 180, tjMaxC: 125 },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -101,7 +105,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'schottky', vrrmV: 40, ifAvA: 1, ifsmA: 25, vfV: 0.52, vfAtIfA: 1, trrNs: null, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
+    params: { kind: 'schottky', vrrmV: 40, ifAvA: 1, ifsmA: 25, vfV: 0.52, vfAtIfA: 1, trrNs: null, ifrmA: 3, rthJaCPerW: 170, tjMaxC: 150 },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -142,7 +146,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'schottky', vrrmV: 40, ifAvA: 2, ifsmA: 50, vfV: 0.5, vfAtIfA: 2, trrNs: null, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
+    params: { kind: 'schottky', vrrmV: 40, ifAvA: 2, ifsmA: 50, vfV: 0.5, vfAtIfA: 2, trrNs: null, ifrmA: null, rthJaCPerW: 85, tjMaxC: 150 },
     sources: [
       {
         distributor: 'Kelderhaus Bauteile',
@@ -170,7 +174,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'schottky', vrrmV: 40, ifAvA: 3, ifsmA: 80, vfV: 0.5, vfAtIfA: 3, trrNs: null, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
+    params: { kind: 'schottky', vrrmV: 40, ifAvA: 3, ifsmA: 80, vfV: 0.5, vfAtIfA: 3, trrNs: null, ifrmA: 6, rthJaCPerW: 60, tjMaxC: 150 },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -211,7 +215,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'schottky', vrrmV: 60, ifAvA: 2, ifsmA: 50, vfV: 0.68, vfAtIfA: 2, trrNs: null, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
+    params: { kind: 'schottky', vrrmV: 60, ifAvA: 2, ifsmA: 50, vfV: 0.68, vfAtIfA: 2, trrNs: null, ifrmA: null, rthJaCPerW: 90, tjMaxC: 150 },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -252,7 +256,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'schottky', vrrmV: 100, ifAvA: 1, ifsmA: 30, vfV: 0.8, vfAtIfA: 1, trrNs: null, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
+    params: { kind: 'schottky', vrrmV: 100, ifAvA: 1, ifsmA: 30, vfV: 0.8, vfAtIfA: 1, trrNs: null, ifrmA: null, rthJaCPerW: 95, tjMaxC: 150 },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -308,7 +312,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'schottky', vrrmV: 100, ifAvA: 3, ifsmA: 80, vfV: 0.82, vfAtIfA: 3, trrNs: null, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
+    params: { kind: 'schottky', vrrmV: 100, ifAvA: 3, ifsmA: 80, vfV: 0.82, vfAtIfA: 3, trrNs: null, ifrmA: 6, rthJaCPerW: 55, tjMaxC: 150 },
     sources: [
       {
         distributor: 'Kelderhaus Bauteile',
@@ -336,7 +340,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'pending',
-    params: { kind: 'schottky', vrrmV: 45, ifAvA: 5, ifsmA: 150, vfV: 0.55, vfAtIfA: 5, trrNs: null, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
+    params: { kind: 'schottky', vrrmV: 45, ifAvA: 5, ifsmA: 150, vfV: 0.55, vfAtIfA: 5, trrNs: null, ifrmA: 10, rthJaCPerW: 40, tjMaxC: 150 },
     sources: [
       {
         distributor: 'Ashdown Component Supply',
@@ -363,7 +367,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'ultrafast', vrrmV: 200, ifAvA: 1, ifsmA: 30, vfV: 0.95, vfAtIfA: 1, trrNs: 35, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
+    params: { kind: 'ultrafast', vrrmV: 200, ifAvA: 1, ifsmA: 30, vfV: 0.95, vfAtIfA: 1, trrNs: 35, ifrmA: null, rthJaCPerW: 80, tjMaxC: 175 },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -420,7 +424,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'ultrafast', vrrmV: 200, ifAvA: 2, ifsmA: 50, vfV: 0.98, vfAtIfA: 2, trrNs: 25, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
+    params: { kind: 'ultrafast', vrrmV: 200, ifAvA: 2, ifsmA: 50, vfV: 0.98, vfAtIfA: 2, trrNs: 25, ifrmA: 5, rthJaCPerW: 55, tjMaxC: 175 },
     sources: [
       {
         distributor: 'Kelderhaus Bauteile',
@@ -448,7 +452,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'ultrafast', vrrmV: 400, ifAvA: 2, ifsmA: 40, vfV: 1.25, vfAtIfA: 2, trrNs: 50, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
+    params: { kind: 'ultrafast', vrrmV: 400, ifAvA: 2, ifsmA: 40, vfV: 1.25, vfAtIfA: 2, trrNs: 50, ifrmA: 5, rthJaCPerW: 60, tjMaxC: 175 },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -476,7 +480,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'ultrafast', vrrmV: 600, ifAvA: 1, ifsmA: 30, vfV: 1.7, vfAtIfA: 1, trrNs: 75, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
+    params: { kind: 'ultrafast', vrrmV: 600, ifAvA: 1, ifsmA: 30, vfV: 1.7, vfAtIfA: 1, trrNs: 75, ifrmA: null, rthJaCPerW: 75, tjMaxC: 150 },
     sources: [
       {
         distributor: 'Ashdown Component Supply',
@@ -517,7 +521,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'fast', vrrmV: 200, ifAvA: 1.5, ifsmA: 40, vfV: 1.2, vfAtIfA: 1.5, trrNs: 150, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
+    params: { kind: 'fast', vrrmV: 200, ifAvA: 1.5, ifsmA: 40, vfV: 1.2, vfAtIfA: 1.5, trrNs: 150, ifrmA: null, rthJaCPerW: 85, tjMaxC: 150 },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -574,7 +578,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'fast', vrrmV: 400, ifAvA: 1, ifsmA: 30, vfV: 1.3, vfAtIfA: 1, trrNs: 250, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
+    params: { kind: 'fast', vrrmV: 400, ifAvA: 1, ifsmA: 30, vfV: 1.3, vfAtIfA: 1, trrNs: 250, ifrmA: null, rthJaCPerW: 70, tjMaxC: 150 },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -631,7 +635,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'nrnd',
     lifecycleEffectiveDate: '2025-09-30',
     reviewStatus: 'approved',
-    params: { kind: 'fast', vrrmV: 800, ifAvA: 1, ifsmA: 30, vfV: 1.3, vfAtIfA: 1, trrNs: 500, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
+    params: { kind: 'fast', vrrmV: 800, ifAvA: 1, ifsmA: 30, vfV: 1.3, vfAtIfA: 1, trrNs: 500, ifrmA: null, rthJaCPerW: 70, tjMaxC: 150 },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -659,7 +663,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'obsolete',
     lifecycleEffectiveDate: '2023-09-30',
     reviewStatus: 'approved',
-    params: { kind: 'general', vrrmV: 50, ifAvA: 1, ifsmA: 30, vfV: 1.1, vfAtIfA: 1, trrNs: 2000, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
+    params: { kind: 'general', vrrmV: 50, ifAvA: 1, ifsmA: 30, vfV: 1.1, vfAtIfA: 1, trrNs: 2000, ifrmA: 10, rthJaCPerW: 60, tjMaxC: 175 },
     sources: [
       {
         distributor: 'Ashdown Component Supply',
@@ -685,7 +689,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'general', vrrmV: 400, ifAvA: 1, ifsmA: 30, vfV: 1.1, vfAtIfA: 1, trrNs: 3000, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
+    params: { kind: 'general', vrrmV: 400, ifAvA: 1, ifsmA: 30, vfV: 1.1, vfAtIfA: 1, trrNs: 3000, ifrmA: 10, rthJaCPerW: 60, tjMaxC: 175 },
     sources: [
       {
         distributor: 'Ashdown Component Supply',
@@ -712,7 +716,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'general', vrrmV: 1000, ifAvA: 1, ifsmA: 30, vfV: 1.1, vfAtIfA: 1, trrNs: 30000, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
+    params: { kind: 'general', vrrmV: 1000, ifAvA: 1, ifsmA: 30, vfV: 1.1, vfAtIfA: 1, trrNs: 30000, ifrmA: null, rthJaCPerW: 60, tjMaxC: 175 },
     sources: [
       {
         distributor: 'Ashdown Component Supply',
@@ -739,7 +743,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'general', vrrmV: 600, ifAvA: 1, ifsmA: 30, vfV: 1.1, vfAtIfA: 1, trrNs: 2500, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
+    params: { kind: 'general', vrrmV: 600, ifAvA: 1, ifsmA: 30, vfV: 1.1, vfAtIfA: 1, trrNs: 2500, ifrmA: null, rthJaCPerW: 85, tjMaxC: 150 },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -780,7 +784,7 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'general', vrrmV: 200, ifAvA: 3, ifsmA: 150, vfV: 1.2, vfAtIfA: 3, trrNs: 3000, ifrmA: null, rthJaCPerW: null, tjMaxC: null },
+    params: { kind: 'general', vrrmV: 200, ifAvA: 3, ifsmA: 150, vfV: 1.2, vfAtIfA: 3, trrNs: 3000, ifrmA: 20, rthJaCPerW: 35, tjMaxC: 175 },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',

@@ -6,6 +6,10 @@
  * 'input-rail' (dual-supply translators, thresholds a fraction of the logic-side rail).
  * Polarity traps: the inverting parts (PLR1IT15-S5, PLR2IT30-SO8, PLR1IT40-DF6, MQL1V-S5) hold their
  * outputs high while the input is open or low, which switches a low-side MOSFET on at reset.
+ * Input structure: inputPull is what the datasheet says the input pin has (up, down or none) and
+ * inputPullOhms its typical value (invented, 100–300 kΩ); the output with an open input follows from
+ * the pull and `inverting`. PLR1NC10-S5, PLR2NC20-SO8 and the MQL1A-S6 / MQL2A-S8 translators have no
+ * input pull, so an open input floats. Each part notes beside inputPull what its description implies.
  *
  * Generated once and then kept as plain data; edit freely.
  */
@@ -35,8 +39,9 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 1.5,
       sinkCurrentA: 1.5,
       propagationDelayNs: 25,
+      // description: output low while the input is open, non-inverting → input pulled down
       inputPull: 'down',
-      inputPullOhms: null,
+      inputPullOhms: 150_000,
     },
     sources: [
       {
@@ -73,7 +78,7 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Pellinor Analog',
     mpn: 'PLR1IT15-S5',
-    description: 'Inverting version of PLR1NT15-S5; with its input pulled down the output sits high, which turns a low-side switch on at reset.',
+    description: 'Inverting version of PLR1NT15-S5; its input has the same internal pull-down, so with the input open the output sits high, which turns a low-side switch on at reset.',
     package: 'SOT-23-5',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -92,8 +97,9 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 1.5,
       sinkCurrentA: 1.5,
       propagationDelayNs: 25,
+      // description: input pulled down, inverting → output high while the input is open (switch on at reset)
       inputPull: 'down',
-      inputPullOhms: null,
+      inputPullOhms: 150_000,
     },
     sources: [
       {
@@ -146,7 +152,7 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Pellinor Analog',
     mpn: 'PLR2NT30-SO8',
-    description: 'Dual non-inverting 3 A low-side gate driver with TTL-level inputs, for two pump channels or paralleled outputs.',
+    description: 'Dual non-inverting 3 A low-side gate driver with TTL-level inputs and internal input pull-downs that hold both outputs low while the inputs are open, for two pump channels or paralleled outputs.',
     package: 'SOIC-8',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -165,8 +171,9 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 3,
       sinkCurrentA: 3,
       propagationDelayNs: 30,
+      // description: both outputs low while the inputs are open, non-inverting → inputs pulled down
       inputPull: 'down',
-      inputPullOhms: null,
+      inputPullOhms: 100_000,
     },
     sources: [
       {
@@ -238,8 +245,9 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 3,
       sinkCurrentA: 3,
       propagationDelayNs: 30,
+      // description: inputs pulled down, inverting → both outputs high while the inputs are open
       inputPull: 'down',
-      inputPullOhms: null,
+      inputPullOhms: 100_000,
     },
     sources: [
       {
@@ -263,7 +271,7 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Pellinor Analog',
     mpn: 'PLR1NT40-DF6',
-    description: 'Fast 4 A single gate driver for 10 V to 20 V supplies, sized for large-gate TO-220 and DPAK switches.',
+    description: 'Fast 4 A single gate driver for 10 V to 20 V supplies, sized for large-gate TO-220 and DPAK switches; an internal input pull-down keeps the output low while the input is open.',
     package: 'DFN2020-6',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -282,8 +290,9 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 4,
       sinkCurrentA: 4,
       propagationDelayNs: 18,
+      // description: output low while the input is open, non-inverting → input pulled down
       inputPull: 'down',
-      inputPullOhms: null,
+      inputPullOhms: 200_000,
     },
     sources: [
       {
@@ -307,7 +316,7 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Pellinor Analog',
     mpn: 'PLR1IT40-DF6',
-    description: 'Inverting counterpart of PLR1NT40-DF6 for 10 V to 20 V supplies; output defaults high with the input open.',
+    description: 'Inverting counterpart of PLR1NT40-DF6 for 10 V to 20 V supplies; the same internal input pull-down makes the output default high with the input open.',
     package: 'DFN2020-6',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -326,8 +335,9 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 4,
       sinkCurrentA: 4,
       propagationDelayNs: 18,
+      // description: output high while the input is open, inverting → input pulled down (as on PLR1NT40-DF6)
       inputPull: 'down',
-      inputPullOhms: null,
+      inputPullOhms: 200_000,
     },
     sources: [
       {
@@ -364,7 +374,7 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Pellinor Analog',
     mpn: 'PLR1NC10-S5',
-    description: 'Single gate driver whose input thresholds scale with its own supply, so 3.3 V logic cannot drive it when it runs from 5 V or more.',
+    description: 'Single gate driver whose input thresholds scale with its own supply, so 3.3 V logic cannot drive it when it runs from 5 V or more; the input has no internal pull and floats when left open.',
     package: 'SOT-23-5',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -383,6 +393,7 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 1,
       sinkCurrentA: 1,
       propagationDelayNs: 40,
+      // description: no input pull stated → an open input floats and the output is undefined
       inputPull: 'none',
       inputPullOhms: null,
     },
@@ -456,6 +467,7 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 2,
       sinkCurrentA: 2,
       propagationDelayNs: 45,
+      // description: no input pulls → open inputs float and the outputs are undefined
       inputPull: 'none',
       inputPullOhms: null,
     },
@@ -508,7 +520,7 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Pellinor Analog',
     mpn: 'PLR1NL20-S6',
-    description: 'Single gate driver with a low-voltage input stage that accepts 1.8 V logic and drives the gate to its full supply.',
+    description: 'Single gate driver with a low-voltage input stage that accepts 1.8 V logic and drives the gate to its full supply; an internal input pull-down holds the output low at reset.',
     package: 'SOT-23-6',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -527,8 +539,9 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 2,
       sinkCurrentA: 2.5,
       propagationDelayNs: 35,
+      // description: output low while the input is open, non-inverting → input pulled down
       inputPull: 'down',
-      inputPullOhms: null,
+      inputPullOhms: 120_000,
     },
     sources: [
       {
@@ -566,7 +579,7 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Pellinor Analog',
     mpn: 'PLR1NT06-S5',
-    description: 'Compact 0.6 A gate driver for 3 V to 5 V rails, lifting a 3.3 V pin to a full 5 V gate swing.',
+    description: 'Compact 0.6 A gate driver for 3 V to 5 V rails, lifting a 3.3 V pin to a full 5 V gate swing; an internal input pull-down keeps the output low while the input is open.',
     package: 'SOT-23-5',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -585,8 +598,9 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 0.6,
       sinkCurrentA: 0.6,
       propagationDelayNs: 20,
+      // description: output low while the input is open, non-inverting → input pulled down
       inputPull: 'down',
-      inputPullOhms: null,
+      inputPullOhms: 150_000,
     },
     sources: [
       {
@@ -609,7 +623,7 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Pellinor Analog',
     mpn: 'PLR1NC05-S5',
-    description: 'Small buffer-style gate driver for 3 V to 5 V rails with supply-referenced thresholds; fine from 3.3 V logic only on a 3.3 V supply.',
+    description: 'Small buffer-style gate driver for 3 V to 5 V rails with supply-referenced thresholds and an internal input pull-down; fine from 3.3 V logic only on a 3.3 V supply.',
     package: 'SC-70-5',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -628,8 +642,9 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 0.5,
       sinkCurrentA: 0.5,
       propagationDelayNs: 15,
+      // description: output low while the input is open, non-inverting → input pulled down
       inputPull: 'down',
-      inputPullOhms: null,
+      inputPullOhms: 200_000,
     },
     sources: [
       {
@@ -652,7 +667,7 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Pellinor Analog',
     mpn: 'PLR1NL40-DF6',
-    description: '4 A gate driver for 10 V to 20 V supplies whose input accepts 1.8 V logic, letting low-voltage controllers drive standard-level switches.',
+    description: '4 A gate driver for 10 V to 20 V supplies whose input accepts 1.8 V logic, letting low-voltage controllers drive standard-level switches; an internal input pull-down holds the output low at reset.',
     package: 'DFN2020-6',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -671,8 +686,9 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 4,
       sinkCurrentA: 4,
       propagationDelayNs: 22,
+      // description: output low while the input is open, non-inverting → input pulled down
       inputPull: 'down',
-      inputPullOhms: null,
+      inputPullOhms: 100_000,
     },
     sources: [
       {
@@ -694,7 +710,7 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Marrowfield Microelectronics',
     mpn: 'MQL1A-S6',
-    description: 'One-bit dual-supply translator: input thresholds follow the logic-side rail (1.65 V to 5.5 V), output swings to the second rail.',
+    description: 'One-bit dual-supply translator: input thresholds follow the logic-side rail (1.65 V to 5.5 V), output swings to the second rail; the input has no internal pull and must not be left open.',
     package: 'SOT-23-6',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -713,6 +729,7 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 0.05,
       sinkCurrentA: 0.05,
       propagationDelayNs: 15,
+      // description: no input pull → an open input floats and the output is undefined
       inputPull: 'none',
       inputPullOhms: null,
     },
@@ -766,7 +783,7 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Marrowfield Microelectronics',
     mpn: 'MQL2A-S8',
-    description: 'Two-bit dual-supply translator for lifting low-voltage logic to a 5 V gate-drive rail.',
+    description: 'Two-bit dual-supply translator for lifting low-voltage logic to a 5 V gate-drive rail; no internal input pulls, so an open input floats.',
     package: 'SOT-23-8',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -785,6 +802,7 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 0.05,
       sinkCurrentA: 0.05,
       propagationDelayNs: 18,
+      // description: no input pulls → open inputs float and the outputs are undefined
       inputPull: 'none',
       inputPullOhms: null,
     },
@@ -839,7 +857,7 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Marrowfield Microelectronics',
     mpn: 'MQL1H-S6',
-    description: 'High-voltage translator that takes logic referenced to a 1.2 V to 5.5 V rail and drives an output rail of 4.5 V to 18 V; modest drive current suits small gates.',
+    description: 'High-voltage translator that takes logic referenced to a 1.2 V to 5.5 V rail and drives an output rail of 4.5 V to 18 V; a weak internal input pull-down holds the output low at reset, and modest drive current suits small gates.',
     package: 'SOT-23-6',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -858,8 +876,9 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 0.2,
       sinkCurrentA: 0.4,
       propagationDelayNs: 120,
+      // description: output low while the input is open, non-inverting → input pulled down (weak)
       inputPull: 'down',
-      inputPullOhms: null,
+      inputPullOhms: 300_000,
     },
     sources: [
       {
@@ -911,7 +930,7 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Marrowfield Microelectronics',
     mpn: 'MQL1V-S5',
-    description: 'Simple inverting level shifter with a weak internal pull-up output; slow, and its output is high whenever the input is low or open.',
+    description: 'Simple inverting level shifter with an internal input pull-down and a weak pull-up output stage; slow, and its output is high whenever the input is low or open.',
     package: 'SOT-23-5',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -930,8 +949,9 @@ export const demoDrivers: DemoPart<'driver'>[] = [
       sourceCurrentA: 0.05,
       sinkCurrentA: 0.3,
       propagationDelayNs: 300,
+      // description: input pulled down, inverting → output high whenever the input is low or open
       inputPull: 'down',
-      inputPullOhms: null,
+      inputPullOhms: 100_000,
     },
     sources: [
       {

@@ -12,6 +12,10 @@
  * above it; the 20 V parts are tight for 12–14 V motors. MQN20T02-S32 has a pulsed rating barely above a
  * cold 6 V motor's stall current; obsolete MQN20T09-S32 is below it.
  * ID(TA) is the thermal limit √((Tj,max − 25)/(RθJA·RDS(on)(Tj,max))) on the test board.
+ * Single-pulse Zth(j-a) points (invented, as read off a datasheet curve, rising toward RθJA and never
+ * above it) on nine parts, one per package: MQN12T01-S32, MQN20T03-C6, MQN12T04-DF6, CWN30L01-S3,
+ * CWN40L06-S89, CWN30L07-SO8, TBV30N012-Q, TBV40N015-K and TBV55N018-T. The others have none ([]),
+ * so a timed cut-off is judged at steady state for them.
  *
  * Generated once and then kept as plain data; edit freely.
  */
@@ -44,7 +48,14 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 340,
       tjMaxC: 150,
       bodyDiodeVfV: 0.78,
-      zthPoints: [],
+      zthPoints: [
+        { pulseS: 0.001, zthCPerW: 8 },
+        { pulseS: 0.01, zthCPerW: 30 },
+        { pulseS: 0.1, zthCPerW: 92 },
+        { pulseS: 1, zthCPerW: 185 },
+        { pulseS: 10, zthCPerW: 285 },
+        { pulseS: 100, zthCPerW: 332 },
+      ],
       rdsOn: [
         { vgsV: 1.8, tjC: 25, maxOhm: 0.19, typOhm: 0.15, idA: 0.3 },
         { vgsV: 2.5, tjC: 25, maxOhm: 0.12, typOhm: 0.094, idA: 0.5 },
@@ -174,7 +185,14 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 280,
       tjMaxC: 150,
       bodyDiodeVfV: 0.82,
-      zthPoints: [],
+      zthPoints: [
+        { pulseS: 0.001, zthCPerW: 6.5 },
+        { pulseS: 0.01, zthCPerW: 23 },
+        { pulseS: 0.1, zthCPerW: 72 },
+        { pulseS: 1, zthCPerW: 150 },
+        { pulseS: 10, zthCPerW: 232 },
+        { pulseS: 100, zthCPerW: 272 },
+      ],
       rdsOn: [
         { vgsV: 1.8, tjC: 25, maxOhm: 0.075, typOhm: 0.058, idA: 1 },
         { vgsV: 2.5, tjC: 25, maxOhm: 0.052, typOhm: 0.041, idA: 1.5 },
@@ -240,7 +258,14 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 125,
       tjMaxC: 150,
       bodyDiodeVfV: 0.72,
-      zthPoints: [],
+      zthPoints: [
+        { pulseS: 0.001, zthCPerW: 3 },
+        { pulseS: 0.01, zthCPerW: 9.5 },
+        { pulseS: 0.1, zthCPerW: 29 },
+        { pulseS: 1, zthCPerW: 62 },
+        { pulseS: 10, zthCPerW: 101 },
+        { pulseS: 100, zthCPerW: 121 },
+      ],
       rdsOn: [
         { vgsV: 1.8, tjC: 25, maxOhm: 0.032, typOhm: 0.025, idA: 2 },
         { vgsV: 2.5, tjC: 25, maxOhm: 0.024, typOhm: 0.019, idA: 3 },
@@ -932,7 +957,14 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 250,
       tjMaxC: 150,
       bodyDiodeVfV: 0.8,
-      zthPoints: [],
+      zthPoints: [
+        { pulseS: 0.001, zthCPerW: 5 },
+        { pulseS: 0.01, zthCPerW: 19 },
+        { pulseS: 0.1, zthCPerW: 62 },
+        { pulseS: 1, zthCPerW: 135 },
+        { pulseS: 10, zthCPerW: 205 },
+        { pulseS: 100, zthCPerW: 243 },
+      ],
       rdsOn: [
         { vgsV: 4.5, tjC: 25, maxOhm: 0.048, typOhm: 0.037, idA: 2.5 },
         { vgsV: 10, tjC: 25, maxOhm: 0.034, typOhm: 0.027, idA: 3 },
@@ -1255,7 +1287,13 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 110,
       tjMaxC: 150,
       bodyDiodeVfV: 0.82,
-      zthPoints: [],
+      zthPoints: [
+        { pulseS: 0.001, zthCPerW: 2 },
+        { pulseS: 0.01, zthCPerW: 6.5 },
+        { pulseS: 0.1, zthCPerW: 21 },
+        { pulseS: 1, zthCPerW: 50 },
+        { pulseS: 10, zthCPerW: 88 },
+      ],
       rdsOn: [
         { vgsV: 4.5, tjC: 25, maxOhm: 0.06, typOhm: 0.047, idA: 2 },
         { vgsV: 10, tjC: 25, maxOhm: 0.045, typOhm: 0.035, idA: 3 },
@@ -1319,7 +1357,14 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 75,
       tjMaxC: 150,
       bodyDiodeVfV: 0.78,
-      zthPoints: [],
+      zthPoints: [
+        { pulseS: 0.001, zthCPerW: 1.2 },
+        { pulseS: 0.01, zthCPerW: 4 },
+        { pulseS: 0.1, zthCPerW: 13 },
+        { pulseS: 1, zthCPerW: 32 },
+        { pulseS: 10, zthCPerW: 57 },
+        { pulseS: 100, zthCPerW: 72 },
+      ],
       rdsOn: [
         { vgsV: 4.5, tjC: 25, maxOhm: 0.018, typOhm: 0.014, idA: 6 },
         { vgsV: 10, tjC: 25, maxOhm: 0.013, typOhm: 0.01, idA: 8 },
@@ -1562,7 +1607,14 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 60,
       tjMaxC: 150,
       bodyDiodeVfV: 0.8,
-      zthPoints: [],
+      zthPoints: [
+        { pulseS: 0.001, zthCPerW: 0.8 },
+        { pulseS: 0.01, zthCPerW: 2.6 },
+        { pulseS: 0.1, zthCPerW: 8.5 },
+        { pulseS: 1, zthCPerW: 23 },
+        { pulseS: 10, zthCPerW: 45 },
+        { pulseS: 100, zthCPerW: 57 },
+      ],
       rdsOn: [
         { vgsV: 4.5, tjC: 25, maxOhm: 0.0165, typOhm: 0.013, idA: 8 },
         { vgsV: 10, tjC: 25, maxOhm: 0.012, typOhm: 0.0094, idA: 10 },
@@ -1740,7 +1792,13 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 55,
       tjMaxC: 175,
       bodyDiodeVfV: 0.88,
-      zthPoints: [],
+      zthPoints: [
+        { pulseS: 0.001, zthCPerW: 0.35 },
+        { pulseS: 0.01, zthCPerW: 1.1 },
+        { pulseS: 0.1, zthCPerW: 4.2 },
+        { pulseS: 1, zthCPerW: 15 },
+        { pulseS: 100, zthCPerW: 52 },
+      ],
       rdsOn: [
         { vgsV: 4.5, tjC: 25, maxOhm: 0.02, typOhm: 0.016, idA: 15 },
         { vgsV: 10, tjC: 25, maxOhm: 0.015, typOhm: 0.012, idA: 20 },
@@ -2507,7 +2565,13 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
       rthJaCPerW: 62,
       tjMaxC: 175,
       bodyDiodeVfV: 0.92,
-      zthPoints: [],
+      zthPoints: [
+        { pulseS: 0.01, zthCPerW: 0.5 },
+        { pulseS: 0.1, zthCPerW: 2.6 },
+        { pulseS: 1, zthCPerW: 11 },
+        { pulseS: 10, zthCPerW: 36 },
+        { pulseS: 100, zthCPerW: 58 },
+      ],
       rdsOn: [{ vgsV: 10, tjC: 25, maxOhm: 0.018, typOhm: 0.014, idA: 25 }],
     },
     sources: [

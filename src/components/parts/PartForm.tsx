@@ -6,7 +6,8 @@ import { useMemo, useState } from 'react';
 import type { Part, PartCategory } from '../../lib/domain/parts.ts';
 import { partInputSchema, partUpdateSchema } from '../../lib/schemas/parts.ts';
 import { CATEGORY_LABELS } from '../../lib/part-summary.ts';
-import { PARAM_FIELDS, RDS_FIELDS, parseTyped, showTyped, type FormField } from './form-fields.ts';
+import { openInputSentence } from '../../lib/driver-input.ts';
+import { PARAM_FIELDS, RDS_FIELDS, ZTH_PULSE_FIELDS, ZTH_VALUE_FIELD, parseTyped, showTyped, type FormField } from './form-fields.ts';
 import { sendJson, type ApiIssue } from './api.ts';
 
 interface Props {
@@ -19,7 +20,15 @@ interface Props {
 type Text = Record<string, string>;
 interface SourceText { distributor: string; sku: string; moq: string; leadTimeDays: string; stockQty: string; currency: string; priceBreaks: string }
 
+interface ZthText { pulse: string; unit: 'ms' | 's'; zth: string }
+
 const emptyRds = (): Text => ({ vgsV: '', tjC: '25', idA: '', maxOhm: '', typOhm: '' });
+const emptyZth = (): ZthText => ({ pulse: '', unit: 'ms', zth: '' });
+/** Pulses under a second are shown in ms, longer ones in s (as datasheet curves are labelled). */
+const zthText = (z: { pulseS: number; zthCPerW: number }): ZthText => {
+  const unit = z.pulseS < 1 ? 'ms' : 's';
+  return { pulse: showTyped(ZTH_PULSE_FIELDS[unit], z.pulseS), unit, zth: showTyped(ZTH_VALUE_FIELD, z.zthCPerW) };
+};
 const emptySource = (): SourceText => ({ distributor: '', sku: '', moq: '1', leadTimeDays: '0', stockQty: '0', currency: 'USD', priceBreaks: '' });
 
 function paramsText(part: Part | null, category: PartCategory): Text {
@@ -37,6 +46,7 @@ export default function PartForm({ part, initialCategory, isCurator }: Props) {
   });
   const [params, setParams] = useState<Text>(() => paramsText(part, category));
   const [rds, setRds] = useState<Text[]>(() => (part?.category === 'mosfet' ? part.params.rdsOn.map((r) => Object.fromEntries(RDS_FIELDS.map((f) => [f.key, showTyped(f, (r as unknown as Record<string, unknown>)[f.key])]))) : [emptyRds()]));
+  const [zth, setZth] = useState<ZthText[]>(() => (part?.category === 'mosfet' ? part.params.zthPoints.map(zthText) : []));
   const [sources, setSources] = useState<SourceText[]>(() => (part?.sources ?? []).map((s) => ({
     distributor: s.distributor, sku: s.sku, moq: String(s.moq), leadTimeDays: String(s.leadTimeDays), stockQty: String(s.stockQty), currency: s.currency,
     priceBreaks: s.priceBreaks.map((b) => `${b.qty}:${b.unitPrice}`).join('; '),
@@ -57,6 +67,7 @@ export default function PartForm({ part, initialCategory, isCurator }: Props) {
       else p[f.key] = parseTyped(f, typed);
     }
     if (category === 'mosfet') p.rdsOn = rds.map((r) => Object.fromEntries(RDS_FIELDS.map((f) => [f.key, parseTyped(f, r[f.key] ?? '')])));
+    if (category === 'mosfet') p.zthPoints = zth.map((z) => ({ pulseS: parseTyped(ZTH_PULSE_FIELDS[z.unit], z.pulse), zthCPerW: parseTyped(ZTH_VALUE_FIELD, z.zth) }));
     const body: Record<string, unknown> = {
       category, manufacturer: head.manufacturer, mpn: head.mpn, description: head.description, package: head.package,
       lifecycle: head.lifecycle, lifecycleEffectiveDate: head.lifecycleEffectiveDate || null, params: p,
@@ -167,6 +178,11 @@ export default function PartForm({ part, initialCategory, isCurator }: Props) {
       <fieldset className="card p-3 grid gap-3 md:grid-cols-4" data-testid="param-fields">
         <legend className="px-1 font-semibold">{CATEGORY_LABELS[category].one} parameters</legend>
         {fields.map((f) => input(f, params[f.key] ?? '', (v) => setParams((p) => ({ ...p, [f.key]: v })), `params.${f.key}`))}
+        {category === 'driver' && (params.inputPull === 'up' || params.inputPull === 'down' || params.inputPull === 'none') && (
+          <p className="md:col-span-4 text-sm" data-testid="open-input-hint" aria-live="polite">
+            <span aria-hidden="true">→ </span>{openInputSentence(params.inputPull, params.inverting === 'true')}
+          </p>
+        )}
       </fieldset>
 
       {category === 'mosfet' && (
@@ -180,6 +196,31 @@ export default function PartForm({ part, initialCategory, isCurator }: Props) {
             </div>
           ))}
           <div><button type="button" className="btn btn-quiet text-sm" onClick={() => setRds((list) => [...list, emptyRds()])}>+ Add an RDS(on) line</button></div>
+        </fieldset>
+      )}
+
+      {category === 'mosfet' && (
+        <fieldset className="card p-3 grid gap-2" data-testid="zth-fields">
+          <legend className="px-1 font-semibold">Transient thermal impedance (single pulse)</legend>
+          <p className="text-sm text-ink-soft">Optional. Points read off the datasheet's single-pulse Zth(j-a) curve, shortest pulse first; each Zth at most RθJA. Used to judge a timed stall cut-off.</p>
+          {err('params.zthPoints') && <span className="field-error"><span aria-hidden="true">✕ </span>{err('params.zthPoints')}</span>}
+          {zth.length === 0 && <p className="text-sm text-ink-soft">No Zth points: a stall is judged at steady state.</p>}
+          {zth.map((z, i) => {
+            const set = (change: Partial<ZthText>) => setZth((list) => list.map((x, j) => (j === i ? { ...x, ...change } : x)));
+            return (
+              <div key={i} className="grid gap-2 grid-cols-2 md:grid-cols-6 items-end">
+                {input(ZTH_PULSE_FIELDS[z.unit], z.pulse, (v) => set({ pulse: v }), `params.zthPoints.${i}.pulseS`)}
+                <label className="field">Unit
+                  <select name={`params.zthPoints.${i}.unit`} value={z.unit} onChange={(e) => set({ unit: e.target.value as 'ms' | 's' })}>
+                    <option value="ms">ms</option><option value="s">s</option>
+                  </select>
+                </label>
+                {input(ZTH_VALUE_FIELD, z.zth, (v) => set({ zth: v }), `params.zthPoints.${i}.zthCPerW`)}
+                <button type="button" className="btn btn-quiet text-sm" onClick={() => setZth((list) => list.filter((_, j) => j !== i))}>Remove point</button>
+              </div>
+            );
+          })}
+          <div><button type="button" className="btn btn-quiet text-sm" onClick={() => setZth((list) => [...list, emptyZth()])} disabled={zth.length >= 12}>+ Add a Zth point</button></div>
         </fieldset>
       )}
 

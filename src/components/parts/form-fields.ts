@@ -50,9 +50,12 @@ export const PARAM_FIELDS: Record<PartCategory, FormField[]> = {
     num('sourceCurrentA', 'Peak source current', 'A'),
     num('sinkCurrentA', 'Peak sink current', 'A'),
     num('propagationDelayNs', 'Propagation delay', 'ns'),
-    { key: 'inputDefault', label: 'Output with input open', kind: 'select', options: [
-      { value: 'low', label: 'As input low' }, { value: 'high', label: 'As input high' }, { value: 'floating', label: 'Undefined (input floats)' },
+    // The INPUT pin's own pull as the datasheet draws it, never the output state: the output with an
+    // open input is derived from this and "Inverting output" (the form shows it as a hint).
+    { key: 'inputPull', label: 'Internal input pull (on the input pin)', kind: 'select', hint: 'as the datasheet states the input structure, not what the output does', options: [
+      { value: 'down', label: 'Pull-down on the input (to ground)' }, { value: 'up', label: 'Pull-up on the input (to its supply)' }, { value: 'none', label: 'None: an open input floats' },
     ] },
+    num('inputPullOhms', 'Input pull resistance', 'kΩ', { scale: 1e3, optional: true, hint: 'typical value; leave empty when the datasheet does not state it' }),
   ],
   diode: [
     { key: 'kind', label: 'Kind', kind: 'select', options: [
@@ -64,6 +67,9 @@ export const PARAM_FIELDS: Record<PartCategory, FormField[]> = {
     num('vfV', 'VF max', 'V'),
     num('vfAtIfA', 'VF test current', 'A'),
     num('trrNs', 'trr', 'ns', { optional: true, hint: 'leave empty for Schottky parts' }),
+    num('ifrmA', 'IFRM repetitive peak', 'A', { optional: true }),
+    num('rthJaCPerW', 'RθJA', 'K/W', { optional: true, hint: 'junction to ambient, datasheet test board' }),
+    num('tjMaxC', 'Tj max', '°C', { optional: true }),
   ],
   motor: [
     num('ratedVoltageV', 'Rated voltage', 'V'),
@@ -86,6 +92,13 @@ export const RDS_FIELDS: FormField[] = [
   num('maxOhm', 'Max', 'mΩ', { scale: 1e-3 }),
   num('typOhm', 'Typ', 'mΩ', { scale: 1e-3, optional: true }),
 ];
+
+/** One Zth point of the form: pulse length typed in the row's unit (ms or s), Zth in K/W. */
+export const ZTH_PULSE_FIELDS: Record<'ms' | 's', FormField> = {
+  ms: num('pulseS', 'Pulse length', 'ms', { scale: 1e-3 }),
+  s: num('pulseS', 'Pulse length', 's'),
+};
+export const ZTH_VALUE_FIELD: FormField = num('zthCPerW', 'Zth(j-a)', 'K/W');
 
 /** Typed text → SI number (undefined when empty, NaN kept so the schema names the field). */
 export function parseTyped(field: FormField, typed: string): number | null | undefined {

@@ -1,5 +1,6 @@
 /** Every parameter of a part as label, value, unit and the test condition it was stated at. */
-import type { Part } from '../../lib/domain/parts.ts';
+import type { Part, ZthPoint } from '../../lib/domain/parts.ts';
+import { openInputOutput } from '../../lib/driver-input.ts';
 
 export interface ParameterRow {
   label: string;
@@ -10,6 +11,13 @@ export interface ParameterRow {
 
 const v = (x: number | null | undefined, digits = 4): string => (x === null || x === undefined ? '—' : String(Number(x.toPrecision(digits))));
 const row = (label: string, value: string, unit = '', condition = ''): ParameterRow => ({ label, value, unit, condition });
+
+/** A pulse length as datasheet curves label it: ms below a second, s above. */
+const pulse = (s: number): string => (s < 1 ? `${v(s * 1000)} ms` : `${v(s)} s`);
+const zthRows = (points: ZthPoint[]): ParameterRow[] =>
+  points.length === 0
+    ? [row('Transient thermal impedance Zth(j-a)', '— (no curve points)', '', 'a timed stall cut-off is judged at steady state')]
+    : points.map((z) => row('Transient thermal impedance Zth(j-a)', v(z.zthCPerW), 'K/W', `single pulse, tp = ${pulse(z.pulseS)}, datasheet test board`));
 
 export function parameterRows(part: Part): ParameterRow[] {
   switch (part.category) {
@@ -29,6 +37,7 @@ export function parameterRows(part: Part): ParameterRow[] {
         row('Thermal resistance RθJA', v(p.rthJaCPerW), 'K/W', 'datasheet test board'),
         row('Maximum junction temperature', v(p.tjMaxC), '°C'),
         row('Body-diode forward voltage', v(p.bodyDiodeVfV), 'V', 'typical'),
+        ...zthRows(p.zthPoints),
       ];
     }
     case 'driver': {
@@ -47,7 +56,8 @@ export function parameterRows(part: Part): ParameterRow[] {
         row('Peak source current', v(p.sourceCurrentA), 'A'),
         row('Peak sink current', v(p.sinkCurrentA), 'A'),
         row('Propagation delay', v(p.propagationDelayNs), 'ns', 'worst case'),
-        row('Internal input pull', p.inputPull === 'none' ? 'none (an open input floats)' : `pull-${p.inputPull}${p.inputPullOhms != null ? `, ${p.inputPullOhms / 1000} kΩ` : ''}`, '', 'datasheet input structure'),
+        row('Internal input pull', p.inputPull === 'none' ? 'none (an open input floats)' : `pull-${p.inputPull}${p.inputPullOhms != null ? `, ${v(p.inputPullOhms / 1000)} kΩ typ.` : ', value not stated'}`, '', 'on the input pin, datasheet input structure'),
+        row('Output with the input open', { low: 'LOW', high: 'HIGH', undefined: 'undefined' }[openInputOutput(p.inputPull, p.inverting)], '', `derived: input pull ${p.inputPull}, ${p.inverting ? 'inverting' : 'non-inverting'}`),
       ];
     }
     case 'diode': {
@@ -59,6 +69,9 @@ export function parameterRows(part: Part): ParameterRow[] {
         row('Surge current IFSM', v(p.ifsmA), 'A', 'non-repetitive'),
         row('Forward voltage VF max', v(p.vfV), 'V', `IF = ${v(p.vfAtIfA)} A`),
         row('Reverse recovery trr', p.trrNs === null ? 'none (no stored charge)' : v(p.trrNs), p.trrNs === null ? '' : 'ns'),
+        row('Repetitive peak forward current IFRM', p.ifrmA === null ? '— (not stated)' : v(p.ifrmA), p.ifrmA === null ? '' : 'A', 'repetitive'),
+        row('Thermal resistance RθJA', v(p.rthJaCPerW), 'K/W', 'datasheet test board'),
+        row('Maximum junction temperature', v(p.tjMaxC), '°C'),
       ];
     }
     case 'motor': {

@@ -1,6 +1,7 @@
 /** Table columns of the search page per category: label, unit, how a cell reads, and the API sort key. */
 import type { Part, PartCategory } from '../../lib/domain/parts.ts';
 import { bestUnitPrice, CATEGORY_LABELS } from '../../lib/part-summary.ts';
+import { openInputOutput } from '../../lib/driver-input.ts';
 
 export interface SearchColumn {
   id: string;
@@ -62,7 +63,12 @@ const CATEGORY_COLUMNS: Record<PartCategory, SearchColumn[]> = {
     { id: 'source', label: 'Source', unit: 'A', sortKey: 'sourceCurrentA', numeric: true, defaultVisible: true, cell: (p) => (p.category === 'driver' ? sig(p.params.sourceCurrentA) : '') },
     { id: 'sink', label: 'Sink', unit: 'A', numeric: true, cell: (p) => (p.category === 'driver' ? sig(p.params.sinkCurrentA) : '') },
     { id: 'tpd', label: 'Delay', unit: 'ns', sortKey: 'propagationDelayNs', numeric: true, cell: (p) => (p.category === 'driver' ? sig(p.params.propagationDelayNs) : '') },
-    { id: 'openInput', label: 'Open input', cell: (p) => (p.category === 'driver' ? p.params.inputPull : '') },
+    { id: 'inputPull', label: 'Input pull', cell: (p) => {
+      if (p.category !== 'driver') return '';
+      const d = p.params;
+      return d.inputPull === 'none' ? 'none' : `${d.inputPull}${d.inputPullOhms != null ? ` ${sig(d.inputPullOhms / 1000)} kΩ` : ''}`;
+    } },
+    { id: 'openInput', label: 'Output, input open', cell: (p) => (p.category === 'driver' ? openInputOutput(p.params.inputPull, p.params.inverting) : '') },
   ],
   diode: [
     { id: 'kind', label: 'Kind', defaultVisible: true, cell: (p) => (p.category === 'diode' ? p.params.kind : '') },
@@ -71,6 +77,9 @@ const CATEGORY_COLUMNS: Record<PartCategory, SearchColumn[]> = {
     { id: 'vf', label: 'VF max', unit: 'V', sortKey: 'vfV', numeric: true, defaultVisible: true, cell: (p) => (p.category === 'diode' ? `${sig(p.params.vfV)} @ ${sig(p.params.vfAtIfA)} A` : '') },
     { id: 'trr', label: 'trr', unit: 'ns', sortKey: 'trrNs', numeric: true, defaultVisible: true, cell: (p) => (p.category === 'diode' ? (p.params.trrNs === null ? 'none' : sig(p.params.trrNs)) : '') },
     { id: 'ifsm', label: 'IFSM', unit: 'A', numeric: true, cell: (p) => (p.category === 'diode' ? sig(p.params.ifsmA) : '') },
+    { id: 'ifrm', label: 'IFRM', unit: 'A', numeric: true, cell: (p) => (p.category === 'diode' ? sig(p.params.ifrmA) : '') },
+    { id: 'rthD', label: 'RθJA', unit: 'K/W', numeric: true, cell: (p) => (p.category === 'diode' ? sig(p.params.rthJaCPerW) : '') },
+    { id: 'tjD', label: 'Tj max', unit: '°C', numeric: true, cell: (p) => (p.category === 'diode' ? sig(p.params.tjMaxC) : '') },
   ],
   motor: [
     { id: 'rated', label: 'Rated', unit: 'V', sortKey: 'ratedVoltageV', numeric: true, defaultVisible: true, cell: (p) => (p.category === 'motor' ? sig(p.params.ratedVoltageV) : '') },

@@ -71,7 +71,23 @@ export const mosfetParamsSchema = z
       if (r.vgsV > p.vgsMaxV) ctx.addIssue({ code: 'custom', path: ['rdsOn', i, 'vgsV'], message: 'RDS(on) line above VGS max' });
       if (r.typOhm !== null && r.typOhm > r.maxOhm) ctx.addIssue({ code: 'custom', path: ['rdsOn', i, 'typOhm'], message: 'Typical above maximum' });
     });
+    zthPointIssues(p.zthPoints, p.rthJaCPerW).forEach((issue) => ctx.addIssue({ code: 'custom', ...issue, path: ['zthPoints', ...issue.path] }));
   });
+
+/**
+ * A single-pulse Zth curve read off a datasheet: pulses in ascending order (each length once), the
+ * impedance never falling as the pulse lengthens, and never above the steady-state RθJA it tends to.
+ */
+export function zthPointIssues(points: { pulseS: number; zthCPerW: number }[], rthJaCPerW: number): { path: (string | number)[]; message: string }[] {
+  const issues: { path: (string | number)[]; message: string }[] = [];
+  points.forEach((z, i) => {
+    const prev = points[i - 1];
+    if (prev && z.pulseS <= prev.pulseS) issues.push({ path: [i, 'pulseS'], message: 'List the pulses in ascending order, each length once' });
+    else if (prev && z.zthCPerW < prev.zthCPerW) issues.push({ path: [i, 'zthCPerW'], message: 'Zth is below the shorter pulse before it: a single-pulse curve only rises' });
+    if (Number.isFinite(rthJaCPerW) && z.zthCPerW > rthJaCPerW) issues.push({ path: [i, 'zthCPerW'], message: `Zth is above RθJA (${rthJaCPerW} K/W), the value it tends to for long pulses` });
+  });
+  return issues;
+}
 
 export const driverParamsSchema = z
   .object({
@@ -109,7 +125,7 @@ export const diodeParamsSchema = z.object({
   trrNs: optPos('trr'),
   ifrmA: optPos('IFRM'),
   rthJaCPerW: optPos('RθJA'),
-  tjMaxC: optPos('Tj max'),
+  tjMaxC: num('Tj max').min(25, { error: 'Tj max: at least 25 °C' }).max(250, { error: 'Tj max: at most 250 °C' }).nullable().default(null),
 });
 
 export const motorParamsSchema = z

@@ -7,6 +7,7 @@ import type {
   Part,
   PartSource,
   RdsOnSpecPoint,
+  ZthPoint,
 } from '../../lib/domain/parts.ts';
 import type {
   DbDiodeRow,
@@ -17,6 +18,7 @@ import type {
   DbPriceBreakRow,
   DbRdsOnRow,
   DbSourceRow,
+  DbZthRow,
 } from './part-rows.ts';
 
 export function isoDate(value: Date | string | null): string | null {
@@ -59,7 +61,11 @@ export function rdsOnToRows(partId: number, points: RdsOnSpecPoint[]): DbRdsOnRo
   }));
 }
 
-export function mosfetFromRows(row: DbMosfetRow, points: DbRdsOnRow[]): MosfetParams {
+export function zthToRows(partId: number, points: ZthPoint[]): DbZthRow[] {
+  return points.map((z) => ({ part_id: partId, pulse_s: z.pulseS, zth_c_per_w: z.zthCPerW }));
+}
+
+export function mosfetFromRows(row: DbMosfetRow, points: DbRdsOnRow[], zth: DbZthRow[]): MosfetParams {
   return {
     channel: row.channel,
     vdsMaxV: row.vds_max_v,
@@ -80,7 +86,7 @@ export function mosfetFromRows(row: DbMosfetRow, points: DbRdsOnRow[]): MosfetPa
     rdsOn: points
       .map((r) => ({ vgsV: r.vgs_v, tjC: r.tj_c, maxOhm: r.max_ohm, typOhm: r.typ_ohm, idA: r.id_a }))
       .sort((a, b) => a.vgsV - b.vgsV || a.tjC - b.tjC),
-    zthPoints: [],
+    zthPoints: zth.map((z) => ({ pulseS: z.pulse_s, zthCPerW: z.zth_c_per_w })).sort((a, b) => a.pulseS - b.pulseS),
   };
 }
 
@@ -100,8 +106,8 @@ export function driverToRow(partId: number, p: DriverParams): DbDriverRow {
     source_current_a: p.sourceCurrentA,
     sink_current_a: p.sinkCurrentA,
     propagation_delay_ns: p.propagationDelayNs,
-    // Interim until the driver input-structure migration: the open-input output level.
-    input_default: p.inputPull === 'none' ? 'floating' : (p.inputPull === 'up') !== p.inverting ? 'high' : 'low',
+    input_pull: p.inputPull,
+    input_pull_ohms: p.inputPullOhms,
   };
 }
 
@@ -120,8 +126,8 @@ export function driverFromRow(row: DbDriverRow): DriverParams {
     sourceCurrentA: row.source_current_a,
     sinkCurrentA: row.sink_current_a,
     propagationDelayNs: row.propagation_delay_ns,
-    inputPull: row.input_default === 'floating' ? 'none' : (row.input_default === 'high') !== Boolean(row.inverting) ? 'up' : 'down',
-    inputPullOhms: null,
+    inputPull: row.input_pull,
+    inputPullOhms: row.input_pull_ohms,
   };
 }
 
@@ -135,6 +141,9 @@ export function diodeToRow(partId: number, p: DiodeParams): DbDiodeRow {
     vf_v: p.vfV,
     vf_at_if_a: p.vfAtIfA,
     trr_ns: p.trrNs,
+    ifrm_a: p.ifrmA,
+    rth_ja_c_per_w: p.rthJaCPerW,
+    tj_max_c: p.tjMaxC,
   };
 }
 
@@ -147,9 +156,9 @@ export function diodeFromRow(row: DbDiodeRow): DiodeParams {
     vfV: row.vf_v,
     vfAtIfA: row.vf_at_if_a,
     trrNs: row.trr_ns,
-    ifrmA: null,
-    rthJaCPerW: null,
-    tjMaxC: null,
+    ifrmA: row.ifrm_a,
+    rthJaCPerW: row.rth_ja_c_per_w,
+    tjMaxC: row.tj_max_c,
   };
 }
 

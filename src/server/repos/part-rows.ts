@@ -50,6 +50,13 @@ export interface DbRdsOnRow {
   id_a: number | null;
 }
 
+export interface DbZthRow {
+  id?: number;
+  part_id: number;
+  pulse_s: number;
+  zth_c_per_w: number;
+}
+
 export interface DbDriverRow {
   part_id: number;
   kind: 'gate-driver' | 'level-shifter';
@@ -65,7 +72,8 @@ export interface DbDriverRow {
   source_current_a: number;
   sink_current_a: number;
   propagation_delay_ns: number;
-  input_default: 'low' | 'high' | 'floating';
+  input_pull: 'up' | 'down' | 'none';
+  input_pull_ohms: number | null;
 }
 
 export interface DbDiodeRow {
@@ -77,6 +85,9 @@ export interface DbDiodeRow {
   vf_v: number;
   vf_at_if_a: number;
   trr_ns: number | null;
+  ifrm_a: number | null;
+  rth_ja_c_per_w: number | null;
+  tj_max_c: number | null;
 }
 
 export interface DbMotorRow {

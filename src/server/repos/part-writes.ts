@@ -4,7 +4,7 @@ import type { Lifecycle, Part, PartSource, ReviewStatus } from '../../lib/domain
 import type { DbPartRow } from './part-rows.ts';
 import { hydrateParts, insertParams, insertSources, type NewPart } from './parts.ts';
 
-const PARAM_TABLES = ['mosfet_rds_on_points', 'mosfet_params', 'driver_params', 'diode_params', 'motor_params'] as const;
+const PARAM_TABLES = ['mosfet_rds_on_points', 'mosfet_zth_points', 'mosfet_params', 'driver_params', 'diode_params', 'motor_params'] as const;
 
 /** The part row, locked against concurrent writers until the transaction ends. */
 export async function lockPartRow(trx: Db, id: number): Promise<DbPartRow | null> {
@@ -52,7 +52,7 @@ export async function updatePartHead(db: Db, id: number, head: PartHeadUpdate): 
   });
 }
 
-/** Replaces the category parameters (and RDS(on) lines) of a part. */
+/** Replaces the category parameters (and RDS(on) lines and Zth points) of a part. */
 export async function replaceParams(db: Db, id: number, part: NewPart): Promise<void> {
   for (const table of PARAM_TABLES) await db(table).where({ part_id: id }).delete();
   await insertParams(db, id, part);

@@ -10,6 +10,7 @@ import type {
   DbPriceBreakRow,
   DbRdsOnRow,
   DbSourceRow,
+  DbZthRow,
 } from './part-rows.ts';
 import {
   diodeFromRow,
@@ -23,6 +24,7 @@ import {
   partHeadFromRow,
   rdsOnToRows,
   sourceFromRows,
+  zthToRows,
 } from './part-mapping.ts';
 
 /** A part before it has an id: Omit distributed over the category union. */
@@ -63,6 +65,8 @@ export async function insertParams(db: Db, partId: number, part: NewPart): Promi
     case 'mosfet':
       await db('mosfet_params').insert(mosfetToRow(partId, part.params));
       await db('mosfet_rds_on_points').insert(rdsOnToRows(partId, part.params.rdsOn));
+      // Zth points are optional (knex refuses an empty insert).
+      if (part.params.zthPoints.length > 0) await db('mosfet_zth_points').insert(zthToRows(partId, part.params.zthPoints));
       return;
     case 'driver':
       await db('driver_params').insert(driverToRow(partId, part.params));
@@ -118,10 +122,11 @@ async function loadSources(db: Db, partIds: number[]): Promise<Map<number, PartS
 export async function hydrateParts(db: Db, rows: DbPartRow[]): Promise<Part[]> {
   if (rows.length === 0) return [];
   const ids = rows.map((r) => r.id);
-  const [sources, mosfets, points, drivers, diodes, motors] = await Promise.all([
+  const [sources, mosfets, points, zthPoints, drivers, diodes, motors] = await Promise.all([
     loadSources(db, ids),
     db<DbMosfetRow>('mosfet_params').whereIn('part_id', ids),
     db<DbRdsOnRow>('mosfet_rds_on_points').whereIn('part_id', ids),
+    db<DbZthRow>('mosfet_zth_points').whereIn('part_id', ids),
     db<DbDriverRow>('driver_params').whereIn('part_id', ids),
     db<DbDiodeRow>('diode_params').whereIn('part_id', ids),
     db<DbMotorRow>('motor_params').whereIn('part_id', ids),
@@ -129,6 +134,7 @@ export async function hydrateParts(db: Db, rows: DbPartRow[]): Promise<Part[]> {
   const byId = <T extends { part_id: number }>(list: T[]) => new Map(list.map((r) => [r.part_id, r]));
   const mosfetById = byId(mosfets);
   const pointsById = groupBy(points, (p) => p.part_id);
+  const zthById = groupBy(zthPoints, (p) => p.part_id);
   const driverById = byId(drivers);
   const diodeById = byId(diodes);
   const motorById = byId(motors);
@@ -136,7 +142,7 @@ export async function hydrateParts(db: Db, rows: DbPartRow[]): Promise<Part[]> {
   for (const row of rows) {
     const head = partHeadFromRow(row, sources.get(row.id) ?? []);
     if (row.category === 'mosfet' && mosfetById.has(row.id)) {
-      parts.push({ ...head, category: 'mosfet', params: mosfetFromRows(mosfetById.get(row.id)!, pointsById.get(row.id) ?? []) });
+      parts.push({ ...head, category: 'mosfet', params: mosfetFromRows(mosfetById.get(row.id)!, pointsById.get(row.id) ?? [], zthById.get(row.id) ?? []) });
     } else if (row.category === 'driver' && driverById.has(row.id)) {
       parts.push({ ...head, category: 'driver', params: driverFromRow(driverById.get(row.id)!) });
     } else if (row.category === 'diode' && diodeById.has(row.id)) {

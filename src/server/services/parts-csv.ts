@@ -8,15 +8,24 @@ export const RDS_ON_POINTS_IN_CSV = 4;
 const RDS_FIELDS = ['VgsV', 'MaxOhm', 'TypOhm', 'IdA', 'TjC'] as const;
 const RDS_KEYS: Record<(typeof RDS_FIELDS)[number], string> = { VgsV: 'vgsV', MaxOhm: 'maxOhm', TypOhm: 'typOhm', IdA: 'idA', TjC: 'tjC' };
 
+/**
+ * Single-pulse Zth points per row: six pairs, one per decade from 1 ms to 100 s as datasheet curves are
+ * read, so an exported curve imports again whole.
+ */
+export const ZTH_POINTS_IN_CSV = 6;
+const ZTH_FIELDS = ['PulseS', 'CPerW'] as const;
+const ZTH_KEYS: Record<(typeof ZTH_FIELDS)[number], string> = { PulseS: 'pulseS', CPerW: 'zthCPerW' };
+
 export const HEAD_COLUMNS = ['category', 'manufacturer', 'mpn', 'description', 'package', 'lifecycle', 'lifecycleEffectiveDate', 'reviewStatus'] as const;
 const rdsColumns = Array.from({ length: RDS_ON_POINTS_IN_CSV }, (_, i) => RDS_FIELDS.map((f) => `rdsOn${i + 1}${f}`)).flat();
+const zthColumns = Array.from({ length: ZTH_POINTS_IN_CSV }, (_, i) => ZTH_FIELDS.map((f) => `zth${i + 1}${f}`)).flat();
 
 export const CATEGORY_COLUMNS: Record<PartCategory, readonly string[]> = {
   mosfet: ['channel', 'vdsMaxV', 'vgsMaxV', 'vgsThMinV', 'vgsThMaxV', 'vgsThTestCurrentA', 'idContinuousA', 'idPulsedA', 'qgTotalNc',
-    'qgTestVgsV', 'qgsNc', 'qgdNc', 'vPlateauV', 'rthJaCPerW', 'tjMaxC', 'bodyDiodeVfV', ...rdsColumns],
+    'qgTestVgsV', 'qgsNc', 'qgdNc', 'vPlateauV', 'rthJaCPerW', 'tjMaxC', 'bodyDiodeVfV', ...rdsColumns, ...zthColumns],
   driver: ['kind', 'channels', 'inverting', 'supplyMinV', 'supplyMaxV', 'inputLogic', 'inputHighMin', 'inputLowMax', 'outputHighDropV',
-    'outputLowMaxV', 'sourceCurrentA', 'sinkCurrentA', 'propagationDelayNs', 'inputDefault'],
-  diode: ['kind', 'vrrmV', 'ifAvA', 'ifsmA', 'vfV', 'vfAtIfA', 'trrNs'],
+    'outputLowMaxV', 'sourceCurrentA', 'sinkCurrentA', 'propagationDelayNs', 'inputPull', 'inputPullOhms'],
+  diode: ['kind', 'vrrmV', 'ifAvA', 'ifsmA', 'vfV', 'vfAtIfA', 'trrNs', 'ifrmA', 'rthJaCPerW', 'tjMaxC'],
   motor: ['ratedVoltageV', 'voltageMinV', 'voltageMaxV', 'noLoadSpeedRpm', 'noLoadCurrentA', 'stallTorqueNm', 'stallCurrentA',
     'terminalResistanceOhm', 'inductanceH', 'rotorInertiaKgM2'],
 };
@@ -26,7 +35,7 @@ export const SOURCE_COLUMNS = ['distributor', 'sku', 'moq', 'leadTimeDays', 'sto
 export const CSV_COLUMNS: string[] = [...new Set([...HEAD_COLUMNS, ...Object.values(CATEGORY_COLUMNS).flat(), ...SOURCE_COLUMNS])];
 
 const TEXT_COLUMNS = new Set(['category', 'manufacturer', 'mpn', 'description', 'package', 'lifecycle', 'lifecycleEffectiveDate', 'reviewStatus',
-  'channel', 'kind', 'inputLogic', 'inputDefault', 'distributor', 'sku', 'currency', 'priceBreaks', 'inverting']);
+  'channel', 'kind', 'inputLogic', 'inputPull', 'distributor', 'sku', 'currency', 'priceBreaks', 'inverting']);
 
 const cell = (v: unknown): string => (v === null || v === undefined ? '' : String(v));
 
@@ -39,6 +48,10 @@ export function partToCsvRow(part: Part): Record<string, string> {
   if (part.category === 'mosfet') {
     part.params.rdsOn.slice(0, RDS_ON_POINTS_IN_CSV).forEach((p, i) => {
       for (const f of RDS_FIELDS) row[`rdsOn${i + 1}${f}`] = cell((p as unknown as Record<string, unknown>)[RDS_KEYS[f]]);
+    });
+    part.params.zthPoints.slice(0, ZTH_POINTS_IN_CSV).forEach((z, i) => {
+      row[`zth${i + 1}PulseS`] = cell(z.pulseS);
+      row[`zth${i + 1}CPerW`] = cell(z.zthCPerW);
     });
   }
   const source = part.sources[0];
@@ -86,6 +99,27 @@ function readPriceBreaks(raw: string, errors: CellError[]): { qty: number; unitP
   return out;
 }
 
+/** The Zth pairs, filled from zth1 on without gaps (so a schema issue at point i is pair i + 1). */
+function readZthPoints(get: (c: string) => string, errors: CellError[]): Record<string, unknown>[] {
+  const points: Record<string, unknown>[] = [];
+  let gapAt: number | null = null;
+  for (let i = 1; i <= ZTH_POINTS_IN_CSV; i++) {
+    const filled = ZTH_FIELDS.filter((f) => get(`zth${i}${f}`) !== '');
+    if (filled.length === 0) {
+      gapAt ??= i;
+      continue;
+    }
+    if (gapAt !== null) {
+      errors.push({ column: `zth${i}PulseS`, message: `fill the Zth pairs from zth1 on without a gap (zth${gapAt} is empty)` });
+      return [];
+    }
+    const point: Record<string, unknown> = {};
+    for (const f of filled) point[ZTH_KEYS[f]] = readValue(`zth${i}${f}`, get(`zth${i}${f}`), errors);
+    points.push(point);
+  }
+  return points;
+}
+
 /** A CSV record → the object the part schema validates, plus errors found while reading cells. */
 export function csvRowToInput(record: Record<string, string>): { input: Record<string, unknown>; errors: CellError[] } {
   const errors: CellError[] = [];
@@ -101,7 +135,7 @@ export function csvRowToInput(record: Record<string, string>): { input: Record<s
   }
   const params: Record<string, unknown> = {};
   for (const column of CATEGORY_COLUMNS[category]) {
-    if (column.startsWith('rdsOn') || get(column) === '') continue;
+    if (column.startsWith('rdsOn') || column.startsWith('zth') || get(column) === '') continue;
     params[column] = readValue(column, get(column), errors);
   }
   if (category === 'mosfet') {
@@ -112,6 +146,7 @@ export function csvRowToInput(record: Record<string, string>): { input: Record<s
       if (Object.keys(point).length > 0) points.push(point);
     }
     params.rdsOn = points;
+    params.zthPoints = readZthPoints(get, errors);
   }
   input.params = params;
   if (SOURCE_COLUMNS.some((c) => get(c) !== '')) {
@@ -126,7 +161,7 @@ export function csvRowToInput(record: Record<string, string>): { input: Record<s
   return { input, errors };
 }
 
-/** Maps a schema issue path (params.rdsOn.0.maxOhm, sources.0.sku …) back to the CSV column. */
+/** Maps a schema issue path (params.rdsOn.0.maxOhm, params.zthPoints.1.zthCPerW, sources.0.sku …) back to the CSV column. */
 export function columnForPath(path: (string | number)[]): string {
   const [head, ...rest] = path;
   if (head === 'params') {
@@ -134,6 +169,10 @@ export function columnForPath(path: (string | number)[]): string {
       const index = typeof rest[1] === 'number' ? rest[1] + 1 : 1;
       const field = Object.entries(RDS_KEYS).find(([, key]) => key === rest[2])?.[0] ?? 'MaxOhm';
       return `rdsOn${index}${field}`;
+    }
+    if (rest[0] === 'zthPoints') {
+      const index = typeof rest[1] === 'number' ? rest[1] + 1 : 1;
+      return `zth${index}${rest[2] === 'zthCPerW' ? 'CPerW' : 'PulseS'}`;
     }
     return String(rest[0] ?? 'category');
   }
