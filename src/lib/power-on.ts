@@ -1,13 +1,19 @@
 /**
- * Walks the reset state from the controller pin to the motor [domain.md §6]: the motor must stay off.
+ * Walks the reset state from the controller pin to the motor [domain.md §6, §10 "Driver at reset"]:
+ * pin → pull network (pin pull, external pull, the driver's own input pull, each at its tolerance extremes,
+ * plus pin leakage) → driver input → driver output → gate → motor. The motor must stay off.
  */
 import { fmt } from './checks.ts';
 import type { DriverParams } from './domain/parts.ts';
 import { driverInputThresholdsV, type SupplyRange } from './driver-checks.ts';
 import type { ESeriesName } from './eseries.ts';
-import { pullNodeVoltageV, sizePullResistor, type InternalPull, type PullResistorResult } from './pull-resistor.ts';
+import { band, clampToPin, DEFAULT_PIN_LEAKAGE_A, describeSource, nodeRangeV, rangeText, type NodeRange, type PullSource } from './power-on-network.ts';
+import { recommendPull, type RecommendedPull } from './power-on-advice.ts';
+import type { InternalPull } from './pull-resistor.ts';
 
 export { sizePullResistor } from './pull-resistor.ts';
+export { pullDrawCurrentA, type RecommendedPull } from './power-on-advice.ts';
+export { DEFAULT_PIN_LEAKAGE_A } from './power-on-network.ts';
 
 export type LineState = 'low' | 'high' | 'undetermined';
 export type MotorState = 'off' | 'on' | 'may-run';
@@ -15,7 +21,7 @@ export type MotorState = 'off' | 'on' | 'may-run';
 export interface PowerOnStep {
   stage: 'pin' | 'pull-network' | 'driver' | 'gate' | 'motor';
   state: LineState | MotorState;
-  /** Node voltage range where one applies (tolerance of the internal pull). */
+  /** Node voltage range where one applies (every tolerance corner and leakage). */
   minV: number | null;
   maxV: number | null;
   note: string;
@@ -29,51 +35,55 @@ export interface ResetDefault {
 }
 
 export interface PowerOnInput {
-  pin: { railV: number; resetDefault: ResetDefault; sourceCurrentA: number; sinkCurrentA: number };
-  externalPull?: { to: 'up' | 'down'; ohms: number; railV: number } | null;
-  driver?: { params: DriverParams; supply: SupplyRange } | null;
+  pin: {
+    railV: number; resetDefault: ResetDefault; sourceCurrentA: number; sinkCurrentA: number;
+    /** Input leakage, A; absent = DEFAULT_PIN_LEAKAGE_A. */
+    leakageA?: number;
+    /** True for a pin without a protection diode to its supply (5 V-tolerant): no clamp above its rail. */
+    tolerant?: boolean;
+  };
+  /** An external pull already on the board; tolerance absent = 1 %. */
+  externalPull?: { to: 'up' | 'down'; ohms: number; railV: number; tolerance?: number } | null;
+  /**
+   * inputPullTolerance absent = DRIVER_PULL_TOLERANCE; inputPullRailV absent = the logic rail for an 'input-rail'
+   * driver, else the driver's own supply range (where a single-supply driver's input pull-up goes).
+   */
+  driver?: { params: DriverParams; supply: SupplyRange; inputPullTolerance?: number; inputPullRailV?: number } | null;
   mosfet: { vgsThMinV: number };
   series?: ESeriesName;
-}
-
-export interface RecommendedPull extends PullResistorResult {
-  to: 'up' | 'down';
-  railV: number;
+  /** Largest pull resistor worth recommending; absent = 1 MΩ. */
+  ceilingOhms?: number;
 }
 
 export interface PowerOnResult {
   steps: PowerOnStep[];
+  /** True when the chain as entered lets the motor run at reset. */
   motorCanStart: boolean;
+  motorStateAtReset: MotorState;
   note: string;
+  /** A pull that the re-walk proved keeps the motor off; null when none is needed or none works. */
   recommendedPull: RecommendedPull | null;
+  withRecommendedPull: { steps: PowerOnStep[]; motorState: MotorState } | null;
+  /** What the pin supplies into a recommended pull-down while it drives high (0 without one). */
+  pullDrawWhenHighA: number;
 }
 
 /** A gate held below half of VGS(th) min counts as surely off, leaving room for coupling through C_gd [judgement]. */
 export const GATE_OFF_FRACTION_OF_VTH_MIN = 0.5;
+/** External resistors are 1 % parts unless stated [domain.md §10]. */
+export const DEFAULT_EXTERNAL_TOLERANCE = 0.01;
+/** On-chip pull resistors spread widely with process and temperature; ±30 % when only a typical is stated [judgement]. */
+export const DRIVER_PULL_TOLERANCE = 0.3;
+/** A driver input pull whose value the datasheet omits is bracketed over this range [judgement]. */
+export const UNSTATED_DRIVER_PULL_OHMS = { min: 10_000, max: 1_000_000 } as const;
 
-function nodeRangeV(input: PowerOnInput): { minV: number; maxV: number } | null {
-  const { resetDefault: rd, railV } = input.pin;
-  const ext = input.externalPull;
-  const internalV = rd.pull === 'none' ? null : rd.pull === 'up' ? railV : 0;
-  if (internalV == null && ext == null) return null;
-  if (ext == null) return { minV: internalV as number, maxV: internalV as number };
-  const ends = [1 - rd.pullTolerance, 1 + rd.pullTolerance].map((f) => pullNodeVoltageV(internalV, rd.pullOhms * f, ext.railV, ext.ohms));
-  return { minV: Math.min(...ends), maxV: Math.max(...ends) };
+export interface Thresholds {
+  lowMaxV: number;
+  highMinV: number;
 }
 
-function rangeText(range: { minV: number; maxV: number }): string {
-  return range.minV === range.maxV ? `${fmt(range.minV)} V` : `${fmt(range.minV)}–${fmt(range.maxV)} V`;
-}
-
-function classify(range: { minV: number; maxV: number } | null, lowMaxV: number, highMinV: number): LineState {
-  if (range == null) return 'undetermined';
-  if (range.maxV <= lowMaxV) return 'low';
-  if (range.minV >= highMinV) return 'high';
-  return 'undetermined';
-}
-
-/** Thresholds of the first stage after the pin: the driver input, or the gate itself. */
-function firstStageThresholds(input: PowerOnInput): { lowMaxV: number; highMinV: number } {
+/** Thresholds of the first stage after the pin: the driver input at its supply extremes, or the gate itself. */
+export function firstStageThresholds(input: PowerOnInput): Thresholds {
   if (input.driver == null) {
     return { lowMaxV: GATE_OFF_FRACTION_OF_VTH_MIN * input.mosfet.vgsThMinV, highMinV: input.mosfet.vgsThMinV };
   }
@@ -83,28 +93,48 @@ function firstStageThresholds(input: PowerOnInput): { lowMaxV: number; highMinV:
   return { lowMaxV, highMinV };
 }
 
-function driverOutput(params: DriverParams, inputState: LineState, floating: boolean): LineState {
-  if (floating) {
-    if (params.inputPull === 'none') return 'undetermined';
-    const inputHigh = params.inputPull === 'up';
-    return inputHigh !== params.inverting ? 'high' : 'low';
+function driverPullSource(input: PowerOnInput): PullSource | null {
+  const d = input.driver;
+  if (d == null || d.params.inputPull === 'none') return null;
+  const stated = d.params.inputPullOhms;
+  const tol = d.inputPullTolerance ?? DRIVER_PULL_TOLERANCE;
+  const ohms = stated == null ? { ...UNSTATED_DRIVER_PULL_OHMS } : band(stated, tol);
+  const basis = stated == null ? 'value not stated: bracketed 10 kΩ–1 MΩ [judgement]' : `${fmt(stated / 1000)} kΩ ±${fmt(tol * 100)} %${d.inputPullTolerance == null ? ' [judgement]' : ''}`;
+  const upRail = d.inputPullRailV != null ? { minV: d.inputPullRailV, maxV: d.inputPullRailV }
+    : d.params.inputLogic === 'input-rail' ? { minV: input.pin.railV, maxV: input.pin.railV } : { minV: d.supply.minV, maxV: d.supply.maxV };
+  const toV = d.params.inputPull === 'up' ? upRail : { minV: 0, maxV: 0 };
+  return { label: `driver input pull-${d.params.inputPull}`, direction: d.params.inputPull, toV, ohms, basis };
+}
+
+/** Every pull on the pin / driver-input node as entered. */
+export function pullSources(input: PowerOnInput): PullSource[] {
+  const sources: PullSource[] = [];
+  const rd = input.pin.resetDefault;
+  if (rd.pull !== 'none') {
+    const v = rd.pull === 'up' ? input.pin.railV : 0;
+    sources.push({ label: `pin pull-${rd.pull}`, direction: rd.pull, toV: { minV: v, maxV: v }, ohms: band(rd.pullOhms, rd.pullTolerance), basis: `${fmt(rd.pullOhms / 1000)} kΩ ±${fmt(rd.pullTolerance * 100)} %` });
   }
+  const ext = input.externalPull;
+  if (ext != null) {
+    const tol = ext.tolerance ?? DEFAULT_EXTERNAL_TOLERANCE;
+    sources.push({ label: `external pull-${ext.to}`, direction: ext.to, toV: { minV: ext.railV, maxV: ext.railV }, ohms: band(ext.ohms, tol), basis: `${fmt(ext.ohms / 1000)} kΩ ±${fmt(tol * 100)} %` });
+  }
+  const drv = driverPullSource(input);
+  if (drv != null) sources.push(drv);
+  return sources;
+}
+
+function classify(range: NodeRange | null, t: Thresholds): LineState {
+  if (range == null) return 'undetermined';
+  if (range.maxV <= t.lowMaxV) return 'low';
+  if (range.minV >= t.highMinV) return 'high';
+  return 'undetermined';
+}
+
+function driverOutput(params: DriverParams, inputState: LineState): LineState {
   if (inputState === 'undetermined') return 'undetermined';
   const flipped: LineState = inputState === 'high' ? 'low' : 'high';
   return params.inverting ? flipped : inputState;
-}
-
-function recommendPull(input: PowerOnInput, needHigh: boolean, limits: { lowMaxV: number; highMinV: number }): RecommendedPull {
-  const rd = input.pin.resetDefault;
-  const to = needHigh ? 'up' : 'down';
-  const railV = needHigh ? input.pin.railV : 0;
-  const result = sizePullResistor({
-    pin: { internalPull: rd.pull, internalPullOhms: rd.pullOhms * (1 - rd.pullTolerance), railV: input.pin.railV, maxCurrentA: needHigh ? input.pin.sinkCurrentA : input.pin.sourceCurrentA },
-    external: { to, railV },
-    node: { mustBe: needHigh ? 'high' : 'low', limitV: needHigh ? limits.highMinV : limits.lowMaxV },
-    series: input.series ?? 'E12',
-  });
-  return { ...result, to, railV };
 }
 
 const MOTOR_NOTE: Record<MotorState, string> = {
@@ -113,30 +143,55 @@ const MOTOR_NOTE: Record<MotorState, string> = {
   'may-run': 'The gate is not defined at reset: the motor may start unexpectedly.',
 };
 
-export function walkPowerOn(input: PowerOnInput): PowerOnResult {
+function pinStep(input: PowerOnInput, leakageA: number): PowerOnStep {
   const rd = input.pin.resetDefault;
-  const range = nodeRangeV(input);
-  const limits = firstStageThresholds(input);
-  const nodeState = classify(range, limits.lowMaxV, limits.highMinV);
-  const steps: PowerOnStep[] = [
-    { stage: 'pin', state: rd.pull === 'none' ? 'undetermined' : rd.pull === 'up' ? 'high' : 'low', minV: null, maxV: null,
-      note: rd.pull === 'none' ? 'The pin floats at reset (input, no internal pull).' : `The pin is an input with a ${fmt(rd.pullOhms / 1000)} kΩ ±${fmt(rd.pullTolerance * 100)} % internal pull-${rd.pull} at reset.` },
-    { stage: 'pull-network', state: nodeState, minV: range?.minV ?? null, maxV: range?.maxV ?? null,
-      note: range == null ? 'Nothing defines the node: it floats.' : `The node sits at ${rangeText(range)} against thresholds ${fmt(limits.lowMaxV)} V (low) and ${fmt(limits.highMinV)} V (high).` },
-  ];
-  let gate: LineState = nodeState;
-  if (input.driver != null) {
-    gate = driverOutput(input.driver.params, nodeState, range == null);
-    steps.push({ stage: 'driver', state: gate, minV: null, maxV: null,
-      note: `${input.driver.params.inverting ? 'Inverting' : 'Non-inverting'} driver: its output is ${gate} at reset${range == null ? ' (its own input default with the input open)' : ''}.` });
+  const leak = `, leakage up to ${fmt(leakageA * 1e6)} µA`;
+  return {
+    stage: 'pin', state: rd.pull === 'none' ? 'undetermined' : rd.pull === 'up' ? 'high' : 'low', minV: null, maxV: null,
+    note: rd.pull === 'none' ? `The pin floats at reset (input, no internal pull${leak}).`
+      : `The pin is an input with a ${fmt(rd.pullOhms / 1000)} kΩ ±${fmt(rd.pullTolerance * 100)} % internal pull-${rd.pull} at reset${leak}.`,
+  };
+}
+
+function networkStep(sources: readonly PullSource[], range: NodeRange | null, clamped: boolean, t: Thresholds, input: PowerOnInput): PowerOnStep {
+  const state = classify(range, t);
+  if (range == null) {
+    return { stage: 'pull-network', state, minV: null, maxV: null, note: 'Nothing pulls the node (no pin pull, no external pull, no driver input pull): it floats, and leakage or pick-up decide its level.' };
   }
-  steps.push({ stage: 'gate', state: gate, minV: null, maxV: null, note: `Gate ${gate}.` });
-  const motor: MotorState = gate === 'low' ? 'off' : gate === 'high' ? 'on' : 'may-run';
-  steps.push({ stage: 'motor', state: motor, minV: null, maxV: null, note: MOTOR_NOTE[motor] });
-  const motorCanStart = motor !== 'off';
-  const recommendedPull = motorCanStart ? recommendPull(input, input.driver?.params.inverting === true, limits) : null;
-  const fix = recommendedPull?.ok
-    ? ` Fit a ${fmt((recommendedPull.chosenOhms ?? 0) / 1000)} kΩ pull-${recommendedPull.to} on the pin to hold it ${recommendedPull.to === 'up' ? 'high' : 'low'} through reset.`
-    : recommendedPull ? ` ${recommendedPull.notes[0]}` : '';
-  return { steps, motorCanStart, note: MOTOR_NOTE[motor] + fix, recommendedPull };
+  const clampNote = clamped ? ` A pull above the pin's ${fmt(input.pin.railV)} V supply is clamped by the pin's protection diode near ${fmt(range.maxV)} V [mem]; a tolerant pin would not clamp.` : '';
+  return {
+    stage: 'pull-network', state, minV: range.minV, maxV: range.maxV,
+    note: `${sources.map(describeSource).join('; ')}: the node sits at ${rangeText(range)} over every tolerance corner and leakage, against ${fmt(t.lowMaxV)} V (low) and ${fmt(t.highMinV)} V (high), so it is ${state}.${clampNote}`,
+  };
+}
+
+/** One walk of the chain with a given set of pulls. */
+export function walkChain(input: PowerOnInput, sources: readonly PullSource[]): { steps: PowerOnStep[]; motorState: MotorState } {
+  const leakageA = input.pin.leakageA ?? DEFAULT_PIN_LEAKAGE_A;
+  const raw = nodeRangeV(sources, leakageA);
+  const { range, clamped } = raw == null ? { range: null, clamped: false } : clampToPin(raw, input.pin.railV, input.pin.tolerant === true);
+  const t = firstStageThresholds(input);
+  const net = networkStep(sources, range, clamped, t, input);
+  const steps: PowerOnStep[] = [pinStep(input, leakageA), net];
+  const d = input.driver;
+  const gate = d == null ? (net.state as LineState) : driverOutput(d.params, net.state as LineState);
+  if (d != null) {
+    steps.push({ stage: 'driver', state: gate, minV: null, maxV: null,
+      note: `${d.params.inverting ? 'Inverting' : 'Non-inverting'} driver: input ${net.state}, so its output is ${gate} at reset.` });
+  }
+  steps.push({ stage: 'gate', state: gate, minV: null, maxV: null,
+    note: d == null ? `The pin drives the gate directly: off only below ${fmt(t.lowMaxV)} V (half of VGS(th) min [judgement]).` : `Gate ${gate}, as the driver output.` });
+  const motorState: MotorState = gate === 'low' ? 'off' : gate === 'high' ? 'on' : 'may-run';
+  steps.push({ stage: 'motor', state: motorState, minV: null, maxV: null, note: MOTOR_NOTE[motorState] });
+  return { steps, motorState };
+}
+
+export function walkPowerOn(input: PowerOnInput): PowerOnResult {
+  const sources = pullSources(input);
+  const asEntered = walkChain(input, sources);
+  const motorCanStart = asEntered.motorState !== 'off';
+  const base = { steps: asEntered.steps, motorCanStart, motorStateAtReset: asEntered.motorState };
+  if (!motorCanStart) return { ...base, note: MOTOR_NOTE.off, recommendedPull: null, withRecommendedPull: null, pullDrawWhenHighA: 0 };
+  const advice = recommendPull(input, sources, firstStageThresholds(input), walkChain);
+  return { ...base, note: `${MOTOR_NOTE[asEntered.motorState]} ${advice.note}`, recommendedPull: advice.pull, withRecommendedPull: advice.rewalk, pullDrawWhenHighA: advice.drawWhenHighA };
 }

@@ -43,10 +43,37 @@ export const calcPullResistorRequestSchema = z
       internalPullOhms: nonNegative(),
       railV: positive(),
       maxCurrentA: positive(),
+      /** Fraction (0.3 = ±30 %); absent = 0 [api-contract.md, Extensions]. */
+      internalPullTolerance: z
+        .number()
+        .min(0, { error: 'The internal-pull tolerance is a fraction from 0 to 0.9 (0.3 means ±30 %).' })
+        .max(0.9, { error: 'The internal-pull tolerance is a fraction from 0 to 0.9 (0.3 means ±30 %).' })
+        .optional(),
+      /** Pin input leakage in A; absent = 0. */
+      leakageA: z
+        .number()
+        .min(0, { error: 'Pin leakage is a current in A from 0 to 0.001 (1 µA is 0.000001).' })
+        .max(1e-3, { error: 'Pin leakage is a current in A from 0 to 0.001 (1 µA is 0.000001).' })
+        .optional(),
     }),
-    external: z.object({ to: z.enum(['up', 'down']), railV: nonNegative() }),
+    external: z.object({
+      to: z.enum(['up', 'down']),
+      railV: nonNegative(),
+      /** Fraction (0.01 = ±1 %); absent = 0. */
+      tolerance: z
+        .number()
+        .min(0, { error: 'The resistor tolerance is a fraction from 0 to 0.2 (0.01 means ±1 %).' })
+        .max(0.2, { error: 'The resistor tolerance is a fraction from 0 to 0.2 (0.01 means ±1 %).' })
+        .optional(),
+    }),
     node: z.object({ mustBe: z.enum(['low', 'high']), limitV: nonNegative() }),
     series: z.enum(E_SERIES_NAMES),
+    /** Largest resistance worth fitting; absent = 1 MΩ. */
+    ceilingOhms: z
+      .number()
+      .positive({ error: 'The ceiling is a resistance in Ω above 0 and at most 100 MΩ (1e8).' })
+      .max(1e8, { error: 'The ceiling is a resistance in Ω above 0 and at most 100 MΩ (1e8).' })
+      .optional(),
   })
   .superRefine((b, ctx) => {
     if (b.pin.internalPull !== 'none' && !(b.pin.internalPullOhms > 0)) {

@@ -51,7 +51,7 @@ export function drawPowerOn(layout: ReportLayout, match: DesignMatch): void {
   layout.paragraph(p.motorCanStart ? `The motor CAN start at power-on or reset. ${p.note}` : `The motor stays off through power-on and reset. ${p.note}`, { bold: true });
   const pull = p.recommendedPull;
   layout.gap(3);
-  if (pull == null) layout.paragraph('Recommended pull resistor: none needed.');
+  if (pull == null) layout.paragraph(p.motorCanStart ? 'Recommended pull resistor: none keeps the motor off; see the note above for what to change.' : 'Recommended pull resistor: none needed.', { bold: p.motorCanStart });
   else if (pull.ok && pull.chosenOhms != null) {
     const node = pull.nodeV == null ? '' : `; the node then sits at ${quantity(pull.nodeV, 'V')}`;
     const current = pull.activeCurrentA == null ? '' : `, and the pin carries ${quantity(pull.activeCurrentA, 'A')} when it drives the other level`;
