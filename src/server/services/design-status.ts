@@ -40,13 +40,14 @@ export async function verifyInput(input: DesignInput, includePending: boolean, k
 }
 
 /** Verification that cannot even run (a revision that no longer validates, a motor gone) counts as not holding. */
-async function issuesAt(k: Db, designId: number, revision: number): Promise<ReadinessIssue[]> {
+async function verifyAt(k: Db, designId: number, revision: number): Promise<{ issues: ReadinessIssue[]; verification: Verification | null }> {
   try {
     const row = await k('design_revisions').where({ design_id: designId, revision }).first('input_json');
-    if (!row) return [{ path: 'revision', message: `revision ${revision} is missing` }];
-    return (await verifyInput(parseStoredInput(row.input_json, designId, revision), false, k)).issues;
+    if (!row) return { issues: [{ path: 'revision', message: `revision ${revision} is missing` }], verification: null };
+    const verification = await verifyInput(parseStoredInput(row.input_json, designId, revision), false, k);
+    return { issues: verification.issues, verification };
   } catch (err) {
-    if (err instanceof ServiceError) return [{ path: 'design', message: err.message }];
+    if (err instanceof ServiceError) return { issues: [{ path: 'design', message: err.message }], verification: null };
     throw err;
   }
 }
@@ -67,7 +68,7 @@ export async function setDesignStatus(user: SessionUser, id: number, status: Des
     if (row.status === status) return;
     if (status === 'ready') {
       // Checked under the row lock: a part change committing meanwhile re-verifies after this commits.
-      const issues = await issuesAt(trx, id, row.current_revision);
+      const { issues } = await verifyAt(trx, id, row.current_revision);
       if (issues.length) throw new ServiceError(409, 'This design cannot go on the shortlist yet: some picks do not hold with its inputs at the current catalogue.', issues);
     }
     await trx('designs').where({ id }).update({
@@ -82,9 +83,15 @@ export async function setDesignStatus(user: SessionUser, id: number, status: Des
 export interface ReverifyOutcome {
   designId: number;
   name: string;
+  /** Ready when the re-verification began (a design already in draft is left as it is). */
+  wasReady: boolean;
   /** True when the design still holds (or was not ready, so nothing was at stake). */
   holds: boolean;
   issues: ReadinessIssue[];
+  /** The reason recorded when it went back to draft. */
+  reason: string | null;
+  /** The match it was judged on (null when not ready or when verification could not run). */
+  verification: Verification | null;
 }
 
 /**
@@ -94,9 +101,10 @@ export interface ReverifyOutcome {
 export async function reverifyDesign(designId: number, actor: SessionUser | null, trigger: { partIds: number[]; reason: string }): Promise<ReverifyOutcome> {
   return db().transaction(async (trx) => {
     const row = await lockDesign(trx, designId);
-    if (row.status !== 'ready') return { designId, name: row.name, holds: true, issues: [] };
-    const issues = await issuesAt(trx, designId, row.current_revision);
-    if (issues.length === 0) return { designId, name: row.name, holds: true, issues };
+    const base = { designId, name: row.name, reason: null };
+    if (row.status !== 'ready') return { ...base, wasReady: false, holds: true, issues: [], verification: null };
+    const { issues, verification } = await verifyAt(trx, designId, row.current_revision);
+    if (issues.length === 0) return { ...base, wasReady: true, holds: true, issues, verification };
     const reason = clip(`${trigger.reason}: ${issues.map((i) => i.message).join('; ')}`);
     await trx('designs').where({ id: designId }).update({
       status: 'draft', ready_at: null, status_reason: reason, status_changed_at: trx.fn.now(3), version: row.version + 1, updated_at: trx.fn.now(3),
@@ -107,7 +115,7 @@ export async function reverifyDesign(designId: number, actor: SessionUser | null
       after: { status: 'draft', revision: row.current_revision, reasons: issues, trigger },
       note: reason,
     });
-    return { designId, name: row.name, holds: false, issues };
+    return { ...base, wasReady: true, holds: false, issues, reason, verification };
   });
 }
 
