@@ -14,6 +14,8 @@ export interface BomLine {
   description: string;
   alternates: string;
   referenceDesignators: string;
+  /** Verdict and review status of the line's pick and of each alternate at the current catalogue. */
+  status: string;
 }
 
 export const BOM_COLUMNS: readonly { key: keyof BomLine; header: string }[] = [
@@ -25,6 +27,7 @@ export const BOM_COLUMNS: readonly { key: keyof BomLine; header: string }[] = [
   { key: 'description', header: 'Description' },
   { key: 'alternates', header: 'Alternates' },
   { key: 'referenceDesignators', header: 'Reference designators' },
+  { key: 'status', header: 'Status at current catalogue' },
 ];
 
 const ROLE_LINES: { role: PartRole; label: string; refdes: string }[] = [
@@ -38,29 +41,35 @@ export interface BomInput {
   motor: { manufacturer: string; mpn: string; description: string } | null;
   partsById: Map<number, Part>;
   pull: RecommendedPull | null;
+  /** Each pick's verdict and review status at the current catalogue (src/lib/readiness.ts pickStatus). */
+  statusOf?: (role: PartRole, partId: number) => string;
+  /** The catalogue motor's review status and lifecycle, in words. */
+  motorStatus?: string;
 }
 
-export function buildBom({ input, motor, partsById, pull }: BomInput): BomLine[] {
+const NOT_CHECKED = 'not checked';
+
+export function buildBom({ input, motor, partsById, pull, statusOf, motorStatus }: BomInput): BomLine[] {
   const boards = input.boardQuantity;
   const lines: Omit<BomLine, 'line'>[] = [];
   if (motor) {
-    lines.push({ role: 'Motor', quantity: boards, manufacturer: motor.manufacturer, partNumber: motor.mpn, description: motor.description, alternates: '', referenceDesignators: 'M1' });
+    lines.push({ role: 'Motor', quantity: boards, manufacturer: motor.manufacturer, partNumber: motor.mpn, description: motor.description, alternates: '', referenceDesignators: 'M1', status: motorStatus ?? NOT_CHECKED });
   }
   for (const { role, label, refdes } of ROLE_LINES) {
     const sel = input.selections[role];
     const chosen = sel.chosenPartId == null ? undefined : partsById.get(sel.chosenPartId);
     if (!chosen) continue;
-    const alternates = sel.alternatePartIds
-      .map((id) => partsById.get(id))
-      .filter((p): p is Part => p !== undefined)
-      .map((p) => `${p.mpn} (${p.manufacturer})`)
-      .join('; ');
-    lines.push({ role: label, quantity: boards, manufacturer: chosen.manufacturer, partNumber: chosen.mpn, description: chosen.description, alternates, referenceDesignators: refdes });
+    const alternateParts = sel.alternatePartIds.map((id) => partsById.get(id)).filter((p): p is Part => p !== undefined);
+    const alternates = alternateParts.map((p) => `${p.mpn} (${p.manufacturer})`).join('; ');
+    const say = (p: Part): string => (statusOf ? statusOf(role, p.id as number) : NOT_CHECKED);
+    const status = [say(chosen), ...alternateParts.map((p) => `alternate ${p.mpn}: ${say(p)}`)].join('; ');
+    lines.push({ role: label, quantity: boards, manufacturer: chosen.manufacturer, partNumber: chosen.mpn, description: chosen.description, alternates, referenceDesignators: refdes, status });
   }
   if (pull && pull.ok && pull.chosenOhms != null) {
     lines.push({
       role: `Pull-${pull.to} resistor (power-on state)`, quantity: boards, manufacturer: 'any', partNumber: `${formatOhms(pull.chosenOhms)} ±1 %, 0.1 W`,
       description: `Holds the control line ${pull.to === 'down' ? 'low' : 'high'} through reset (to ${pull.railV} V)`, alternates: '', referenceDesignators: 'R1',
+      status: 'sized by the power-on walk',
     });
   }
   return lines.map((l, i) => ({ line: i + 1, ...l }));

@@ -173,7 +173,7 @@ describe('bill of materials', () => {
     expect(res.headers['content-disposition']).toMatch(/attachment; filename=".+-rev\d+\.csv"/);
     const parsed = Papa.parse<Record<string, string>>(res.body as string, { header: true, skipEmptyLines: true });
     expect(parsed.errors).toEqual([]);
-    expect(parsed.meta.fields).toEqual(['Line', 'Role', 'Quantity', 'Manufacturer', 'Part number', 'Description', 'Alternates', 'Reference designators']);
+    expect(parsed.meta.fields).toEqual(['Line', 'Role', 'Quantity', 'Manufacturer', 'Part number', 'Description', 'Alternates', 'Reference designators', 'Status at current catalogue']);
     const sw = await knex('parts').where({ id: design.input.selections.switch.chosenPartId }).first();
     const q1 = parsed.data.find((r) => r['Reference designators'] === 'Q1');
     expect(q1?.['Part number']).toBe(sw.mpn);

@@ -96,6 +96,10 @@ export interface DesignSummary {
   ownerId: number;
   ownerName: string;
   status: DesignStatus;
+  /** Why the status last changed when the system changed it (back to draft after a catalogue change); null otherwise. */
+  statusReason: string | null;
+  /** When the status last changed (ISO, UTC); null when it never changed since creation. */
+  statusChangedAt: string | null;
   revision: number;
   updatedAt: string;
 }

@@ -23,6 +23,8 @@ export interface DesignReportData {
   match: DesignMatch;
   bom: BomLine[];
   partsById: Map<number, Part>;
+  /** The readiness rule at the current catalogue (src/lib/readiness.ts); absent in older callers. */
+  readiness?: { issues: { path: string; message: string }[]; acceptedResetStart: string | null };
 }
 
 export interface DesignReportOptions {
@@ -44,6 +46,19 @@ function drawTitleBlock(layout: ReportLayout, data: DesignReportData): void {
   const status = d.status === 'ready' ? 'marked ready' : 'draft';
   layout.paragraph(`Design ${d.id}, revision ${d.revision} (${status}), owned by ${d.ownerName}. Generated ${isoMinute(d.generatedAt)}.`, { color: MUTED });
   layout.paragraph(`Motor ${data.match.motor.label} on a ${sig(data.input.supply.nomV)} V supply, switched low-side from ${sig(data.input.logic.railV)} V logic.`, { color: MUTED });
+}
+
+/** Sign-off check: whether the revision holds at the current catalogue, and every reason it does not. */
+function drawSignOff(layout: ReportLayout, data: DesignReportData): void {
+  const r = data.readiness;
+  if (!r) return;
+  layout.heading('Sign-off check at the current catalogue');
+  if (r.issues.length === 0) layout.paragraph('✓ Holds: every chosen part and alternate passes (or is marginal only on margins), all approved, and the motor stays off at reset.', { bold: true });
+  else {
+    layout.paragraph(`✕ Does not hold: ${r.issues.length} reason${r.issues.length === 1 ? '' : 's'}. ${data.design.status === 'ready' ? 'It is marked ready but will go back to draft on its next check.' : 'It cannot be marked ready until each is resolved.'}`, { bold: true });
+    r.issues.forEach((i) => layout.bullet(`${i.path}: ${i.message}`));
+  }
+  if (r.acceptedResetStart) layout.paragraph(`The motor may run at power-up or reset; the designer recorded that this is intended: “${r.acceptedResetStart}”`, { bold: true });
 }
 
 function setMetadata(pdf: PDFDocument, design: DesignReportData['design']): void {
@@ -70,13 +85,14 @@ export async function buildDesignReportPdf(data: DesignReportData, options: Desi
     verdictMarks: faceHasChars(fonts.regular, VERDICT_MARKS) && faceHasChars(fonts.bold, VERDICT_MARKS),
   };
   drawTitleBlock(layout, data);
+  drawSignOff(layout, data);
   drawInputs(layout, data.input, data.match.motor);
   drawMotorModel(layout, data.match.motor);
   drawWorstCase(layout, data.match);
   drawSwitchRole(layout, ctx);
   drawGateDriveRole(layout, ctx);
   drawDiodeRole(layout, ctx);
-  drawPowerOn(layout, data.match);
+  drawPowerOn(layout, data.match, data.readiness?.acceptedResetStart ?? null);
   drawBom(layout, data.bom);
   drawAssumptions(layout);
   drawCautions(layout, data.match);

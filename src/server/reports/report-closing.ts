@@ -26,9 +26,10 @@ const BOM_TABLE_COLUMNS: readonly (TableColumn & { key: keyof BomLine })[] = [
   { key: 'quantity', title: 'Qty', widthFraction: 0.06, align: 'right' },
   { key: 'manufacturer', title: 'Manufacturer', widthFraction: 0.13 },
   { key: 'partNumber', title: 'Part number', widthFraction: 0.13 },
-  { key: 'description', title: 'Description', widthFraction: 0.23 },
-  { key: 'alternates', title: 'Alternates', widthFraction: 0.19 },
+  { key: 'description', title: 'Description', widthFraction: 0.15 },
+  { key: 'alternates', title: 'Alternates', widthFraction: 0.14 },
   { key: 'referenceDesignators', title: 'Ref.', widthFraction: 0.07 },
+  { key: 'status', title: 'Status now', widthFraction: 0.13 },
 ];
 
 const STAGE_NAMES: Readonly<Record<PowerOnStep['stage'], string>> = {
@@ -40,7 +41,7 @@ function stepVoltage(step: PowerOnStep): string {
   return step.minV === step.maxV ? quantity(step.minV, 'V') : `${sig(step.minV)}–${sig(step.maxV)} V`;
 }
 
-export function drawPowerOn(layout: ReportLayout, match: DesignMatch): void {
+export function drawPowerOn(layout: ReportLayout, match: DesignMatch, acceptedResetStart: string | null = null): void {
   layout.heading('Power-on state');
   const p = match.powerOn;
   if (p == null) {
@@ -59,6 +60,7 @@ export function drawPowerOn(layout: ReportLayout, match: DesignMatch): void {
     layout.paragraph(`Recommended pull resistor: ${quantity(pull.chosenOhms, 'Ω')} ${to} (allowed ${quantity(pull.minOhms, 'Ω')} to ${quantity(pull.maxOhms, 'Ω')})${node}${current}.`);
   } else layout.paragraph('Recommended pull resistor: no standard value fits; see the notes below.', { bold: true });
   pull?.notes.forEach((n) => layout.paragraph(n, { sizePt: 8.5, color: MUTED, indentPt: 10 }));
+  if (acceptedResetStart) layout.paragraph(`Start at reset recorded as intended by the designer: “${acceptedResetStart}”. Guard the moving parts and verify on the real board.`, { bold: true });
 }
 
 export function drawBom(layout: ReportLayout, bom: readonly BomLine[]): void {

@@ -4,6 +4,7 @@ import type { Part } from '../../lib/domain/parts.ts';
 import type { DesignMatch } from '../../lib/design-match.ts';
 import { checkRow, money, quantity, sig, summaryOf, verdictText } from './report-format.ts';
 import type { ReportLayout } from './report-layout.ts';
+import { reviewWords } from '../../lib/readiness.ts';
 import { drawTable, tableHeightPt, type TableColumn } from './report-table.ts';
 
 /** A chosen part's facts and checks stay on one page when together they take less than this. */
@@ -62,7 +63,7 @@ function keepWithPt(layout: ReportLayout, entry: RoleEntry | undefined): number 
 
 function drawChosen(layout: ReportLayout, ctx: RoleContext, label: string, entry: RoleEntry): void {
   layout.subheading(`${label}: ${entry.mpn}`, keepWithPt(layout, entry));
-  const review = entry.reviewStatus === 'approved' ? '' : `, catalogue review ${entry.reviewStatus}`;
+  const review = entry.reviewStatus === 'approved' ? '' : `, ${reviewWords(entry.reviewStatus)}`;
   layout.keyValues([
     ['Part', `${entry.mpn} (${entry.manufacturer}), ${entry.package || 'package not given'}`],
     ['Verdict', `${verdictText(entry.verdict, ctx.verdictMarks)} (score ${sig(entry.score)})`],
@@ -84,7 +85,8 @@ function drawAlternates(layout: ReportLayout, ctx: RoleContext, list: readonly R
     const entry = findEntry(list, id);
     const part = ctx.partsById.get(id);
     if (!entry) return [part?.mpn ?? `part ${id}`, part?.manufacturer ?? '—', '—', '—', 'Not among the ranked candidates for this design.'];
-    return [entry.mpn, entry.manufacturer, verdictText(entry.verdict, ctx.verdictMarks), money(entry.priceAtQty, true), summaryOf(entry.checks)];
+    const verdict = verdictText(entry.verdict, ctx.verdictMarks) + (entry.reviewStatus === 'approved' ? '' : ` (${reviewWords(entry.reviewStatus)})`);
+    return [entry.mpn, entry.manufacturer, verdict, money(entry.priceAtQty, true), summaryOf(entry.checks)];
   });
   layout.subheading('Alternates', 40);
   drawTable(layout, ALTERNATE_COLUMNS, rows);

@@ -11,6 +11,8 @@ export interface DbDesignRow {
   name: string;
   status: DesignStatus;
   ready_at: Date | null;
+  status_reason: string | null;
+  status_changed_at: Date | null;
   current_revision: number;
   version: number;
   created_at: Date;
@@ -47,6 +49,8 @@ function summaryFromRow(row: DbDesignRow): DesignSummary {
     ownerId: row.owner_id,
     ownerName: row.owner_name ?? '',
     status: row.status,
+    statusReason: row.status_reason ?? null,
+    statusChangedAt: row.status_changed_at ? iso(row.status_changed_at) : null,
     revision: row.current_revision,
     updatedAt: iso(row.updated_at),
   };

@@ -1,10 +1,10 @@
-/** Designs: create, revise (earlier revisions kept), mark ready, match against the catalogue. */
+/** Designs: create, revise (earlier revisions kept), match against the catalogue. Status flips: design-status.ts. */
 import type { Knex } from 'knex';
 import { db } from '../db.ts';
-import type { Design, DesignInput, DesignStatus, DesignSummary } from '../../lib/domain/design.ts';
+import type { Design, DesignInput, DesignSummary } from '../../lib/domain/design.ts';
 import type { MotorParams, Part } from '../../lib/domain/parts.ts';
 import type { SessionUser } from '../auth/types.ts';
-import { effectiveSwitchList, matchDesign, type DesignMatch } from '../../lib/design-match.ts';
+import { matchDesign, type DesignMatch } from '../../lib/design-match.ts';
 import { findDesignRow, insertRevision, listDesignRows, loadDesign, replaceDesignParts, type DesignListQuery } from '../repos/designs.ts';
 import { hydrateParts } from '../repos/parts.ts';
 import type { DbPartRow } from '../repos/part-rows.ts';
@@ -63,7 +63,7 @@ export async function createDesign(user: SessionUser, input: DesignInput): Promi
   return getDesign(id);
 }
 
-const stale = (current: number) =>
+export const staleDesign = (current: number): ServiceError =>
   new ServiceError(409, 'This design was changed after you loaded it. Reload to see the change, then apply yours again.', [
     { path: 'version', message: `the design is now at version ${current}` },
   ]);
@@ -74,7 +74,7 @@ export async function updateDesign(user: SessionUser, id: number, input: DesignI
     const row = await trx('designs').where({ id }).forUpdate().first();
     if (!row) throw notFound('The design');
     if (!canEditDesign(user, row.owner_id)) throw new ServiceError(403, 'Only the owner of a design (or an admin) can change it.');
-    if (row.version !== expectedVersion) throw stale(row.version);
+    if (row.version !== expectedVersion) throw staleDesign(row.version);
     const current = await trx('design_revisions').where({ design_id: id, revision: row.current_revision }).first();
     if (current && current.input_json === JSON.stringify(input)) return;
     await assertReferencesExist(trx, input);
@@ -87,52 +87,10 @@ export async function updateDesign(user: SessionUser, id: number, input: DesignI
   return getDesign(id);
 }
 
-/**
- * A design goes on the buyers' shortlist only when its picks are electrically safe in it: every chosen part
- * at least marginal and every alternate passing, all approved and not obsolete (the match's candidates).
- */
-async function readinessIssues(input: DesignInput): Promise<{ path: string; message: string }[]> {
-  const match = await matchInput(input, false);
-  const lists = { switch: effectiveSwitchList(match), driver: match.driver, diode: match.diode };
-  const issues: { path: string; message: string }[] = [];
-  for (const role of ['switch', 'driver', 'diode'] as const) {
-    const sel = input.selections[role];
-    const find = (partId: number) => lists[role].find((e) => e.partId === partId);
-    const needed = role !== 'driver' || match.driverNeeded;
-    if (sel.chosenPartId == null) {
-      if (needed) issues.push({ path: `selections.${role}.chosenPartId`, message: `choose a ${role} first` });
-    } else if (!find(sel.chosenPartId) || find(sel.chosenPartId)!.verdict === 'fail') {
-      issues.push({ path: `selections.${role}.chosenPartId`, message: `${find(sel.chosenPartId)?.mpn ?? `part ${sel.chosenPartId}`} does not hold in this design (or is not approved)` });
-    }
-    sel.alternatePartIds.forEach((partId, i) => {
-      const e = find(partId);
-      if (!e || e.verdict !== 'pass') issues.push({ path: `selections.${role}.alternatePartIds.${i}`, message: `${e?.mpn ?? `part ${partId}`} does not pass every check in this design` });
-    });
-  }
-  return issues;
-}
-
-export async function setDesignStatus(user: SessionUser, id: number, status: DesignStatus, expectedVersion: number): Promise<Design> {
-  if (status === 'ready') {
-    const issues = await readinessIssues((await getDesign(id)).input);
-    if (issues.length) throw new ServiceError(409, 'This design cannot go on the shortlist yet: some picks do not hold with its inputs.', issues);
-  }
-  await db().transaction(async (trx) => {
-    const row = await trx('designs').where({ id }).forUpdate().first();
-    if (!row) throw notFound('The design');
-    if (!canEditDesign(user, row.owner_id)) throw new ServiceError(403, 'Only the owner of a design (or an admin) can mark it ready.');
-    if (row.version !== expectedVersion) throw stale(row.version);
-    if (row.status === status) return;
-    await trx('designs').where({ id }).update({ status, ready_at: status === 'ready' ? trx.fn.now(3) : null, version: row.version + 1, updated_at: trx.fn.now(3) });
-    await insertAuditEvent(trx, { actorUserId: user.id, action: `design.${status}`, entityType: 'design', entityId: id, before: { status: row.status }, after: { status } });
-  });
-  return getDesign(id);
-}
-
 /** The motor a design uses: the catalogue part's datasheet points, or the ones entered by hand. */
-export async function resolveMotor(input: DesignInput): Promise<{ label: string; params: MotorParams; part: Part | null }> {
+export async function resolveMotor(input: DesignInput, k: Knex | Knex.Transaction = db()): Promise<{ label: string; params: MotorParams; part: Part | null }> {
   if (input.motor.source === 'manual') return { label: input.motor.label, params: input.motor.params, part: null };
-  const part = (await partsByIds([input.motor.partId])).get(input.motor.partId);
+  const part = (await partsByIds([input.motor.partId], k)).get(input.motor.partId);
   if (!part || part.category !== 'motor') {
     throw new ServiceError(400, 'The design refers to a motor that is not in the catalogue.', [{ path: 'motor.partId', message: `no motor with id ${input.motor.partId}` }]);
   }
@@ -141,10 +99,13 @@ export async function resolveMotor(input: DesignInput): Promise<{ label: string;
 
 export type ResolvedMotor = Awaited<ReturnType<typeof resolveMotor>>;
 
-/** Ranks the catalogue for a design; pass the motor when the caller has already resolved it. */
-export async function matchInput(input: DesignInput, includePending: boolean, resolved?: ResolvedMotor): Promise<DesignMatch> {
-  const motor = resolved ?? (await resolveMotor(input));
-  const catalogue = await loadCandidates(db(), input, motor.params, includePending);
+/**
+ * Ranks the catalogue for a design; pass the motor when the caller has already resolved it, and a
+ * transaction when the answer decides a status flip made in it.
+ */
+export async function matchInput(input: DesignInput, includePending: boolean, resolved?: ResolvedMotor, k: Knex | Knex.Transaction = db()): Promise<DesignMatch> {
+  const motor = resolved ?? (await resolveMotor(input, k));
+  const catalogue = await loadCandidates(k, input, motor.params, includePending);
   return matchDesign(input, motor.label, motor.params, catalogue);
 }
 

@@ -8,11 +8,12 @@ import { findPerson, insertAuditEvent } from '../repos/audit.ts';
 import { canCurate, canManageSupply, requireThat } from './parts-access.ts';
 import { notFound, ServiceError, staleVersion } from './errors.ts';
 import { sendRejectionNotice } from './parts-review-mail.ts';
+import { reverifyDesignsUsingParts } from './design-status.ts';
 
 /** Approve a pending (or draft) part, or reject a pending one with a reason the proposer is sent. */
 export async function reviewPart(actor: SessionUser | null, id: number, decision: ReviewDecision, baseUrl: string): Promise<Part> {
   const user = requireThat(actor, canCurate, 'review parts');
-  const { part, proposerId } = await db().transaction(async (trx) => {
+  const { part, proposerId, from } = await db().transaction(async (trx) => {
     const row = await lockPartRow(trx, id);
     if (!row) throw notFound('The part');
     if (row.version !== decision.version) throw staleVersion(row.version);
@@ -27,8 +28,9 @@ export async function reviewPart(actor: SessionUser | null, id: number, decision
     await setReview(trx, id, status, decision.reason || null);
     const after = (await loadPart(trx, id))!;
     await insertAuditEvent(trx, { actorUserId: user.id, action: `part.${decision.decision}`, entityType: 'part', entityId: id, before, after, note: decision.reason || null });
-    return { part: after, proposerId: row.created_by };
+    return { part: after, proposerId: row.created_by, from: row.review_status };
   });
+  await reverifyDesignsUsingParts([id], user, `${part.mpn} (part ${id}) review ${from} → ${part.reviewStatus}`);
   if (decision.decision === 'reject') {
     const proposer = await findPerson(db(), proposerId);
     if (proposer) await sendRejectionNotice({ to: proposer, part, reason: decision.reason, reviewer: user, link: `${baseUrl}/parts/${id}` });
@@ -39,7 +41,7 @@ export async function reviewPart(actor: SessionUser | null, id: number, decision
 /** Moves a part between active, NRND, last-buy and obsolete with the date it takes effect and a note. */
 export async function changeLifecycle(actor: SessionUser | null, id: number, change: LifecycleChange): Promise<Part> {
   const user = requireThat(actor, canCurate, 'change lifecycles');
-  return db().transaction(async (trx) => {
+  const { part, from } = await db().transaction(async (trx) => {
     const row = await lockPartRow(trx, id);
     if (!row) throw notFound('The part');
     if (row.version !== change.version) throw staleVersion(row.version);
@@ -47,8 +49,10 @@ export async function changeLifecycle(actor: SessionUser | null, id: number, cha
     await setLifecycle(trx, id, change.lifecycle, change.effectiveDate, change.note);
     const after = (await loadPart(trx, id))!;
     await insertAuditEvent(trx, { actorUserId: user.id, action: 'part.lifecycle', entityType: 'part', entityId: id, before, after, note: change.note });
-    return after;
+    return { part: after, from: row.lifecycle };
   });
+  await reverifyDesignsUsingParts([id], user, `${part.mpn} (part ${id}) lifecycle ${from} → ${part.lifecycle}`);
+  return part;
 }
 
 /** Replaces the sources and price breaks of a part (buyers and curators). */

@@ -18,6 +18,7 @@ import { listDatasheets } from '../repos/datasheets.ts';
 import { designsUsingPart } from '../repos/designs.ts';
 import { datasheetStore } from '../storage/index.ts';
 import { canCurate, canPropose, requireThat, requireUser } from './parts-access.ts';
+import { reverifyDesignsUsingParts } from './design-status.ts';
 import { notFound, ServiceError, staleVersion } from './errors.ts';
 
 /** Curators get what they ask for (approved by default); everyone else proposes (pending). */
@@ -56,7 +57,7 @@ export async function createPart(actor: SessionUser | null, input: PartInput): P
  */
 export async function updatePart(actor: SessionUser | null, id: number, input: PartUpdate): Promise<Part> {
   const user = requireUser(actor);
-  return db().transaction(async (trx) => {
+  const { before, after } = await db().transaction(async (trx) => {
     const row = await lockPartRow(trx, id);
     if (!row) throw notFound('The part');
     const curator = canCurate(user);
@@ -77,8 +78,12 @@ export async function updatePart(actor: SessionUser | null, id: number, input: P
     if (input.sources !== undefined) await replaceSources(trx, id, next.sources);
     const after = (await loadPart(trx, id))!;
     await insertAuditEvent(trx, { actorUserId: user.id, action: 'part.update', entityType: 'part', entityId: id, before, after });
-    return after;
+    return { before, after };
   });
+  // Right after the change commits: ready designs using the part must still hold, or go back to draft.
+  const review = before.reviewStatus !== after.reviewStatus ? `, review ${before.reviewStatus} → ${after.reviewStatus}` : '';
+  await reverifyDesignsUsingParts([id], user, `${after.mpn} (part ${id}) was edited${review}`);
+  return after;
 }
 
 /** Deletes a part with its parameters, sources and datasheet records; the files go once the rows are gone. */
@@ -88,11 +93,14 @@ export async function deletePart(actor: SessionUser | null, id: number, version:
     const row = await lockPartRow(trx, id);
     if (!row) throw notFound('The part');
     if (version !== null && row.version !== version) throw staleVersion(row.version);
+    // Refused while any design uses it: the design_parts rows would cascade away while the saved revisions
+    // still name the part, so a ready design would silently lose a BOM line. Obsolete retires a part and
+    // re-verifies its designs instead.
     const uses = await designsUsingPart(trx, id);
     if (uses.length > 0) {
-      throw new ServiceError(409, `The part is used by ${uses.length} design line(s); take it out of those designs or mark it obsolete instead.`, [
-        { path: 'id', message: `used by ${[...new Set(uses.map((u) => u.name))].slice(0, 3).join(', ')}` },
-      ]);
+      const designs = [...new Map(uses.map((u) => [u.id, u])).values()];
+      throw new ServiceError(409, `The part is used by ${designs.length} design(s); take it out of those designs or mark it obsolete instead.`,
+        designs.slice(0, 20).map((d) => ({ path: 'id', message: `used by design ${d.id} “${d.name}” (${d.status})` })));
     }
     const before = await loadPart(trx, id);
     const sheets = await listDatasheets(trx, id);

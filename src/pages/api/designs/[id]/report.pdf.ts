@@ -18,6 +18,7 @@ export const GET: APIRoute = ({ params, url }) =>
       match: out.match,
       bom: out.bom,
       partsById: out.partsById,
+      readiness: out.readiness,
     });
     return new Response(Buffer.from(pdf), {
       headers: {

@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
 import { readJson, jsonError } from '../../../../server/http/responses.ts';
-import { setDesignStatus } from '../../../../server/services/designs.ts';
+import { setDesignStatus } from '../../../../server/services/design-status.ts';
 import { answer, routeId } from '../../../../server/services/errors.ts';
 
 const body = z.object({ status: z.enum(['draft', 'ready']), version: z.number().int().min(1) });

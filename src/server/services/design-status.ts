@@ -1,0 +1,151 @@
+/**
+ * Ready means verified, always. Marking ready re-runs the full match at the saved revision with approved
+ * parts only; a catalogue change re-verifies every ready design using the part right after it commits,
+ * and a design that no longer holds goes back to draft with the reason recorded (row, audit trail).
+ * Each flip happens in a transaction that locks the design row, so two flips cannot interleave.
+ */
+import { db, type Db } from '../db.ts';
+import type { Design, DesignInput, DesignStatus } from '../../lib/domain/design.ts';
+import type { DesignMatch } from '../../lib/design-match.ts';
+import { readinessIssues, type PartFacts, type ReadinessIssue } from '../../lib/readiness.ts';
+import type { SessionUser } from '../auth/types.ts';
+import { parseStoredInput, type DbDesignRow } from '../repos/designs.ts';
+import { insertAuditEvent } from '../repos/audit.ts';
+import { ServiceError, notFound } from './errors.ts';
+import { canEditDesign, getDesign, matchInput, partsByIds, resolveMotor, staleDesign } from './designs.ts';
+
+/** The column is VARCHAR(2000). */
+const REASON_MAX_CHARS = 2000;
+
+export interface Verification {
+  match: DesignMatch;
+  issues: ReadinessIssue[];
+  /** Catalogue facts of every picked part (the motor included), by id. */
+  parts: Map<number, PartFacts>;
+}
+
+const pickIds = (input: DesignInput): number[] =>
+  (['switch', 'driver', 'diode'] as const).flatMap((r) => [
+    ...(input.selections[r].chosenPartId != null ? [input.selections[r].chosenPartId as number] : []),
+    ...input.selections[r].alternatePartIds,
+  ]);
+
+/** Runs the full match for an input and applies the readiness rule to it. */
+export async function verifyInput(input: DesignInput, includePending: boolean, k: Db = db()): Promise<Verification> {
+  const motor = await resolveMotor(input, k);
+  const [match, byId] = await Promise.all([matchInput(input, includePending, motor, k), partsByIds(pickIds(input), k)]);
+  const parts = new Map<number, PartFacts>([...byId].map(([id, p]) => [id, { mpn: p.mpn, lifecycle: p.lifecycle, reviewStatus: p.reviewStatus }]));
+  const motorFacts = motor.part ? { mpn: motor.part.mpn, lifecycle: motor.part.lifecycle, reviewStatus: motor.part.reviewStatus } : null;
+  return { match, issues: readinessIssues(input, match, { parts, motor: motorFacts }), parts };
+}
+
+/** Verification that cannot even run (a revision that no longer validates, a motor gone) counts as not holding. */
+async function verifyAt(k: Db, designId: number, revision: number): Promise<{ issues: ReadinessIssue[]; verification: Verification | null }> {
+  try {
+    const row = await k('design_revisions').where({ design_id: designId, revision }).first('input_json');
+    if (!row) return { issues: [{ path: 'revision', message: `revision ${revision} is missing` }], verification: null };
+    const verification = await verifyInput(parseStoredInput(row.input_json, designId, revision), false, k);
+    return { issues: verification.issues, verification };
+  } catch (err) {
+    if (err instanceof ServiceError) return { issues: [{ path: 'design', message: err.message }], verification: null };
+    throw err;
+  }
+}
+
+const clip = (text: string): string => (text.length <= REASON_MAX_CHARS ? text : `${text.slice(0, REASON_MAX_CHARS - 1)}…`);
+
+async function lockDesign(k: Db, id: number): Promise<DbDesignRow> {
+  const row: DbDesignRow | undefined = await k('designs').where({ id }).forUpdate().first();
+  if (!row) throw notFound('The design');
+  return row;
+}
+
+export async function setDesignStatus(user: SessionUser, id: number, status: DesignStatus, expectedVersion: number): Promise<Design> {
+  await db().transaction(async (trx) => {
+    const row = await lockDesign(trx, id);
+    if (!canEditDesign(user, row.owner_id)) throw new ServiceError(403, 'Only the owner of a design (or an admin) can mark it ready.');
+    if (row.version !== expectedVersion) throw staleDesign(row.version);
+    if (row.status === status) return;
+    if (status === 'ready') {
+      // Checked under the row lock: a part change committing meanwhile re-verifies after this commits.
+      const { issues } = await verifyAt(trx, id, row.current_revision);
+      if (issues.length) throw new ServiceError(409, 'This design cannot go on the shortlist yet: some picks do not hold with its inputs at the current catalogue.', issues);
+    }
+    await trx('designs').where({ id }).update({
+      status, ready_at: status === 'ready' ? trx.fn.now(3) : null, status_reason: null, status_changed_at: trx.fn.now(3),
+      version: row.version + 1, updated_at: trx.fn.now(3),
+    });
+    await insertAuditEvent(trx, { actorUserId: user.id, action: `design.${status}`, entityType: 'design', entityId: id, before: { status: row.status }, after: { status, revision: row.current_revision } });
+  });
+  return getDesign(id);
+}
+
+export interface ReverifyOutcome {
+  designId: number;
+  name: string;
+  /** Ready when the re-verification began (a design already in draft is left as it is). */
+  wasReady: boolean;
+  /** True when the design still holds (or was not ready, so nothing was at stake). */
+  holds: boolean;
+  issues: ReadinessIssue[];
+  /** The reason recorded when it went back to draft. */
+  reason: string | null;
+  /** The match it was judged on (null when not ready or when verification could not run). */
+  verification: Verification | null;
+}
+
+/**
+ * Re-verifies one design if it is ready; one that no longer holds goes back to draft with the reason.
+ * `trigger` says what changed ("QX12 (part 17): lifecycle active → obsolete").
+ */
+export async function reverifyDesign(designId: number, actor: SessionUser | null, trigger: { partIds: number[]; reason: string }): Promise<ReverifyOutcome> {
+  return db().transaction(async (trx) => {
+    const row = await lockDesign(trx, designId);
+    const base = { designId, name: row.name, reason: null };
+    if (row.status !== 'ready') return { ...base, wasReady: false, holds: true, issues: [], verification: null };
+    const { issues, verification } = await verifyAt(trx, designId, row.current_revision);
+    if (issues.length === 0) return { ...base, wasReady: true, holds: true, issues, verification };
+    const reason = clip(`${trigger.reason}: ${issues.map((i) => i.message).join('; ')}`);
+    await trx('designs').where({ id: designId }).update({
+      status: 'draft', ready_at: null, status_reason: reason, status_changed_at: trx.fn.now(3), version: row.version + 1, updated_at: trx.fn.now(3),
+    });
+    await insertAuditEvent(trx, {
+      actorUserId: actor?.id ?? null, action: 'design.unready', entityType: 'design', entityId: designId,
+      before: { status: 'ready', revision: row.current_revision },
+      after: { status: 'draft', revision: row.current_revision, reasons: issues, trigger },
+      note: reason,
+    });
+    return { ...base, wasReady: true, holds: false, issues, reason, verification };
+  });
+}
+
+/** Ready designs that use any of the parts (motor, chosen or alternate), from the where-used rows. */
+async function readyDesignsUsing(k: Db, partIds: number[]): Promise<number[]> {
+  if (partIds.length === 0) return [];
+  const rows: { id: number }[] = await k('design_parts')
+    .join('designs', 'designs.id', 'design_parts.design_id')
+    .whereIn('design_parts.part_id', partIds)
+    .where('designs.status', 'ready')
+    .distinct('designs.id as id')
+    .orderBy('designs.id');
+  return rows.map((r) => r.id);
+}
+
+/**
+ * Called by the part services right after a change to a part commits (same request): every ready design
+ * using one of the parts is re-verified, each in its own locked transaction. Draft designs have no status
+ * at stake; they are judged afresh whenever they are opened or marked ready.
+ */
+export async function reverifyDesignsUsingParts(partIds: number[], actor: SessionUser | null, reason: string): Promise<ReverifyOutcome[]> {
+  const ids = await readyDesignsUsing(db(), partIds);
+  const outcomes: ReverifyOutcome[] = [];
+  for (const id of ids) outcomes.push(await reverifyDesign(id, actor, { partIds, reason }));
+  return outcomes;
+}
+
+/** Re-verifies the given designs (the shortlist opens with this), flipping any that no longer hold. */
+export async function reverifyDesigns(designIds: number[], actor: SessionUser | null, reason: string): Promise<ReverifyOutcome[]> {
+  const outcomes: ReverifyOutcome[] = [];
+  for (const id of designIds) outcomes.push(await reverifyDesign(id, actor, { partIds: [], reason }));
+  return outcomes;
+}
