@@ -13,6 +13,7 @@ import { calcMotor, type CalcMotorResponse } from './calc.ts';
 import { operatingPointAtSpeed, operatingPointAtTorque } from './motor-curve.ts';
 import { motorAtSupply, motorModelFromDatasheet } from './motor.ts';
 import type { SupplyReport } from './supply.ts';
+import { supplyReportForCase } from './supply-design.ts';
 
 export interface PriceAtQty {
   qty: number;
@@ -129,7 +130,7 @@ export function matchDesign(input: DesignInput, motorLabel: string, motor: Motor
     driver: decorate(ranking.driver, all, qty),
     diode: decorate(ranking.diode, all, qty),
     powerOn: selectedPowerOn(designCase, input, catalogue) ?? ranking.powerOn,
-    supply: null,
+    supply: supplyReportForCase(designCase),
     cautions: ranking.cautions,
     excluded: catalogue.excluded,
   };

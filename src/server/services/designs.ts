@@ -89,12 +89,15 @@ export async function updateDesign(user: SessionUser, id: number, input: DesignI
 
 /**
  * A design goes on the buyers' shortlist only when its picks are electrically safe in it: every chosen part
- * at least marginal and every alternate passing, all approved and not obsolete (the match's candidates).
+ * at least marginal and every alternate passing, all approved and not obsolete (the match's candidates), and
+ * no supply check failing.
  */
 async function readinessIssues(input: DesignInput): Promise<{ path: string; message: string }[]> {
   const match = await matchInput(input, false);
   const lists = { switch: effectiveSwitchList(match), driver: match.driver, diode: match.diode };
   const issues: { path: string; message: string }[] = [];
+  // A supply that cannot start the motor (or resets the controller) blocks ready like a failing pick.
+  for (const c of match.supply?.checks ?? []) if (!c.ok && c.severity !== 'margin') issues.push({ path: 'supply', message: c.note });
   for (const role of ['switch', 'driver', 'diode'] as const) {
     const sel = input.selections[role];
     const find = (partId: number) => lists[role].find((e) => e.partId === partId);
