@@ -1,5 +1,5 @@
 /**
- * Three demo designs of the invented Kestrel Fluidics scenario, owned by the demo designer. Their part
+ * Four demo designs of the invented Kestrel Fluidics scenario (the fourth in two revisions), owned by the demo designer. Their part
  * selections are not hard-coded: the seed ranks the demo catalogue with the engineering core and picks the
  * best passing part per line plus up to three passing alternates, as the workspace would suggest.
  */
@@ -18,7 +18,42 @@ const noSelections = (): DesignInput['selections'] => ({
   diode: { chosenPartId: null, alternatePartIds: [] },
 });
 
-type DemoDesign = Omit<DesignInput, 'motor' | 'selections'> & { motorMpn: string; ready?: boolean };
+type DemoInput = Omit<DesignInput, 'motor' | 'selections'>;
+
+/** A demo design; `laterRevisions` are saved after the first, each as a change to the one before. */
+type DemoDesign = DemoInput & { motorMpn: string; ready?: boolean; laterRevisions?: Partial<DemoInput>[] };
+
+/**
+ * The USB bench prototype of the P-20 pump (HVM-260P-060A: 3 Ω, I0 0.15 A, Kt 5.89 mN·m/A, 3 mN·m load).
+ * Rev 1 on a 0.5 A USB 2.0 port: the motor asks for 1.70 A (5.25 V, winding at 15 °C), the port holds
+ * 0.5 A, so the start torque is Kt·(0.5 − 0.15) = 2.06 mN·m < 3 mN·m: it never starts; the controller on the
+ * same port (3.0 V minimum behind a 0.3 V-dropout regulator) sees 0.5 A × 3.09 Ω = 1.55 V: brown-out.
+ * Rev 2 gives the motor its own 4 × AA NiMH pack (0.12 Ω) and the controller its own USB feed: all pass.
+ */
+const USB_PROTOTYPE: DemoDesign = {
+  name: 'P-20 bench prototype: from USB power to its own pack',
+  motorMpn: 'HVM-260P-060A',
+  supply: { minV: 4.75, nomV: 5.0, maxV: 5.25, preset: 'usb2-port', internalResistanceOhm: 0, continuousCurrentA: 0.5, currentLimitA: 0.5 },
+  wiringResistanceOhm: 0.15,
+  shuntResistanceOhm: 0,
+  logic: { railV: 3.3, highV: 2.9, lowV: 0.4, pinSourceCurrentA: 0.008, pinSinkCurrentA: 0.008, resetPull: 'none', resetPullOhms: 0, resetPullTolerance: 0, sharedSupply: { minSupplyV: 3.0, regulatorDropoutV: 0.3 } },
+  drive: { mode: 'pwm', frequencyHz: 20_000, dutyMin: 0.3, dutyMax: 0.95 },
+  ambientMinC: 15,
+  ambientMaxC: 35,
+  load: { kind: 'torque', torqueNm: 0.003 },
+  margins: { ...DEFAULT_DESIGN_MARGINS },
+  driverSupplyV: null,
+  boardQuantity: 5,
+  stallProtection: { kind: 'none' },
+  resetStartIntent: null,
+  laterRevisions: [
+    {
+      supply: { minV: 4.0, nomV: 4.8, maxV: 5.8, preset: '4xAA-nimh', internalResistanceOhm: 0.12, continuousCurrentA: 2.0, currentLimitA: null },
+      wiringResistanceOhm: 0.05,
+      logic: { railV: 3.3, highV: 2.9, lowV: 0.4, pinSourceCurrentA: 0.008, pinSinkCurrentA: 0.008, resetPull: 'none', resetPullOhms: 0, resetPullTolerance: 0, sharedSupply: null },
+    },
+  ],
+};
 
 export const demoDesigns: DemoDesign[] = [
   {
@@ -73,6 +108,7 @@ export const demoDesigns: DemoDesign[] = [
     stallProtection: { kind: 'none' },
     resetStartIntent: null,
   },
+  USB_PROTOTYPE,
 ];
 
 async function motorPart(knex: Knex, mpn: string) {
@@ -82,22 +118,34 @@ async function motorPart(knex: Knex, mpn: string) {
   return part;
 }
 
+/** Ranks the catalogue for one revision and takes the suggested picks, as the workspace would. */
+async function withSuggestedPicks(knex: Knex, rest: DemoInput, motor: Awaited<ReturnType<typeof motorPart>>): Promise<DesignInput> {
+  const draft: DesignInput = { ...rest, motor: { source: 'catalogue', partId: motor.id as number }, selections: noSelections() };
+  const match = matchDesign(draft, motor.mpn, motor.params, await loadCandidates(knex, draft, motor.params, false));
+  return { ...draft, selections: suggestSelections(match) };
+}
+
+/** Idempotent: a design already there (same owner and name) is left alone. */
 export async function seedDesigns(knex: Knex, ownerId: number): Promise<number> {
   let added = 0;
   for (const demo of demoDesigns) {
-    if (await knex('designs').where({ owner_id: ownerId, name: demo.name }).first()) continue;
-    const { motorMpn, ready, ...rest } = demo;
+    const { motorMpn, ready, laterRevisions = [], ...first } = demo;
+    if (await knex('designs').where({ owner_id: ownerId, name: first.name }).first()) continue;
     const motor = await motorPart(knex, motorMpn);
-    const draft: DesignInput = { ...rest, motor: { source: 'catalogue', partId: motor.id as number }, selections: noSelections() };
-    const match = matchDesign(draft, motor.mpn, motor.params, await loadCandidates(knex, draft, motor.params, false));
-    const input: DesignInput = { ...draft, selections: suggestSelections(match) };
+    const inputs: DesignInput[] = [await withSuggestedPicks(knex, first, motor)];
+    let previous: DemoInput = first;
+    for (const patch of laterRevisions) {
+      previous = { ...previous, ...patch };
+      inputs.push(await withSuggestedPicks(knex, previous, motor));
+    }
+    const current = inputs[inputs.length - 1];
     await knex.transaction(async (trx) => {
       const [id] = await trx('designs').insert({
-        owner_id: ownerId, name: input.name, current_revision: 1,
+        owner_id: ownerId, name: current.name, current_revision: inputs.length,
         status: ready ? 'ready' : 'draft', ready_at: ready ? trx.fn.now(3) : null,
       });
-      await insertRevision(trx, id, 1, input, ownerId);
-      await replaceDesignParts(trx, id, input);
+      for (const [i, input] of inputs.entries()) await insertRevision(trx, id, i + 1, input, ownerId);
+      await replaceDesignParts(trx, id, current);
     });
     added += 1;
   }

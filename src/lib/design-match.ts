@@ -13,6 +13,7 @@ import { calcMotor, type CalcMotorResponse } from './calc.ts';
 import { operatingPointAtSpeed, operatingPointAtTorque } from './motor-curve.ts';
 import { motorAtSupply, motorModelFromDatasheet } from './motor.ts';
 import type { SupplyReport } from './supply.ts';
+import { supplyReportForCase } from './supply-design.ts';
 
 export interface PriceAtQty {
   qty: number;
@@ -147,7 +148,7 @@ export function matchDesign(input: DesignInput, motorLabel: string, motor: Motor
     diodeForward: ranking.diodeForward,
     scoreExplanation: SCORE_EXPLANATION,
     powerOn: ranking.powerOn,
-    supply: null,
+    supply: supplyReportForCase(designCase),
     cautions: ranking.cautions,
     excluded: catalogue.excluded,
   };

@@ -24,15 +24,17 @@ function entry(partId: number, mpn: string, verdict: E['verdict'], checks: Check
 const OFF_WALK: PowerOnResult = {
   steps: [{ stage: 'motor', state: 'off', minV: null, maxV: null, note: 'off' }],
   motorCanStart: false, note: 'The gate is held low through reset: the motor stays off.', recommendedPull: null,
+  motorStateAtReset: 'off', withRecommendedPull: null, pullDrawWhenHighA: 0,
 };
 const RUNS_NO_FIX: PowerOnResult = {
   steps: [{ stage: 'motor', state: 'on', minV: null, maxV: null, note: 'on' }],
   motorCanStart: true, note: 'The gate is driven high at reset: the motor starts as soon as power is applied.',
-  recommendedPull: { to: 'down', railV: 0, maxOhms: null, minOhms: null, chosenOhms: null, nodeV: null, activeCurrentA: null, ok: false, notes: ['no value holds'] },
+  recommendedPull: { to: 'down', railV: 0, tolerance: 0.01, maxOhms: null, minOhms: null, chosenOhms: null, nodeV: null, activeCurrentA: null, ok: false, notes: ['no value holds'] },
+  motorStateAtReset: 'on', withRecommendedPull: null, pullDrawWhenHighA: 0,
 };
 const RUNS_PULL_FITS: PowerOnResult = {
   ...RUNS_NO_FIX,
-  recommendedPull: { to: 'down', railV: 0, maxOhms: 12_000, minOhms: 1_000, chosenOhms: 10_000, nodeV: 0.6, activeCurrentA: 0.0003, ok: true, notes: [] },
+  recommendedPull: { to: 'down', railV: 0, tolerance: 0.01, maxOhms: 12_000, minOhms: 1_000, chosenOhms: 10_000, nodeV: 0.6, activeCurrentA: 0.0003, ok: true, notes: [] },
 };
 
 function match(over: Partial<DesignMatch> = {}): DesignMatch {

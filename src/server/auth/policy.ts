@@ -36,6 +36,7 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
   '/api/calc/motor': { POST: 'public' },
   '/api/calc/pull-resistor': { POST: 'public' },
   '/api/calc/switch': { POST: 'public' },
+  '/api/calc/supply': { POST: 'public' },
   '/api/auth/signin': { POST: 'public' },
   '/api/auth/signout': { POST: 'public' },
   '/api/auth/signout-everywhere': { POST: 'signed-in' },
