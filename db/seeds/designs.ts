@@ -121,8 +121,15 @@ async function motorPart(knex: Knex, mpn: string) {
 /** Ranks the catalogue for one revision and takes the suggested picks, as the workspace would. */
 async function withSuggestedPicks(knex: Knex, rest: DemoInput, motor: Awaited<ReturnType<typeof motorPart>>): Promise<DesignInput> {
   const draft: DesignInput = { ...rest, motor: { source: 'catalogue', partId: motor.id as number }, selections: noSelections() };
-  const match = matchDesign(draft, motor.mpn, motor.params, await loadCandidates(knex, draft, motor.params, false));
-  return { ...draft, selections: suggestSelections(match) };
+  const catalogue = await loadCandidates(knex, draft, motor.params, false);
+  // Picks change what the others are judged at (a chosen driver sets the switch's drive), so settle them.
+  let input = draft;
+  for (let round = 0; round < 4; round += 1) {
+    const selections = suggestSelections(matchDesign(input, motor.mpn, motor.params, catalogue));
+    if (JSON.stringify(selections) === JSON.stringify(input.selections)) break;
+    input = { ...input, selections };
+  }
+  return input;
 }
 
 /** Idempotent: a design already there (same owner and name) is left alone. */

@@ -161,8 +161,10 @@ export function effectiveSwitchList(match: DesignMatch): DesignMatch['switch'] {
 
 /** Default picks: the best passing part per role and up to three further passing parts as alternates. */
 export function suggestSelections(match: DesignMatch): DesignInput['selections'] {
+  // Passing parts first; a part marginal only on margins (no hard limit broken) is still a valid pick.
+  const usable = (c: CandidateResult) => c.verdict === 'pass' || (c.verdict === 'marginal' && c.checks.every((x) => x.ok || x.severity === 'margin'));
   const pick = (list: CandidateResult[]) => {
-    const passing = list.filter((c) => c.verdict === 'pass' && c.partId != null).map((c) => c.partId as number);
+    const passing = list.filter((c) => usable(c) && c.partId != null).map((c) => c.partId as number);
     return { chosenPartId: passing[0] ?? null, alternatePartIds: passing.slice(1, 4) };
   };
   return {

@@ -35,6 +35,7 @@ const RUNS_NO_FIX: PowerOnResult = {
 const RUNS_PULL_FITS: PowerOnResult = {
   ...RUNS_NO_FIX,
   recommendedPull: { to: 'down', railV: 0, tolerance: 0.01, maxOhms: 12_000, minOhms: 1_000, chosenOhms: 10_000, nodeV: 0.6, activeCurrentA: 0.0003, ok: true, notes: [] },
+  withRecommendedPull: { steps: [], motorState: 'off' },
 };
 
 function match(over: Partial<DesignMatch> = {}): DesignMatch {
