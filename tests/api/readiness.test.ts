@@ -128,8 +128,8 @@ describe('property: no design stays ready while any pick fails at the current ca
         for (const s of steps) {
           const part = await getPart(s.part);
           const res = s.kind === 'obsolete' || s.kind === 'nrnd' ? await lifecycle(s.part, s.kind, part.version) : await editParams(s.part, (p) => s.kind === 'vds-down' ? { ...p, vdsMaxV: Math.max(1, Number(p.vdsMaxV) / s.factor) }
-            : s.kind === 'rth-up' ? { ...p, rthJaCPerW: Number(p.rthJaCPerW) * s.factor }
-            : { ...p, rdsOn: (p.rdsOn as { rdsOnOhm: number }[]).map((r) => ({ ...r, rdsOnOhm: r.rdsOnOhm * s.factor })) });
+            : s.kind === 'rth-up' ? { ...p, rthJaCPerW: Number(p.rthJaCPerW) * s.factor, ...(Array.isArray(p.zthPoints) ? { zthPoints: (p.zthPoints as { pulseS: number; zthCPerW: number }[]).map((z) => ({ ...z, zthCPerW: z.zthCPerW * s.factor })) } : {}) }
+            : { ...p, rdsOn: (p.rdsOn as { maxOhm: number; typOhm: number | null }[]).map((r) => ({ ...r, maxOhm: r.maxOhm * s.factor, typOhm: r.typOhm == null ? null : r.typOhm * s.factor })) });
           expect(res.status, JSON.stringify(res.body)).toBe(200);
           const ready = await knex('designs').where({ status: 'ready' }).select('id');
           for (const { id } of ready) {
