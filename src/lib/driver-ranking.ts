@@ -66,16 +66,13 @@ function pairedSwitchCheck(mpn: string, verdict: Verdict): Check {
   return makeCheck({ id: 'paired-switch', ok: verdict === 'pass', value: null, limit: null, unit: '', margin: null, note }, verdict === 'marginal' ? 'margin' : 'hard');
 }
 
-type WalkWithPull = PowerOnResult & { withRecommendedPull?: { motorState: string } | null };
-
 /**
  * The motor must stay off at reset. A chain that starts it but is held off by the recommended pull (it goes on the
  * bill of materials) is marginal; one that no pull can fix fails unless the designer recorded the start as intended.
  */
 function powerOnCheck(powerOn: PowerOnResult, startIntended: boolean): Check {
-  const walk = powerOn as WalkWithPull;
   if (!powerOn.motorCanStart) return makeCheck({ id: 'power-on', ok: true, value: null, limit: null, unit: '', margin: null, note: powerOn.note });
-  const fixed = powerOn.recommendedPull?.ok === true && (walk.withRecommendedPull == null || walk.withRecommendedPull.motorState === 'off');
+  const fixed = powerOn.recommendedPull?.ok === true && powerOn.withRecommendedPull?.motorState === 'off';
   if (startIntended) return makeCheck({ id: 'power-on', ok: true, value: null, limit: null, unit: '', margin: null, note: `${powerOn.note} The designer recorded this start at reset as intended.` });
   return makeCheck({ id: 'power-on', ok: false, value: null, limit: null, unit: '', margin: null, note: powerOn.note }, fixed ? 'margin' : 'hard');
 }

@@ -105,22 +105,17 @@ function roleIssues(input: DesignInput, match: DesignMatch, role: PartRole, ctx:
   return issues;
 }
 
-/** A power-on result as another part of the engine may extend it: the walk again with the recommended pull fitted. */
-type PowerOnWithPull = PowerOnResult & { withRecommendedPull?: { motorState?: MotorState } | null };
-
 /**
  * The motor's state at reset with the parts as built: with the recommended pull fitted when one is
  * recommended and a standard value fits (it goes on the BOM). Null when no walk was possible.
  */
 export function motorStateAtReset(powerOn: PowerOnResult | null): MotorState | null {
   if (powerOn == null) return null;
-  const p = powerOn as PowerOnWithPull;
+  const p = powerOn;
   const pull = p.recommendedPull;
   const fitted = pull != null && pull.ok && pull.chosenOhms != null;
-  if (fitted && p.withRecommendedPull?.motorState) return p.withRecommendedPull.motorState;
+  if (fitted && p.withRecommendedPull) return p.withRecommendedPull.motorState;
   if (!p.motorCanStart) return 'off';
-  // Older walks without the re-walk: a pull sized by the walk itself to hold the first stage off.
-  if (fitted && p.withRecommendedPull === undefined) return 'off';
   const motorStep = p.steps.find((s) => s.stage === 'motor');
   return motorStep?.state === 'on' ? 'on' : 'may-run';
 }
