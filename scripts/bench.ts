@@ -13,6 +13,7 @@ import { matchDesign } from '../src/lib/design-match.ts';
 import type { DesignInput } from '../src/lib/domain/design.ts';
 import type { PartOf } from '../src/lib/domain/parts.ts';
 import { startThrowawayStack } from './stack/throwaway.ts';
+import { Teardown, stopOnSignals } from './stack/teardown.ts';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 process.chdir(root);
@@ -54,7 +55,9 @@ async function load(title: string, opts: autocannon.Options): Promise<void> {
 
 benchCore(Number(process.env.BENCH_ITERATIONS ?? 200));
 process.env.CALC_RATE_LIMIT_PER_MIN = '100000000';
-const stack = await startThrowawayStack(root);
+const teardown = new Teardown();
+stopOnSignals(teardown, () => undefined, () => 130);
+const stack = await startThrowawayStack(root, teardown);
 try {
   const signin = await fetch(`${stack.url}/api/auth/signin`, {
     method: 'POST', headers: { 'Content-Type': 'application/json' },

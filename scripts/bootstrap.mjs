@@ -18,7 +18,6 @@ export async function ensureNodeModules() {
   console.log('[stallpoint] installing npm packages (npm ci)…');
   const result = spawnSync('npm', ['ci', '--no-audit', '--no-fund'], { cwd: projectRoot, stdio: 'inherit' });
   if (result.status !== 0) {
-    console.error('[stallpoint] npm ci failed; see the output above.');
-    process.exit(result.status ?? 1);
+    throw new Error('npm ci failed; see the output above.');
   }
 }

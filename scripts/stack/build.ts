@@ -1,9 +1,13 @@
-/** Builds the Astro app when its sources changed since the last build (hash stamp in dist/). */
+/**
+ * Builds the Astro app when its sources or the configuration the build bakes in (PUBLIC_URL, read by
+ * astro.config.mjs) changed since the last build (hash stamp in dist/).
+ */
 import { createHash } from 'node:crypto';
 import { existsSync, readFileSync, readdirSync, statSync, writeFileSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';
 import path from 'node:path';
 import { log, fail } from './log.ts';
+import { buildTimeConfig } from '../../src/server/config.ts';
 
 const INPUTS = ['src', 'public', 'db', 'astro.config.mjs', 'package-lock.json', 'tsconfig.json', 'knexfile.ts'];
 
@@ -17,10 +21,11 @@ function walk(p: string, files: string[]): void {
   for (const name of readdirSync(p).sort()) walk(path.join(p, name), files);
 }
 
-export function sourceHash(root: string): string {
+export function sourceHash(root: string, env: NodeJS.ProcessEnv = process.env): string {
   const files: string[] = [];
   for (const input of INPUTS) walk(path.join(root, input), files);
   const h = createHash('sha256');
+  h.update(JSON.stringify(buildTimeConfig(env)));
   for (const f of files) {
     h.update(path.relative(root, f));
     h.update(readFileSync(f));

@@ -6,6 +6,7 @@ import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import { existsSync, mkdirSync, readFileSync, openSync } from 'node:fs';
 import path from 'node:path';
 import { log, fail } from './log.ts';
+import type { Teardown } from './teardown.ts';
 
 export interface MariaDbInstance {
   dataDir: string;
@@ -83,8 +84,12 @@ export function adminPing(db: MariaDbInstance): boolean {
   return r.status === 0;
 }
 
-/** Starts mariadbd (or reuses one already serving this data dir) and waits until it answers. True when started here. */
-export async function startMariaDb(db: MariaDbInstance): Promise<boolean> {
+/**
+ * Starts mariadbd (or reuses one already serving this data dir) and waits until it answers. True when
+ * started here. A MariaDB started here is added to `teardown` the moment it is spawned (so a signal
+ * while it boots still stops it); a reused one never is.
+ */
+export async function startMariaDb(db: MariaDbInstance, teardown: Teardown | null = null): Promise<boolean> {
   if (alive(db)) {
     log(`reusing the MariaDB already running on ${db.socketPath}`);
     return false;
@@ -110,12 +115,14 @@ export async function startMariaDb(db: MariaDbInstance): Promise<boolean> {
     { stdio: ['ignore', errLog, errLog], detached: false },
   );
   db.process = child;
+  teardown?.add(`MariaDB on port ${db.port}`, () => stopMariaDb(db));
   let exited = false;
   child.once('exit', () => (exited = true));
   const deadline = Date.now() + 60_000;
   while (!alive(db)) {
     if (exited || Date.now() > deadline) {
       const tail = existsSync(`${db.dataDir}.err`) ? readFileSync(`${db.dataDir}.err`, 'utf8').slice(-2000) : '';
+      if (!exited) child.kill('SIGKILL');
       fail(`MariaDB did not start on port ${db.port}.\n${tail}`);
     }
     await new Promise((r) => setTimeout(r, 100));
@@ -152,9 +159,19 @@ export function ensureDatabaseAndUser(db: MariaDbInstance, name: string, user: s
   );
 }
 
-/** Clean shutdown through mariadb-admin; waits for the process to exit. */
+/** Clean shutdown through mariadb-admin; waits for the process to exit. One still booting is terminated. */
 export async function stopMariaDb(db: MariaDbInstance): Promise<void> {
-  if (!alive(db)) return;
+  const child = db.process;
+  if (!alive(db)) {
+    if (child && child.exitCode === null && child.signalCode === null) {
+      child.kill('SIGTERM');
+      await new Promise<void>((resolve) => {
+        const force = setTimeout(() => (child.kill('SIGKILL'), resolve()), 30_000);
+        child.once('exit', () => (clearTimeout(force), resolve()));
+      });
+    }
+    return;
+  }
   spawnSync('mariadb-admin', ['--no-defaults', `--socket=${db.socketPath}`, '-uroot', 'shutdown'], {
     stdio: 'ignore',
   });

@@ -7,6 +7,7 @@ import { createReadStream, existsSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { SECURITY_HEADERS } from '../../src/server/http/security-headers.ts';
+import { readConfig } from '../../src/server/config.ts';
 
 const TYPES: Record<string, string> = {
   '.js': 'text/javascript; charset=utf-8',
@@ -42,8 +43,8 @@ function staticFile(clientDir: string, urlPath: string): string | null {
  * front (TRUST_PROXY=1), drop those headers so nobody can pick their own address and slip past the
  * per-address sign-in limit (OWASP ASVS 5.0 V6.3.1).
  */
-function dropUntrustedForwarding(req: http.IncomingMessage): void {
-  if (process.env.TRUST_PROXY === '1') return;
+function dropUntrustedForwarding(req: http.IncomingMessage, trustProxy: boolean): void {
+  if (trustProxy) return;
   for (const h of ['x-forwarded-for', 'x-forwarded-host', 'x-forwarded-proto', 'x-forwarded-port']) delete req.headers[h];
 }
 
@@ -51,8 +52,9 @@ export async function createListener(distDir: string): Promise<http.RequestListe
   const entry = pathToFileURL(path.join(distDir, 'server', 'entry.mjs')).href;
   const { handler } = (await import(entry)) as { handler: Handler };
   const clientDir = path.join(distDir, 'client');
+  const { trustProxy } = readConfig(process.env);
   return (req, res) => {
-    dropUntrustedForwarding(req);
+    dropUntrustedForwarding(req, trustProxy);
     const urlPath = (req.url ?? '/').split('?')[0];
     const file = req.method === 'GET' || req.method === 'HEAD' ? staticFile(clientDir, urlPath) : null;
     if (file) {

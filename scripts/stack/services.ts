@@ -10,14 +10,13 @@ import knexFactory, { type Knex } from 'knex';
 import { knexConfig } from '../../knexfile.ts';
 import { insertCapturedMail } from '../../src/server/mail/captured.ts';
 import { log } from './log.ts';
+import { DEFAULT_SINK_PORT, readConfig } from '../../src/server/config.ts';
 
 export interface Services {
   env: Record<string, string>;
   close(): Promise<void>;
 }
 
-/** The sink's fixed port for npm start; npm test asks for a free one (SMTP_SINK_PORT=0). */
-export const DEFAULT_SINK_PORT = 2526;
 const MAX_MESSAGE_BYTES = 5 * 1024 * 1024;
 
 function readAll(stream: NodeJS.ReadableStream): Promise<Buffer> {
@@ -65,7 +64,8 @@ function createSink(knex: Knex): SMTPServer {
 async function startMailSink(env: NodeJS.ProcessEnv): Promise<Services> {
   const knex = knexFactory(knexConfig(env));
   const sink = createSink(knex);
-  const wanted = Number(env.SMTP_SINK_PORT ?? (env.NODE_ENV === 'test' ? 0 : DEFAULT_SINK_PORT));
+  const config = readConfig(env);
+  const wanted = config.sinkPort ?? (config.nodeEnv === 'test' ? 0 : DEFAULT_SINK_PORT);
   await new Promise<void>((resolve, reject) => {
     sink.once('error', (err: NodeJS.ErrnoException) => {
       const inUse = err.code === 'EADDRINUSE';
@@ -78,7 +78,7 @@ async function startMailSink(env: NodeJS.ProcessEnv): Promise<Services> {
   const port = typeof address === 'object' && address ? address.port : wanted;
   log(`mail sink on 127.0.0.1:${port} (admins read it at /mail)`);
   const out: Record<string, string> = { SMTP_HOST: '127.0.0.1', SMTP_PORT: String(port), SMTP_SECURE: 'false', MAIL_SINK: 'local' };
-  if (!env.PUBLIC_URL && env.NODE_ENV !== 'test') out.PUBLIC_URL = `http://${env.HOST ?? '127.0.0.1'}:${env.PORT ?? 4321}`;
+  if (!config.publicUrl && config.nodeEnv !== 'test') out.PUBLIC_URL = `http://${config.host}:${config.port}`;
   return {
     env: out,
     async close() {
@@ -89,6 +89,7 @@ async function startMailSink(env: NodeJS.ProcessEnv): Promise<Services> {
 }
 
 export async function startServices(env: NodeJS.ProcessEnv): Promise<Services> {
-  if (env.SMTP_HOST && env.MAIL_SINK !== 'local') return { env: {}, async close() {} };
+  const config = readConfig(env);
+  if (env.SMTP_HOST && !config.mail.sinkLocal) return { env: {}, async close() {} };
   return startMailSink(env);
 }

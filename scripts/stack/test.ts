@@ -1,16 +1,20 @@
 /**
  * npm test: the npm start bootstrap on a throwaway data folder and free ports, then vitest
  * (unit, API against the real MariaDB, browser tests in Debian's Chromium). Everything started here
- * is stopped again, also when a test fails; the exit code is vitest's.
+ * is stopped again, also when a test fails or a signal arrives during start-up; the exit code is vitest's.
  */
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { spawn, spawnSync } from 'node:child_process';
-import { CHROMIUM, ensureChromium, startThrowawayStack, type ThrowawayStack } from './throwaway.ts';
-import { log } from './log.ts';
+import { CHROMIUM, ensureChromium, startThrowawayStack } from './throwaway.ts';
+import { describeError, log, StackError } from './log.ts';
+import { Teardown, stopOnSignals } from './teardown.ts';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
 process.chdir(root);
+
+const teardown = new Teardown();
+stopOnSignals(teardown, (signal) => log(`${signal}: stopping the throwaway stack…`), (signal) => (signal === 'SIGINT' ? 130 : 143));
 
 function runVitest(env: NodeJS.ProcessEnv, args: string[]): Promise<number> {
   return new Promise((resolve) => {
@@ -19,35 +23,27 @@ function runVitest(env: NodeJS.ProcessEnv, args: string[]): Promise<number> {
   });
 }
 
-let stack: ThrowawayStack | null = null;
-let exitCode = 1;
-const stop = async (code: number): Promise<never> => {
-  await stack?.cleanup();
-  process.exit(code);
-};
-process.on('SIGINT', () => void stop(130));
-process.on('SIGTERM', () => void stop(143));
-
-/** Type errors fail the run before anything starts (vitest itself does not type-check). */
-function typeCheck(): boolean {
-  log('type-checking (tsc --noEmit)…');
-  const r = spawnSync('npx', ['tsc', '--noEmit', '-p', 'tsconfig.json'], { cwd: root, stdio: 'inherit' });
-  return r.status === 0;
+/** A check that runs before anything starts (vitest itself does not type-check or lint). */
+function gate(title: string, cmd: string, args: string[]): void {
+  log(`${title}…`);
+  const r = spawnSync(cmd, args, { cwd: root, stdio: 'inherit' });
+  if (r.status !== 0) throw new StackError(`${title} reported problems (see above).`);
 }
 
+let exitCode = 1;
 try {
-  if (!typeCheck()) throw new Error('TypeScript reported errors (see above).');
+  gate('type-checking (tsc --noEmit)', 'npx', ['tsc', '--noEmit', '-p', 'tsconfig.json']);
   ensureChromium();
-  stack = await startThrowawayStack(root);
+  const stack = await startThrowawayStack(root, teardown);
   log(`test server at ${stack.url}, MariaDB on port ${stack.env.MARIADB_PORT}`);
   exitCode = await runVitest(
     { ...stack.env, TEST_ARTIFACTS_DIR: path.join(root, 'test-results'), CHROMIUM_PATH: CHROMIUM },
     process.argv.slice(2),
   );
 } catch (err) {
-  console.error(err);
+  console.error(`[stallpoint] ${describeError(err)}`);
   exitCode = 1;
 } finally {
-  await stack?.cleanup();
+  await teardown.run();
 }
 process.exit(exitCode);

@@ -7,14 +7,15 @@ import os from 'node:os';
 import net from 'node:net';
 import { existsSync, mkdtempSync, rmSync, mkdirSync } from 'node:fs';
 import {
-  aptInstall, describeInstance, ensureDatabaseAndUser, ensureMariaDbInstalled, initDataDir, startMariaDb, stopMariaDb,
-  type MariaDbInstance,
+  aptInstall, describeInstance, ensureDatabaseAndUser, ensureMariaDbInstalled, initDataDir, startMariaDb, type MariaDbInstance,
 } from './mariadb.ts';
 import { generatedSecret } from './env-file.ts';
 import { migrateAndSeed } from './db-setup.ts';
 import { buildIfChanged } from './build.ts';
-import { startHttpServer, type RunningServer } from './serve.ts';
-import { startServices, type Services } from './services.ts';
+import { startHttpServer } from './serve.ts';
+import { startServices } from './services.ts';
+import { Teardown } from './teardown.ts';
+import { resetAppConfig } from '../../src/server/config.ts';
 import { log, fail } from './log.ts';
 
 export const CHROMIUM = '/usr/bin/chromium';
@@ -45,17 +46,14 @@ export interface ThrowawayStack {
   cleanup(): Promise<void>;
 }
 
-export async function startThrowawayStack(root: string): Promise<ThrowawayStack> {
+/**
+ * Starts the stack, adding each piece to `teardown` the moment it starts, so a caller's signal handler
+ * can stop a half-started stack. cleanup() runs that teardown.
+ */
+export async function startThrowawayStack(root: string, teardown: Teardown = new Teardown()): Promise<ThrowawayStack> {
   const tmp = mkdtempSync(path.join(os.tmpdir(), 'stallpoint-test-'));
-  let db: MariaDbInstance | null = null;
-  let http: RunningServer | null = null;
-  let services: Services | null = null;
-  const cleanup = async (): Promise<void> => {
-    await http?.close().catch(() => undefined);
-    await services?.close().catch(() => undefined);
-    if (db) await stopMariaDb(db).catch(() => undefined);
-    rmSync(tmp, { recursive: true, force: true });
-  };
+  teardown.add('throwaway folder', () => rmSync(tmp, { recursive: true, force: true }));
+  const cleanup = (): Promise<void> => teardown.run();
   try {
     ensureMariaDbInstalled();
     const dbPort = await freePort();
@@ -73,17 +71,20 @@ export async function startThrowawayStack(root: string): Promise<ThrowawayStack>
     };
     Object.assign(process.env, env);
     mkdirSync(env.DATA_DIR!, { recursive: true });
-    db = describeInstance(path.join(tmp, 'mariadb'), dbPort);
+    const db = describeInstance(path.join(tmp, 'mariadb'), dbPort);
     initDataDir(db);
-    await startMariaDb(db);
+    await startMariaDb(db, teardown);
     ensureDatabaseAndUser(db, env.DB_NAME!, env.DB_USER!, env.DB_PASSWORD!);
     ensureDatabaseAndUser(db, env.DB_SCRATCH_NAME!, env.DB_USER!, env.DB_PASSWORD!);
     await migrateAndSeed(env, { seed: true });
     buildIfChanged(root);
-    services = await startServices(env);
+    const services = await startServices(env);
+    teardown.add('mail sink', () => services.close());
     Object.assign(env, services.env);
     Object.assign(process.env, services.env);
-    http = await startHttpServer(path.join(root, 'dist'), '127.0.0.1', await freePort());
+    resetAppConfig();
+    const http = await startHttpServer(path.join(root, 'dist'), '127.0.0.1', await freePort());
+    teardown.add('web server', () => http.close());
     return {
       env: { ...env, STALLPOINT_URL: http.url, MARIADB_DATADIR: db.dataDir, MARIADB_SOCKET: db.socketPath, MARIADB_PORT: String(dbPort) },
       url: http.url,

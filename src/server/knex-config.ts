@@ -2,7 +2,7 @@ import type { Knex } from 'knex';
 import { dbConfigFromEnv } from './config.ts';
 
 /** Client, connection and pool settings shared by the app, the scripts and the tests. */
-export function knexConnectionConfig(env: NodeJS.ProcessEnv = process.env): Knex.Config {
+export function knexConnectionConfig(env?: NodeJS.ProcessEnv): Knex.Config {
   const db = dbConfigFromEnv(env);
   return {
     client: 'mysql2',
@@ -19,7 +19,7 @@ export function knexConnectionConfig(env: NodeJS.ProcessEnv = process.env): Knex
       decimalNumbers: true,
       connectTimeout: 5_000,
     },
-    pool: { min: 0, max: Number(env.DB_POOL_MAX ?? 10) },
+    pool: { min: 0, max: db.poolMax },
     acquireConnectionTimeout: 5_000,
   };
 }

@@ -3,12 +3,14 @@
  * session. OWASP ASVS 5.0 V3.3.1 (Secure), V3.3.2 (SameSite), V3.3.4 (HttpOnly).
  */
 import type { AstroCookies } from 'astro';
+import { appConfig, readConfig } from '../config.ts';
 
 export const SESSION_COOKIE = 'stallpoint_session';
 
 /** HTTPS when the request came in over TLS, or when the public address of the app is https. */
-export function isSecureOrigin(url: URL, env: NodeJS.ProcessEnv = process.env): boolean {
-  return url.protocol === 'https:' || (env.PUBLIC_URL ?? '').startsWith('https:');
+export function isSecureOrigin(url: URL, env?: NodeJS.ProcessEnv): boolean {
+  const publicUrl = (env ? readConfig(env) : appConfig()).publicUrl ?? '';
+  return url.protocol === 'https:' || publicUrl.startsWith('https:');
 }
 
 export function setSessionCookie(cookies: AstroCookies, url: URL, token: string, expiresAt: Date): void {

@@ -3,9 +3,9 @@
  * Counted in process for now (calculators are stateless and cheap); see README "Scaling out".
  */
 import { jsonError } from '../http/responses.ts';
+import { appConfig } from '../config.ts';
 
 const WINDOW_MS = 60_000;
-const LIMIT = Number(process.env.CALC_RATE_LIMIT_PER_MIN ?? 600);
 const hits = new Map<string, { start: number; count: number }>();
 
 export async function limitCalculator(clientAddress: string, nowMs = Date.now()): Promise<Response | null> {
@@ -17,7 +17,7 @@ export async function limitCalculator(clientAddress: string, nowMs = Date.now())
     return null;
   }
   entry.count += 1;
-  if (entry.count <= LIMIT) return null;
+  if (entry.count <= appConfig().calcRateLimitPerMin) return null;
   const retryAfterS = Math.ceil((entry.start + WINDOW_MS - nowMs) / 1000);
   return jsonError(429, 'Too many calculator requests from this address; wait a moment and try again.', [], {
     'Retry-After': String(retryAfterS),

@@ -1,0 +1,77 @@
+/**
+ * The one configuration module: defaults, validation naming the key, and the README table in step with
+ * CONFIG_KEYS. Expected defaults are written out here by hand from README "Configuration".
+ */
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { CONFIG_KEYS, ConfigError, readConfig } from '../../src/server/config.ts';
+
+describe('readConfig', () => {
+  it('gives the documented defaults for an empty environment', () => {
+    const c = readConfig({});
+    expect(c.host).toBe('127.0.0.1');
+    expect(c.port).toBe(4321);
+    expect(c.db).toEqual({ host: '127.0.0.1', port: 3407, database: 'stallpoint', user: 'stallpoint', password: '', poolMax: 10 });
+    expect(c.dataDir).toBe('.data');
+    expect(c.publicUrl).toBeNull();
+    expect(c.mail).toEqual({
+      host: '127.0.0.1', port: 2526, secure: false, user: null, password: null,
+      from: 'Stallpoint <no-reply@stallpoint.invalid>', sinkLocal: false,
+    });
+    expect(c.sinkPort).toBeNull();
+    expect(c.calcRateLimitPerMin).toBe(600);
+    expect(c.trustProxy).toBe(false);
+  });
+
+  it('reads set values and treats blank ones as unset', () => {
+    const c = readConfig({
+      PORT: '8080', DB_PORT: '3306', DB_POOL_MAX: '4', PUBLIC_URL: 'https://stallpoint.example.org/',
+      SMTP_SECURE: 'true', SMTP_USER: 'u', MAIL_SINK: 'local', TRUST_PROXY: '1', HOST: '  ',
+    });
+    expect(c.port).toBe(8080);
+    expect(c.db.port).toBe(3306);
+    expect(c.db.poolMax).toBe(4);
+    expect(c.publicUrl).toBe('https://stallpoint.example.org');
+    expect(c.mail.secure).toBe(true);
+    expect(c.mail.user).toBe('u');
+    expect(c.mail.sinkLocal).toBe(true);
+    expect(c.trustProxy).toBe(true);
+    expect(c.host).toBe('127.0.0.1');
+  });
+
+  it.each([
+    ['PORT', 'eighty'],
+    ['DB_PORT', '70000'],
+    ['DB_POOL_MAX', '0'],
+    ['PUBLIC_URL', 'ftp://files.example.org'],
+    ['PUBLIC_URL', 'not a url'],
+    ['SMTP_SECURE', 'yes'],
+    ['TRUST_PROXY', 'true'],
+    ['CALC_RATE_LIMIT_PER_MIN', '-5'],
+  ])('refuses %s=%s naming the key', (key, value) => {
+    let err: unknown;
+    try {
+      readConfig({ [key]: value });
+    } catch (e) {
+      err = e;
+    }
+    expect(err).toBeInstanceOf(ConfigError);
+    expect((err as ConfigError).issues.map((i) => i.key)).toEqual([key]);
+    expect((err as ConfigError).message).toContain(key);
+  });
+});
+
+describe('README "Configuration" table', () => {
+  it('lists exactly CONFIG_KEYS, in order, with the same defaults and meanings', () => {
+    const readme = readFileSync(new URL('../../README.md', import.meta.url), 'utf8');
+    const start = readme.indexOf('## Configuration');
+    const section = readme.slice(start, readme.indexOf('\n## ', start + 1));
+    const rows = section
+      .split('\n')
+      .filter((l) => l.startsWith('| `'))
+      .map((l) => l.split(' | ').map((cell) => cell.replace(/^\| /, '').replace(/ \|$/, '')));
+    const expected = CONFIG_KEYS.map((k) => [`\`${k.key}\``, k.defaultText, k.meaning]);
+    // On a mismatch, copy the rows printed here into README.md (they are rendered from src/server/config.ts).
+    expect(rows, CONFIG_KEYS.map((k) => `| \`${k.key}\` | ${k.defaultText} | ${k.meaning} |`).join('\n')).toEqual(expected);
+  });
+});
