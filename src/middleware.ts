@@ -2,13 +2,15 @@ import { defineMiddleware } from 'astro:middleware';
 import type { APIContext } from 'astro';
 import { SECURITY_HEADERS } from './server/http/security-headers.ts';
 import { jsonError } from './server/http/responses.ts';
+import { errorResponse } from './server/http/error-response.ts';
 import { db } from './server/db.ts';
 import { sessionFromCookies } from './server/auth/request-session.ts';
 import { accessFor, allowedMethods, decide, isApiRoute, type Decision } from './server/auth/policy.ts';
 
 /**
  * Every request: the session cookie → locals.user / locals.session (null when absent), the route's rule
- * from src/server/auth/policy.ts (deny by default), then security headers on the response.
+ * from src/server/auth/policy.ts (deny by default), the route, errors mapped to responses in one place
+ * (src/server/http/error-response.ts), then security headers on the response.
  * OWASP ASVS 5.0 V8.3.1 (access enforced at a trusted service layer), V3.4 (security headers).
  */
 export const onRequest = defineMiddleware(async (context, next) => {
@@ -30,7 +32,13 @@ async function guarded(context: APIContext, next: () => Promise<Response>): Prom
     if (accessFor(context.routePattern, context.request.method) !== 'public') return unavailable(context);
   }
   const decision = decide(context.routePattern, context.request.method, context.locals.user);
-  return decision === 'allow' ? next() : refuse(context, decision);
+  if (decision !== 'allow') return refuse(context, decision);
+  try {
+    return await next();
+  } catch (err) {
+    // The one error path: every refusal a route or service throws, and every bug, in the one shape.
+    return errorResponse(err, isApiRoute(context.routePattern));
+  }
 }
 
 function refuse(context: APIContext, decision: Exclude<Decision, 'allow'>): Response | Promise<Response> {

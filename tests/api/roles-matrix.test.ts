@@ -1,7 +1,8 @@
 /**
- * The role matrix, generated from the route files under src/pages: every page and API route, every
- * method it exports, asked as anonymous, designer, librarian, buyer and admin, must answer as
- * src/server/auth/policy.ts says. A route file without a rule fails here.
+ * The role matrix, written out by hand from README "Roles" (not derived from the policy module under
+ * test): every page and API route, every method it serves, asked as anonymous, designer, librarian, buyer
+ * and admin. `a` allowed (and never a 5xx), `s` sign-in first (401 on the API, a redirect to /signin for
+ * a page), `f` forbidden (403). A route file without a row here fails.
  * OWASP ASVS 5.0 V8.1.1 (access rules documented in one place), V8.2.1 (function-level access),
  * V8.3.1 (enforced on the server, deny by default).
  */
@@ -10,10 +11,9 @@ import path from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { appDb, appUrl } from '../helpers/stack.ts';
-import { accessFor, decide, ROUTE_RULES, type Decision } from '../../src/server/auth/policy.ts';
+import { decide } from '../../src/server/auth/policy.ts';
 import type { Role, SessionUser } from '../../src/server/auth/types.ts';
 import { demoEmail, sessionCookie } from './auth-helpers.ts';
-
 const PAGES_DIR = path.join(process.cwd(), 'src', 'pages');
 const HTTP_METHODS = ['GET', 'POST', 'PUT', 'PATCH', 'DELETE'] as const;
 
@@ -54,7 +54,78 @@ function routeFiles(): RouteFile[] {
     .sort((a, b) => a.pattern.localeCompare(b.pattern));
 }
 
+type Expect = 'a' | 's' | 'f';
 const IDENTITIES: (Role | 'anonymous')[] = ['anonymous', 'designer', 'librarian', 'buyer', 'admin'];
+
+/** `METHOD pattern` → expectations for anonymous, designer, librarian, buyer, admin. */
+const MATRIX: Record<string, string> = {
+  // Pages
+  'GET /': 'saaaa',
+  'GET /account': 'saaaa',
+  'GET /account/no-access': 'saaaa',
+  'GET /calculators': 'aaaaa',
+  'GET /designs': 'saaaa',
+  'GET /designs/[id]': 'saaaa',
+  'GET /designs/new': 'saffa',
+  'GET /invite': 'aaaaa',
+  'GET /mail': 'sfffa',
+  'GET /parts': 'saaaa',
+  'GET /parts/[id]': 'saaaa',
+  'GET /parts/[id]/edit': 'saafa',
+  'GET /parts/import': 'sfafa',
+  'GET /parts/new': 'saafa',
+  'GET /people': 'sfffa',
+  'GET /reset': 'aaaaa',
+  'GET /review': 'sfafa',
+  'GET /shortlist': 'safaa',
+  'GET /signin': 'aaaaa',
+  // Accounts
+  'POST /api/auth/invite-accept': 'aaaaa',
+  'GET /api/auth/me': 'saaaa',
+  'POST /api/auth/password': 'saaaa',
+  'POST /api/auth/reset': 'aaaaa',
+  'POST /api/auth/reset-request': 'aaaaa',
+  'POST /api/auth/signin': 'aaaaa',
+  'POST /api/auth/signout': 'aaaaa',
+  'POST /api/auth/signout-everywhere': 'saaaa',
+  'GET /api/people': 'sfffa',
+  'POST /api/people': 'sfffa',
+  'POST /api/people/[id]/deactivate': 'sfffa',
+  'POST /api/people/[id]/invite': 'sfffa',
+  'POST /api/people/[id]/reactivate': 'sfffa',
+  'PUT /api/people/[id]/roles': 'sfffa',
+  // Open calculators and health
+  'POST /api/calc/motor': 'aaaaa',
+  'POST /api/calc/pull-resistor': 'aaaaa',
+  'POST /api/calc/supply': 'aaaaa',
+  'POST /api/calc/switch': 'aaaaa',
+  'GET /api/health': 'aaaaa',
+  // Designs: everyone signed in reads; designers write
+  'GET /api/designs': 'saaaa',
+  'POST /api/designs': 'saffa',
+  'POST /api/designs/match': 'saaaa',
+  'GET /api/designs/[id]': 'saaaa',
+  'PUT /api/designs/[id]': 'saffa',
+  'POST /api/designs/[id]/match': 'saaaa',
+  'POST /api/designs/[id]/status': 'saffa',
+  'GET /api/designs/[id]/report.pdf': 'saaaa',
+  'GET /api/designs/[id]/bom.csv': 'saaaa',
+  // Catalogue: everyone signed in reads; designers propose; librarians curate; buyers keep supply data
+  'GET /api/parts': 'saaaa',
+  'POST /api/parts': 'saafa',
+  'GET /api/parts.csv': 'saaaa',
+  'GET /api/parts/[id]': 'saaaa',
+  'PUT /api/parts/[id]': 'saafa',
+  'DELETE /api/parts/[id]': 'sfafa',
+  'POST /api/parts/[id]/datasheets': 'sfafa',
+  'POST /api/parts/[id]/lifecycle': 'sfafa',
+  'POST /api/parts/[id]/review': 'sfafa',
+  'PUT /api/parts/[id]/sources': 'sfaaa',
+  'GET /api/datasheets/[id]': 'saaaa',
+  'DELETE /api/datasheets/[id]': 'sfafa',
+  'POST /api/imports': 'sfafa',
+};
+
 const ROUTES = routeFiles();
 const knex = appDb();
 afterAll(() => knex.destroy());
@@ -77,17 +148,18 @@ async function ask(route: RouteFile, method: string, identity: Role | 'anonymous
   return req;
 }
 
-function expectDecision(res: request.Response, route: RouteFile, decision: Decision): void {
-  const where = `${route.pattern} → ${res.status}`;
-  if (decision === 'allow') {
+function expectOutcome(res: request.Response, route: RouteFile, expected: Expect): void {
+  const where = `${route.pattern} → ${res.status} ${res.text.slice(0, 200)}`;
+  if (expected === 'a') {
+    expect(res.status, where).toBeLessThan(500);
     expect([401, 403], where).not.toContain(res.status);
     if (!route.api) expect(res.headers.location ?? '', where).not.toMatch(/^\/signin/);
     return;
   }
-  if (decision === 'sign-in' && route.api) {
+  if (expected === 's' && route.api) {
     expect(res.status, where).toBe(401);
     expect(res.body, where).toEqual({ error: expect.any(String), issues: [] });
-  } else if (decision === 'sign-in') {
+  } else if (expected === 's') {
     expect(res.status, where).toBe(302);
     expect(res.headers.location, where).toBe(`/signin?next=${encodeURIComponent(concrete(route.pattern))}`);
   } else if (route.api) {
@@ -104,18 +176,17 @@ describe('the route list', () => {
     expect(ROUTES.map((r) => r.pattern)).toEqual(expect.arrayContaining(['/', '/signin', '/people', '/api/health', '/api/auth/signin', '/api/people/[id]/roles']));
   });
 
-  it.each(ROUTES.map((r) => [r.pattern, r] as const))('%s has a rule for every method it serves', (_p, route) => {
-    expect(ROUTE_RULES[route.pattern], `${route.file} has no rule in src/server/auth/policy.ts`).toBeDefined();
-    expect(route.methods.length, `${route.file} exports no HTTP method`).toBeGreaterThan(0);
-    for (const m of route.methods) expect(accessFor(route.pattern, m), `${route.file}: no rule for ${m}`).toBeDefined();
+  it('has a hand-written row for every method of every route file, and no row without a route', () => {
+    const served = ROUTES.flatMap((r) => r.methods.map((m) => `${m} ${r.pattern}`)).sort();
+    expect(served).toEqual(Object.keys(MATRIX).sort());
   });
 });
 
-describe.each(IDENTITIES)('as %s', (identity) => {
-  const cases = ROUTES.filter((r) => ROUTE_RULES[r.pattern] !== undefined).flatMap((r) => r.methods.map((m) => [`${m} ${r.pattern}`, r, m] as const));
-  it.each(cases)('%s answers as the policy says', async (_name, route, method) => {
+describe.each(IDENTITIES.map((id, i) => [id, i] as const))('as %s', (identity, column) => {
+  const cases = ROUTES.flatMap((r) => r.methods.map((m) => [`${m} ${r.pattern}`, r, m] as const)).filter(([name]) => MATRIX[name]);
+  it.each(cases)('%s', async (name, route, method) => {
     const res = await ask(route, method, identity);
-    expectDecision(res, route, decide(route.pattern, method, asUser(identity)));
+    expectOutcome(res, route, MATRIX[name][column] as Expect);
   });
 });
 

@@ -1,15 +1,12 @@
 /** The open calculator endpoints share one shape: rate limit → JSON body through zod → pure computation. */
 import type { APIRoute } from 'astro';
 import type { z } from 'zod';
-import { readJson } from './responses.ts';
+import { readJson } from './request.ts';
 import { limitCalculator } from '../services/calc-limit.ts';
 
 export function calcEndpoint<S extends z.ZodType>(schema: S, compute: (body: z.infer<S>) => unknown): APIRoute {
   return async ({ request, clientAddress }) => {
-    const limited = await limitCalculator(clientAddress);
-    if (limited) return limited;
-    const body = await readJson(request, schema);
-    if (body instanceof Response) return body;
-    return Response.json(compute(body));
+    limitCalculator(clientAddress);
+    return Response.json(compute(await readJson(request, schema)));
   };
 }

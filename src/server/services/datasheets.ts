@@ -11,7 +11,6 @@ import { deleteDatasheetRow, findDatasheet, findDatasheetBySha, insertDatasheet,
 import { findPartRow } from '../repos/part-writes.ts';
 import { insertAuditEvent } from '../repos/audit.ts';
 import { datasheetStore } from '../storage/index.ts';
-import { canCurate, requireThat, requireUser } from './parts-access.ts';
 import { notFound, ServiceError } from './errors.ts';
 
 export const MAX_DATASHEET_BYTES = 20 * 1024 * 1024;
@@ -50,8 +49,7 @@ export interface DatasheetUpload {
   revision: string;
 }
 
-export async function addDatasheet(actor: SessionUser | null, partId: number, upload: DatasheetUpload): Promise<DatasheetView> {
-  const user = requireThat(actor, canCurate, 'add datasheets');
+export async function addDatasheet(user: SessionUser, partId: number, upload: DatasheetUpload): Promise<DatasheetView> {
   if (!(await findPartRow(db(), partId))) throw notFound('The part');
   const revision = datasheetRevisionSchema.safeParse(upload.revision);
   if (!revision.success) throw new ServiceError(400, 'The revision label is not valid.', [{ path: 'revision', message: revision.error.issues[0].message }]);
@@ -77,8 +75,7 @@ export async function addDatasheet(actor: SessionUser | null, partId: number, up
   }
 }
 
-export async function removeDatasheet(actor: SessionUser | null, id: number): Promise<void> {
-  const user = requireThat(actor, canCurate, 'remove datasheets');
+export async function removeDatasheet(user: SessionUser, id: number): Promise<void> {
   const sheet = await findDatasheet(db(), id);
   if (!sheet) throw notFound('The datasheet');
   await db().transaction(async (trx) => {
@@ -88,8 +85,7 @@ export async function removeDatasheet(actor: SessionUser | null, id: number): Pr
   await datasheetStore().delete(sheet.storageKey);
 }
 
-export async function datasheetFile(actor: SessionUser | null, id: number): Promise<{ name: string; bytes: Uint8Array }> {
-  requireUser(actor);
+export async function datasheetFile(id: number): Promise<{ name: string; bytes: Uint8Array }> {
   const sheet = await findDatasheet(db(), id);
   if (!sheet) throw notFound('The datasheet');
   const bytes = await datasheetStore().get(sheet.storageKey);

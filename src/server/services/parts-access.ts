@@ -4,7 +4,6 @@
  * inside an allowed call (a designer's new part enters as pending, a proposer may revise their own).
  */
 import type { SessionUser } from '../auth/types.ts';
-import { ServiceError } from './errors.ts';
 
 const has = (user: SessionUser | null, ...roles: string[]): boolean => !!user && user.roles.some((r) => roles.includes(r));
 
@@ -14,14 +13,3 @@ export const canCurate = (user: SessionUser | null): boolean => has(user, 'libra
 export const canPropose = (user: SessionUser | null): boolean => has(user, 'designer', 'librarian', 'admin');
 /** Buyers and curators keep supply data (sources and price breaks). */
 export const canManageSupply = (user: SessionUser | null): boolean => has(user, 'buyer', 'librarian', 'admin');
-
-export function requireUser(user: SessionUser | null): SessionUser {
-  if (!user) throw new ServiceError(401, 'Sign in first.');
-  return user;
-}
-
-export function requireThat(user: SessionUser | null, allowed: (u: SessionUser | null) => boolean, what: string): SessionUser {
-  const signedIn = requireUser(user);
-  if (!allowed(signedIn)) throw new ServiceError(403, `Your role may not ${what}.`);
-  return signedIn;
-}

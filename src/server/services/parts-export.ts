@@ -19,14 +19,3 @@ export async function exportPartsCsv(query: PartListQuery): Promise<{ csv: strin
   const fileName = `stallpoint-parts${query.category ? `-${query.category}` : ''}-${new Date().toISOString().slice(0, 10)}.csv`;
   return { csv: `${csv}\r\n`, fileName, rows: rows.length };
 }
-
-export function csvResponse(result: { csv: string; fileName: string; rows: number }): Response {
-  return new Response(result.csv, {
-    headers: {
-      'Content-Type': 'text/csv; charset=utf-8',
-      'Content-Disposition': `attachment; filename="${result.fileName}"`,
-      'Cache-Control': 'no-store',
-      'X-Row-Count': String(result.rows),
-    },
-  });
-}

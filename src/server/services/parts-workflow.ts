@@ -5,14 +5,12 @@ import type { Part } from '../../lib/domain/parts.ts';
 import type { LifecycleChange, ReviewDecision, SourcesUpdate } from '../../lib/schemas/parts.ts';
 import { loadPart, lockPartRow, replaceSources, setLifecycle, setReview, touchPart } from '../repos/part-writes.ts';
 import { findPerson, insertAuditEvent } from '../repos/audit.ts';
-import { canCurate, canManageSupply, requireThat } from './parts-access.ts';
 import { notFound, ServiceError, staleVersion } from './errors.ts';
 import { sendRejectionNotice } from './parts-review-mail.ts';
 import { reverifyDesignsUsingParts } from './design-status.ts';
 
 /** Approve a pending (or draft) part, or reject a pending one with a reason the proposer is sent. */
-export async function reviewPart(actor: SessionUser | null, id: number, decision: ReviewDecision, baseUrl: string): Promise<Part> {
-  const user = requireThat(actor, canCurate, 'review parts');
+export async function reviewPart(user: SessionUser, id: number, decision: ReviewDecision, baseUrl: string): Promise<Part> {
   const { part, proposerId, from } = await db().transaction(async (trx) => {
     const row = await lockPartRow(trx, id);
     if (!row) throw notFound('The part');
@@ -39,8 +37,7 @@ export async function reviewPart(actor: SessionUser | null, id: number, decision
 }
 
 /** Moves a part between active, NRND, last-buy and obsolete with the date it takes effect and a note. */
-export async function changeLifecycle(actor: SessionUser | null, id: number, change: LifecycleChange): Promise<Part> {
-  const user = requireThat(actor, canCurate, 'change lifecycles');
+export async function changeLifecycle(user: SessionUser, id: number, change: LifecycleChange): Promise<Part> {
   const { part, from } = await db().transaction(async (trx) => {
     const row = await lockPartRow(trx, id);
     if (!row) throw notFound('The part');
@@ -56,8 +53,7 @@ export async function changeLifecycle(actor: SessionUser | null, id: number, cha
 }
 
 /** Replaces the sources and price breaks of a part (buyers and curators). */
-export async function updateSources(actor: SessionUser | null, id: number, update: SourcesUpdate): Promise<Part> {
-  const user = requireThat(actor, canManageSupply, 'change supply data');
+export async function updateSources(user: SessionUser, id: number, update: SourcesUpdate): Promise<Part> {
   return db().transaction(async (trx) => {
     const row = await lockPartRow(trx, id);
     if (!row) throw notFound('The part');

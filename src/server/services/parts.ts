@@ -17,7 +17,7 @@ import { insertAuditEvent } from '../repos/audit.ts';
 import { listDatasheets } from '../repos/datasheets.ts';
 import { designsUsingPart } from '../repos/designs.ts';
 import { datasheetStore } from '../storage/index.ts';
-import { canCurate, canPropose, requireThat, requireUser } from './parts-access.ts';
+import { canCurate, canPropose } from './parts-access.ts';
 import { reverifyDesignsUsingParts } from './design-status.ts';
 import { notFound, ServiceError, staleVersion } from './errors.ts';
 
@@ -37,8 +37,7 @@ function duplicate(manufacturer: string, mpn: string, id: number): ServiceError 
   ]);
 }
 
-export async function createPart(actor: SessionUser | null, input: PartInput): Promise<Part> {
-  const user = requireThat(actor, canPropose, 'add or propose parts');
+export async function createPart(user: SessionUser, input: PartInput): Promise<Part> {
   const part = toNewPart(input, initialReviewStatus(user, input.reviewStatus));
   return db().transaction(async (trx) => {
     const existing = await findPartIdByMakerMpn(trx, part.manufacturer, part.mpn);
@@ -55,8 +54,7 @@ export async function createPart(actor: SessionUser | null, input: PartInput): P
  * Curators may edit any part; a proposer may revise their own part until it is approved (it returns to pending).
  * Lifecycle moves go through changeLifecycle (with date and note), so an edit must keep the lifecycle.
  */
-export async function updatePart(actor: SessionUser | null, id: number, input: PartUpdate): Promise<Part> {
-  const user = requireUser(actor);
+export async function updatePart(user: SessionUser, id: number, input: PartUpdate): Promise<Part> {
   const { before, after } = await db().transaction(async (trx) => {
     const row = await lockPartRow(trx, id);
     if (!row) throw notFound('The part');
@@ -87,8 +85,7 @@ export async function updatePart(actor: SessionUser | null, id: number, input: P
 }
 
 /** Deletes a part with its parameters, sources and datasheet records; the files go once the rows are gone. */
-export async function deletePart(actor: SessionUser | null, id: number, version: number | null): Promise<void> {
-  const user = requireThat(actor, canCurate, 'delete parts');
+export async function deletePart(user: SessionUser, id: number, version: number | null): Promise<void> {
   const keys = await db().transaction(async (trx) => {
     const row = await lockPartRow(trx, id);
     if (!row) throw notFound('The part');

@@ -1,15 +1,15 @@
 import type { APIRoute } from 'astro';
-import { readJson, jsonError } from '../../../server/http/responses.ts';
 import { db } from '../../../server/db.ts';
 import { signInBody } from '../../../server/auth/schemas.ts';
 import { signIn } from '../../../server/auth/signin.ts';
 import { setSessionCookie } from '../../../server/auth/session-cookie.ts';
 import { invalidateSession } from '../../../server/auth/session.ts';
+import { readJson } from '../../../server/http/request.ts';
+import { jsonError } from '../../../server/http/responses.ts';
 
 /** POST {email, password} → 200 {user} and the session cookie; 401 one generic answer; 429 with Retry-After. */
 export const POST: APIRoute = async (context) => {
   const body = await readJson(context.request, signInBody);
-  if (body instanceof Response) return body;
   const result = await signIn(db(), { ...body, clientAddress: context.clientAddress });
   if (result.kind === 'limited') {
     const minutes = Math.ceil(result.retryAfterSeconds / 60);

@@ -1,15 +1,14 @@
 import type { APIRoute } from 'astro';
-import { readJson } from '../../../server/http/responses.ts';
 import { db } from '../../../server/db.ts';
 import { emptyBody } from '../../../server/auth/schemas.ts';
 import { invalidateUserSessions } from '../../../server/auth/session.ts';
 import { deleteSessionCookie } from '../../../server/auth/session-cookie.ts';
+import { readJson, signedInUser } from '../../../server/http/request.ts';
 
 /** Ends every session of the signed-in person, on every device (ASVS 5.0 V7.4.3). */
 export const POST: APIRoute = async (context) => {
   const body = await readJson(context.request, emptyBody);
-  if (body instanceof Response) return body;
-  const ended = await invalidateUserSessions(db(), context.locals.user!.id);
+  const ended = await invalidateUserSessions(db(), signedInUser(context.locals).id);
   deleteSessionCookie(context.cookies, context.url);
   return Response.json({ signedOut: true, sessionsEnded: ended }, { headers: { 'Cache-Control': 'no-store' } });
 };

@@ -1,9 +1,9 @@
 import type { APIRoute } from 'astro';
-import { readJson } from '../../../server/http/responses.ts';
 import { db } from '../../../server/db.ts';
 import { emptyBody } from '../../../server/auth/schemas.ts';
 import { invalidateSession } from '../../../server/auth/session.ts';
 import { deleteSessionCookie } from '../../../server/auth/session-cookie.ts';
+import { readJson } from '../../../server/http/request.ts';
 
 const FORM = /^(application\/x-www-form-urlencoded|multipart\/form-data)\b/i;
 
@@ -15,7 +15,6 @@ export const POST: APIRoute = async (context) => {
   const isForm = FORM.test(context.request.headers.get('content-type') ?? '');
   if (!isForm) {
     const body = await readJson(context.request, emptyBody);
-    if (body instanceof Response) return body;
   }
   if (context.locals.session) await invalidateSession(db(), context.locals.session.id);
   deleteSessionCookie(context.cookies, context.url);

@@ -1,10 +1,9 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
-import { readJson, jsonError } from '../../../server/http/responses.ts';
 import { designInputSchema } from '../../../lib/schemas/design.ts';
 import { createDesign, listDesigns } from '../../../server/services/designs.ts';
-import { answer, readQuery } from '../../../server/services/errors.ts';
 import type { DesignInput } from '../../../lib/domain/design.ts';
+import { readJson, readQuery, signedInUser } from '../../../server/http/request.ts';
 
 const listQuery = z.object({
   q: z.string().trim().max(120).optional(),
@@ -15,18 +14,15 @@ const listQuery = z.object({
 });
 
 /** GET /api/designs: list with search; anyone signed in may read designs. */
-export const GET: APIRoute = ({ url, locals }) =>
-  answer(async () => {
-    const q = readQuery(url, listQuery);
-    const ownerId = q.mine === '1' ? locals.user?.id : undefined;
-    return Response.json(await listDesigns({ q: q.q, status: q.status, ownerId, page: q.page, pageSize: q.pageSize }));
-  });
+export const GET: APIRoute = async ({ url, locals }) => {
+  const q = readQuery(url, listQuery);
+  const ownerId = q.mine === '1' ? signedInUser(locals).id : undefined;
+  return Response.json(await listDesigns({ q: q.q, status: q.status, ownerId, page: q.page, pageSize: q.pageSize }));
+};
 
 /** POST /api/designs: a designer creates a design (revision 1). */
-export const POST: APIRoute = ({ request, locals }) =>
-  answer(async () => {
-    if (!locals.user) return jsonError(401, 'Sign in first.');
-    const body = await readJson(request, designInputSchema);
-    if (body instanceof Response) return body;
-    return Response.json(await createDesign(locals.user, body as DesignInput), { status: 201 });
-  });
+export const POST: APIRoute = async ({ request, locals }) => {
+  const user = signedInUser(locals);
+  const body = await readJson(request, designInputSchema);
+  return Response.json(await createDesign(user, body as DesignInput), { status: 201 });
+};

@@ -1,21 +1,20 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
 import { designOutputs, bomFileName, bomToCsv } from '../../../../server/services/design-outputs.ts';
-import { answer, readQuery, routeId } from '../../../../server/services/errors.ts';
+import { readQuery, routeId } from '../../../../server/http/request.ts';
 
 const query = z.object({ revision: z.coerce.number().int().min(1).optional() });
 
 /** GET /api/designs/:id/bom.csv: line, role, quantity, maker, part number, alternates, designators. */
-export const GET: APIRoute = ({ params, url }) =>
-  answer(async () => {
-    const id = routeId(params.id, 'The design');
-    const { revision } = readQuery(url, query);
-    const out = await designOutputs(id, revision);
-    return new Response('\uFEFF' + bomToCsv(out.bom), {
-      headers: {
-        'Content-Type': 'text/csv; charset=utf-8',
-        'Content-Disposition': `attachment; filename="${bomFileName(out.design, 'csv')}"`,
-        'Cache-Control': 'no-store',
-      },
-    });
+export const GET: APIRoute = async ({ params, url }) => {
+  const id = routeId(params.id, 'The design');
+  const { revision } = readQuery(url, query);
+  const out = await designOutputs(id, revision);
+  return new Response('\uFEFF' + bomToCsv(out.bom), {
+    headers: {
+      'Content-Type': 'text/csv; charset=utf-8',
+      'Content-Disposition': `attachment; filename="${bomFileName(out.design, 'csv')}"`,
+      'Cache-Control': 'no-store',
+    },
   });
+};

@@ -1,10 +1,9 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
-import { readJson } from '../../../../server/http/responses.ts';
 import { designInputSchema } from '../../../../lib/schemas/design.ts';
 import { getDesign, matchInput } from '../../../../server/services/designs.ts';
-import { answer, routeId } from '../../../../server/services/errors.ts';
 import type { DesignInput } from '../../../../lib/domain/design.ts';
+import { readJson, routeId } from '../../../../server/http/request.ts';
 
 const body = z.object({
   includePending: z.boolean().default(false),
@@ -13,11 +12,9 @@ const body = z.object({
 });
 
 /** POST /api/designs/:id/match: ranked switch, driver and diode candidates with reasons, best first. */
-export const POST: APIRoute = ({ params, request }) =>
-  answer(async () => {
-    const id = routeId(params.id, 'The design');
-    const parsed = await readJson(request, body);
-    if (parsed instanceof Response) return parsed;
-    const input = (parsed.input as DesignInput | undefined) ?? (await getDesign(id)).input;
-    return Response.json(await matchInput(input, parsed.includePending));
-  });
+export const POST: APIRoute = async ({ params, request }) => {
+  const id = routeId(params.id, 'The design');
+  const parsed = await readJson(request, body);
+  const input = (parsed.input as DesignInput | undefined) ?? (await getDesign(id)).input;
+  return Response.json(await matchInput(input, parsed.includePending));
+};
