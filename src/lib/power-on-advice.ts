@@ -5,7 +5,7 @@
 import { fmt } from './checks.ts';
 import { band, DEFAULT_PIN_LEAKAGE_A, describeKohm, opposingEquivalent, type PullSource } from './power-on-network.ts';
 import type { MotorState, PowerOnInput, PowerOnStep, Thresholds } from './power-on.ts';
-import { sizePullResistor, type PullResistorResult } from './pull-resistor.ts';
+import { sizePullResistor, worstPullCurrentA, type PullResistorResult } from './pull-resistor.ts';
 
 export interface RecommendedPull extends PullResistorResult {
   to: 'up' | 'down';
@@ -28,13 +28,15 @@ export const PULL_MARGIN_FRACTION_OF_RAIL = 0.1;
 const RECOMMENDED_TOLERANCE = 0.01;
 
 /**
- * Current the pin supplies into a recommended pull-DOWN while it drives high: V_high/(R·(1 − tol)).
- * A pull-up costs nothing while the pin drives high, so 0; also 0 without a pull. The integrator subtracts this
- * from the pin's current budget when the pin drives the gate (or a driver input) directly.
+ * Current the pin supplies into a recommended pull-DOWN while it drives high, at the worst case: the pin at
+ * its highest (pass the logic rail) and the resistor at its low tolerance end, V/(R·(1 − tol))
+ * (worstPullCurrentA). A pull-up costs nothing while the pin drives high, so 0; also 0 without a fitted pull.
+ * The power-on advice reports it and the switch ranking subtracts it from the pin's current budget when the
+ * pin drives the gate directly: both call this, so they cannot disagree.
  */
 export function pullDrawCurrentA(pull: RecommendedPull | null, driveHighV: number): number {
-  if (pull == null || pull.to !== 'down' || pull.chosenOhms == null) return 0;
-  return driveHighV / (pull.chosenOhms * (1 - pull.tolerance));
+  if (pull == null || !pull.ok || pull.to !== 'down' || pull.chosenOhms == null) return 0;
+  return worstPullCurrentA(driveHighV, pull.chosenOhms, pull.tolerance);
 }
 
 /** Limit the node must hold: the first stage's threshold less the margin (direct drive: ½·VGS(th)min already is one). */

@@ -62,6 +62,15 @@ export interface PullResistorResult {
 /** Above about 1 MΩ leakage, contamination and pick-up decide the node, not the resistor [practice, domain.md §10]. */
 export const PRACTICAL_MAX_PULL_OHMS = 1_000_000;
 
+/**
+ * Worst-case current through a pull resistor with a voltage across it: at the low end of its tolerance,
+ * I = |V|/(R·(1 − tol)). The one formula for every pull current (the pin driving against a pull, a gate
+ * pull-down's draw on the drive budget), so no two places judge the same resistor differently.
+ */
+export function worstPullCurrentA(acrossV: number, nominalOhms: number, tolerance = 0): number {
+  return Math.abs(acrossV) / (nominalOhms * (1 - tolerance));
+}
+
 /** V_node = (V_int·R_ext + V_ext·R_int)/(R_int + R_ext) [domain.md §6]; no internal pull leaves V_ext. */
 export function pullNodeVoltageV(internalV: number | null, internalOhms: number, externalV: number, externalOhms: number): number {
   if (internalV == null) return externalV;
@@ -174,7 +183,7 @@ export function sizePullResistor(req: PullResistorRequest): PullResistorResult {
   if (maxOhms == null || minOhms == null || maxOhms < minOhms) return fail(fitFailure(req, maxRawOhms, minRawOhms));
   const chosenOhms = maxOhms;
   const nodeV = worstNodeV(req, chosenOhms);
-  const activeCurrentA = Math.abs(activePinV(req) - req.external.railV) / (chosenOhms * (1 - (req.external.tolerance ?? 0)));
+  const activeCurrentA = worstPullCurrentA(activePinV(req) - req.external.railV, chosenOhms, req.external.tolerance ?? 0);
   if (holdOhms > ceilingOhms) {
     notes.push(`Capped at the practical ceiling of ${fmt(ceilingOhms / 1000)} kΩ: above it leakage and pick-up, not the resistor, set the node.`);
   }

@@ -13,6 +13,7 @@ import {
 import { DEFAULT_DIODE_FORWARD_V, motorConsistencyOf, motorModelOf, worstCaseOf, type DesignCase, type WorstCase } from './design-case.ts';
 import { suggestedDriveRailV } from './mosfet-checks.ts';
 import type { PowerOnResult } from './power-on.ts';
+import { pullDrawCurrentA } from './power-on-advice.ts';
 import { evaluateSwitchPart, pinGateDrive, rankDiodeCandidates, sortCandidates, type CandidateResult, type GateDrive, type SwitchCandidateResult } from './ranking.ts';
 import { lowestSpecVgsV, rdsOnPointsAt25C } from './rdson.ts';
 import { pwmFrequencyCaution } from './ripple.ts';
@@ -95,7 +96,8 @@ function directDrive(c: DesignCase, wc: WorstCase, catalogue: DesignCatalogue, p
   const bare = catalogue.mosfets.map((m) => evaluateSwitchPart(c, m, pinGateDrive(c, wc), wc));
   const reference = byId(catalogue.mosfets, picks.switchId) ?? byId(catalogue.mosfets, sortCandidates(bare)[0]?.partId);
   const pull = reference ? powerOnForPair(c, null, reference).recommendedPull : null;
-  const draw = pull?.ok && pull.to === 'down' && pull.chosenOhms ? c.logic.highV / pull.chosenOhms : 0;
+  // The same worst case as the power-on advice reports: the pin at its rail, the resistor at −tol.
+  const draw = pullDrawCurrentA(pull, c.logic.railV);
   if (draw === 0) return { drive: pinGateDrive(c, wc), list: sortCandidates(bare), draw };
   const drive = pinGateDrive(c, wc, draw);
   return { drive, list: sortCandidates(catalogue.mosfets.map((m) => evaluateSwitchPart(c, m, drive, wc))), draw };

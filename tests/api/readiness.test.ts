@@ -147,3 +147,132 @@ describe('property: no design stays ready while any pick fails at the current ca
     }
   }, 240_000);
 });
+
+const agitatorName = demoDesigns[2].name;
+const partIdOf = async (mpn: string): Promise<number> => (await knex('parts').where({ mpn }).first('id')).id;
+const createDesign = async (input: DesignInput) => {
+  const res = await api().post('/api/designs').set('Cookie', designer).send(input);
+  expect(res.status, JSON.stringify(res.body)).toBe(201);
+  return res.body as { id: number; version: number };
+};
+const issuesOf = (res: request.Response): { path: string; message: string }[] => res.body.issues ?? [];
+
+describe('the 24 V agitator copied with a 5 V driver supply', () => {
+  it('cannot be marked ready with switches characterised only at 10 V; the same picks hold at its own 12 V driver supply', async () => {
+    const agitator = await knex('designs').where({ name: agitatorName }).first('id');
+    const base = (await getDesign(agitator.id)).input as DesignInput;
+    expect(base.driverSupplyV).toBe(12);
+    expect(base.selections.driver.chosenPartId, 'the demo agitator drives its switch through a gate driver').toBeTruthy();
+    // Demo standard-level parts whose only RDS(on) line is at VGS 10 V (db/seeds/data/mosfets.ts), rated 55–80 V, approved.
+    const tenVoltOnly = ['TBV60N040-K', 'TBV55N018-T', 'TBV80N025-T'];
+    const ids = await Promise.all(tenVoltOnly.map(partIdOf));
+    for (const id of ids) expect((await getPart(id)).params).toMatchObject({ rdsOn: [expect.objectContaining({ vgsV: 10 })] });
+    const selections: DesignInput['selections'] = {
+      ...base.selections,
+      switch: { chosenPartId: ids[0], alternatePartIds: ids.slice(1) },
+      driver: { chosenPartId: base.selections.driver.chosenPartId, alternatePartIds: [] },
+    };
+
+    // Control: at 12 V the driver's output (12 V less its drop, above 10 V) is where these parts are specified.
+    const control = await createDesign({ ...base, name: `Agitator 12 V driver control ${Date.now()}`, selections });
+    const accepted = await markReady(control.id, control.version);
+    expect(accepted.status, JSON.stringify(accepted.body)).toBe(200);
+    await api().post(`/api/designs/${control.id}/status`).set('Cookie', designer).send({ status: 'draft', version: accepted.body.version });
+
+    const copy = await createDesign({ ...base, name: `Agitator 5 V driver supply ${Date.now()}`, driverSupplyV: 5, selections });
+    const match = (await api().post(`/api/designs/${copy.id}/match`).set('Cookie', designer).send({})).body as DesignMatch;
+    // A driver cannot put more on the gate than its own supply: at most 5 V, half the 10 V the parts are specified at.
+    expect(match.switchDrive.by).toBe('driver');
+    expect(match.switchDrive.gateV).toBeLessThanOrEqual(5);
+    const refused = await markReady(copy.id, copy.version);
+    expect(refused.status).toBe(409);
+    const paths = ['selections.switch.chosenPartId', 'selections.switch.alternatePartIds.0', 'selections.switch.alternatePartIds.1'];
+    paths.forEach((path, i) => {
+      const issue = issuesOf(refused).find((x) => x.path === path);
+      expect(issue?.message, path).toContain(tenVoltOnly[i]);
+      // VGS(th) max 4 V and no RDS(on) line at or below the real drive: the gate-drive check fails.
+      expect(issue?.message, path).toMatch(/gate-drive/);
+    });
+    expect((await getDesign(copy.id)).status).toBe('draft');
+  });
+});
+
+describe('an inverting driver with an internal input pull-down on a floating pin', () => {
+  it('the match says the motor starts at reset; ready is refused until a start at reset is recorded as intended', async () => {
+    const agitator = await knex('designs').where({ name: agitatorName }).first('id');
+    const base = (await getDesign(agitator.id)).input as DesignInput;
+    const template = await getPart(base.selections.driver.chosenPartId as number);
+    expect(template.params, 'the hand figures below assume a fixed-threshold 1.2 V input').toMatchObject({ inputLogic: 'fixed', inputHighMin: 1.2 });
+    // Invented part: the demo agitator's driver as an inverting variant with a strong (2.2 kΩ) input pull-down,
+    // so no external pull-up can rescue it. By hand (divider, VIH 1.2 V plus a 10 % of 1.8 V margin = 1.38 V):
+    // against 2.2 kΩ at −30 % = 1.54 kΩ a pull-up to 1.8 V must be ≤ 1540·(1.8 − 1.38)/1.38 = 469 Ω, but the
+    // pin sinks 2 mA, so it can only pull a resistor of ≥ 1.8/0.002 = 900 Ω low. The motor starts at reset.
+    const created = await api().post('/api/parts').set('Cookie', librarian).send({
+      category: 'driver', manufacturer: template.manufacturer, mpn: `PLR1IL20-S6-T${Date.now().toString(36).toUpperCase()}`,
+      description: 'Test part: inverting gate driver, 1.8 V input stage, strong internal input pull-down', package: template.package,
+      params: { ...(template.params as unknown as Record<string, unknown>), inverting: true, inputPull: 'down', inputPullOhms: 2200 },
+    });
+    expect(created.status, JSON.stringify(created.body)).toBe(201);
+    expect(created.body.params).toMatchObject({ inverting: true, inputPull: 'down', inputPullOhms: 2200 });
+    const input: DesignInput = {
+      ...base,
+      name: `Inverting driver at reset ${Date.now()}`,
+      logic: { ...base.logic, resetPull: 'none', resetPullOhms: 0, resetPullTolerance: 0 },
+      selections: { ...base.selections, driver: { chosenPartId: created.body.id, alternatePartIds: [] } },
+      resetStartIntent: null,
+    };
+    const design = await createDesign(input);
+    const match = (await api().post(`/api/designs/${design.id}/match`).set('Cookie', designer).send({})).body as DesignMatch;
+    // By hand: floating pin → the driver's pull-down holds its input low → inverting → output high → gate high → motor on.
+    const states = Object.fromEntries((match.powerOn?.steps ?? []).map((s) => [s.stage, s.state]));
+    expect(states).toMatchObject({ pin: 'undetermined', 'pull-network': 'low', driver: 'high', gate: 'high', motor: 'on' });
+    expect(match.powerOn?.motorCanStart).toBe(true);
+    expect(match.powerOn?.motorStateAtReset).toBe('on');
+
+    const refused = await markReady(design.id, design.version);
+    expect(refused.status).toBe(409);
+    expect(issuesOf(refused).find((x) => x.path === 'resetStartIntent')?.message).toMatch(/motor starts at power-up or reset/);
+
+    const reason = 'Agitator must stir from power-up to keep the slurry suspended (test)';
+    const saved = await api().put(`/api/designs/${design.id}`).set('Cookie', designer).send({ version: design.version, input: { ...input, resetStartIntent: { reason } } });
+    expect(saved.status, JSON.stringify(saved.body)).toBe(200);
+    const ready = await markReady(design.id, saved.body.version);
+    expect(ready.status, JSON.stringify(ready.body)).toBe(200);
+    expect(ready.body.status).toBe('ready');
+    expect(ready.body.input.resetStartIntent).toEqual({ reason });
+    await api().post(`/api/designs/${design.id}/status`).set('Cookie', designer).send({ status: 'draft', version: ready.body.version });
+  });
+});
+
+describe('changing the RDS(on) lines of a chosen switch', () => {
+  it('re-verifies its ready designs: a copy of the fan goes back to draft with the reason, and holds again once restored', async () => {
+    const { id, input } = await readyCopy('rdson');
+    const partId = input.selections.switch.chosenPartId as number;
+    const before = await getPart(partId);
+    const original = before.params as unknown as Record<string, unknown>;
+    // 10 Ω on every line: at the fan's start-up current (amperes at 12.6 V) P = I²·R is tens of watts in a
+    // small package, far past Tj max at any RθJA the catalogue holds (Joule’s law; docs/engineering.md §5.6).
+    const res = await editParams(partId, (p) => ({ ...p, rdsOn: (p.rdsOn as Record<string, unknown>[]).map((r) => ({ ...r, maxOhm: 10, typOhm: null })) }));
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    try {
+      const design = await getDesign(id);
+      expect(design.status).toBe('draft');
+      expect(design.statusReason).toContain(before.mpn);
+      expect(design.statusReason).toMatch(/was edited/);
+      expect(design.statusReason).toMatch(/junction-temperature|stall-thermal|running-current|stall-current/);
+      // The long reason (several failing checks) is kept whole on the design and clipped to fit the audit note.
+      const audit = await knex('audit_events').where({ entity_type: 'design', entity_id: id, action: 'design.unready' }).orderBy('id', 'desc').first();
+      expect(audit?.note).toContain(before.mpn);
+      expect(JSON.parse(audit.after_json).reasons.some((r: { message: string }) => r.message.includes(before.mpn))).toBe(true);
+      const refused = await markReady(id, design.version);
+      expect(refused.status).toBe(409);
+      expect(issuesOf(refused).find((x) => x.path === 'selections.switch.chosenPartId')?.message).toContain(before.mpn);
+    } finally {
+      await editParams(partId, () => original);
+      const fan = await knex('designs').where({ name: fanName }).first();
+      if (fan.status !== 'ready') expect((await markReady(fan.id, fan.version)).status).toBe(200);
+    }
+    const again = await getDesign(id);
+    expect((await markReady(id, again.version)).status).toBe(200);
+  });
+});

@@ -14,8 +14,10 @@ import { insertAuditEvent } from '../repos/audit.ts';
 import { ServiceError, notFound } from './errors.ts';
 import { canEditDesign, getDesign, matchInput, partsByIds, resolveMotor, staleDesign } from './designs.ts';
 
-/** The column is VARCHAR(2000). */
+/** designs.status_reason is VARCHAR(2000). */
 const REASON_MAX_CHARS = 2000;
+/** audit_events.note is VARCHAR(500); the full reasons go in the event's after_json. */
+const AUDIT_NOTE_MAX_CHARS = 500;
 
 export interface Verification {
   match: DesignMatch;
@@ -52,7 +54,7 @@ async function verifyAt(k: Db, designId: number, revision: number): Promise<{ is
   }
 }
 
-const clip = (text: string): string => (text.length <= REASON_MAX_CHARS ? text : `${text.slice(0, REASON_MAX_CHARS - 1)}…`);
+const clip = (text: string, max = REASON_MAX_CHARS): string => (text.length <= max ? text : `${text.slice(0, max - 1)}…`);
 
 async function lockDesign(k: Db, id: number): Promise<DbDesignRow> {
   const row: DbDesignRow | undefined = await k('designs').where({ id }).forUpdate().first();
@@ -113,7 +115,7 @@ export async function reverifyDesign(designId: number, actor: SessionUser | null
       actorUserId: actor?.id ?? null, action: 'design.unready', entityType: 'design', entityId: designId,
       before: { status: 'ready', revision: row.current_revision },
       after: { status: 'draft', revision: row.current_revision, reasons: issues, trigger },
-      note: reason,
+      note: clip(reason, AUDIT_NOTE_MAX_CHARS),
     });
     return { ...base, wasReady: true, holds: false, issues, reason, verification };
   });

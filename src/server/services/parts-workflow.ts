@@ -52,9 +52,13 @@ export async function changeLifecycle(user: SessionUser, id: number, change: Lif
   return part;
 }
 
-/** Replaces the sources and price breaks of a part (buyers and curators). */
+/**
+ * Replaces the sources and price breaks of a part (buyers and curators). Supply data is part of the record
+ * the match reads (price at the build quantity), so ready designs using the part are re-verified right after
+ * the change commits, as after every other part change.
+ */
 export async function updateSources(user: SessionUser, id: number, update: SourcesUpdate): Promise<Part> {
-  return db().transaction(async (trx) => {
+  const part = await db().transaction(async (trx) => {
     const row = await lockPartRow(trx, id);
     if (!row) throw notFound('The part');
     if (row.version !== update.version) throw staleVersion(row.version);
@@ -65,4 +69,6 @@ export async function updateSources(user: SessionUser, id: number, update: Sourc
     await insertAuditEvent(trx, { actorUserId: user.id, action: 'part.sources', entityType: 'part', entityId: id, before, after });
     return after;
   });
+  await reverifyDesignsUsingParts([id], user, `${part.mpn} (part ${id}) supply data was changed`);
+  return part;
 }
