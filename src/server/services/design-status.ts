@@ -141,8 +141,25 @@ async function readyDesignsUsing(k: Db, partIds: number[]): Promise<number[]> {
 export async function reverifyDesignsUsingParts(partIds: number[], actor: SessionUser | null, reason: string): Promise<ReverifyOutcome[]> {
   const ids = await readyDesignsUsing(db(), partIds);
   const outcomes: ReverifyOutcome[] = [];
-  for (const id of ids) outcomes.push(await reverifyDesign(id, actor, { partIds, reason }));
+  for (const id of ids) outcomes.push(await reverifyOrWithdraw(id, actor, { partIds, reason }));
   return outcomes;
+}
+
+/**
+ * Re-verification that cannot leave a design marked ready unverified: when the check itself fails (a bug,
+ * a record the engine cannot read), the design goes back to draft saying so, and the error is logged.
+ */
+async function reverifyOrWithdraw(designId: number, actor: SessionUser | null, trigger: { partIds: number[]; reason: string }): Promise<ReverifyOutcome> {
+  try {
+    return await reverifyDesign(designId, actor, trigger);
+  } catch (err) {
+    console.error(`[stallpoint] re-verifying design ${designId} failed; withdrawing its ready status:`, err);
+    const reason = clip(`${trigger.reason}: the design could not be re-verified (${(err as Error).message}); check it and mark it ready again`);
+    await db()('designs').where({ id: designId, status: 'ready' }).update({
+      status: 'draft', ready_at: null, status_reason: reason, status_changed_at: db().fn.now(3), version: db().raw('version + 1'), updated_at: db().fn.now(3),
+    });
+    return { designId, name: '', reason, wasReady: true, holds: false, issues: [], verification: null };
+  }
 }
 
 /** Re-verifies the given designs (the shortlist opens with this), flipping any that no longer hold. */
