@@ -8,18 +8,19 @@ import {
   deletePartRow,
   findPartIdByMakerMpn,
   loadPart,
-  lockPartRow,
   replaceParams,
   replaceSources,
   updatePartHead,
 } from '../repos/part-writes.ts';
 import { insertAuditEvent } from '../repos/audit.ts';
+import { withLockedVersion } from '../repos/versioned.ts';
+import { PART_ENTITY } from './part-entity.ts';
 import { listDatasheets } from '../repos/datasheets.ts';
 import { designsUsingPart } from '../repos/designs.ts';
 import { datasheetStore } from '../storage/index.ts';
 import { canCurate, canPropose } from './parts-access.ts';
 import { reverifyDesignsUsingParts } from './design-status.ts';
-import { notFound, ServiceError, staleVersion } from './errors.ts';
+import { notFound, ServiceError } from './errors.ts';
 
 /** Curators get what they ask for (approved by default); everyone else proposes (pending). */
 export function initialReviewStatus(user: SessionUser, requested: PartInput['reviewStatus']): ReviewStatus {
@@ -55,55 +56,57 @@ export async function createPart(user: SessionUser, input: PartInput): Promise<P
  * Lifecycle moves go through changeLifecycle (with date and note), so an edit must keep the lifecycle.
  */
 export async function updatePart(user: SessionUser, id: number, input: PartUpdate): Promise<Part> {
-  const { before, after } = await db().transaction(async (trx) => {
-    const row = await lockPartRow(trx, id);
-    if (!row) throw notFound('The part');
-    const curator = canCurate(user);
-    const ownProposal = row.created_by === user.id && row.review_status !== 'approved' && canPropose(user);
-    if (!curator && !ownProposal) throw new ServiceError(403, 'Your role may not edit this part.');
-    if (row.version !== input.version) throw staleVersion(row.version);
-    if (row.category !== input.category) throw new ServiceError(400, 'A part cannot change category.', [{ path: 'category', message: `the part is a ${row.category}` }]);
-    if (row.lifecycle !== input.lifecycle) {
-      throw new ServiceError(400, 'Change the lifecycle with its own action, which records the effective date and a note.', [{ path: 'lifecycle', message: `the part is ${row.lifecycle}` }]);
-    }
-    const other = await findPartIdByMakerMpn(trx, input.manufacturer, input.mpn);
-    if (other !== null && other !== id) throw duplicate(input.manufacturer, input.mpn, other);
-    const before = (await loadPart(trx, id))!;
-    const reviewStatus: ReviewStatus = curator ? (input.reviewStatus ?? row.review_status) : 'pending';
-    const next = toNewPart(input, reviewStatus);
-    await updatePartHead(trx, id, { ...next, reviewStatus });
-    await replaceParams(trx, id, next);
-    if (input.sources !== undefined) await replaceSources(trx, id, next.sources);
-    const after = (await loadPart(trx, id))!;
-    await insertAuditEvent(trx, { actorUserId: user.id, action: 'part.update', entityType: 'part', entityId: id, before, after });
-    return { before, after };
+  const { before, after } = await withLockedVersion(PART_ENTITY, {
+    id,
+    expectedVersion: input.version,
+    actorUserId: user.id,
+    action: 'part.update',
+    precheck(row) {
+      const ownProposal = row.created_by === user.id && row.review_status !== 'approved' && canPropose(user);
+      if (!canCurate(user) && !ownProposal) throw new ServiceError(403, 'Your role may not edit this part.');
+    },
+    async apply(trx, row) {
+      if (row.category !== input.category) throw new ServiceError(400, 'A part cannot change category.', [{ path: 'category', message: `the part is a ${row.category}` }]);
+      if (row.lifecycle !== input.lifecycle) {
+        throw new ServiceError(400, 'Change the lifecycle with its own action, which records the effective date and a note.', [{ path: 'lifecycle', message: `the part is ${row.lifecycle}` }]);
+      }
+      const other = await findPartIdByMakerMpn(trx, input.manufacturer, input.mpn);
+      if (other !== null && other !== id) throw duplicate(input.manufacturer, input.mpn, other);
+      const reviewStatus: ReviewStatus = canCurate(user) ? (input.reviewStatus ?? row.review_status) : 'pending';
+      const next = toNewPart(input, reviewStatus);
+      await updatePartHead(trx, id, { ...next, reviewStatus });
+      await replaceParams(trx, id, next);
+      if (input.sources !== undefined) await replaceSources(trx, id, next.sources);
+    },
   });
   // Right after the change commits: ready designs using the part must still hold, or go back to draft.
-  const review = before.reviewStatus !== after.reviewStatus ? `, review ${before.reviewStatus} → ${after.reviewStatus}` : '';
-  await reverifyDesignsUsingParts([id], user, `${after.mpn} (part ${id}) was edited${review}`);
-  return after;
+  const review = before!.reviewStatus !== after!.reviewStatus ? `, review ${before!.reviewStatus} → ${after!.reviewStatus}` : '';
+  await reverifyDesignsUsingParts([id], user, `${after!.mpn} (part ${id}) was edited${review}`);
+  return after!;
 }
 
 /** Deletes a part with its parameters, sources and datasheet records; the files go once the rows are gone. */
 export async function deletePart(user: SessionUser, id: number, version: number | null): Promise<void> {
-  const keys = await db().transaction(async (trx) => {
-    const row = await lockPartRow(trx, id);
-    if (!row) throw notFound('The part');
-    if (version !== null && row.version !== version) throw staleVersion(row.version);
-    // Refused while any design uses it: the design_parts rows would cascade away while the saved revisions
-    // still name the part, so a ready design would silently lose a BOM line. Obsolete retires a part and
-    // re-verifies its designs instead.
-    const uses = await designsUsingPart(trx, id);
-    if (uses.length > 0) {
-      const designs = [...new Map(uses.map((u) => [u.id, u])).values()];
-      throw new ServiceError(409, `The part is used by ${designs.length} design(s); take it out of those designs or mark it obsolete instead.`,
-        designs.slice(0, 20).map((d) => ({ path: 'id', message: `used by design ${d.id} “${d.name}” (${d.status})` })));
-    }
-    const before = await loadPart(trx, id);
-    const sheets = await listDatasheets(trx, id);
-    await deletePartRow(trx, id);
-    await insertAuditEvent(trx, { actorUserId: user.id, action: 'part.delete', entityType: 'part', entityId: id, before, after: null });
-    return sheets.map((s) => s.storageKey);
+  const { result: keys } = await withLockedVersion(PART_ENTITY, {
+    id,
+    expectedVersion: version,
+    actorUserId: user.id,
+    action: 'part.delete',
+    deleted: true,
+    async apply(trx) {
+      // Refused while any design uses it: the design_parts rows would cascade away while the saved revisions
+      // still name the part, so a ready design would silently lose a BOM line. Obsolete retires a part and
+      // re-verifies its designs instead.
+      const uses = await designsUsingPart(trx, id);
+      if (uses.length > 0) {
+        const designs = [...new Map(uses.map((u) => [u.id, u])).values()];
+        throw new ServiceError(409, `The part is used by ${designs.length} design(s); take it out of those designs or mark it obsolete instead.`,
+          designs.slice(0, 20).map((d) => ({ path: 'id', message: `used by design ${d.id} “${d.name}” (${d.status})` })));
+      }
+      const sheets = await listDatasheets(trx, id);
+      await deletePartRow(trx, id);
+      return sheets.map((s) => s.storageKey);
+    },
   });
   for (const key of keys) await datasheetStore().delete(key);
 }
