@@ -46,6 +46,18 @@ export function pairedWithShort(pairing: { switchMpn: string; gateDriveV: number
   return `paired with switch ${pairing.switchMpn} at ${fmt(pairing.gateDriveV)} V gate drive`;
 }
 
+/**
+ * The bill of materials' pairing notes: the switch line says at what drive it is judged, the driver line
+ * which switch it is paired with (the chosen driver's entry in the match).
+ */
+export function bomPairingNotes(
+  match: { switchDrive: SwitchDrive; driver: readonly { partId?: number | null; pairing: { switchMpn: string; gateDriveV: number } }[] },
+  chosenDriverId: number | null,
+): { switch: string; driver?: string } {
+  const driver = chosenDriverId == null ? undefined : match.driver.find((d) => d.partId === chosenDriverId);
+  return { switch: judgedAtShort(match.switchDrive), ...(driver ? { driver: pairedWithShort(driver.pairing) } : {}) };
+}
+
 /** The stall protection in words, with what it means for the jam the parts are judged at. */
 export function stallProtectionText(p: StallProtection): string {
   if (p.kind === 'current-limit') return `current limit at ${fmt(p.limitA)} A: a jam settles at that current (steady state)`;
