@@ -45,6 +45,7 @@ export function StallProtectionInput({ value, onChange, errorOf }: { value: Stal
           <option value="current-limit">current limit</option>
           <option value="cut-off">cut-off after a time</option>
         </select>
+        <span className="text-xs text-ink-faint" data-testid="stall-protection-hint">{STALL_HINT[value.kind]}</span>
       </label>
       {value.kind === 'current-limit' ? (
         <NumInput label="Current limit" unit="A" value={value.limitA} onValue={(v) => onChange({ kind: 'current-limit', limitA: v })} error={errorOf('stallProtection.limitA')} testId="stall-limit" />
@@ -52,7 +53,6 @@ export function StallProtectionInput({ value, onChange, errorOf }: { value: Stal
       {value.kind === 'cut-off' ? (
         <NumInput label="Cut off after" unit="s" value={value.afterS} onValue={(v) => onChange({ kind: 'cut-off', afterS: v })} error={errorOf('stallProtection.afterS')} testId="stall-cutoff" />
       ) : null}
-      <p className="col-span-2 text-xs text-ink-faint self-end" data-testid="stall-protection-hint">{STALL_HINT[value.kind]}</p>
     </>
   );
 }
