@@ -14,6 +14,8 @@ export interface BomLine {
   description: string;
   alternates: string;
   referenceDesignators: string;
+  /** For the switch: the gate drive it is judged at; for the driver: the switch it is paired with. */
+  pairing: string;
   /** Verdict and review status of the line's pick and of each alternate at the current catalogue. */
   status: string;
 }
@@ -27,6 +29,7 @@ export const BOM_COLUMNS: readonly { key: keyof BomLine; header: string }[] = [
   { key: 'description', header: 'Description' },
   { key: 'alternates', header: 'Alternates' },
   { key: 'referenceDesignators', header: 'Reference designators' },
+  { key: 'pairing', header: 'Judged at / paired with' },
   { key: 'status', header: 'Status at current catalogue' },
 ];
 
@@ -45,15 +48,17 @@ export interface BomInput {
   statusOf?: (role: PartRole, partId: number) => string;
   /** The catalogue motor's review status and lifecycle, in words. */
   motorStatus?: string;
+  /** Pairing notes per line (src/lib/design-words.ts bomPairingNotes); absent lines get none. */
+  pairing?: Partial<Record<PartRole, string>>;
 }
 
 const NOT_CHECKED = 'not checked';
 
-export function buildBom({ input, motor, partsById, pull, statusOf, motorStatus }: BomInput): BomLine[] {
+export function buildBom({ input, motor, partsById, pull, statusOf, motorStatus, pairing }: BomInput): BomLine[] {
   const boards = input.boardQuantity;
   const lines: Omit<BomLine, 'line'>[] = [];
   if (motor) {
-    lines.push({ role: 'Motor', quantity: boards, manufacturer: motor.manufacturer, partNumber: motor.mpn, description: motor.description, alternates: '', referenceDesignators: 'M1', status: motorStatus ?? NOT_CHECKED });
+    lines.push({ role: 'Motor', quantity: boards, manufacturer: motor.manufacturer, partNumber: motor.mpn, description: motor.description, alternates: '', referenceDesignators: 'M1', pairing: '', status: motorStatus ?? NOT_CHECKED });
   }
   for (const { role, label, refdes } of ROLE_LINES) {
     const sel = input.selections[role];
@@ -63,12 +68,12 @@ export function buildBom({ input, motor, partsById, pull, statusOf, motorStatus 
     const alternates = alternateParts.map((p) => `${p.mpn} (${p.manufacturer})`).join('; ');
     const say = (p: Part): string => (statusOf ? statusOf(role, p.id as number) : NOT_CHECKED);
     const status = [say(chosen), ...alternateParts.map((p) => `alternate ${p.mpn}: ${say(p)}`)].join('; ');
-    lines.push({ role: label, quantity: boards, manufacturer: chosen.manufacturer, partNumber: chosen.mpn, description: chosen.description, alternates, referenceDesignators: refdes, status });
+    lines.push({ role: label, quantity: boards, manufacturer: chosen.manufacturer, partNumber: chosen.mpn, description: chosen.description, alternates, referenceDesignators: refdes, pairing: pairing?.[role] ?? '', status });
   }
   if (pull && pull.ok && pull.chosenOhms != null) {
     lines.push({
       role: `Pull-${pull.to} resistor (power-on state)`, quantity: boards, manufacturer: 'any', partNumber: `${formatOhms(pull.chosenOhms)} ±1 %, 0.1 W`,
-      description: `Holds the control line ${pull.to === 'down' ? 'low' : 'high'} through reset (to ${pull.railV} V)`, alternates: '', referenceDesignators: 'R1',
+      description: `Holds the control line ${pull.to === 'down' ? 'low' : 'high'} through reset (to ${pull.railV} V)`, alternates: '', referenceDesignators: 'R1', pairing: '',
       status: 'sized by the power-on walk',
     });
   }

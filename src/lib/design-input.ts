@@ -3,8 +3,16 @@ import type { DesignCase } from './design-case.ts';
 import type { DesignInput } from './domain/design.ts';
 import type { MotorParams } from './domain/parts.ts';
 
+/** A separate driver rail is judged at ±5 % of its nominal value [practice: a regulated rail's usual band]. */
+export const DRIVER_RAIL_TOLERANCE = 0.05;
+
+/** The rail feeding a gate driver: the separate rail's ±5 % band, or the motor supply's range (null = the motor supply). */
+export function driverSupplyRangeOf(input: Pick<DesignInput, 'driverSupplyV' | 'supply'>): { minV: number; maxV: number } {
+  const v = input.driverSupplyV;
+  return v == null ? { minV: input.supply.minV, maxV: input.supply.maxV } : { minV: v * (1 - DRIVER_RAIL_TOLERANCE), maxV: v * (1 + DRIVER_RAIL_TOLERANCE) };
+}
+
 export function designCaseOf(input: DesignInput, motor: MotorParams): DesignCase {
-  const driverSupplyV = input.driverSupplyV;
   return {
     motor,
     supplyMinV: input.supply.minV,
@@ -29,7 +37,7 @@ export function designCaseOf(input: DesignInput, motor: MotorParams): DesignCase
     ambientMaxC: input.ambientMaxC,
     load: input.load,
     margins: input.margins,
-    driverSupply: driverSupplyV == null ? undefined : { minV: driverSupplyV * 0.95, maxV: driverSupplyV * 1.05 },
+    driverSupply: input.driverSupplyV == null ? undefined : driverSupplyRangeOf(input),
     source: {
       internalResistanceOhm: input.supply.internalResistanceOhm,
       continuousCurrentA: input.supply.continuousCurrentA,

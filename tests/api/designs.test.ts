@@ -179,12 +179,38 @@ describe('bill of materials', () => {
     expect(res.headers['content-disposition']).toMatch(/attachment; filename=".+-rev\d+\.csv"/);
     const parsed = Papa.parse<Record<string, string>>(res.body as string, { header: true, skipEmptyLines: true });
     expect(parsed.errors).toEqual([]);
-    expect(parsed.meta.fields).toEqual(['Line', 'Role', 'Quantity', 'Manufacturer', 'Part number', 'Description', 'Alternates', 'Reference designators', 'Status at current catalogue']);
+    expect(parsed.meta.fields).toEqual(['Line', 'Role', 'Quantity', 'Manufacturer', 'Part number', 'Description', 'Alternates', 'Reference designators', 'Judged at / paired with', 'Status at current catalogue']);
     const sw = await knex('parts').where({ id: design.input.selections.switch.chosenPartId }).first();
     const q1 = parsed.data.find((r) => r['Reference designators'] === 'Q1');
     expect(q1?.['Part number']).toBe(sw.mpn);
     expect(q1?.Alternates.split('; ').filter(Boolean)).toHaveLength(design.input.selections.switch.alternatePartIds.length);
     expect(Papa.unparse(parsed.data)).toContain(sw.mpn);
+    // BF-12 drives its switch straight from the pin; its logic high minimum is 2.9 V (db/seeds/designs.ts).
+    expect(q1?.['Judged at / paired with']).toBe('judged at 2.9 V gate drive from the controller pin');
+    expect(parsed.data.find((r) => r['Reference designators'] === 'D1')?.['Judged at / paired with']).toBe('');
+  });
+
+  it('pairs the agitator\'s switch with its chosen driver on both lines', async () => {
+    const id = await seededDesignId(demoDesigns[2].name);
+    const res = await api().get(`/api/designs/${id}/bom.csv`).set('Cookie', buyer).buffer(true).parse((r, cb) => {
+      let text = '';
+      r.setEncoding('utf8');
+      r.on('data', (c: string) => (text += c));
+      r.on('end', () => cb(null, text));
+    });
+    expect(res.status).toBe(200);
+    const rows = Papa.parse<Record<string, string>>(res.body as string, { header: true, skipEmptyLines: true }).data;
+    const q1 = rows.find((r) => r['Reference designators'] === 'Q1');
+    const u1 = rows.find((r) => r['Reference designators'] === 'U1');
+    expect(q1 && u1).toBeTruthy();
+    const judged = q1?.['Judged at / paired with'].match(new RegExp(`^judged at ([\\d.]+) V gate drive from driver ${u1?.['Part number']}$`));
+    const paired = u1?.['Judged at / paired with'].match(new RegExp(`^paired with switch ${q1?.['Part number']} at ([\\d.]+) V gate drive$`));
+    expect(judged, q1?.['Judged at / paired with']).toBeTruthy();
+    expect(paired, u1?.['Judged at / paired with']).toBeTruthy();
+    // The seed's 12 V driver rail is judged at 11.4 V minimum (12 × 0.95): the driver's output high sits just below it.
+    expect(Number(judged?.[1])).toBe(Number(paired?.[1]));
+    expect(Number(judged?.[1])).toBeGreaterThan(10);
+    expect(Number(judged?.[1])).toBeLessThanOrEqual(11.4);
   });
 });
 

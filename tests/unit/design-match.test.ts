@@ -67,6 +67,21 @@ describe('bill of materials', () => {
     expect(parsed.data.map((r) => r['Part number'])).toEqual(lines.map((l) => l.partNumber));
     expect(parsed.data.find((r) => r['Reference designators'] === 'Q1')?.Alternates.split('; ')).toHaveLength(withSel.selections.switch.alternatePartIds.length);
   });
+
+  it('carries the pairing notes in their own column, on the switch line only when no driver is chosen', () => {
+    const { input, motor } = inputFor('P-20');
+    const match = matchDesign(input, motor.mpn, motor.params, catalogue(mosfets.filter((m) => m.params.channel === 'n')));
+    const withSel = { ...input, selections: suggestSelections(match) };
+    const partsById = new Map<number, Part>([...mosfets, ...diodes, ...drivers].map((p) => [p.id as number, p]));
+    const lines = buildBom({
+      input: withSel, motor: { manufacturer: motor.manufacturer, mpn: motor.mpn, description: motor.description }, partsById, pull: null,
+      pairing: { switch: 'judged at 2.9 V gate drive from the controller pin' },
+    });
+    const parsed = Papa.parse<Record<string, string>>(bomToCsv(lines), { header: true, skipEmptyLines: true });
+    expect(parsed.meta.fields).toEqual(['Line', 'Role', 'Quantity', 'Manufacturer', 'Part number', 'Description', 'Alternates', 'Reference designators', 'Judged at / paired with', 'Status at current catalogue']);
+    const byRef = Object.fromEntries(parsed.data.map((r) => [r['Reference designators'], r['Judged at / paired with']]));
+    expect(byRef).toMatchObject({ M1: '', Q1: 'judged at 2.9 V gate drive from the controller pin', D1: '' });
+  });
 });
 
 describe.each([

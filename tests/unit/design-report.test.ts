@@ -58,8 +58,11 @@ function reportData(base: DesignInput, choose = true): DesignReportData {
   const motorPart = base.motor.source === 'catalogue' ? (partsById.get(base.motor.partId) as PartOf<'motor'>) : null;
   const label = base.motor.source === 'catalogue' ? (motorPart as PartOf<'motor'>).mpn : base.motor.label;
   const params = motorPart ? motorPart.params : (base.motor as { params: PartOf<'motor'>['params'] }).params;
-  const match = matchDesign(base, label, params, { mosfets, drivers, diodes, excluded: { switch: 0, driver: 0, diode: 0 } });
-  const input = { ...base, selections: choose ? suggestSelections(match) : noSelections };
+  const catalogue = { mosfets, drivers, diodes, excluded: { switch: 0, driver: 0, diode: 0 } };
+  const first = matchDesign(base, label, params, catalogue);
+  const input = { ...base, selections: choose ? suggestSelections(first) : noSelections };
+  // Re-matched with the picks, as the service does: the switch is then judged at the chosen driver.
+  const match = matchDesign(input, label, params, catalogue);
   const motor = motorPart ? { manufacturer: motorPart.manufacturer, mpn: motorPart.mpn, description: motorPart.description } : null;
   const bom = buildBom({ input, motor, partsById, pull: match.powerOn?.recommendedPull ?? null });
   const design = { id: 7, name: base.name, revision: 1, ownerName: 'Dana Example', status: 'draft' as const, generatedAt: new Date('2026-03-02T09:30:00Z') };
@@ -96,9 +99,14 @@ async function readPages(bytes: Uint8Array): Promise<PageText[]> {
 const mpnOf = (id: number | null): string => (id == null ? '(none)' : (partsById.get(id)?.mpn ?? '(missing)'));
 
 describe.each([
-  { title: 'bench fan, on/off, 3.3 V logic', design: benchFan, out: process.env.REPORT_PDF_OUT },
-  { title: 'battery pump, PWM, 1.8 V logic with a driver', design: batteryPump, out: process.env.REPORT_PDF_OUT?.replace(/\.pdf$/, '-pump.pdf') },
-])('design report: $title', ({ design, out }) => {
+  // Both drivers run from the motor supply (driverSupplyV null), so the lowest driver supply is the supply minimum
+  // entered above: 11.4 V for the fan (no switch holds a jam on the 2.9 V pin drive), 6 V for the pump.
+  { title: 'bench fan, on/off, 3.3 V logic', design: benchFan, out: process.env.REPORT_PDF_OUT, judged: ['lowest driver supply of 11.4 V (the chosen driver)'] },
+  {
+    title: 'battery pump, PWM, 1.8 V logic with a driver', design: batteryPump, out: process.env.REPORT_PDF_OUT?.replace(/\.pdf$/, '-pump.pdf'),
+    judged: ['lowest driver supply of 6 V (the chosen driver)', 'Drivers are ranked for the chosen switch'],
+  },
+])('design report: $title', ({ design, out, judged }) => {
   const data = reportData(design);
   let bytes: Uint8Array;
   let pages: PageText[];
@@ -138,6 +146,16 @@ describe.each([
     else expect(allText()).toContain('Direct drive from the logic pin');
   });
 
+  it('says at what drive the switch is judged, which driver it is paired with, and the stall protection', () => {
+    for (const j of judged) expect(allText()).toContain(j);
+    const sel = data.input.selections;
+    if (data.match.driverNeeded) {
+      expect(allText()).toContain(`Switches are judged at driver ${mpnOf(sel.driver.chosenPartId)}:`);
+      expect(allText()).toContain(`Drivers are ranked for the chosen switch ${mpnOf(sel.switch.chosenPartId)}`);
+    }
+    expect(allText()).toContain('Jammed shaft judged with stall protection none');
+  });
+
   it('prints every caution title from safety-notes and the closing deferral line', () => {
     for (const c of CAUTIONS) expect(allText()).toContain(c.title);
     expect(allText()).toContain(DEFERRAL_LINE.replace(/\s+/g, ' '));
@@ -159,6 +177,16 @@ describe.each([
     expect(allText().replace(/ /g, '')).toContain('RθJA'); // drawn in runs: Latin R, Greek θ, Latin JA
     expect(allText()).toContain('°C');
     expect(allText()).toMatch(/PASS|✓ pass/);
+  });
+});
+
+describe('design report with a recorded reset-start intent', () => {
+  it('prints the motor state at reset and the designer\'s reason', async () => {
+    const reason = 'The fan purges the hood at power-up before the controller boots.';
+    const bytes = await buildDesignReportPdf(reportData({ ...benchFan, resetStartIntent: { reason } }));
+    const text = (await readPages(bytes)).map((p) => p.text).join(' ');
+    expect(text).toContain('Motor at reset as built');
+    expect(text).toContain(reason);
   });
 });
 

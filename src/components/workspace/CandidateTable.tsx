@@ -2,6 +2,7 @@ import { Fragment, useState } from 'react';
 import type { MatchEntry } from '../../lib/design-match.ts';
 import type { CandidateResult } from '../../lib/ranking.ts';
 import type { RoleSelection } from '../../lib/domain/design.ts';
+import { checkLabel } from '../../lib/design-words.ts';
 import Verdict, { CheckMark } from './Verdict.tsx';
 
 export interface ExtraColumn<T> {
@@ -23,6 +24,11 @@ const fmt = (v: number | null, unit: string): string => (v == null ? '—' : `${
 const margin = (m: number | null): string => (m == null ? '' : `${(m * 100).toFixed(0)} %`);
 const LIFE: Record<string, string> = { active: 'Active', nrnd: 'NRND', 'last-buy': 'Last buy', obsolete: 'Obsolete' };
 
+/** Marks a part in another package than the chosen one (words and icon). */
+export function FootprintChange() {
+  return <span className="tag ml-1 text-warn border-warn" data-testid="footprint-change" title="Another package than the chosen part: the board needs a different footprint to take it.">⇄ footprint change</span>;
+}
+
 function Reasons({ checks }: { checks: CandidateResult['checks'] }) {
   return (
     <table className="w-full text-xs my-1">
@@ -31,7 +37,7 @@ function Reasons({ checks }: { checks: CandidateResult['checks'] }) {
         {checks.map((c) => (
           <tr key={c.id} data-check={c.id}>
             <td><CheckMark ok={c.ok} severity={c.severity} /></td>
-            <td className="whitespace-nowrap pr-2">{c.id}</td>
+            <td className="pr-2 min-w-36">{checkLabel(c.id)}<span className="block text-ink-faint">{c.id}</span></td>
             <td className="text-right num whitespace-nowrap">{fmt(c.value, c.unit)}</td>
             <td className="text-right num whitespace-nowrap">{fmt(c.limit, c.unit)}</td>
             <td className="text-right num">{margin(c.margin)}</td>
@@ -77,7 +83,7 @@ export default function CandidateTable<T extends MatchEntry>({ role, caption, en
               <Fragment key={key}>
                 <tr data-mpn={e.mpn} data-verdict={e.verdict}>
                   <td><Verdict verdict={e.verdict} /></td>
-                  <td className="font-semibold whitespace-nowrap">{e.mpn}{e.reviewStatus === 'pending' ? <span className="tag ml-1">pending review</span> : null}</td>
+                  <td className="font-semibold whitespace-nowrap">{e.mpn}{e.reviewStatus === 'pending' ? <span className="tag ml-1">pending review</span> : null}{e.footprintChange ? <FootprintChange /> : null}</td>
                   <td className="whitespace-nowrap">{e.manufacturer}</td>
                   <td className="whitespace-nowrap">{e.package}</td>
                   {extra.map((c) => <td key={c.header} className="num whitespace-nowrap">{c.cell(e)}</td>)}

@@ -1,6 +1,8 @@
 import type { ComponentType, ReactNode } from 'react';
 import type { DesignInput, PartRole, RoleSelection } from '../../lib/domain/design.ts';
 import { effectiveSwitchList, type DesignMatch } from '../../lib/design-match.ts';
+import { driverSupplyRangeOf } from '../../lib/design-input.ts';
+import { driversRankedForLine, switchDriveLine } from '../../lib/design-words.ts';
 import CandidateTable, { type ExtraColumn } from './CandidateTable.tsx';
 
 type StepComponent = ComponentType<{ n: number; title: string; children: ReactNode; testId?: string }>;
@@ -23,9 +25,17 @@ const checkValue = (e: { checks: { id: string; value: number | null; unit: strin
   return c ? n(c.value, c.unit === 'A' && scale !== 1 ? 'mA' : c.unit, scale) : '—';
 };
 
+/** The junction with the shaft jammed; "runs away" when the RDS(on) rise with heat has no steady state. */
+function stallTj(e: SwitchEntry): string {
+  if (e.evaluation.stallJunctionC != null) return n(e.evaluation.stallJunctionC, '°C');
+  const check = e.checks.find((c) => c.id === 'stall-thermal');
+  return check && !check.ok && check.value == null ? 'runs away' : '—';
+}
+
 const SWITCH_COLS: ExtraColumn<SwitchEntry>[] = [
   { header: 'RDS(on) @ drive', cell: (e) => n(e.evaluation.rdsOnAtDriveOhms, 'mΩ', 1000) },
   { header: 'Tj', cell: (e) => n(e.evaluation.junctionC, '°C') },
+  { header: 'Tj jammed', cell: stallTj },
   { header: 'Loss', cell: (e) => (e.evaluation.conductionLossW == null ? '—' : n(e.evaluation.conductionLossW + (e.evaluation.switchingLossW ?? 0), 'mW', 1000)) },
 ];
 const DRIVER_COLS: ExtraColumn<DriverEntry>[] = [
@@ -39,6 +49,10 @@ const DIODE_COLS: ExtraColumn<DiodeEntry>[] = [
   { header: 'VRRM need', cell: (e) => checkValue(e, 'reverse-voltage') },
 ];
 
+function Line({ children, testId }: { children: ReactNode; testId: string }) {
+  return <p className="text-sm px-1 pb-1" data-testid={testId}>{children}</p>;
+}
+
 function Excluded({ count, what }: { count: number; what: string }) {
   if (!count) return null;
   return <p className="text-xs text-ink-faint mt-1">{count} {what} left out before ranking: a rating can never pass (or the part is obsolete).</p>;
@@ -47,10 +61,13 @@ function Excluded({ count, what }: { count: number; what: string }) {
 /** Steps 3–5: switch, gate drive, freewheel diode. */
 export default function CandidatesSection({ match, input, onSelect, readOnly, Step }: Props) {
   const switches = effectiveSwitchList(match);
+  const pairedSwitch = match.driver[0]?.pairing;
   return (
     <>
       <Step n={3} title={match.driverNeeded ? 'Switch (driven through a gate driver)' : 'Switch (driven straight from the logic pin)'} testId="step-switch">
         <div className="card p-2">
+          <Line testId="switch-drive">{switchDriveLine(match.switchDrive, driverSupplyRangeOf(input).minV)}</Line>
+          <p className="text-xs text-ink-faint px-1 pb-1" data-testid="score-explanation">{match.scoreExplanation}</p>
           <CandidateTable role="switch" caption="Switch candidates" entries={switches} extra={SWITCH_COLS} selection={input.selections.switch} onSelect={onSelect('switch')} readOnly={readOnly} />
           <Excluded count={match.excluded.switch} what="MOSFETs" />
         </div>
@@ -61,6 +78,7 @@ export default function CandidatesSection({ match, input, onSelect, readOnly, St
             <p className="p-2 mb-2 rounded border border-warn bg-warn-wash text-warn text-sm" role="note" data-testid="driver-needed">
               <strong>! A gate driver is needed.</strong> {match.driverNeededNote}
             </p>
+            <Line testId="driver-pairing">{driversRankedForLine(pairedSwitch?.switchMpn ?? null, pairedSwitch != null && pairedSwitch.switchPartId === input.selections.switch.chosenPartId)}</Line>
             <CandidateTable role="driver" caption="Gate driver candidates" entries={match.driver} extra={DRIVER_COLS} selection={input.selections.driver} onSelect={onSelect('driver')} readOnly={readOnly} />
             <Excluded count={match.excluded.driver} what="drivers" />
           </div>

@@ -105,7 +105,7 @@ export default function DesignWorkspace({ design, initialInput, motors, canEdit 
         <>
           <Step n={2} title="Motor at the supply extremes" testId="step-motor"><MotorPanel motor={match.motor} worstCase={match.worstCase} /></Step>
           <CandidatesSection match={match} input={input} onSelect={select} readOnly={readOnly} Step={Step} />
-          <Step n={6} title="Power-on and reset state" testId="step-power-on"><PowerOnPanel powerOn={match.powerOn} /></Step>
+          <Step n={6} title="Power-on and reset state" testId="step-power-on"><PowerOnPanel powerOn={match.powerOn} resetStartIntent={input.resetStartIntent} /></Step>
           <Step n={7} title="Chosen parts and alternates" testId="step-selection"><SelectionPanel input={input} match={match} /></Step>
           <section className="card p-3 text-sm" aria-labelledby="ws-cautions">
             <h2 id="ws-cautions" className="font-semibold mb-1">⚠ Cautions for this design</h2>

@@ -1,6 +1,7 @@
 import type { DesignInput, DesignMotor, MotorOption } from '../../lib/domain/design.ts';
 import { LOGIC_PRESETS, SUPPLY_PRESETS } from '../../lib/domain/design.ts';
 import NumInput from './NumInput.tsx';
+import { DriverSupplyInput, ResetStartIntentInput, StallProtectionInput } from './DriveInputs.tsx';
 
 export type { MotorOption };
 interface Props {
@@ -79,7 +80,6 @@ export default function InputsPanel({ input, motors, errors, onChange, readOnly 
         <NumInput label="Maximum" unit="V" value={input.supply.maxV} onValue={(v) => set({ supply: { ...input.supply, maxV: v, preset: null } })} error={e('supply.maxV')} testId="supply-max" />
         <NumInput label="Wiring" unit="Ω" value={input.wiringResistanceOhm} onValue={(v) => set({ wiringResistanceOhm: v })} error={e('wiringResistanceOhm')} />
         <NumInput label="Shunt" unit="Ω" value={input.shuntResistanceOhm} onValue={(v) => set({ shuntResistanceOhm: v })} error={e('shuntResistanceOhm')} />
-        <NumInput label="Driver rail" unit="V" value={input.driverSupplyV} onValue={(v) => set({ driverSupplyV: v > 0 ? v : null })} hint="for a gate driver; 0 = motor supply" />
       </Section>
 
       <Section title="Logic output">
@@ -127,6 +127,9 @@ export default function InputsPanel({ input, motors, errors, onChange, readOnly 
         <NumInput label="Voltage derating" unit="×" value={input.margins.voltageDerating} onValue={(v) => set({ margins: { ...input.margins, voltageDerating: v } })} error={e('margins.voltageDerating')} hint="default 0.8" />
         <NumInput label="Thermal margin" unit="K" value={input.margins.thermalMarginC} onValue={(v) => set({ margins: { ...input.margins, thermalMarginC: v } })} error={e('margins.thermalMarginC')} hint="below Tj max; default 25" />
         <NumInput label="Boards per build" value={input.boardQuantity} onValue={(v) => set({ boardQuantity: Math.max(1, Math.round(v)) })} error={e('boardQuantity')} />
+        <DriverSupplyInput input={input} set={set} error={e('driverSupplyV')} />
+        <StallProtectionInput value={input.stallProtection} onChange={(stallProtection) => set({ stallProtection })} errorOf={e} />
+        <ResetStartIntentInput value={input.resetStartIntent} onChange={(resetStartIntent) => set({ resetStartIntent })} error={e('resetStartIntent.reason')} />
       </Section>
     </fieldset>
   );

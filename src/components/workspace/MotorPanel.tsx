@@ -1,6 +1,41 @@
+import { Fragment } from 'react';
 import LineChart, { type ChartMarker } from '../calc/LineChart.tsx';
 import type { MotorView } from '../../lib/design-match.ts';
 import type { WorstCase } from '../../lib/design-case.ts';
+import { rippleRows, stallRows, type FigureRow } from '../../lib/design-words.ts';
+import { pwmFrequencyCaution } from '../../lib/ripple.ts';
+
+function Figures({ rows }: { rows: FigureRow[] }) {
+  return (
+    <dl className="grid grid-cols-[1fr_auto] gap-x-3 gap-y-0.5 num">
+      {rows.map((r) => <Fragment key={r.label}><dt className="text-ink-soft">{r.label}</dt><dd>{r.value}</dd></Fragment>)}
+    </dl>
+  );
+}
+
+/** The current's shape under PWM and the jam, with the caution when the PWM period is long against τe. */
+function RippleAndStall({ motor, worstCase }: { motor: MotorView; worstCase: WorstCase }) {
+  const inductanceH = motor.params.inductanceH;
+  const ripple = rippleRows(worstCase, inductanceH != null);
+  const caution = worstCase.pwmHz != null && inductanceH != null ? pwmFrequencyCaution(worstCase.pwmHz, inductanceH / motor.atMin.resistanceOhm) : null;
+  return (
+    <div className="grid gap-3 lg:grid-cols-2 lg:col-span-3">
+      <div className="card p-3 text-sm" data-testid="ripple">
+        <h3 className="font-semibold mb-1">Current under PWM, where the switch heats most</h3>
+        <Figures rows={ripple.rows} />
+        {ripple.note ? <p className="mt-1 text-xs text-ink-soft">{ripple.note}</p> : null}
+        {worstCase.ripple && !worstCase.ripple.continuous ? (
+          <p className="mt-2 text-xs text-warn" data-testid="dcm">! Discontinuous conduction: the current falls to zero each cycle, so RMS and peak currents are well above the mean.</p>
+        ) : null}
+        {caution ? <p className="mt-2 p-2 rounded border border-warn bg-warn-wash text-warn text-xs" role="note" data-testid="pwm-caution"><strong>⚠ PWM frequency.</strong> {caution}</p> : null}
+      </div>
+      <div className="card p-3 text-sm" data-testid="stall-case">
+        <h3 className="font-semibold mb-1">Jammed shaft (what switch and diode must survive)</h3>
+        <Figures rows={stallRows(worstCase)} />
+      </div>
+    </div>
+  );
+}
 
 const f = (v: number, d = 3) => Number(v.toPrecision(d)).toString();
 
@@ -37,6 +72,7 @@ export default function MotorPanel({ motor, worstCase }: { motor: MotorView; wor
         ) : null}
         <p className="mt-2 p-2 rounded border border-copper bg-copper-wash text-xs"><strong>⚠ Stall heat.</strong> At {f(worstCase.stallCurrentMaxA)} A the switch, diode and motor heat within seconds; fuse near the supply and size wiring for this current.</p>
       </div>
+      <RippleAndStall motor={motor} worstCase={worstCase} />
     </div>
   );
 }

@@ -9,6 +9,7 @@ import type { BomLine } from '../../lib/bom.ts';
 import type { DesignInput, DesignStatus } from '../../lib/domain/design.ts';
 import type { Part } from '../../lib/domain/parts.ts';
 import type { DesignMatch } from '../../lib/design-match.ts';
+import { driverSupplyRangeOf } from '../../lib/design-input.ts';
 import { faceHasChars, loadSourceSans } from './fonts.ts';
 import { drawAssumptions, drawBom, drawCautions, drawPowerOn } from './report-closing.ts';
 import { isoDate, isoMinute, sig, VERDICT_MARKS } from './report-format.ts';
@@ -83,6 +84,7 @@ export async function buildDesignReportPdf(data: DesignReportData, options: Desi
     selections: data.input.selections,
     partsById: data.partsById,
     verdictMarks: faceHasChars(fonts.regular, VERDICT_MARKS) && faceHasChars(fonts.bold, VERDICT_MARKS),
+    driverSupplyMinV: driverSupplyRangeOf(data.input).minV,
   };
   drawTitleBlock(layout, data);
   drawSignOff(layout, data);
@@ -92,7 +94,7 @@ export async function buildDesignReportPdf(data: DesignReportData, options: Desi
   drawSwitchRole(layout, ctx);
   drawGateDriveRole(layout, ctx);
   drawDiodeRole(layout, ctx);
-  drawPowerOn(layout, data.match, data.readiness?.acceptedResetStart ?? null);
+  drawPowerOn(layout, data.match, data.readiness?.acceptedResetStart ?? null, data.input.resetStartIntent?.reason ?? null);
   drawBom(layout, data.bom);
   drawAssumptions(layout);
   drawCautions(layout, data.match);

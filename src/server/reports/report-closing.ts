@@ -3,6 +3,8 @@ import type { BomLine } from '../../lib/bom.ts';
 import type { DesignMatch } from '../../lib/design-match.ts';
 import { COPPER_ALPHA20_PER_K } from '../../lib/motor.ts';
 import type { PowerOnStep } from '../../lib/power-on.ts';
+import { motorStateText } from '../../lib/design-words.ts';
+import { motorStateAtReset } from '../../lib/readiness.ts';
 import { DEFAULT_RDSON_TEMPCO_PER_C } from '../../lib/rdson.ts';
 import { CAUTIONS } from '../../lib/safety-notes.ts';
 import { percent, quantity, sig } from './report-format.ts';
@@ -41,7 +43,11 @@ function stepVoltage(step: PowerOnStep): string {
   return step.minV === step.maxV ? quantity(step.minV, 'V') : `${sig(step.minV)}–${sig(step.maxV)} V`;
 }
 
-export function drawPowerOn(layout: ReportLayout, match: DesignMatch, acceptedResetStart: string | null = null): void {
+/**
+ * `acceptedResetStart`: the recorded reason when the motor may run at reset (readiness accepts it);
+ * `recordedIntent`: the reason as recorded in the design, printed even when the motor stays off.
+ */
+export function drawPowerOn(layout: ReportLayout, match: DesignMatch, acceptedResetStart: string | null = null, recordedIntent: string | null = null): void {
   layout.heading('Power-on state');
   const p = match.powerOn;
   if (p == null) {
@@ -60,7 +66,11 @@ export function drawPowerOn(layout: ReportLayout, match: DesignMatch, acceptedRe
     layout.paragraph(`Recommended pull resistor: ${quantity(pull.chosenOhms, 'Ω')} ${to} (allowed ${quantity(pull.minOhms, 'Ω')} to ${quantity(pull.maxOhms, 'Ω')})${node}${current}.`);
   } else layout.paragraph('Recommended pull resistor: no standard value fits; see the notes below.', { bold: true });
   pull?.notes.forEach((n) => layout.paragraph(n, { sizePt: 8.5, color: MUTED, indentPt: 10 }));
+  const state = motorStateAtReset(p);
+  const fitted = pull != null && pull.ok && pull.chosenOhms != null && p.withRecommendedPull != null;
+  if (state) layout.paragraph(`Motor at reset as built${fitted ? ' (with the recommended pull fitted)' : ''}: ${motorStateText(state)}.`, { bold: true });
   if (acceptedResetStart) layout.paragraph(`Start at reset recorded as intended by the designer: “${acceptedResetStart}”. Guard the moving parts and verify on the real board.`, { bold: true });
+  else if (recordedIntent) layout.paragraph(`The designer recorded a start at reset as intended (“${recordedIntent}”); not needed now, since the motor stays off at reset.`);
 }
 
 export function drawBom(layout: ReportLayout, bom: readonly BomLine[]): void {

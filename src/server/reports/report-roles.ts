@@ -5,6 +5,7 @@ import type { DesignMatch } from '../../lib/design-match.ts';
 import { checkRow, money, quantity, sig, summaryOf, verdictText } from './report-format.ts';
 import type { ReportLayout } from './report-layout.ts';
 import { reviewWords } from '../../lib/readiness.ts';
+import { driversRankedForLine, stallProtectionText, switchDriveLine } from '../../lib/design-words.ts';
 import { drawTable, tableHeightPt, type TableColumn } from './report-table.ts';
 
 /** A chosen part's facts and checks stay on one page when together they take less than this. */
@@ -16,6 +17,8 @@ export interface RoleContext {
   partsById: Map<number, Part>;
   /** True when the font draws ✓ and ✕. */
   verdictMarks: boolean;
+  /** Lowest supply of the gate driver's rail (src/lib/design-input.ts driverSupplyRangeOf). */
+  driverSupplyMinV: number;
 }
 
 const CHECK_COLUMNS: readonly TableColumn[] = [
@@ -108,8 +111,10 @@ export function drawSwitchRole(layout: ReportLayout, ctx: RoleContext): void {
   const list = match.driverNeeded ? match.switchWithDriver : match.switch;
   layout.heading('Switch', 40 + keepWithPt(layout, findEntry(list, ctx.selections.switch.chosenPartId)));
   layout.paragraph(match.driverNeeded
-    ? 'Low-side N-channel MOSFET, checked with a gate driver at its smallest suitable rail (no switch passes straight from the logic pin).'
-    : 'Low-side N-channel MOSFET, checked with its gate driven straight from the logic pin.');
+    ? 'Low-side N-channel MOSFET, driven through a gate driver.'
+    : 'Low-side N-channel MOSFET, with its gate driven straight from the logic pin.');
+  layout.paragraph(switchDriveLine(match.switchDrive, ctx.driverSupplyMinV));
+  layout.paragraph(`Jammed shaft judged with stall protection ${stallProtectionText(match.worstCase.stall.protection)}.`);
   drawRole(layout, ctx, 'switch', 'Switch', list);
 }
 
@@ -123,6 +128,8 @@ export function drawGateDriveRole(layout: ReportLayout, ctx: RoleContext): void 
   }
   layout.paragraph(match.driverNeededNote ?? 'A gate driver is needed.');
   if (match.requiredGateDriveV != null) layout.paragraph(`Required gate drive: at least ${sig(match.requiredGateDriveV)} V at the gate.`);
+  const paired = match.driver[0]?.pairing;
+  layout.paragraph(driversRankedForLine(paired?.switchMpn ?? null, paired != null && paired.switchPartId === ctx.selections.switch.chosenPartId));
   drawRole(layout, ctx, 'driver', 'Gate driver', match.driver);
 }
 

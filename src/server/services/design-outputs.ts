@@ -10,6 +10,7 @@ import type { Design } from '../../lib/domain/design.ts';
 import type { Part } from '../../lib/domain/parts.ts';
 import type { DesignMatch } from '../../lib/design-match.ts';
 import { buildBom, bomToCsv, type BomLine } from '../../lib/bom.ts';
+import { bomPairingNotes } from '../../lib/design-words.ts';
 import { acceptedResetStart, pickStatus, reviewWords, type ReadinessIssue } from '../../lib/readiness.ts';
 import { getDesign, partsByIds } from './designs.ts';
 import { verifyInput } from './design-status.ts';
@@ -53,6 +54,7 @@ export async function designOutputs(id: number, revision?: number): Promise<Desi
     input, motor: motorLine, partsById, pull: match.powerOn?.recommendedPull ?? null,
     statusOf: (role, partId) => pickStatus(match, role, partId, parts.get(partId)).text,
     motorStatus,
+    pairing: bomPairingNotes(match, input.selections.driver.chosenPartId),
   });
   for (const pid of motorId) partsById.delete(pid);
   return { design, match, bom, partsById, readiness: { issues, acceptedResetStart: acceptedResetStart(input, match), includesPending } };
