@@ -1,5 +1,5 @@
 /**
- * Freewheel diode checks [domain.md §7]: across the motor, cathode to +V.
+ * Freewheel diode checks [docs/engineering.md §8]: across the motor, cathode to +V.
  */
 import { fmt, makeCheck, marginBelow, type Check } from './checks.ts';
 import type { DiodeParams } from './domain/parts.ts';
@@ -12,7 +12,7 @@ export const DEFAULT_TURN_OFF_S = 100e-9;
 /** Half-sine surge duration most datasheets state IFSM for (8.3 ms, 60 Hz half cycle; shorter of the common two). */
 const SURGE_PULSE_S = 8.3e-3;
 
-/** Energy dumped into a switch that turns off an inductive current with no freewheel path: ½·L·I² [domain.md §7]. */
+/** Energy dumped into a switch that turns off an inductive current with no freewheel path: ½·L·I² [docs/engineering.md §8]. */
 export function avalancheEnergyJ(inductanceH: number, currentA: number): number {
   return 0.5 * inductanceH * currentA ** 2;
 }
@@ -21,7 +21,7 @@ export function avalanchePowerW(inductanceH: number, currentA: number, frequency
   return avalancheEnergyJ(inductanceH, currentA) * frequencyHz;
 }
 
-/** Drain spike ≈ V_supply + V_F + L_loop·di/dt [domain.md §7]. */
+/** Drain spike ≈ V_supply + V_F + L_loop·di/dt [docs/engineering.md §8]. */
 export function drainSpikeV(supplyV: number, forwardV: number, loopInductanceH: number, diDtAPerS: number): number {
   return supplyV + forwardV + loopInductanceH * diDtAPerS;
 }

@@ -1,5 +1,5 @@
 /**
- * Level-shift / gate-driver checks between a logic output and a MOSFET gate [domain.md §5].
+ * Level-shift / gate-driver checks between a logic output and a MOSFET gate [docs/engineering.md §7].
  */
 import { fmt, makeCheck, marginAbove, marginBelow, type Check } from './checks.ts';
 import type { DriverParams } from './domain/parts.ts';
@@ -135,7 +135,7 @@ export interface DriverCheckInput {
   pwmHz: number | null;
 }
 
-/** All driver checks; edges t_on ≈ Q_sw/I_source, t_off ≈ Q_sw/I_sink [domain.md §5]. */
+/** All driver checks; edges t_on ≈ Q_sw/I_source, t_off ≈ Q_sw/I_sink [docs/engineering.md §7]. */
 export function checkDriver(input: DriverCheckInput): Check[] {
   const { driver } = input;
   const chargeC = input.switchingChargeNc * 1e-9;

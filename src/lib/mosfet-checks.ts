@@ -1,5 +1,5 @@
 /**
- * Individual low-side N-channel MOSFET checks [domain.md §4]. Each returns one Check with an actionable note.
+ * Individual low-side N-channel MOSFET checks [docs/engineering.md §5]. Each returns one Check with an actionable note.
  */
 import { fmt, makeCheck, marginAbove, marginBelow, type Check } from './checks.ts';
 
@@ -134,7 +134,7 @@ function gateDriveFailNote(driveV: number, lowestV: number, vgsThMaxV: number, v
   return `RDS(on) is only specified at ${fmt(lowestV)} V and up; ${why}: ${fix}, or choose a part specified at ${fmt(driveV)} V or lower.`;
 }
 
-/** Hard: the drive must reach the lowest VGS at which RDS(on) is specified, and VGS(th) max [domain.md §4]. */
+/** Hard: the drive must reach the lowest VGS at which RDS(on) is specified, and VGS(th) max [docs/engineering.md §5]. */
 export function checkGateDrive(driveV: number, lowestSpecV: number | null, vgsThMaxV: number, vgsMaxV: number, rdsOnAtDriveOhm: number | null): Check {
   if (lowestSpecV == null) {
     const note = 'No RDS(on) line is on record for this part: add the datasheet values before relying on it.';
@@ -156,7 +156,7 @@ export function checkStallCurrent(stallCurrentA: number, idPulsedA: number): Che
   return makeCheck({ id: 'stall-current', ok, value: stallCurrentA, limit: idPulsedA, unit: 'A', margin: marginBelow(stallCurrentA, idPulsedA), note });
 }
 
-/** Hard: running RMS current ≤ ID(TA) = √((Tj,max − TA)/(RθJA·RDS(on)(Tj,max))) [domain.md §4]. */
+/** Hard: running RMS current ≤ ID(TA) = √((Tj,max − TA)/(RθJA·RDS(on)(Tj,max))) [docs/engineering.md §5]. */
 export function checkRunningCurrent(currentRmsA: number, maxCurrentA: number | null, ambientC: number): Check {
   if (maxCurrentA == null) {
     const note = 'Running current cannot be assessed: RDS(on) is not characterised at this gate drive.';

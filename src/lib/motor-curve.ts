@@ -1,6 +1,6 @@
 /**
  * Operating points, curves, maximum-power and maximum-efficiency points of a re-scaled motor
- * [domain.md §2: I = I0 + T/Kt ; ω = ω0·(1 − T/Ts) ; P = T·ω ; η = P/(V·I)].
+ * [docs/engineering.md §2: I = I0 + T/Kt ; ω = ω0·(1 − T/Ts) ; P = T·ω ; η = P/(V·I)].
  */
 import type { MotorAtSupply } from './motor.ts';
 import { radPerSToRpm, rpmToRadPerS } from './units.ts';
@@ -53,12 +53,12 @@ export function motorCurve(at: MotorAtSupply, pointCount = 21): MotorOperatingPo
   return Array.from({ length: count }, (_, i) => operatingPointAtTorque(at, (at.stallTorqueNm * i) / (count - 1)));
 }
 
-/** P_max at T = Ts/2, ω = ω0/2, I = (I0 + Is)/2, P = Ts·ω0/4 [domain.md §2]. */
+/** P_max at T = Ts/2, ω = ω0/2, I = (I0 + Is)/2, P = Ts·ω0/4 [docs/engineering.md §2]. */
 export function maxPowerPoint(at: MotorAtSupply): MotorOperatingPoint {
   return operatingPointAtTorque(at, at.stallTorqueNm / 2);
 }
 
-/** η_max at I = √(I0·Is), η = (1 − √(I0/Is))² [domain.md §2]. */
+/** η_max at I = √(I0·Is), η = (1 − √(I0/Is))² [docs/engineering.md §2]. */
 export function maxEfficiencyPoint(at: MotorAtSupply): MotorOperatingPoint {
   const currentA = Math.sqrt(at.model.noLoadCurrentA * at.stallCurrentA);
   const torqueNm = Math.max(0, at.model.ktNmPerA * (currentA - at.model.noLoadCurrentA));

@@ -1,6 +1,6 @@
 /**
  * Linear steady-state model of a small brushed-DC motor (SI units throughout).
- * V = I·R + Ke·ω ; T_out = Kt·(I − I0) ; Kt = Ke in SI [domain.md §2].
+ * V = I·R + Ke·ω ; T_out = Kt·(I − I0) ; Kt = Ke in SI [docs/engineering.md §2].
  */
 import { radPerSToRpm } from './units.ts';
 
@@ -35,7 +35,7 @@ export const TORQUE_RATIO_BAND = { low: 0.85, high: 1.15 } as const;
 /** Copper's temperature coefficient of resistance at 20 °C [IEC 60028]. */
 export const COPPER_ALPHA20_PER_K = 0.00393;
 
-/** R = V/Is, ω0 = n0·2π/60, Ke = (V − I0·R)/ω0, Kt = Ke [domain.md §2]. Throws when the points cannot describe a motor. */
+/** R = V/Is, ω0 = n0·2π/60, Ke = (V − I0·R)/ω0, Kt = Ke [docs/engineering.md §2]. Throws when the points cannot describe a motor. */
 export function motorModelFromDatasheet(points: MotorDatasheetPoints): MotorModel {
   const measured = points.terminalResistanceOhm;
   const resistanceOhm = measured != null && measured > 0 ? measured : points.ratedVoltageV / points.stallCurrentA;
@@ -71,7 +71,7 @@ export function checkConsistency(points: MotorDatasheetPoints, model: MotorModel
   };
 }
 
-/** The motor re-scaled to a supply V′ with extra series resistance; R, Ke and I0 held [domain.md §2]. */
+/** The motor re-scaled to a supply V′ with extra series resistance; R, Ke and I0 held [docs/engineering.md §2]. */
 export interface MotorAtSupply {
   model: MotorModel;
   supplyV: number;

@@ -1,5 +1,5 @@
 /**
- * The external pull that keeps the motor off at reset [domain.md §6, §10], proved by re-walking the chain
+ * The external pull that keeps the motor off at reset [docs/engineering.md §9], proved by re-walking the chain
  * with it fitted at its tolerance. Advice never suggests a pull the re-walk does not show holding the motor off.
  */
 import { fmt } from './checks.ts';
@@ -23,7 +23,7 @@ export interface PullAdvice {
 
 type Walk = (input: PowerOnInput, sources: readonly PullSource[]) => { steps: PowerOnStep[]; motorState: MotorState };
 
-/** The node keeps a margin of 10 % of the logic rail inside the driver's threshold [practice, domain.md §10 noise margin]. */
+/** The node keeps a margin of 10 % of the logic rail inside the driver's threshold [practice, docs/engineering.md §9 noise margin]. */
 export const PULL_MARGIN_FRACTION_OF_RAIL = 0.1;
 const RECOMMENDED_TOLERANCE = 0.01;
 

@@ -1,5 +1,5 @@
 /**
- * The pull network on the pin / driver-input node at reset [domain.md §6, §10 "Driver at reset"]:
+ * The pull network on the pin / driver-input node at reset [docs/engineering.md §9 "Driver at reset"]:
  * every resistive pull with its tolerance band, plus pin leakage, and the node's voltage range.
  */
 import { fmt } from './checks.ts';
@@ -40,7 +40,7 @@ export function nodeRangeV(sources: readonly PullSource[], leakageA: number): No
   return { minV: Math.min(...volts), maxV: Math.max(...volts) };
 }
 
-/** Typical CMOS input leakage ceiling on controller datasheets [mem, domain.md §10]. */
+/** Typical CMOS input leakage ceiling on controller datasheets [mem, docs/engineering.md §9]. */
 export const DEFAULT_PIN_LEAKAGE_A = 1e-6;
 
 /** A pin's protection diodes clamp the node about 0.3 V beyond its supply and ground [mem]. */

@@ -1,5 +1,5 @@
 /**
- * Walks the reset state from the controller pin to the motor [domain.md §6, §10 "Driver at reset"]:
+ * Walks the reset state from the controller pin to the motor [docs/engineering.md §9 "Driver at reset"]:
  * pin → pull network (pin pull, external pull, the driver's own input pull, each at its tolerance extremes,
  * plus pin leakage) → driver input → driver output → gate → motor. The motor must stay off.
  */
@@ -70,7 +70,7 @@ export interface PowerOnResult {
 
 /** A gate held below half of VGS(th) min counts as surely off, leaving room for coupling through C_gd [judgement]. */
 export const GATE_OFF_FRACTION_OF_VTH_MIN = 0.5;
-/** External resistors are 1 % parts unless stated [domain.md §10]. */
+/** External resistors are 1 % parts unless stated [docs/engineering.md §9]. */
 export const DEFAULT_EXTERNAL_TOLERANCE = 0.01;
 /** On-chip pull resistors spread widely with process and temperature; ±30 % when only a typical is stated [judgement]. */
 export const DRIVER_PULL_TOLERANCE = 0.3;

@@ -1,6 +1,6 @@
 /**
  * Sizing an external pull resistor against a pin's internal pull, with tolerances, pin leakage and a
- * practical ceiling [domain.md §6, §10 "Pull resistor, with tolerances"]; the pure core of
+ * practical ceiling [docs/engineering.md §9 "Pull resistor, with tolerances"]; the pure core of
  * POST /api/calc/pull-resistor [api-contract.md, "Extensions"].
  *
  * Closed form. Let s = +1 when the node must stay low (≤ V_lim) and −1 when it must stay high (≥ V_lim),
@@ -14,7 +14,7 @@
  * R_i is taken at both tolerance extremes R_int·(1 ∓ tol_int) and the smaller bound kept (the node is
  * monotonic in each resistance, so the corners are the extremes: an opposing pull is worst at −tol, a
  * helping one at +tol). The answer is capped at the practical ceiling, then rounded DOWN to the series.
- * With I = 0 and tolerances 0 this is domain.md §6: R_int·V_lim/(V_pull − V_lim) and R_int·(V_ext − VIH)/VIH.
+ * With I = 0 and tolerances 0 this is docs/engineering.md §9: R_int·V_lim/(V_pull − V_lim) and R_int·(V_ext − VIH)/VIH.
  * Minimum: the pin driving the other level must carry |V_pin − V_ext|/(R_ext·(1 − tol_ext)) ≤ I_max,
  * so R_ext,min = |V_pin − V_ext|/(I_max·(1 − tol_ext)), rounded UP.
  */
@@ -59,7 +59,7 @@ export interface PullResistorResult {
   notes: string[];
 }
 
-/** Above about 1 MΩ leakage, contamination and pick-up decide the node, not the resistor [practice, domain.md §10]. */
+/** Above about 1 MΩ leakage, contamination and pick-up decide the node, not the resistor [practice, docs/engineering.md §9]. */
 export const PRACTICAL_MAX_PULL_OHMS = 1_000_000;
 
 /**
@@ -71,7 +71,7 @@ export function worstPullCurrentA(acrossV: number, nominalOhms: number, toleranc
   return Math.abs(acrossV) / (nominalOhms * (1 - tolerance));
 }
 
-/** V_node = (V_int·R_ext + V_ext·R_int)/(R_int + R_ext) [domain.md §6]; no internal pull leaves V_ext. */
+/** V_node = (V_int·R_ext + V_ext·R_int)/(R_int + R_ext) [docs/engineering.md §9]; no internal pull leaves V_ext. */
 export function pullNodeVoltageV(internalV: number | null, internalOhms: number, externalV: number, externalOhms: number): number {
   if (internalV == null) return externalV;
   return (internalV * externalOhms + externalV * internalOhms) / (internalOhms + externalOhms);
@@ -117,7 +117,7 @@ function activePinV(req: PullResistorRequest): number {
   return req.node.mustBe === 'low' ? req.pin.railV : 0;
 }
 
-/** Smallest R_ext the pin can drive at −tol: |V_pin − V_ext|/(I_max·(1 − tol)) [domain.md §6]. */
+/** Smallest R_ext the pin can drive at −tol: |V_pin − V_ext|/(I_max·(1 − tol)) [docs/engineering.md §9]. */
 export function minPullOhms(req: PullResistorRequest): number {
   const driveV = Math.abs(activePinV(req) - req.external.railV);
   if (driveV === 0) return 0;

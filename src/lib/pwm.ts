@@ -1,5 +1,5 @@
 /**
- * PWM of a low-side switch with a freewheel diode, continuous conduction [domain.md §3].
+ * PWM of a low-side switch with a freewheel diode, continuous conduction [docs/engineering.md §4].
  */
 import { motorAtSupply, type MotorModel } from './motor.ts';
 import { operatingPointAtSpeed, operatingPointAtTorque, type MotorOperatingPoint } from './motor-curve.ts';
@@ -33,7 +33,7 @@ export interface PwmCurrents {
   switchRmsA: number;
 }
 
-/** Supply D·I ; diode (1 − D)·I ; switch I_rms² = D·(I² + ΔI²/12) [domain.md §3]. */
+/** Supply D·I ; diode (1 − D)·I ; switch I_rms² = D·(I² + ΔI²/12) [docs/engineering.md §4]. */
 export function pwmCurrents(motorMeanA: number, duty: number, rippleA = 0): PwmCurrents {
   return {
     supplyMeanA: duty * motorMeanA,
@@ -44,7 +44,7 @@ export function pwmCurrents(motorMeanA: number, duty: number, rippleA = 0): PwmC
 
 /**
  * Peak-to-peak ripple with τe = L/R: ΔI = (V/R)·(1 − a)(1 − b)/(1 − a·b),
- * a = e^(−D/(f·τe)), b = e^(−(1 − D)/(f·τe)) [domain.md §3].
+ * a = e^(−D/(f·τe)), b = e^(−(1 − D)/(f·τe)) [docs/engineering.md §4].
  */
 export function rippleExactA(supplyV: number, resistanceOhm: number, inductanceH: number, duty: number, frequencyHz: number): number {
   if (duty <= 0 || duty >= 1) return 0;
@@ -54,7 +54,7 @@ export function rippleExactA(supplyV: number, resistanceOhm: number, inductanceH
   return ((supplyV / resistanceOhm) * (1 - a) * (1 - b)) / (1 - a * b);
 }
 
-/** For f·τe ≫ 1: ΔI ≈ V·D·(1 − D)/(L·f) [domain.md §3]. */
+/** For f·τe ≫ 1: ΔI ≈ V·D·(1 − D)/(L·f) [docs/engineering.md §4]. */
 export function rippleApproxA(supplyV: number, inductanceH: number, duty: number, frequencyHz: number): number {
   return (supplyV * duty * (1 - duty)) / (inductanceH * frequencyHz);
 }

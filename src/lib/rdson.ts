@@ -14,7 +14,7 @@ export interface RdsOnPoint {
 /** Default RDS(on) temperature coefficient [mem: parts rise ×1.4–1.8 by 125–150 °C]. */
 export const DEFAULT_RDSON_TEMPCO_PER_C = 0.005;
 
-/** RDS(on)(Tj) = RDS(on),25·(1 + α·(Tj − 25)) [domain.md §4]. */
+/** RDS(on)(Tj) = RDS(on),25·(1 + α·(Tj − 25)) [docs/engineering.md §5]. */
 export function rdsOnAtTemperatureOhm(rdsOn25Ohm: number, junctionC: number, alphaPerC = DEFAULT_RDSON_TEMPCO_PER_C): number {
   return rdsOn25Ohm * (1 + alphaPerC * (junctionC - 25));
 }
@@ -47,7 +47,7 @@ export function lowestSpecVgsV(points: readonly RdsOnPoint[]): number | null {
 }
 
 /**
- * RDS(on) at a drive voltage: ln R interpolated linearly in VGS between neighbouring spec points [domain.md §4];
+ * RDS(on) at a drive voltage: ln R interpolated linearly in VGS between neighbouring spec points [docs/engineering.md §5];
  * above the highest point the highest point's value (no extrapolated gain); below the lowest: null, not characterised.
  */
 export function rdsOnAtDriveOhm(points: readonly RdsOnPoint[], driveV: number): number | null {

@@ -1,6 +1,6 @@
 /**
  * Motor current of a low-side PWM switch with a freewheel diode when the motor's inductance is known
- * [domain.md §10 "Ripple and discontinuous conduction"]. Per period T = 1/f, back-EMF E held constant
+ * [docs/engineering.md §4.3 "Ripple and discontinuous conduction"]. Per period T = 1/f, back-EMF E held constant
  * (the mechanical time constant is far longer than T):
  *   on  (0 ≤ t < D·T): L·di/dt = V − E − i·R
  *   off (D·T ≤ t < T): L·di/dt = −VF − E − i·R, clamped at i ≥ 0 (the diode stops at zero: discontinuous)

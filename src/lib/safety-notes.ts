@@ -1,6 +1,6 @@
 /**
  * Cautions shown wherever the work can hurt someone. Wording is ours; the hazards are the usual ones
- * for battery-fed motor drives (see ../shared/domain.md §9).
+ * for battery-fed motor drives (see docs/engineering.md §11).
  */
 export type CautionId = 'battery' | 'stall-heat' | 'inductive-spike' | 'unexpected-start' | 'selv' | 'review';
 

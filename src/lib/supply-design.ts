@@ -1,6 +1,6 @@
 /**
  * The supply report of a whole design: the checks of src/lib/supply.ts at the design's worst cases, plus
- * the supply against the motor's rated voltage [domain.md §10, §11]. Pure.
+ * the supply against the motor's rated voltage [docs/engineering.md §3]. Pure.
  *
  * Worst cases, and why:
  * - Start current against the limit: highest supply, coldest winding (ambientMinC): the most current.
@@ -50,7 +50,7 @@ export function designRunningCurrentA(c: DesignCase, model: MotorModel): number 
   return Math.max(at(c.supplyMinV), at(c.supplyMaxV));
 }
 
-/** Supply maximum against the motor's rated maximum (voltageMaxV, else the rated voltage): marginal above, fail above 1.5× [domain.md §10]. */
+/** Supply maximum against the motor's rated maximum (voltageMaxV, else the rated voltage): marginal above, fail above 1.5× [docs/engineering.md §3]. */
 export function supplyMotorVoltageCheck(supplyMaxV: number, motor: DesignCase['motor']): Check {
   const ratedMaxV = motor.voltageMaxV ?? motor.ratedVoltageV;
   const ok = supplyMaxV <= ratedMaxV;

@@ -4,7 +4,7 @@
  *
  * Source model: open-circuit voltage V behind an internal resistance R_int, with an optional continuous
  * rating and current limit. The motor's winding resistance R (at 20 °C) is corrected for the winding
- * temperature with copper's α20 [IEC 60028]; Kt = Ke from the linear model [domain.md §2].
+ * temperature with copper's α20 [IEC 60028]; Kt = Ke from the linear model [docs/engineering.md §2].
  */
 import { fmt, makeCheck, marginAbove, marginBelow, verdictOf, type Check, type Verdict } from './checks.ts';
 import type { SharedLogicSupply } from './domain/design.ts';

@@ -1,5 +1,5 @@
 /**
- * Gate-charge switching times and losses of a clamped inductive load [domain.md §4].
+ * Gate-charge switching times and losses of a clamped inductive load [docs/engineering.md §5].
  */
 
 /** Q_sw ≈ Q_gd + Q_gs/2; without split charges, the total gate charge (conservative). */
@@ -41,13 +41,13 @@ export function switchingTimes(input: GateDriveInput): SwitchingTimes {
   };
 }
 
-/** P ≈ ½·(V + V_F)·I·(t_r + t_f)·f [domain.md §4]. */
+/** P ≈ ½·(V + V_F)·I·(t_r + t_f)·f [docs/engineering.md §5]. */
 export function switchingLossW(clampV: number, currentA: number, turnOnS: number, turnOffS: number, frequencyHz: number): number {
   if (frequencyHz <= 0) return 0;
   return 0.5 * clampV * currentA * (turnOnS + turnOffS) * frequencyHz;
 }
 
-/** P = Qg·V_drv·f, dissipated in the driver and gate resistor [domain.md §4]. */
+/** P = Qg·V_drv·f, dissipated in the driver and gate resistor [docs/engineering.md §5]. */
 export function gateDrivePowerW(qgTotalNc: number, driveV: number, frequencyHz: number): number {
   return qgTotalNc * 1e-9 * driveV * Math.max(0, frequencyHz);
 }

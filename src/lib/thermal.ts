@@ -1,5 +1,5 @@
 /**
- * Junction temperature of a conducting MOSFET with a temperature-dependent RDS(on) [domain.md §4].
+ * Junction temperature of a conducting MOSFET with a temperature-dependent RDS(on) [docs/engineering.md §5].
  */
 import { DEFAULT_RDSON_TEMPCO_PER_C } from './rdson.ts';
 
@@ -23,7 +23,7 @@ export interface ConductionThermalResult {
 
 /**
  * Closed form with k = RθJA·I²·RDS25: Tj = (TA + RθJA·P_other + k·(1 − 25α))/(1 − k·α);
- * runaway when k·α ≥ 1 [domain.md §4, extended with a Tj-independent loss].
+ * runaway when k·α ≥ 1 [docs/engineering.md §5, extended with a Tj-independent loss].
  */
 export function solveConductionJunction(input: ConductionThermalInput): ConductionThermalResult {
   const alpha = input.alphaPerC ?? DEFAULT_RDSON_TEMPCO_PER_C;

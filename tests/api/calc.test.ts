@@ -5,7 +5,7 @@ import { MOTOR_M1, SWITCH_BODY } from '../helpers/contract-examples.ts';
 
 const api = () => request(appUrl());
 
-// domain.md §2 worked example M1 (invented, self-consistent), re-derived here from the linear model:
+// docs/engineering.md §2 worked example M1 (invented, self-consistent), re-derived here from the linear model:
 // R = V/Is, Ke = (V − I0·R)/ω0, Ts = Ke·(Is − I0).
 const M1 = MOTOR_M1;
 const R = 3 / 1.8;
@@ -29,7 +29,7 @@ describe('POST /api/calc/motor', () => {
     expect(res.body.curve[0]).toMatchObject({ torqueNm: 0, powerW: 0 });
   });
 
-  it('re-scales to 4.5 V (domain.md M1: Is 2.70 A, n0 18 750 rpm)', async () => {
+  it('re-scales to 4.5 V (docs/engineering.md §2.6 M1: Is 2.70 A, n0 18 750 rpm)', async () => {
     const res = await api().post('/api/calc/motor').send({ motor: M1, supplyV: 4.5, curvePoints: 5 });
     expect(res.status).toBe(200);
     expect(res.body.atSupply.stallCurrentA).toBeCloseTo(4.5 / R, 6);
@@ -67,7 +67,7 @@ describe('POST /api/calc/motor', () => {
 });
 
 describe('POST /api/calc/pull-resistor', () => {
-  it('domain.md §6: 40 kΩ internal pull-up to 3.3 V, node ≤ 0.5 V → E12 6.8 kΩ, node 0.4795 V', async () => {
+  it('docs/engineering.md §9: 40 kΩ internal pull-up to 3.3 V, node ≤ 0.5 V → E12 6.8 kΩ, node 0.4795 V', async () => {
     const res = await api().post('/api/calc/pull-resistor').send({
       pin: { internalPull: 'up', internalPullOhms: 40000, railV: 3.3, maxCurrentA: 0.004 },
       external: { to: 'down', railV: 0 },

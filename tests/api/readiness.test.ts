@@ -85,7 +85,7 @@ describe('changing a parameter of an alternate', () => {
     const altId = input.selections.switch.alternatePartIds[0];
     expect(altId, 'the fan copy has a switch alternate').toBeTruthy();
     const original = (await getPart(altId)).params as unknown as Record<string, unknown>;
-    // 12.6 V supply maximum against a 10 V drain rating: a hard fail (domain.md §4 drain-voltage check).
+    // 12.6 V supply maximum against a 10 V drain rating: a hard fail (docs/engineering.md §5 drain-voltage check).
     const res = await editParams(altId, (p) => ({ ...p, vdsMaxV: 10 }));
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     try {

@@ -24,11 +24,11 @@ describe('calculators page', () => {
       expect(await page.getByTestId(id).locator('polyline').count()).toBe(2);
     }
     await expect(page.getByTestId('consistency-ok').count()).resolves.toBe(1);
-    // Stall current at the 3.3 V maximum: Is' = V'/R with R = 3 V / 1.8 A (domain.md §2 re-scaling) = 1.98 A.
+    // Stall current at the 3.3 V maximum: Is' = V'/R with R = 3 V / 1.8 A (docs/engineering.md §2 re-scaling) = 1.98 A.
     await expect(page.getByTestId('stall-callout').innerText()).resolves.toContain('1.98 A');
     await page.screenshot({ path: screenshotPath('calculators'), fullPage: true });
 
-    // A datasheet claiming 60 g·cm for this motor disagrees with itself (domain.md M1: ratio ≈ 1.733).
+    // A datasheet claiming 60 g·cm for this motor disagrees with itself (docs/engineering.md §2.6 M1: ratio ≈ 1.733).
     await page.getByLabel('Stall torque unit').selectOption('g·cm');
     await page.getByLabel('Stall torque', { exact: true }).fill('60');
     await page.getByTestId('consistency-warning').waitFor();
@@ -42,7 +42,7 @@ describe('calculators page', () => {
     expect(errors.filter((e) => !/status of 400/.test(e))).toEqual([]);
   });
 
-  it('sizes a pull-down against an internal pull-up (domain.md §6 example: E12 6.8 kΩ)', async () => {
+  it('sizes a pull-down against an internal pull-up (docs/engineering.md §9 example: E12 6.8 kΩ)', async () => {
     const page = await browser.newPage();
     await page.goto(appUrl() + '/calculators');
     const result = page.getByTestId('pull-result');

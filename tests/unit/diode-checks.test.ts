@@ -10,7 +10,7 @@ function input(params: Parameters<typeof diodePart>[2], overrides: Partial<Diode
 }
 const check = (i: DiodeCheckInput, id: string) => checkDiode(i).find((c) => c.id === id);
 
-describe('freewheel diode checks (domain.md §7)', () => {
+describe('freewheel diode checks (docs/engineering.md §8)', () => {
   it.each([
     // params, id, ok, severity — source
     [{ vrrmV: 20 }, 'reverse-voltage', true, undefined], // 12 ≤ 0.8·20 (derating 0.8 practice)
@@ -29,7 +29,7 @@ describe('freewheel diode checks (domain.md §7)', () => {
 
   it('a general-purpose rectifier is fine for on/off drive', () => {
     const c = check(input({ kind: 'general', trrNs: 2000 }, { pwmHz: null }), 'reverse-recovery');
-    expect(c?.ok).toBe(true); // domain.md §7: µs-class t_rr fine for slow on/off
+    expect(c?.ok).toBe(true); // docs/engineering.md §8: µs-class t_rr fine for slow on/off
   });
 
   it('the t_rr limit is 1 % of the PWM period', () => {
@@ -37,11 +37,11 @@ describe('freewheel diode checks (domain.md §7)', () => {
   });
 
   it('drain spike ≈ V + V_F + L·di/dt', () => {
-    expect(drainSpikeV(12, 0.45, 20e-9, 3 / 100e-9)).toBeCloseTo(12 + 0.45 + 0.6, 12); // domain.md §7
+    expect(drainSpikeV(12, 0.45, 20e-9, 3 / 100e-9)).toBeCloseTo(12 + 0.45 + 0.6, 12); // docs/engineering.md §8
   });
 });
 
-describe('no freewheel diode: avalanche energy ½·L·I² (domain.md §7)', () => {
+describe('no freewheel diode: avalanche energy ½·L·I² (docs/engineering.md §8)', () => {
   it('M1, 0.15 mH at 1.8 A → 0.243 mJ, 4.86 W at 20 kHz', () => {
     const energyJ = avalancheEnergyJ(0.15e-3, 1.8);
     // re-derived as the inductor's stored energy ∫ L·i di from 0 to I, by the trapezoid rule
@@ -49,7 +49,7 @@ describe('no freewheel diode: avalanche energy ½·L·I² (domain.md §7)', () =
     let integral = 0;
     for (let k = 0; k < steps; k += 1) integral += 0.15e-3 * ((k + 0.5) * (1.8 / steps)) * (1.8 / steps);
     expect(energyJ).toBeCloseTo(integral, 9);
-    expect(energyJ * 1000).toBeCloseTo(0.243, 3); // domain.md §7 [calc]
-    expect(avalanchePowerW(0.15e-3, 1.8, 20000)).toBeCloseTo(4.86, 2); // domain.md §7 [calc]
+    expect(energyJ * 1000).toBeCloseTo(0.243, 3); // docs/engineering.md §8 [calc]
+    expect(avalanchePowerW(0.15e-3, 1.8, 20000)).toBeCloseTo(4.86, 2); // docs/engineering.md §8 [calc]
   });
 });

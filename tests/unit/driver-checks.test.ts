@@ -16,8 +16,8 @@ const byId = (checks: ReturnType<typeof checkDriver>, id: string) => checks.find
 describe('input thresholds', () => {
   it.each([
     ['fixed (TTL-compatible)', { inputLogic: 'fixed', inputHighMin: 2.0, inputLowMax: 0.8 }, 12, 2.0, 0.8], // JEDEC JESD8C LVTTL VIH/VIL [mem]
-    ['CMOS ratio on 5 V', { inputLogic: 'ratio', inputHighMin: 0.7, inputLowMax: 0.3 }, 5, 3.5, 1.5], // domain.md §5: VIH = 0.7·VDD
-    ['CMOS ratio on 12 V', { inputLogic: 'ratio', inputHighMin: 0.7, inputLowMax: 0.3 }, 12, 8.4, 3.6], // domain.md §5
+    ['CMOS ratio on 5 V', { inputLogic: 'ratio', inputHighMin: 0.7, inputLowMax: 0.3 }, 5, 3.5, 1.5], // docs/engineering.md §7: VIH = 0.7·VDD
+    ['CMOS ratio on 12 V', { inputLogic: 'ratio', inputHighMin: 0.7, inputLowMax: 0.3 }, 12, 8.4, 3.6], // docs/engineering.md §7
     ['input-rail translator', { inputLogic: 'input-rail', inputHighMin: 0.7, inputLowMax: 0.3 }, 12, 2.31, 0.99], // 0.7·3.3 V logic rail
   ] as const)('%s', (_name, params, supplyV, vih, vil) => {
     const t = driverInputThresholdsV(driverPart(1, 'INV-GD1', params).params, supplyV, 3.3);
@@ -30,23 +30,23 @@ describe('driver checks', () => {
   it('a TTL-input gate driver on 12 V accepts 3.3 V logic and drives a 4.5 V-spec gate', () => {
     const checks = checkDriver(input({}));
     expect(checks.every((c) => c.ok)).toBe(true); // JESD8C LVTTL levels vs fixed 2.0/0.8 V thresholds
-    expect(byId(checks, 'output-high')?.value).toBeCloseTo(10.8 - 0.1, 12); // supply min − drop (domain.md §5)
+    expect(byId(checks, 'output-high')?.value).toBeCloseTo(10.8 - 0.1, 12); // supply min − drop (docs/engineering.md §7)
   });
 
   it('a CMOS-ratio input on a 5 V supply does not accept 3.3 V logic', () => {
     const checks = checkDriver(input({ inputLogic: 'ratio', inputHighMin: 0.7, inputLowMax: 0.3 }, { supply: { minV: 4.75, maxV: 5.25 } }));
-    expect(byId(checks, 'input-high')?.ok).toBe(false); // domain.md §5: 0.7·5 V = 3.5 V > 3.3 V logic
+    expect(byId(checks, 'input-high')?.ok).toBe(false); // docs/engineering.md §7: 0.7·5 V = 3.5 V > 3.3 V logic
   });
 
   // 13.2 V unloaded output against a 12 V VGS(max)
   it('output above VGS(max) fails the gate rating', () => {
-    expect(byId(checkDriver(input({}, { vgsMaxV: 12 })), 'gate-voltage-rating')?.ok).toBe(false); // domain.md §5: VOH ≤ VGS(max)
+    expect(byId(checkDriver(input({}, { vgsMaxV: 12 })), 'gate-voltage-rating')?.ok).toBe(false); // docs/engineering.md §7: VOH ≤ VGS(max)
   });
 
   it('edges t ≈ Q_sw/I and duty error Δt·f', () => {
     const checks = checkDriver(input({ sourceCurrentA: 0.5, sinkCurrentA: 1, propagationDelayNs: 100 }));
-    expect(byId(checks, 'switching-edges')?.value).toBeCloseTo(3e-9 / 0.5 + 3e-9 / 1, 15); // domain.md §5
-    expect(byId(checks, 'duty-error')?.value).toBeCloseTo(100e-9 * 20000, 15); // domain.md §5: Δt·f
+    expect(byId(checks, 'switching-edges')?.value).toBeCloseTo(3e-9 / 0.5 + 3e-9 / 1, 15); // docs/engineering.md §7
+    expect(byId(checks, 'duty-error')?.value).toBeCloseTo(100e-9 * 20000, 15); // docs/engineering.md §7: Δt·f
   });
 
   it('slow propagation under fast PWM is a margin issue', () => {
@@ -57,13 +57,13 @@ describe('driver checks', () => {
 
   it.each([
     [false, /Non-inverting/],
-    [true, /Inverting/], // domain.md §5 polarity trap
+    [true, /Inverting/], // docs/engineering.md §7 polarity trap
   ])('reports polarity (inverting %s)', (inverting, text) => {
     expect(byId(checkDriver(input({ inverting })), 'polarity')?.note).toMatch(text);
   });
 
   it('supply outside the driver range fails', () => {
-    // domain.md §5: the driver must run inside its rated supply range (10 V minimum for this invented part)
+    // docs/engineering.md §7: the driver must run inside its rated supply range (10 V minimum for this invented part)
     expect(byId(checkDriver(input({ supplyMinV: 10 }, { supply: { minV: 4.5, maxV: 5.5 } })), 'driver-supply')?.ok).toBe(false);
   });
 });

@@ -47,9 +47,9 @@ describe('decades and ranges', () => {
 
 describe.each([
   // ohms, series, down, up — IEC 60063 tables
-  [7142.857, 'E12', 6800, 8200], // domain.md §6 example 1 rounds down to 6.8 kΩ
-  [3571.43, 'E12', 3300, 3900], // domain.md §6 example 2 rounds down to 3.3 kΩ
-  [26000, 'E12', 22000, 27000], // domain.md §6 example 3 rounds down to 22 kΩ
+  [7142.857, 'E12', 6800, 8200], // docs/engineering.md §9 example 1 rounds down to 6.8 kΩ
+  [3571.43, 'E12', 3300, 3900], // docs/engineering.md §9 example 2 rounds down to 3.3 kΩ
+  [26000, 'E12', 22000, 27000], // docs/engineering.md §9 example 3 rounds down to 22 kΩ
   [4700, 'E12', 4700, 4700], // exact standard value stays
   [825, 'E12', 820, 1000], // pin-current minimum rounds up
   [9999, 'E24', 9100, 10000], // decade boundary

@@ -48,7 +48,7 @@ export function diodePart(id: number, mpn: string, params: Partial<DiodeParams> 
   };
 }
 
-/** domain.md §2 worked example M1 (invented, self-consistent), with the §3 inductance. */
+/** docs/engineering.md §2 worked example M1 (invented, self-consistent), with the §3 inductance. */
 export const MOTOR_M1: MotorParams = {
   ratedVoltageV: 3, voltageMinV: null, voltageMaxV: null, noLoadSpeedRpm: 12000, noLoadCurrentA: 0.2,
   stallTorqueNm: 0.0033953, stallCurrentA: 1.8, terminalResistanceOhm: null, inductanceH: 0.15e-3, rotorInertiaKgM2: null,

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { pullDrawCurrentA, walkPowerOn, type MotorState, type PowerOnInput } from '../../src/lib/power-on.ts';
 import { driverPart } from './fixtures.ts';
 
-// The power-on walk of docs/engineering.md §power-on (domain.md §6 and §10 "Driver at reset").
+// The power-on walk of docs/engineering.md §power-on (docs/engineering.md §9 and §10 "Driver at reset").
 // Realistic set-up for the matrix:
 //   pin: 3.3 V logic, internal pull 40 kΩ ±30 % (28–52 kΩ), 4 mA source/sink, leakage 1 µA (the default) [mem];
 //   driver: 12 V supply (exactly), TTL-level fixed inputs VIH 2.0 V / VIL 0.8 V [JEDEC JESD8C, from memory],
@@ -91,7 +91,7 @@ describe('power-on matrix: 3 pin states × driver polarity × driver input pull,
 });
 
 // Recommended pulls, by hand. Limit: VIL 0.8 − 0.33 = 0.47 V (pull-down) or VIH 2.0 + 0.33 = 2.33 V (pull-up), the
-// margin 10 % of the 3.3 V rail [common practice, domain.md §10]; direct drive 0.5 V. Opposing pulls at their
+// margin 10 % of the 3.3 V rail [common practice, docs/engineering.md §9]; direct drive 0.5 V. Opposing pulls at their
 // strongest (−30 %), in parallel; bound R ≤ R_th·d_ext/((d_int + 1µA·R_th)·1.01), rounded down in IEC 60063 E12.
 const bound = (rThOhms: number | null, vThV: number, limitV: number, extV: number): number => {
   const s = extV < limitV ? 1 : -1;

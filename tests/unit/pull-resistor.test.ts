@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { pullNodeVoltageV, sizePullResistor, type PullResistorRequest } from '../../src/lib/pull-resistor.ts';
 import { calcPullResistorRequestSchema, parseCalcBody } from '../../src/lib/schemas/calc.ts';
 
-// Formulas re-derived here from docs/engineering.md §power-on (and domain.md §6, §10):
+// Formulas re-derived here from docs/engineering.md §power-on (and docs/engineering.md §9):
 //   pull-down against a pull-up to V_pull: R_ext ≤ R_int·V_lim/(V_pull − V_lim)
 //   pull-up to V_ext against a pull-down:  R_ext ≤ R_int·(V_ext − VIH)/VIH
 //   with leakage I and tolerances:         R_ext ≤ R_i·d_ext/((d_int + I·R_i)·(1 + tol_ext)), R_i = R_int·(1 − tol_int)
@@ -22,23 +22,23 @@ const pullUpAgainstDown: PullResistorRequest = {
   external: { to: 'up', railV: 3.3 }, node: { mustBe: 'high', limitV: 2.0 }, series: 'E12',
 };
 
-describe('domain.md §6 examples (tolerances 0, leakage 0: the calculator as before)', () => {
+describe('docs/engineering.md §9 examples (tolerances 0, leakage 0: the calculator as before)', () => {
   it.each([
     // request, raw maximum re-derived from the formula, the same as docs/engineering.md §power-on states it,
-    // chosen (E12 round-down, IEC 60063), node V (domain.md §6 [calc])
+    // chosen (E12 round-down, IEC 60063), node V (docs/engineering.md §9 [calc])
     ['40 kΩ up, pull-down, ≤ 0.5 V', pullDown(40000), (40000 * 0.5) / (3.3 - 0.5), 7142.9, 6800, 0.4795],
     ['20 kΩ up, pull-down, ≤ 0.5 V', pullDown(20000), (20000 * 0.5) / (3.3 - 0.5), 3571.4, 3300, 0.467],
     ['40 kΩ down, pull-up to 3.3 V, ≥ 2.0 V', pullUpAgainstDown, (40000 * (3.3 - 2.0)) / 2.0, 26000, 22000, 2.129],
   ] as const)('%s', (_name, req, rawMax, statedMax, chosen, nodeV) => {
-    expect(rawMax).toBeCloseTo(statedMax, 0); // domain.md §6: ≤ 7.143 kΩ, ≤ 26 kΩ
+    expect(rawMax).toBeCloseTo(statedMax, 0); // docs/engineering.md §9: ≤ 7.143 kΩ, ≤ 26 kΩ
     const r = sizePullResistor(req);
     expect(r.ok).toBe(true);
     expect(r.maxOhms).toBe(chosen); // IEC 60063 E12 round-down of rawMax
     expect(r.maxOhms as number).toBeLessThanOrEqual(rawMax);
     expect(r.chosenOhms).toBe(chosen);
-    expect(r.nodeV).toBeCloseTo(nodeV, 3); // domain.md §6 [calc]
+    expect(r.nodeV).toBeCloseTo(nodeV, 3); // docs/engineering.md §9 [calc]
     expect(r.minOhms).toBe(1000); // 3.3 V / 4 mA = 825 Ω → E12 round-up 1 kΩ
-    expect(r.activeCurrentA).toBeCloseTo(3.3 / chosen, 12); // |V_pin − V_ext|/R_ext (domain.md §6)
+    expect(r.activeCurrentA).toBeCloseTo(3.3 / chosen, 12); // |V_pin − V_ext|/R_ext (docs/engineering.md §9)
   });
 });
 
@@ -46,7 +46,7 @@ const withPin = (req: PullResistorRequest, pin: Partial<PullResistorRequest['pin
 const noPull = (leakageA: number, rest: Partial<PullResistorRequest> = {}): PullResistorRequest =>
   withPin(pullDown(0), { internalPull: 'none', internalPullOhms: 0, leakageA }, { external: { to: 'down', railV: 0, tolerance: 0.01 }, ...rest });
 
-describe('tolerances, leakage and the ceiling (domain.md §10; docs/engineering.md §power-on), values derived by hand', () => {
+describe('tolerances, leakage and the ceiling (docs/engineering.md §9; docs/engineering.md §power-on), values derived by hand', () => {
   it.each([
     {
       name: '40 kΩ ±30 % up, 1 % resistor, 1 µA: R_i = 28 kΩ, bound 28k·0.5/((2.8 + 0.028)·1.01) = 4901 Ω → 4.7 kΩ',
@@ -117,7 +117,7 @@ describe('common practice: 4.7 kΩ pull-up to 5 V against a 40 kΩ internal pull
     const nodeV = pullNodeVoltageV(0, 40000, 5, 4700);
     expect(nodeV).toBeCloseTo((5 * 40000) / 44700, 12); // divider, re-derived
     expect(nodeV).toBeCloseTo(4.47, 2); // common practice example
-    expect(nodeV).toBeGreaterThanOrEqual(0.7 * 5); // CMOS VIH = 0.7·VDD (domain.md §5)
+    expect(nodeV).toBeGreaterThanOrEqual(0.7 * 5); // CMOS VIH = 0.7·VDD (docs/engineering.md §7)
   });
 
   it('the pin sinks ≈ 1.06 mA driving low, inside 4 mA', () => {
@@ -154,7 +154,7 @@ describe('edge cases', () => {
 
   it('warns when the pull-up rail is above the pin supply', () => {
     const r = sizePullResistor({ ...pullUpAgainstDown, external: { to: 'up', railV: 5 }, node: { mustBe: 'high', limitV: 3.5 }, series: 'E24' });
-    expect(r.notes.join(' ')).toMatch(/tolerant/); // domain.md §6
+    expect(r.notes.join(' ')).toMatch(/tolerant/); // docs/engineering.md §9
   });
 });
 
@@ -182,7 +182,7 @@ describe('request schema: the new optional fields (api-contract.md, Extensions)'
   });
 });
 
-/** The node at every corner, computed here from the divider formula (domain.md §6) plus I·(R_int‖R_ext). */
+/** The node at every corner, computed here from the divider formula (docs/engineering.md §9) plus I·(R_int‖R_ext). */
 function worstNodeByHand(req: PullResistorRequest, ohms: number): number {
   const s = req.node.mustBe === 'low' ? 1 : -1;
   const leak = req.pin.leakageA ?? 0;

@@ -12,8 +12,8 @@ import type { DesignCase } from '../../src/lib/design-case.ts';
  */
 const caseM1 = (o: Partial<DesignCase> = {}): DesignCase => caseM1Raw({ stallProtection: { kind: 'current-limit', limitA: 1 }, ...o });
 
-const R_M1 = 3 / 1.8; // domain.md §2 M1
-const KE_M1 = (3 - 0.2 * R_M1) / ((12000 * 2 * Math.PI) / 60); // domain.md §2 M1, re-derived
+const R_M1 = 3 / 1.8; // docs/engineering.md §2 M1
+const KE_M1 = (3 - 0.2 * R_M1) / ((12000 * 2 * Math.PI) / 60); // docs/engineering.md §2 M1, re-derived
 
 /** Logic-level part: RDS(on) specified from 2.5 V (invented). */
 const logicLevel = mosfetPart(1, 'INV-N30L');
@@ -27,15 +27,15 @@ const weakPart = mosfetPart(3, 'INV-N12T', { vdsMaxV: 4, idPulsedA: 2 });
 describe('worst case (M1 case, mean-voltage model: inductance not known)', () => {
   const wc = worstCaseOf(caseM1({ motor: { ...MOTOR_M1, inductanceH: null } }));
   it('stall current at the highest supply and coldest winding', () => {
-    expect(wc.stallCurrentMaxA).toBeCloseTo(3.3 / (R_M1 * (1 + 0.00393 * (-10 - 20))), 10); // IEC 60028 α20, domain.md §2
+    expect(wc.stallCurrentMaxA).toBeCloseTo(3.3 / (R_M1 * (1 + 0.00393 * (-10 - 20))), 10); // IEC 60028 α20, docs/engineering.md §2
   });
   it('running current of a torque load is I0 + T/Kt, at full duty for the switch', () => {
-    expect(wc.runningCurrentA).toBeCloseTo(0.2 + 0.0012 / KE_M1, 10); // domain.md §2
+    expect(wc.runningCurrentA).toBeCloseTo(0.2 + 0.0012 / KE_M1, 10); // docs/engineering.md §2
     expect(wc.switchDuty).toBe(1);
   });
   it('diode mean current is the worst (1 − D)·I over the duty range', () => {
     // re-derived: at each duty the motor either runs at I0 + T/Kt or, when the mean voltage cannot
-    // beat the load, sits stalled at V_mean/R (domain.md §2–3, diode V_F 0.7 V default)
+    // beat the load, sits stalled at V_mean/R (docs/engineering.md §2–3, diode V_F 0.7 V default)
     let worstA = 0;
     for (const v of [2.7, 3.3]) {
       for (let k = 0; k <= 10; k += 1) {
@@ -55,7 +55,7 @@ describe('switch ranking', () => {
     expect(ranked[0]).toMatchObject({ mpn: 'INV-N30L', verdict: 'pass' });
     expect(ranked.slice(1).map((r) => r.verdict)).toEqual(['fail', 'fail']);
     const weak = ranked.find((r) => r.mpn === 'INV-N12T');
-    expect(weak?.checks.find((x) => x.id === 'drain-voltage')?.ok).toBe(false); // 3.3 V + 0.7 V vs 0.8·4 V (domain.md §4)
+    expect(weak?.checks.find((x) => x.id === 'drain-voltage')?.ok).toBe(false); // 3.3 V + 0.7 V vs 0.8·4 V (docs/engineering.md §5)
     expect(weak?.checks.find((x) => x.id === 'stall-current')?.ok).toBe(false); // cold stall > 2 A IDM
     const standard = ranked.find((r) => r.mpn === 'INV-N30S');
     expect(standard?.checks.find((x) => x.id === 'gate-drive')?.ok).toBe(false); // common practice: VGS(th) up to 4 V
@@ -96,8 +96,8 @@ describe('common practice: VGS(th) up to 4 V on a 3.3 V logic high', () => {
   it('ranks drivers: TTL input pass, inverting marginal (reset trap), CMOS-ratio input fail', () => {
     expect(design.driver.map((d) => [d.mpn, d.verdict])).toEqual([
       ['INV-GD-TTL', 'pass'],
-      ['INV-GD-INV', 'marginal'], // domain.md §5 polarity trap: pin pulled down at reset turns the motor on
-      ['INV-GD-CMOS', 'fail'], // domain.md §5: 0.7·5 V VIH > 3.3 V logic
+      ['INV-GD-INV', 'marginal'], // docs/engineering.md §7 polarity trap: pin pulled down at reset turns the motor on
+      ['INV-GD-CMOS', 'fail'], // docs/engineering.md §7: 0.7·5 V VIH > 3.3 V logic
     ]);
     expect(design.driver[0].pairing).toMatchObject({ switchMpn: 'INV-N30S', switchVerdict: 'pass', inverting: false });
     expect(design.powerOn?.motorCanStart).toBe(false); // pull-down through a non-inverting driver
@@ -108,7 +108,7 @@ describe('common practice: VGS(th) up to 4 V on a 3.3 V logic high', () => {
   });
 
   it('lists the standing cautions', () => {
-    expect(design.cautions.some((x) => /freewheel diode/.test(x))).toBe(true); // domain.md §9
+    expect(design.cautions.some((x) => /freewheel diode/.test(x))).toBe(true); // docs/engineering.md §11
   });
 });
 
@@ -119,7 +119,7 @@ describe('design with direct drive', () => {
     expect(d.driverNeededNote).toBeNull();
     expect(d.driver).toEqual([]);
     expect(d.requiredGateDriveV).toBe(2.5);
-    expect(d.cautions.join(' ')).toMatch(/avalanches the switch/); // domain.md §7: no diode offered
+    expect(d.cautions.join(' ')).toMatch(/avalanches the switch/); // docs/engineering.md §8: no diode offered
   });
 });
 
@@ -133,7 +133,7 @@ describe('diode ranking under 20 kHz PWM', () => {
     expect(ranked.map((r) => [r.mpn, r.verdict])).toEqual([
       ['INV-SD40', 'pass'],
       ['INV-SD04', 'marginal'], // 3.3 V within VRRM 4 V but above 0.8·4 V (practice)
-      ['INV-GP1', 'fail'], // domain.md §7: t_rr 2 µs > 1 % of 50 µs
+      ['INV-GP1', 'fail'], // docs/engineering.md §8: t_rr 2 µs > 1 % of 50 µs
     ]);
   });
 });

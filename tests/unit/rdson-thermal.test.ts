@@ -8,7 +8,7 @@ const POINTS = [
   { vgsV: 10, ohms: 0.035 },
 ];
 
-describe('RDS(on) at a drive voltage (log-space interpolation, domain.md §4)', () => {
+describe('RDS(on) at a drive voltage (log-space interpolation, docs/engineering.md §5)', () => {
   it.each([
     [2.5, 0.08], // spec point
     [4.5, 0.05], // spec point
@@ -22,7 +22,7 @@ describe('RDS(on) at a drive voltage (log-space interpolation, domain.md §4)', 
   });
 
   it('is null below the lowest spec point (not characterised)', () => {
-    expect(rdsOnAtDriveOhm(POINTS, 2.4)).toBeNull(); // domain.md §4: unusable below the lowest spec VGS
+    expect(rdsOnAtDriveOhm(POINTS, 2.4)).toBeNull(); // docs/engineering.md §5: unusable below the lowest spec VGS
     expect(lowestSpecVgsV(POINTS)).toBe(2.5);
     expect(rdsOnAtDriveOhm([], 5)).toBeNull();
   });
@@ -40,7 +40,7 @@ describe('RDS(on) at a drive voltage (log-space interpolation, domain.md §4)', 
   });
 
   it('rises with temperature: ×1.625 at 150 °C with α = 0.005', () => {
-    expect(rdsOnAtTemperatureOhm(0.05, 150)).toBeCloseTo(0.05 * 1.625, 12); // domain.md §4 [mem: ×1.4–1.8]
+    expect(rdsOnAtTemperatureOhm(0.05, 150)).toBeCloseTo(0.05 * 1.625, 12); // docs/engineering.md §5 [mem: ×1.4–1.8]
   });
 });
 
@@ -52,11 +52,11 @@ function iterateJunctionC(ambientC: number, rth: number, currentA: number, r25: 
 }
 
 describe('conduction junction temperature, closed form', () => {
-  it('domain.md §4 example: TA 25, RθJA 250, 1.8 A, 0.05 Ω, α 0.005 → 75.78 °C, 0.2031 W', () => {
+  it('docs/engineering.md §5 example: TA 25, RθJA 250, 1.8 A, 0.05 Ω, α 0.005 → 75.78 °C, 0.2031 W', () => {
     const r = solveConductionJunction({ ambientC: 25, rthJaCPerW: 250, currentRmsA: 1.8, rdsOn25Ohm: 0.05, alphaPerC: 0.005 });
     expect(r.junctionC).toBeCloseTo(iterateJunctionC(25, 250, 1.8, 0.05, 0.005), 9); // iterative fixed point
-    expect(r.junctionC).toBeCloseTo(75.78, 2); // domain.md §4 example [calc]
-    expect(r.conductionLossW).toBeCloseTo(0.2031, 4); // domain.md §4 example [calc]
+    expect(r.junctionC).toBeCloseTo(75.78, 2); // docs/engineering.md §5 example [calc]
+    expect(r.conductionLossW).toBeCloseTo(0.2031, 4); // docs/engineering.md §5 example [calc]
     expect(junctionFromLossC(25, r.conductionLossW as number, 250)).toBeCloseTo(r.junctionC as number, 9); // Tj = TA + P·Rθ
   });
 
@@ -70,7 +70,7 @@ describe('conduction junction temperature, closed form', () => {
   });
 
   it('detects thermal runaway when k·α ≥ 1', () => {
-    // k = 250·4²·0.05 = 200, k·α = 1 (domain.md §4)
+    // k = 250·4²·0.05 = 200, k·α = 1 (docs/engineering.md §5)
     const r = solveConductionJunction({ ambientC: 25, rthJaCPerW: 250, currentRmsA: 4, rdsOn25Ohm: 0.05, alphaPerC: 0.005 });
     expect(r.runaway).toBe(true);
     expect(r.junctionC).toBeNull();
@@ -78,7 +78,7 @@ describe('conduction junction temperature, closed form', () => {
 
   it('ID(TA) brings the junction exactly to Tj,max', () => {
     const idA = maxCurrentAtAmbientA(150, 40, 250, rdsOnAtTemperatureOhm(0.05, 150));
-    // domain.md §4 [calc]: at ID(TA), Tj = TA + Rθ·I²·RDS(Tj,max) = Tj,max
+    // docs/engineering.md §5 [calc]: at ID(TA), Tj = TA + Rθ·I²·RDS(Tj,max) = Tj,max
     expect(40 + 250 * idA ** 2 * rdsOnAtTemperatureOhm(0.05, 150)).toBeCloseTo(150, 9);
     expect(solveConductionJunction({ ambientC: 40, rthJaCPerW: 250, currentRmsA: idA, rdsOn25Ohm: 0.05 }).junctionC).toBeCloseTo(150, 9);
   });

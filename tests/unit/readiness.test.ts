@@ -1,6 +1,6 @@
 /**
  * The readiness rule, row by row, on hand-made matches. Expected outcomes are a hand-written table of the
- * sign-off rule (issue 9 item 7 and domain.md §10 "Unexpected start is a fail"): a pick holds when it
+ * sign-off rule (issue 9 item 7 and docs/engineering.md §10.3 "Unexpected start is a fail"): a pick holds when it
  * passes, or is marginal only on margins, and is approved; a motor that can run at reset refuses the
  * design unless the designer recorded why; a failing supply refuses it. Not derived from the code.
  */

@@ -77,7 +77,7 @@ describe('worked example, 1 kHz: discontinuous', () => {
   });
 
   it('I·√D would give 0.527 A: the true switch RMS makes the conduction loss about 2.5 times larger', () => {
-    const naiveRmsA = WORKED_MEAN_A * Math.sqrt(0.5); // domain.md §3: switch I_rms = I·√D without ripple
+    const naiveRmsA = WORKED_MEAN_A * Math.sqrt(0.5); // docs/engineering.md §4: switch I_rms = I·√D without ripple
     expect(naiveRmsA).toBeCloseTo(0.527, 3); // worked example: I·√D gives 0.527 A
     expect((result.switchRmsA / naiveRmsA) ** 2).toBeCloseTo(2.5, 1); // worked example: conduction loss ×2.5
   });
@@ -97,14 +97,14 @@ describe('worked example, 1 kHz: discontinuous', () => {
 describe('worked example, 20 kHz: continuous, the mean-voltage model holds', () => {
   const base = { ...WORKED, frequencyHz: 20000 };
   const { backEmfV, result } = solveBackEmfForMeanCurrentV(base, WORKED_MEAN_A);
-  const meanVoltageEmfV = 0.5 * 12.6 - 0.5 * 0.7 - WORKED_MEAN_A * 2.4; // domain.md §3: D·V − (1−D)·VF − I·R = 4.162 V
+  const meanVoltageEmfV = 0.5 * 12.6 - 0.5 * 0.7 - WORKED_MEAN_A * 2.4; // docs/engineering.md §4: D·V − (1−D)·VF − I·R = 4.162 V
   const rippleA = handRippleA(12.6, 0.7, 2.4, 1.2e-3, 0.5, 20000); // hand derivation above
 
   it.each([
-    ['backEmfV', backEmfV, meanVoltageEmfV, 1e-9], // domain.md §3 mean-voltage model, exact in continuous conduction
+    ['backEmfV', backEmfV, meanVoltageEmfV, 1e-9], // docs/engineering.md §4 mean-voltage model, exact in continuous conduction
     ['backEmfV', backEmfV, 4.16, 0.005], // docs/engineering.md "Ripple and discontinuous conduction": E ≈ 4.16 V
     ['switchRmsA', result.switchRmsA, 0.528, 0.0005], // same worked example: I_rms = 0.528 A
-    // domain.md §3: D·(I² + ΔI²/12) treats the ripple as a triangle about the mean; the exponential on-segment
+    // docs/engineering.md §4: D·(I² + ΔI²/12) treats the ripple as a triangle about the mean; the exponential on-segment
     // sits slightly above the period mean, so it is a close approximation (0.4 mA here), not an identity.
     ['switchRmsA', result.switchRmsA, Math.sqrt(0.5 * (WORKED_MEAN_A ** 2 + rippleA ** 2 / 12)), 6e-4],
     // At D = 0.5 the fixed point gives i1 − Ī = ΔI/2 exactly (hand derivation: i1 = (Aon + a·Aoff)/(1 + a), Ī = (Aon + Aoff)/2).
@@ -126,7 +126,7 @@ describe('worked example, 20 kHz: continuous, the mean-voltage model holds', () 
 describe.each<[string, RippleInput]>([
   ['CCM f·τe 10, D 0.3', { supplyV: 12, resistanceOhm: 2, inductanceH: 1e-3, diodeForwardV: 0.5, duty: 0.3, frequencyHz: 20000, backEmfV: 3 }],
   ['CCM f·τe 2.5, D 0.7', { supplyV: 24, resistanceOhm: 1, inductanceH: 0.5e-3, diodeForwardV: 0.8, duty: 0.7, frequencyHz: 5000, backEmfV: 10 }],
-  ['CCM no diode drop, E 0 (domain.md §3 M1 at 1 kHz)', { supplyV: 3, resistanceOhm: 3 / 1.8, inductanceH: 0.15e-3, diodeForwardV: 0, duty: 0.5, frequencyHz: 1000, backEmfV: 0 }],
+  ['CCM no diode drop, E 0 (docs/engineering.md §4 M1 at 1 kHz)', { supplyV: 3, resistanceOhm: 3 / 1.8, inductanceH: 0.15e-3, diodeForwardV: 0, duty: 0.5, frequencyHz: 1000, backEmfV: 0 }],
   ['DCM f·τe 0.5, D 0.2', { supplyV: 12, resistanceOhm: 2.4, inductanceH: 1.2e-3, diodeForwardV: 0.7, duty: 0.2, frequencyHz: 1000, backEmfV: 6 }],
   ['DCM light load f·τe 5', { supplyV: 12, resistanceOhm: 2, inductanceH: 1e-3, diodeForwardV: 0.4, duty: 0.5, frequencyHz: 10000, backEmfV: 5.5 }],
   ['DCM f·τe 0.1, D 0.8', { supplyV: 6, resistanceOhm: 4, inductanceH: 0.2e-3, diodeForwardV: 0.3, duty: 0.8, frequencyHz: 2000, backEmfV: 1 }],
@@ -145,19 +145,19 @@ describe.each<[string, RippleInput]>([
   });
 });
 
-const M1_R = 3 / 1.8; // domain.md §2 M1: R = V/Is
-describe('domain.md §3 examples: M1, L 0.15 mH, 3 V, D 0.5, E 0, VF 0 (the diode loop never reaches zero: continuous)', () => {
+const M1_R = 3 / 1.8; // docs/engineering.md §2 M1: R = V/Is
+describe('docs/engineering.md §4 examples: M1, L 0.15 mH, 3 V, D 0.5, E 0, VF 0 (the diode loop never reaches zero: continuous)', () => {
   it.each([
-    [1000, 1.786], // domain.md §3 example [calc]
-    [5000, 0.908], // domain.md §3 example [calc]
-    [20000, 0.2484], // domain.md §3 example [calc]
+    [1000, 1.786], // docs/engineering.md §4 example [calc]
+    [5000, 0.908], // docs/engineering.md §4 example [calc]
+    [20000, 0.2484], // docs/engineering.md §4 example [calc]
   ])('%d Hz → ΔI %d A', (f, expected) => {
     const r = periodicCurrent({ supplyV: 3, resistanceOhm: M1_R, inductanceH: 0.15e-3, diodeForwardV: 0, duty: 0.5, frequencyHz: f, backEmfV: 0 });
     expect(r.continuous).toBe(true);
     expect(r.rippleA).toBeCloseTo(expected, 3);
     expect(r.rippleA).toBeCloseTo(handRippleA(3, 0, M1_R, 0.15e-3, 0.5, f), 12); // re-derived by the hand formula
-    expect(r.meanA).toBeCloseTo(0.9, 9); // domain.md §3: stalled at D = 0.5, mean 0.9 A (1.5 V / R)
-    // domain.md §3's diode 0.45 A is (1−D)·I for a flat current. With E = VF = 0 the off current decays
+    expect(r.meanA).toBeCloseTo(0.9, 9); // docs/engineering.md §4: stalled at D = 0.5, mean 0.9 A (1.5 V / R)
+    // docs/engineering.md §4's diode 0.45 A is (1−D)·I for a flat current. With E = VF = 0 the off current decays
     // from i1 to i0 = b·i1 with nothing else driving it, so by hand its mean is f·τe·(i1 − i0) = f·τe·ΔI.
     expect(r.diodeMeanA).toBeCloseTo(f * (0.15e-3 / M1_R) * expected, 3);
   });
@@ -169,7 +169,7 @@ describe('continuous ripple does not depend on E and matches pwm.ts', () => {
     const noDrop = periodicCurrent({ ...base, diodeForwardV: 0 });
     const withDrop = periodicCurrent({ ...base, diodeForwardV: 0.7 });
     expect(noDrop.continuous && withDrop.continuous).toBe(true);
-    expect(noDrop.rippleA).toBeCloseTo(rippleExactA(12, 2, 1e-3, 0.4, 10000), 12); // domain.md §3 formula (src/lib/pwm.ts)
+    expect(noDrop.rippleA).toBeCloseTo(rippleExactA(12, 2, 1e-3, 0.4, 10000), 12); // docs/engineering.md §4 formula (src/lib/pwm.ts)
     expect(withDrop.rippleA).toBeCloseTo(rippleExactA(12.7, 2, 1e-3, 0.4, 10000), 12); // hand derivation: swing V + VF
   });
 });
@@ -179,10 +179,10 @@ describe('limits', () => {
     const l = 1e-3;
     const f = (periodsPerTau * 2) / l;
     const r = periodicCurrent({ supplyV: 12, resistanceOhm: 2, inductanceH: l, diodeForwardV: 0, duty: 0.3, frequencyHz: f, backEmfV: 2 });
-    const approxA = (12 * 0.3 * 0.7) / (l * f); // domain.md §3: ΔI ≈ V·D(1−D)/(L·f) for f·τe ≫ 1
+    const approxA = (12 * 0.3 * 0.7) / (l * f); // docs/engineering.md §4: ΔI ≈ V·D(1−D)/(L·f) for f·τe ≫ 1
     expect(Math.abs(r.rippleA / approxA - 1)).toBeLessThan(1 / periodsPerTau ** 2); // series expansion: the error is O(1/(f·τe)²)
     expect(r.continuous).toBe(true);
-    expect(r.meanA).toBeCloseTo((0.3 * 12 - 2) / 2, 9); // domain.md §3 mean-voltage model, exact in continuous conduction: (D·V − E)/R
+    expect(r.meanA).toBeCloseTo((0.3 * 12 - 2) / 2, 9); // docs/engineering.md §4 mean-voltage model, exact in continuous conduction: (D·V − E)/R
   });
 
   it('duty 1 is DC: (V − E)/R, no ripple, all through the switch', () => {
@@ -235,25 +235,25 @@ describe('back-EMF for a mean current', () => {
 // Invented motor for the motor-level call: 2.2 Ω winding + 0.2 Ω series = the worked example's 2.4 Ω loop.
 const MOTOR: MotorModel = { ratedVoltageV: 12, resistanceOhm: 2.2, keVsPerRad: 0.01, ktNmPerA: 0.01, noLoadCurrentA: 0.1, frictionTorqueNm: 0.001 };
 const AT = { model: MOTOR, supplyV: 12.6, duty: 0.5, diodeForwardV: 0.7, seriesResistanceOhm: 0.2, inductanceH: 1.2e-3 };
-const RPM_PER_RAD_S = 30 / Math.PI; // domain.md §8: 1 rpm = π/30 rad/s
+const RPM_PER_RAD_S = 30 / Math.PI; // docs/engineering.md §1: 1 rpm = π/30 rad/s
 
 describe('rippleOperatingPoint', () => {
   it('torque load: mean current I0 + T/Kt, so the worked example again (E ≈ 5.70 V at 1 kHz)', () => {
-    const torqueNm = (0.745 - 0.1) * 0.01; // domain.md §2: I = I0 + T/Kt → T = (0.745 − 0.1)·Kt
+    const torqueNm = (0.745 - 0.1) * 0.01; // docs/engineering.md §2: I = I0 + T/Kt → T = (0.745 − 0.1)·Kt
     const p = rippleOperatingPoint({ ...AT, frequencyHz: 1000, load: { kind: 'torque', torqueNm } });
     expect(p.ripple.meanA).toBeCloseTo(0.745, 9);
     expect(Math.abs(p.backEmfV - 5.7)).toBeLessThan(0.005); // docs/engineering.md "Ripple and discontinuous conduction"
-    expect(p.speedRpm).toBeCloseTo((p.backEmfV / 0.01) * RPM_PER_RAD_S, 9); // domain.md §2: ω = E/Ke
+    expect(p.speedRpm).toBeCloseTo((p.backEmfV / 0.01) * RPM_PER_RAD_S, 9); // docs/engineering.md §2: ω = E/Ke
   });
 
   it.each<[string, { kind: 'speed'; speedRpm: number } | { kind: 'stall-only' }, number]>([
-    ['speed 3000 rpm', { kind: 'speed', speedRpm: 3000 }, 0.01 * 3000 / RPM_PER_RAD_S], // domain.md §2: E = Ke·ω
+    ['speed 3000 rpm', { kind: 'speed', speedRpm: 3000 }, 0.01 * 3000 / RPM_PER_RAD_S], // docs/engineering.md §2: E = Ke·ω
     ['stall-only', { kind: 'stall-only' }, 0], // stalled: ω = 0
   ])('%s at 20 kHz: E from the load, mean current from the mean-voltage model', (_name, load, backEmfV) => {
     const p = rippleOperatingPoint({ ...AT, frequencyHz: 20000, load });
     expect(p.backEmfV).toBeCloseTo(backEmfV, 12);
     expect(p.ripple.continuous).toBe(true);
-    expect(p.ripple.meanA).toBeCloseTo((0.5 * 12.6 - 0.5 * 0.7 - backEmfV) / 2.4, 9); // domain.md §3, exact in continuous conduction
+    expect(p.ripple.meanA).toBeCloseTo((0.5 * 12.6 - 0.5 * 0.7 - backEmfV) / 2.4, 9); // docs/engineering.md §4, exact in continuous conduction
   });
 
   it('a negative speed is refused with the field named', () => {
@@ -274,14 +274,14 @@ describe('PWM frequency caution', () => {
     if (text) {
       expect(text).toContain('discontinuous');
       expect(text).toContain(`${MIN_PERIODS_PER_TAU / tauS / 1000} kHz`); // the frequency that reaches the threshold, 5/τe
-      expect(text).toContain('18–25 kHz'); // domain.md §3: above hearing [practice]
+      expect(text).toContain('18–25 kHz'); // docs/engineering.md §4: above hearing [practice]
     }
   });
 
   it('the threshold f·τe = 5 keeps the D = 0.5 ripple near 5 % of stall current, so a 3 % load stays continuous and 2 % does not', () => {
     const l = 1e-3;
     const input = { supplyV: 12, resistanceOhm: 2, inductanceH: l, diodeForwardV: 0, duty: 0.5, frequencyHz: (MIN_PERIODS_PER_TAU * 2) / l };
-    expect(handRippleA(12, 0, 2, l, 0.5, input.frequencyHz) / 6).toBeCloseTo(0.05, 3); // domain.md §3 formula: (1 − a)/(1 + a), a = e^(−0.1)
+    expect(handRippleA(12, 0, 2, l, 0.5, input.frequencyHz) / 6).toBeCloseTo(0.05, 3); // docs/engineering.md §4 formula: (1 − a)/(1 + a), a = e^(−0.1)
     expect(solveBackEmfForMeanCurrentV(input, 0.03 * 6).result.continuous).toBe(true); // mean above ΔI/2 (2.5 % of V/R)
     expect(solveBackEmfForMeanCurrentV(input, 0.02 * 6).result.continuous).toBe(false); // mean below ΔI/2
   });

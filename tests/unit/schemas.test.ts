@@ -28,7 +28,7 @@ describe('valid bodies', () => {
     if (!parsed.ok) throw new Error('expected valid');
     const r = calcPullResistor(parsed.data);
     expect(Object.keys(r).sort()).toEqual(['activeCurrentA', 'chosenOhms', 'maxOhms', 'minOhms', 'nodeV', 'notes', 'ok']);
-    expect(r.chosenOhms).toBe(6800); // domain.md §6 example
+    expect(r.chosenOhms).toBe(6800); // docs/engineering.md §9 example
   });
 
   it('switch: contract fields', () => {

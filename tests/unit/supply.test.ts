@@ -1,8 +1,8 @@
 /**
- * The supply checks [docs/engineering.md §supply; domain.md §11]. Every expected value is re-derived here
+ * The supply checks [docs/engineering.md §supply; docs/engineering.md §3]. Every expected value is re-derived here
  * from the formulas with the numbers of the worked example, never read back from the code under test:
  *   R = V/Is at 20 °C; R(T) = R20·(1 + 0.00393·(T − 20)) [IEC 60028, copper α20];
- *   ω0 = n0·2π/60; Ke = Kt = (V − I0·R)/ω0 [domain.md §2];
+ *   ω0 = n0·2π/60; Ke = Kt = (V − I0·R)/ω0 [docs/engineering.md §2];
  *   I_start = V/(R_cold + R_s + R_int); held at min(I_start, I_lim); terminals see I·(R_cold + R_s);
  *   start torque Kt·(I − I0); running I0 + T/Kt; τm = J·R_loop/(Kt·Ke);
  *   C ≥ (I_start − I_avail)·τm/ΔV, I_avail = min(ΔV/R_int, I_lim) [docs/engineering.md §supply].
@@ -18,7 +18,7 @@ import { demoMotors } from '../../db/seeds/data/motors.ts';
 import { SUPPLY_PRESETS, type DesignInput } from '../../src/lib/domain/design.ts';
 import type { MotorParams } from '../../src/lib/domain/parts.ts';
 
-// Worked example M1 (domain.md §2 / §11, invented): 3 V, 12 000 rpm, I0 0.20 A, Is 1.80 A.
+// Worked example M1 (docs/engineering.md §2 / §11, invented): 3 V, 12 000 rpm, I0 0.20 A, Is 1.80 A.
 const V = 3;
 const I0 = 0.2;
 const IS = 1.8;
@@ -43,12 +43,12 @@ function run(body: unknown) {
 }
 const check = (r: ReturnType<typeof run>, id: string) => r.checks.find((c) => c.id === id);
 
-describe('supply: worked example of domain.md §11 (re-derived)', () => {
+describe('supply: worked example of docs/engineering.md §3 (re-derived)', () => {
   const r = run(CONTRACT);
   const iStart = 3.0 / (R + 0.3); // 3.0/1.9667 = 1.5254 A
 
   it('start current V/(R + R_int) = 1.5254 A; the source would sag by 0.4576 V to 2.542 V', () => {
-    expect(iStart).toBeCloseTo(1.5254, 4); // domain.md §11 figure
+    expect(iStart).toBeCloseTo(1.5254, 4); // docs/engineering.md §3 figure
     expect(r.startCurrentA).toBeCloseTo(iStart, 9);
     // Unlimited sag: I_start·R_int = 0.4576 V, terminals 2.542 V (the same source without its limit).
     const unlimited = run({ ...CONTRACT, supply: { voltageV: 3.0, internalResistanceOhm: 0.3 } });
@@ -59,7 +59,7 @@ describe('supply: worked example of domain.md §11 (re-derived)', () => {
 
   it('on the 0.5 A port [std: USB 2.0]: held at 0.5 A, start torque Kt·(0.5 − 0.2) = 0.6366 mN·m, terminals 0.5·R', () => {
     expect(r.startActualCurrentA).toBe(0.5);
-    expect(KE * 0.3).toBeCloseTo(0.6366e-3, 7); // domain.md §11 figure
+    expect(KE * 0.3).toBeCloseTo(0.6366e-3, 7); // docs/engineering.md §3 figure
     expect(r.startTorqueNm).toBeCloseTo(KE * (0.5 - I0), 10);
     expect((KE * 0.3) / (KE * (IS - I0))).toBeCloseTo(0.1875, 4); // 18.75 % of the stall torque
     expect(r.sourceVoltageAtStartV).toBeCloseTo(0.5 * R, 9);

@@ -41,30 +41,30 @@ describe('contract example', () => {
   });
 
   it('re-derives losses and junction independently', () => {
-    const rds = 0.05 * Math.pow(0.035 / 0.05, 0.5 / 5.5); // log-space interpolation at 5 V (domain.md §4)
+    const rds = 0.05 * Math.pow(0.035 / 0.05, 0.5 / 5.5); // log-space interpolation at 5 V (docs/engineering.md §5)
     expect(r.rdsOnAtDriveOhms).toBeCloseTo(rds, 12);
-    const qsw = 2 + 1.5 / 2; // Q_sw ≈ Q_gd + Q_gs/2 (domain.md §4)
-    const tOn = (qsw * 1e-9) / 0.02; // capped at 20 mA both ways (domain.md §4)
+    const qsw = 2 + 1.5 / 2; // Q_sw ≈ Q_gd + Q_gs/2 (docs/engineering.md §5)
+    const tOn = (qsw * 1e-9) / 0.02; // capped at 20 mA both ways (docs/engineering.md §5)
     const psw = 0.5 * 5.5 * 0.8 * 2 * tOn * 20000; // ½·(V + V_F)·I·(t_r + t_f)·f
     expect(r.switchingLossW).toBeCloseTo(psw, 12);
     // fixed-point iteration of Tj = TA + Rθ·(D·I²·RDS(Tj) + P_sw), independent of the closed form
     let tj = 40;
     for (let k = 0; k < 5000; k += 1) tj = 40 + 250 * (0.6 * 0.64 * rds * (1 + 0.005 * (tj - 25)) + psw);
     expect(r.junctionC).toBeCloseTo(tj, 8);
-    expect(r.gateDrivePowerW).toBeCloseTo(6e-9 * 5 * 20000, 15); // Qg·V·f (domain.md §4)
+    expect(r.gateDrivePowerW).toBeCloseTo(6e-9 * 5 * 20000, 15); // Qg·V·f (docs/engineering.md §5)
   });
 });
 
 describe.each([
   // name, patch, failing check id, expected verdict, source
-  ['gate drive below the lowest spec VGS', { operating: { gateDriveV: 3.3 } }, 'gate-drive', 'fail'], // domain.md §4
-  ['drain voltage within the derated band', { operating: { supplyMaxV: 24.5 } }, 'drain-voltage', 'marginal'], // domain.md §4, derating 0.8 practice
-  ['drain voltage above the rating', { operating: { supplyMaxV: 30 } }, 'drain-voltage', 'fail'], // domain.md §4
-  ['gate drive above VGS(max)', { operating: { gateDriveV: 12 }, mosfet: { vgsMaxV: 8 } }, 'gate-voltage-rating', 'fail'], // domain.md §4
-  ['stall current above IDM', { operating: { stallCurrentA: 25 } }, 'stall-current', 'fail'], // domain.md §4
-  ['running current above ID(TA)', { operating: { runningCurrentA: 2.5, pwmHz: undefined, duty: undefined } }, 'running-current', 'fail'], // domain.md §4
-  ['junction between Tj,max − margin and Tj,max', { operating: { runningCurrentA: 1.6, pwmHz: undefined, duty: undefined, ambientC: 80 } }, 'junction-temperature', 'marginal'], // domain.md §4, 25 K practice
-  ['slow edges from a weak pin under PWM', { operating: { gateDriveCurrentA: 0.0002 } }, 'switching-edges', 'fail'], // domain.md §4: flag slow edges
+  ['gate drive below the lowest spec VGS', { operating: { gateDriveV: 3.3 } }, 'gate-drive', 'fail'], // docs/engineering.md §5
+  ['drain voltage within the derated band', { operating: { supplyMaxV: 24.5 } }, 'drain-voltage', 'marginal'], // docs/engineering.md §5, derating 0.8 practice
+  ['drain voltage above the rating', { operating: { supplyMaxV: 30 } }, 'drain-voltage', 'fail'], // docs/engineering.md §5
+  ['gate drive above VGS(max)', { operating: { gateDriveV: 12 }, mosfet: { vgsMaxV: 8 } }, 'gate-voltage-rating', 'fail'], // docs/engineering.md §5
+  ['stall current above IDM', { operating: { stallCurrentA: 25 } }, 'stall-current', 'fail'], // docs/engineering.md §5
+  ['running current above ID(TA)', { operating: { runningCurrentA: 2.5, pwmHz: undefined, duty: undefined } }, 'running-current', 'fail'], // docs/engineering.md §5
+  ['junction between Tj,max − margin and Tj,max', { operating: { runningCurrentA: 1.6, pwmHz: undefined, duty: undefined, ambientC: 80 } }, 'junction-temperature', 'marginal'], // docs/engineering.md §5, 25 K practice
+  ['slow edges from a weak pin under PWM', { operating: { gateDriveCurrentA: 0.0002 } }, 'switching-edges', 'fail'], // docs/engineering.md §5: flag slow edges
   ['P-channel on the low side', { mosfet: { channel: 'p' as const } }, 'channel', 'fail'], // low side needs N-channel
   // docs/engineering.md §5.4: below the plateau the channel cannot carry the current, in on/off drive too
   ['on/off drive below the Miller plateau', { mosfet: { rdsOn: [{ vgsV: 2.5, ohms: 0.08 }, { vgsV: 4.5, ohms: 0.05 }] }, operating: { gateDriveV: 2.55, pwmHz: undefined, duty: undefined } }, 'miller-plateau', 'fail'],
@@ -85,7 +85,7 @@ describe('actionable notes', () => {
   it('a part specified only at 10 V on a 3.3 V logic high asks for a driver or a 2.5 V part', () => {
     const r = evaluateSwitch(withPatch({ mosfet: { rdsOn: [{ vgsV: 10, ohms: 0.03 }], vgsThMaxV: 3 }, operating: { gateDriveV: 3.3 } }));
     const note = r.checks.find((c) => c.id === 'gate-drive')?.note ?? '';
-    expect(note).toMatch(/only specified at 10 V/); // domain.md §4: not characterised below the lowest spec point
+    expect(note).toMatch(/only specified at 10 V/); // docs/engineering.md §5: not characterised below the lowest spec point
     expect(note).toMatch(/gate driver/);
     expect(note).toMatch(/10 V rail/);
     expect(r.rdsOnAtDriveOhms).toBeNull();
@@ -101,7 +101,7 @@ describe('actionable notes', () => {
 
   it('reports thermal runaway as a hard junction failure', () => {
     const r = evaluateSwitch(withPatch({ operating: { runningCurrentA: 6, pwmHz: undefined, duty: undefined } }));
-    expect(r.junctionC).toBeNull(); // k·α ≥ 1 → no steady state (domain.md §4)
+    expect(r.junctionC).toBeNull(); // k·α ≥ 1 → no steady state (docs/engineering.md §5)
     expect(r.checks.find((c) => c.id === 'junction-temperature')?.severity).toBe('hard');
   });
 

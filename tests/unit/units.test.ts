@@ -27,8 +27,8 @@ describe.each(Object.keys(MATHJS_TORQUE) as TorqueUnit[])('torque %s against mat
 
 describe('torque reference values', () => {
   it.each([
-    ['g·cm', 9.80665e-5], // domain.md §8, SI Brochure g_n exact
-    ['oz·in', 7.0615518e-3], // domain.md §8
+    ['g·cm', 9.80665e-5], // docs/engineering.md §1, SI Brochure g_n exact
+    ['oz·in', 7.0615518e-3], // docs/engineering.md §1
     ['kgf·cm', 9.80665e-2], // SI Brochure g_n exact
   ] as const)('1 %s = %d N·m', (unit, nm) => {
     expect(torqueToNm(1, unit)).toBeCloseTo(nm, 10);

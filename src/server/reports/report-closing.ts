@@ -87,7 +87,7 @@ const ASSUMPTIONS: readonly string[] = [
   `RDS(on) rises with junction temperature by ${percent(DEFAULT_RDSON_TEMPCO_PER_C, 1)} per kelvin from its 25 °C value unless a part states otherwise; between the gate voltages a datasheet lists, RDS(on) is interpolated.`,
   `The winding resistance is taken at 20 °C and scaled with copper's ${percent(COPPER_ALPHA20_PER_K, 3)} per kelvin; the start-up (stall) current uses the coldest ambient and the highest supply.`,
   'The motor follows the linear DC model: constant winding resistance, Ke = Kt and a constant friction torque; brush drop, saturation and heating while running are ignored.',
-  'PWM results assume continuous conduction through the freewheel diode; switching losses are estimates from gate charge and drive current, not measurements.',
+  'PWM currents include the ripple when the motor’s inductance is known (continuous or discontinuous conduction, docs/engineering.md §4.2–§4.3) and assume the mean-voltage model when it is not; switching losses are estimates from gate charge and drive current, not measurements.',
   'Prices are the best catalogue offer at the board quantity when the report was generated; prices, stock and lead times change.',
 ];
 
