@@ -67,6 +67,7 @@ export async function startThrowawayStack(root: string, teardown: Teardown = new
       DB_USER: 'stallpoint_test',
       DB_PASSWORD: generatedSecret(),
       DB_SCRATCH_NAME: 'stallpoint_scratch',
+      DB_SNAPSHOT_NAME: 'stallpoint_seeded',
       DATA_DIR: path.join(tmp, 'data'),
     };
     Object.assign(process.env, env);
@@ -76,7 +77,8 @@ export async function startThrowawayStack(root: string, teardown: Teardown = new
     await startMariaDb(db, teardown);
     ensureDatabaseAndUser(db, env.DB_NAME!, env.DB_USER!, env.DB_PASSWORD!);
     ensureDatabaseAndUser(db, env.DB_SCRATCH_NAME!, env.DB_USER!, env.DB_PASSWORD!);
-    await migrateAndSeed(env, { seed: true });
+    ensureDatabaseAndUser(db, env.DB_SNAPSHOT_NAME!, env.DB_USER!, env.DB_PASSWORD!);
+    await migrateAndSeed(env, { seed: true, snapshotTo: env.DB_SNAPSHOT_NAME });
     buildIfChanged(root);
     const services = await startServices(env);
     teardown.add('mail sink', () => services.close());
