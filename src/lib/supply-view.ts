@@ -31,6 +31,12 @@ export function quantityText(value: number | null, unit: string): string {
   return formatSi(value, unit, 3).replace(/(\.\d*?)0+(?=\s)/, '$1').replace(/\.(?=\s)/, '');
 }
 
+/** Torques in mN·m whatever their size (0.637 mN·m, not 637 µN·m): the unit the motor's figures use. */
+export function torqueText(torqueNm: number | null): string {
+  if (torqueNm == null || !Number.isFinite(torqueNm)) return '—';
+  return `${Number((torqueNm * 1000).toPrecision(3))} mN·m`;
+}
+
 /** Which way the limit binds: the running and start currents must stay at or below it, the rail at or above. */
 export function limitRelation(id: string): '≤' | '≥' {
   return id === 'logic-brownout' ? '≥' : '≤';

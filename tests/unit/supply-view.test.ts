@@ -3,7 +3,7 @@
  * values are written out by hand beside their source, never read back from the code under test.
  */
 import { describe, expect, it } from 'vitest';
-import { bulkCapacitanceView, checkVerdict, limitRelation, quantityText, supplyCheckTitle } from '../../src/lib/supply-view.ts';
+import { bulkCapacitanceView, checkVerdict, limitRelation, quantityText, supplyCheckTitle, torqueText } from '../../src/lib/supply-view.ts';
 import {
   cellCount, defaultSharedSupply, packInternalResistanceOhm, perCellInternalResistanceOhm, presetCells, supplyFromPreset,
 } from '../../src/lib/supply-input.ts';
@@ -47,6 +47,17 @@ describe('values with their units (SI prefixes, SI Brochure)', () => {
     [null, 'A', '—'],
   ])('%s %s → %s', (value, unit, text) => {
     expect(quantityText(value, unit)).toBe(text);
+  });
+});
+
+describe('torques read in mN·m, the unit of the motor figures', () => {
+  it.each([
+    [0.00063662, '0.637 mN·m'], // Kt·(0.5 − 0.2) of the §3.5 worked example
+    [0.0033953, '3.4 mN·m'],
+    [0.02, '20 mN·m'],
+    [null, '—'],
+  ])('%s N·m → %s', (nm, text) => {
+    expect(torqueText(nm)).toBe(text);
   });
 });
 

@@ -1,5 +1,5 @@
 import type { SupplyReport } from '../../lib/supply.ts';
-import { bulkCapacitanceView, checkVerdict, limitRelation, quantityText, supplyCheckTitle } from '../../lib/supply-view.ts';
+import { bulkCapacitanceView, checkVerdict, limitRelation, quantityText, supplyCheckTitle, torqueText } from '../../lib/supply-view.ts';
 import Verdict from './Verdict.tsx';
 
 /** The checks of a supply report: verdict in words and icon, value against its limit, the note. Shared with the calculators page. */
@@ -14,7 +14,7 @@ export function SupplyChecks({ report, testId }: { report: SupplyReport; testId?
           <div className="flex flex-wrap items-baseline gap-2">
             <Verdict verdict={checkVerdict(c)} />
             <strong>{supplyCheckTitle(c.id)}</strong>
-            <span className="num text-ink-soft">{quantityText(c.value, c.unit)} {limitRelation(c.id)} {quantityText(c.limit, c.unit)}?</span>
+            <span className="num text-ink-soft" data-testid="supply-check-values">{quantityText(c.value, c.unit)} (limit {limitRelation(c.id)} {quantityText(c.limit, c.unit)})</span>
           </div>
           <p className="mt-1">{c.note}</p>
         </li>
@@ -36,7 +36,7 @@ export function SupplyFigures({ report, worstCases }: { report: SupplyReport; wo
       <dt className="text-ink-soft">Source terminals at start{worstCases ? ' (lowest supply)' : ''}</dt>
       <dd>{quantityText(report.sourceVoltageAtStartV, 'V')}</dd>
       <dt className="text-ink-soft">Start torque{worstCases ? ' (lowest supply, warmest winding)' : ''}</dt>
-      <dd>{quantityText(report.startTorqueNm, 'N·m')}</dd>
+      <dd>{torqueText(report.startTorqueNm)}</dd>
       <dt className="text-ink-soft">Running current</dt>
       <dd>{quantityText(report.runningCurrentA, 'A')}</dd>
       {bulk ? (

@@ -5,7 +5,7 @@
  */
 import type { DesignInput } from '../../lib/domain/design.ts';
 import type { SupplyReport } from '../../lib/supply.ts';
-import { bulkCapacitanceView, checkVerdict, limitRelation, supplyCheckTitle } from '../../lib/supply-view.ts';
+import { bulkCapacitanceView, checkVerdict, limitRelation, supplyCheckTitle, torqueText } from '../../lib/supply-view.ts';
 import { quantity, sig, verdictText } from './report-format.ts';
 import { MUTED, type ReportLayout } from './report-layout.ts';
 import { drawTable, type TableColumn } from './report-table.ts';
@@ -58,7 +58,7 @@ export function drawSupply(layout: ReportLayout, input: DesignInput, supply: Sup
   layout.keyValues([
     ['Start current', `${quantity(supply.startCurrentA, 'A')} asked for at the highest supply, winding at ${sig(input.ambientMinC)} °C; the source delivers ${quantity(supply.startActualCurrentA, 'A')}${limited ? ' (held at its limit)' : ''}`],
     ['Source at start', `${quantity(supply.sourceVoltageAtStartV, 'V')} at the terminals at the lowest supply`],
-    ['Start torque', `${quantity(supply.startTorqueNm, 'N·m')} at the lowest supply, winding at ${sig(input.ambientMaxC)} °C`],
+    ['Start torque', `${torqueText(supply.startTorqueNm)} at the lowest supply, winding at ${sig(input.ambientMaxC)} °C`],
     ['Running current', quantity(supply.runningCurrentA, 'A')],
     ['Bulk capacitance', bulk == null ? 'no figure (see the notes)' : bulk.practical ? bulk.text : `${bulk.text}: not practical`],
   ]);
