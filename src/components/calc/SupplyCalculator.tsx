@@ -73,10 +73,10 @@ export default function SupplyCalculator() {
     <section aria-labelledby="supply-calc-title" className="mb-8" data-testid="supply-calculator">
       <h2 id="supply-calc-title" className="text-xl mb-2">Supply: can it start the motor?</h2>
       <form className="card p-3 grid gap-3 grid-cols-2 md:grid-cols-4 lg:grid-cols-6" onSubmit={(e) => e.preventDefault()} noValidate>
-        {field('ratedV', 'Rated voltage', 'V')}
-        {field('noLoadSpeedRpm', 'No-load speed', 'rpm')}
-        {field('noLoadCurrentA', 'No-load current', 'A')}
-        {field('stallCurrentA', 'Stall current', 'A')}
+        {field('ratedV', 'Motor rated voltage', 'V')}
+        {field('noLoadSpeedRpm', 'Motor no-load speed', 'rpm')}
+        {field('noLoadCurrentA', 'Motor no-load current', 'A')}
+        {field('stallCurrentA', 'Motor stall current', 'A')}
         {field('rotorInertiaGcm2', 'Rotor inertia', 'g·cm²', 'empty: no capacitor figure')}
         {field('loadTorqueMNm', 'Load torque', 'mN·m', 'at start')}
         <label className="field col-span-2">Source preset
