@@ -58,13 +58,13 @@ function Excluded({ count, what }: { count: number; what: string }) {
   return <p className="text-xs text-ink-faint mt-1">{count} {what} left out before ranking: a rating can never pass (or the part is obsolete).</p>;
 }
 
-/** Steps 3–5: switch, gate drive, freewheel diode. */
+/** Steps 4–6: switch, gate drive, freewheel diode. */
 export default function CandidatesSection({ match, input, onSelect, readOnly, Step }: Props) {
   const switches = effectiveSwitchList(match);
   const pairedSwitch = match.driver[0]?.pairing;
   return (
     <>
-      <Step n={3} title={match.driverNeeded ? 'Switch (driven through a gate driver)' : 'Switch (driven straight from the logic pin)'} testId="step-switch">
+      <Step n={4} title={match.driverNeeded ? 'Switch (driven through a gate driver)' : 'Switch (driven straight from the logic pin)'} testId="step-switch">
         <div className="card p-2">
           <Line testId="switch-drive">{switchDriveLine(match.switchDrive, driverSupplyRangeOf(input).minV)}</Line>
           <p className="text-xs text-ink-faint px-1 pb-1" data-testid="score-explanation">{match.scoreExplanation}</p>
@@ -72,7 +72,7 @@ export default function CandidatesSection({ match, input, onSelect, readOnly, St
           <Excluded count={match.excluded.switch} what="MOSFETs" />
         </div>
       </Step>
-      <Step n={4} title="Gate drive" testId="step-gate-drive">
+      <Step n={5} title="Gate drive" testId="step-gate-drive">
         {match.driverNeeded ? (
           <div className="card p-2">
             <p className="p-2 mb-2 rounded border border-warn bg-warn-wash text-warn text-sm" role="note" data-testid="driver-needed">
@@ -86,7 +86,7 @@ export default function CandidatesSection({ match, input, onSelect, readOnly, St
           <p className="card p-3 text-sm" data-testid="direct-drive">✓ Direct drive: the logic high of {match.worstCase.gateDriveMinV} V enhances the passing switches; no driver needed. Keep the gate trace short and add a gate resistor footprint.</p>
         )}
       </Step>
-      <Step n={5} title="Freewheel diode" testId="step-diode">
+      <Step n={6} title="Freewheel diode" testId="step-diode">
         <div className="card p-2">
           <p className="text-xs text-ink-soft px-1 pb-1">⚠ Inductive spike: fit the diode across the motor, cathode to the positive supply. The MOSFET's body diode does not do this job.</p>
           <CandidateTable role="diode" caption="Diode candidates" entries={match.diode} extra={DIODE_COLS} selection={input.selections.diode} onSelect={onSelect('diode')} readOnly={readOnly} />

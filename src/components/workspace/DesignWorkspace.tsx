@@ -6,6 +6,7 @@ import InputsPanel, { type MotorOption } from './InputsPanel.tsx';
 import MotorPanel from './MotorPanel.tsx';
 import CandidatesSection from './CandidatesSection.tsx';
 import PowerOnPanel from './PowerOnPanel.tsx';
+import SupplyPanel from './SupplyPanel.tsx';
 import SelectionPanel from './SelectionPanel.tsx';
 import { issuesByPath, useMatch } from './use-match.ts';
 
@@ -25,7 +26,8 @@ function Step({ n, title, children, testId }: { n: number; title: string; childr
   );
 }
 
-/** The designer's workspace: inputs, then motor → switch → gate drive → diode → power-on → bill of materials. */
+/** CandidatesSection numbers its steps 3–5; with the supply step before it they read 4–6. */
+/** The designer's workspace: inputs, then motor → supply and logic → switch → gate drive → diode → power-on → bill of materials. */
 export default function DesignWorkspace({ design, initialInput, motors, canEdit }: WorkspaceProps) {
   const [input, setInput] = useState<DesignInput>(initialInput);
   const [meta, setMeta] = useState(design);
@@ -104,9 +106,10 @@ export default function DesignWorkspace({ design, initialInput, motors, canEdit 
       {!match ? <p className="text-ink-soft" role="status">{status === 'error' ? `⚠ ${error}` : '… ranking the catalogue for this design'}</p> : (
         <>
           <Step n={2} title="Motor at the supply extremes" testId="step-motor"><MotorPanel motor={match.motor} worstCase={match.worstCase} /></Step>
+          <Step n={3} title="Supply and logic at start" testId="step-supply"><SupplyPanel supply={match.supply} /></Step>
           <CandidatesSection match={match} input={input} onSelect={select} readOnly={readOnly} Step={Step} />
-          <Step n={6} title="Power-on and reset state" testId="step-power-on"><PowerOnPanel powerOn={match.powerOn} resetStartIntent={input.resetStartIntent} /></Step>
-          <Step n={7} title="Chosen parts and alternates" testId="step-selection"><SelectionPanel input={input} match={match} /></Step>
+          <Step n={7} title="Power-on and reset state" testId="step-power-on"><PowerOnPanel powerOn={match.powerOn} resetStartIntent={input.resetStartIntent} /></Step>
+          <Step n={8} title="Chosen parts and alternates" testId="step-selection"><SelectionPanel input={input} match={match} /></Step>
           <section className="card p-3 text-sm" aria-labelledby="ws-cautions">
             <h2 id="ws-cautions" className="font-semibold mb-1">⚠ Cautions for this design</h2>
             <ul className="list-disc pl-5 grid gap-0.5">{match.cautions.map((c) => <li key={c}>{c}</li>)}</ul>

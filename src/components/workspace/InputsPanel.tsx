@@ -1,7 +1,8 @@
 import type { DesignInput, DesignMotor, MotorOption } from '../../lib/domain/design.ts';
-import { LOGIC_PRESETS, SUPPLY_PRESETS } from '../../lib/domain/design.ts';
+import { LOGIC_PRESETS } from '../../lib/domain/design.ts';
 import NumInput from './NumInput.tsx';
 import { DriverSupplyInput, ResetStartIntentInput, StallProtectionInput } from './DriveInputs.tsx';
+import { SharedLogicFields, SupplyPresetField, SupplySourceFields, useSupplyCells } from './SupplyInputs.tsx';
 
 export type { MotorOption };
 interface Props {
@@ -32,6 +33,7 @@ export default function InputsPanel({ input, motors, errors, onChange, readOnly 
   const set = (patch: Partial<DesignInput>) => onChange({ ...input, ...patch });
   const e = (path: string) => errors[path];
   const m = input.motor;
+  const [cells, setCells] = useSupplyCells(input.supply.preset);
   return (
     <fieldset disabled={readOnly} className="grid gap-3 lg:grid-cols-2" data-testid="design-inputs">
       <Section title="Motor">
@@ -66,20 +68,13 @@ export default function InputsPanel({ input, motors, errors, onChange, readOnly 
       </Section>
 
       <Section title="Supply">
-        <label className="field col-span-2">Preset
-          <select value={input.supply.preset ?? ''} onChange={(ev) => {
-            const p = SUPPLY_PRESETS.find((s) => s.id === ev.target.value);
-            set({ supply: p ? { ...input.supply, minV: p.minV, nomV: p.nomV, maxV: p.maxV, preset: p.id } : { ...input.supply, preset: null } });
-          }}>
-            <option value="">custom</option>
-            {SUPPLY_PRESETS.map((p) => <option key={p.id} value={p.id}>{p.label} ({p.minV}–{p.maxV} V)</option>)}
-          </select>
-        </label>
+        <SupplyPresetField supply={input.supply} onChange={(supply) => set({ supply })} onCells={setCells} />
         <NumInput label="Minimum" unit="V" value={input.supply.minV} onValue={(v) => set({ supply: { ...input.supply, minV: v, preset: null } })} error={e('supply.minV')} testId="supply-min" />
         <NumInput label="Nominal" unit="V" value={input.supply.nomV} onValue={(v) => set({ supply: { ...input.supply, nomV: v, preset: null } })} error={e('supply.nomV')} />
         <NumInput label="Maximum" unit="V" value={input.supply.maxV} onValue={(v) => set({ supply: { ...input.supply, maxV: v, preset: null } })} error={e('supply.maxV')} testId="supply-max" />
         <NumInput label="Wiring" unit="Ω" value={input.wiringResistanceOhm} onValue={(v) => set({ wiringResistanceOhm: v })} error={e('wiringResistanceOhm')} />
         <NumInput label="Shunt" unit="Ω" value={input.shuntResistanceOhm} onValue={(v) => set({ shuntResistanceOhm: v })} error={e('shuntResistanceOhm')} />
+        <SupplySourceFields supply={input.supply} onChange={(supply) => set({ supply })} error={e} cells={cells} onCells={setCells} />
       </Section>
 
       <Section title="Logic output">
@@ -107,6 +102,7 @@ export default function InputsPanel({ input, motors, errors, onChange, readOnly 
             <NumInput label="Pull tolerance" unit="±%" scale={100} value={input.logic.resetPullTolerance} onValue={(v) => set({ logic: { ...input.logic, resetPullTolerance: v } })} error={e('logic.resetPullTolerance')} />
           </>
         )}
+        <SharedLogicFields logic={input.logic} onChange={(logic) => set({ logic })} error={e} />
       </Section>
 
       <Section title="Drive, environment, margins">

@@ -10,12 +10,14 @@ interface Props {
   error?: string;
   hint?: string;
   testId?: string;
+  /** When given, an empty field is allowed and reported by this call (e.g. "no limit" → null). */
+  onEmpty?: () => void;
 }
 
 const show = (v: number | null, scale: number): string => (v == null ? '' : String(Number((v * scale).toPrecision(6))));
 
 /** A numeric field that keeps what the person types and reports the number once it parses. */
-export default function NumInput({ label, value, onValue, unit, scale = 1, error, hint, testId }: Props) {
+export default function NumInput({ label, value, onValue, unit, scale = 1, error, hint, testId, onEmpty }: Props) {
   const id = useId();
   const [text, setText] = useState(show(value, scale));
   const [bad, setBad] = useState(false);
@@ -33,6 +35,11 @@ export default function NumInput({ label, value, onValue, unit, scale = 1, error
           aria-invalid={message ? true : undefined} aria-describedby={message ? `${id}-e` : undefined}
           onChange={(e) => {
             setText(e.target.value);
+            if (onEmpty && e.target.value.trim() === '') {
+              setBad(false);
+              onEmpty();
+              return;
+            }
             const n = Number(e.target.value.replace(',', '.'));
             const ok = e.target.value.trim() !== '' && Number.isFinite(n);
             setBad(!ok);

@@ -17,6 +17,7 @@ import { drawInputs, drawMotorModel, drawWorstCase } from './report-inputs.ts';
 import { stampHeaders } from './report-header.ts';
 import { MUTED, ReportLayout } from './report-layout.ts';
 import { drawDiodeRole, drawGateDriveRole, drawSwitchRole, type RoleContext } from './report-roles.ts';
+import { drawSupply } from './report-supply.ts';
 
 export interface DesignReportData {
   design: { id: number; name: string; revision: number; ownerName: string; status: DesignStatus; generatedAt: Date };
@@ -90,6 +91,7 @@ export async function buildDesignReportPdf(data: DesignReportData, options: Desi
   drawSignOff(layout, data);
   drawInputs(layout, data.input, data.match.motor);
   drawMotorModel(layout, data.match.motor);
+  drawSupply(layout, data.input, data.match.supply, ctx.verdictMarks);
   drawWorstCase(layout, data.match);
   drawSwitchRole(layout, ctx);
   drawGateDriveRole(layout, ctx);

@@ -88,7 +88,8 @@ export async function loadSourceSans(pdf: PDFDocument, options: LoadFontsOptions
 const SPELLED: Readonly<Record<string, string>> = {
   'Ω': 'Ohm', 'θ': 'th', 'µ': 'u', 'μ': 'u', 'τ': 'tau', 'η': 'eta', 'Δ': 'delta', 'α': 'alpha',
   '−': '-', '–': '-', '—': '-', '≤': '<=', '≥': '>=', '≈': '~', '·': '*', '×': 'x', '±': '+/-', '°': ' deg',
-  '→': '->', '√': 'sqrt', '✓': 'v', '✕': 'x', '½': '1/2', '²': '^2', '…': '...', '•': '-',
+  '→': '->', '√': 'sqrt', '✓': 'v', '✕': 'x', '½': '1/2', '²': '^2', '…': '...', '•': '-', '⚠': 'Caution:', '⇄': '<->',
+  '✗': 'x', '‘': "'", '’': "'", '“': '"', '”': '"',
 };
 
 /** True when the face draws every character of `chars` without a stand-in. */

@@ -3,6 +3,7 @@ import { db } from '../db.ts';
 import { listParts } from '../repos/parts.ts';
 import type { DesignInput, MotorOption } from '../../lib/domain/design.ts';
 import { DEFAULT_DESIGN_MARGINS, LOGIC_PRESETS, SUPPLY_PRESETS } from '../../lib/domain/design.ts';
+import { supplyFromPreset } from '../../lib/supply-input.ts';
 
 export async function motorOptions(): Promise<MotorOption[]> {
   const motors = await listParts(db(), { category: 'motor', reviewStatuses: ['approved', 'pending'] });
@@ -23,7 +24,8 @@ export function newDesignInput(firstMotorId: number | null): DesignInput {
     motor: firstMotorId != null
       ? { source: 'catalogue', partId: firstMotorId }
       : { source: 'manual', label: 'Motor entered by hand', params: { ratedVoltageV: 3.7, voltageMinV: null, voltageMaxV: null, noLoadSpeedRpm: 14000, noLoadCurrentA: 0.22, stallTorqueNm: 0.0047, stallCurrentA: 2.4, terminalResistanceOhm: null, inductanceH: null, rotorInertiaKgM2: null } },
-    supply: { minV: supply.minV, nomV: supply.nomV, maxV: supply.maxV, preset: supply.id, internalResistanceOhm: 0, continuousCurrentA: null, currentLimitA: null },
+    // The pack's own figures, R_int included (1S Li-ion: ~0.075 Ω, from memory): a new design judges its start from the first look.
+    supply: supplyFromPreset(supply),
     wiringResistanceOhm: 0.05,
     shuntResistanceOhm: 0,
     logic: { railV: logic.railV, highV: logic.highV, lowV: logic.lowV, pinSourceCurrentA: 0.004, pinSinkCurrentA: 0.004, resetPull: 'none', resetPullOhms: 0, resetPullTolerance: 0, sharedSupply: null },
