@@ -11,8 +11,14 @@ export default defineConfig({
     projects: [
       { extends: true, test: { name: 'unit', include: ['tests/unit/**/*.test.ts'] } },
       { extends: true, test: { name: 'server', include: ['tests/server/**/*.test.ts'] } },
-      { extends: true, test: { name: 'api', include: ['tests/db/**/*.test.ts', 'tests/api/**/*.test.ts'], setupFiles: ['tests/helpers/isolate-file.ts'] } },
-      { extends: true, test: { name: 'e2e', include: ['tests/e2e/**/*.test.ts'], testTimeout: 60_000, setupFiles: ['tests/helpers/isolate-file.ts'] } },
+      {
+        extends: true,
+        test: { name: 'api', include: ['tests/db/**/*.test.ts', 'tests/api/**/*.test.ts'], setupFiles: ['tests/helpers/isolate-file.ts'] },
+      },
+      {
+        extends: true,
+        test: { name: 'e2e', include: ['tests/e2e/**/*.test.ts'], testTimeout: 60_000, setupFiles: ['tests/helpers/isolate-file.ts'] },
+      },
     ],
   },
 });

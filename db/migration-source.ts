@@ -12,7 +12,9 @@ const DIR = path.join(path.dirname(fileURLToPath(import.meta.url)), 'migrations'
 
 export class TsMigrationSource implements Knex.MigrationSource<string> {
   async getMigrations(): Promise<string[]> {
-    return readdirSync(DIR).filter((f) => /^\d{14}_.+\.ts$/.test(f)).sort();
+    return readdirSync(DIR)
+      .filter((f) => /^\d{14}_.+\.ts$/.test(f))
+      .sort();
   }
 
   getMigrationName(migration: string): string {

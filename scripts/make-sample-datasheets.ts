@@ -259,13 +259,38 @@ function mosfetSheet(p: MosfetParams): Sheet {
     const max = ohms(r.maxOhm);
     const typ = r.typOhm === null ? '' : r.maxOhm < 1 ? fmt(r.typOhm * 1000) : fmt(r.typOhm);
     const idPart = r.idA === null ? '' : `, ID = ${signed(r.idA, isP)} A`;
-    electrical.push(['RDS(on)', 'Drain-source on-resistance', `VGS = ${signed(r.vgsV, isP)} V${idPart}, Tj = ${r.tjC} °C`, '', typ, max.value, max.unit]);
+    electrical.push([
+      'RDS(on)',
+      'Drain-source on-resistance',
+      `VGS = ${signed(r.vgsV, isP)} V${idPart}, Tj = ${r.tjC} °C`,
+      '',
+      typ,
+      max.value,
+      max.unit,
+    ]);
   }
-  electrical.push(['Qg', 'Total gate charge', `VGS = ${signed(p.qgTestVgsV, isP)} V, VDS = ${signed(p.vdsMaxV / 2, isP)} V`, '', fmt(p.qgTotalNc), '', 'nC']);
+  electrical.push([
+    'Qg',
+    'Total gate charge',
+    `VGS = ${signed(p.qgTestVgsV, isP)} V, VDS = ${signed(p.vdsMaxV / 2, isP)} V`,
+    '',
+    fmt(p.qgTotalNc),
+    '',
+    'nC',
+  ]);
   if (p.qgsNc !== null) electrical.push(['Qgs', 'Gate-source charge', 'as for Qg', '', fmt(p.qgsNc), '', 'nC']);
   if (p.qgdNc !== null) electrical.push(['Qgd', 'Gate-drain (Miller) charge', 'as for Qg', '', fmt(p.qgdNc), '', 'nC']);
   if (p.vPlateauV !== null) electrical.push(['Vplateau', 'Gate plateau voltage', 'as for Qg', '', signed(p.vPlateauV, isP), '', 'V']);
-  if (p.bodyDiodeVfV !== null) electrical.push(['VSD', 'Body-diode forward voltage', `IS = ${signed(Math.min(1, p.idContinuousA / 2), isP)} A, VGS = 0 V`, '', signed(p.bodyDiodeVfV, isP), '', 'V']);
+  if (p.bodyDiodeVfV !== null)
+    electrical.push([
+      'VSD',
+      'Body-diode forward voltage',
+      `IS = ${signed(Math.min(1, p.idContinuousA / 2), isP)} A, VGS = 0 V`,
+      '',
+      signed(p.bodyDiodeVfV, isP),
+      '',
+      'V',
+    ]);
 
   return {
     subtitle: `${ch} enhancement MOSFET, ${p.vdsMaxV} V, ${bestR.value} ${bestR.unit} max at VGS = ${best.vgsV} V`,
@@ -310,7 +335,9 @@ function diodeSheet(p: DiodeParams): Sheet {
       `Repetitive peak reverse voltage ${p.vrrmV} V`,
       `Average forward current ${fmt(p.ifAvA)} A; surge ${fmt(p.ifsmA)} A`,
       `Forward voltage ${fmt(p.vfV)} V max at ${fmt(p.vfAtIfA)} A`,
-      p.trrNs === null ? 'No stored charge: suited to PWM freewheeling at any practical frequency' : `Reverse recovery ${fmt(p.trrNs)} ns max`,
+      p.trrNs === null
+        ? 'No stored charge: suited to PWM freewheeling at any practical frequency'
+        : `Reverse recovery ${fmt(p.trrNs)} ns max`,
     ],
     absMax: [
       ['VRRM', 'Repetitive peak reverse voltage', fmt(p.vrrmV), 'V'],
@@ -322,7 +349,9 @@ function diodeSheet(p: DiodeParams): Sheet {
     electrical: [
       ['VF', 'Forward voltage', `IF = ${fmt(p.vfAtIfA)} A, Tj = 25 °C`, '', '', fmt(p.vfV), 'V'],
       trrRow,
-      ...(p.rthJaCPerW !== null ? [['RθJA', 'Thermal resistance, junction to ambient', 'minimal-pad test board', '', fmt(p.rthJaCPerW), '', 'K/W']] : []),
+      ...(p.rthJaCPerW !== null
+        ? [['RθJA', 'Thermal resistance, junction to ambient', 'minimal-pad test board', '', fmt(p.rthJaCPerW), '', 'K/W']]
+        : []),
     ],
     notes: [
       'As a motor freewheel diode: cathode to the positive supply, anode to the switched motor terminal.',
@@ -342,7 +371,10 @@ function driverSheet(p: DriverParams): Sheet {
         : { vih: `${fmt(p.inputHighMin)} × VL`, vil: `${fmt(p.inputLowMax)} × VL`, cond: 'referred to the logic-side rail VL', unit: '' };
   const outOpen = { undefined: 'undefined (no input pull)', high: 'HIGH', low: 'LOW' }[openInputOutput(p.inputPull, p.inverting)];
   const pullName = p.inputPull === 'up' ? 'pull-up to the input supply' : 'pull-down to GND';
-  const pullText = p.inputPull === 'none' ? 'none (the input floats when open)' : `internal ${pullName}${p.inputPullOhms !== null ? `, ${fmt(p.inputPullOhms / 1000)} kΩ typ.` : ''}`;
+  const pullText =
+    p.inputPull === 'none'
+      ? 'none (the input floats when open)'
+      : `internal ${pullName}${p.inputPullOhms !== null ? `, ${fmt(p.inputPullOhms / 1000)} kΩ typ.` : ''}`;
   const kind = p.kind === 'gate-driver' ? 'low-side gate driver' : 'level shifter';
   return {
     subtitle: `${p.channels === 1 ? 'Single' : p.channels === 2 ? 'Dual' : `${p.channels}-channel`} ${p.inverting ? 'inverting' : 'non-inverting'} ${kind}, ${fmt(p.supplyMinV)} V to ${fmt(p.supplyMaxV)} V`,
@@ -367,7 +399,17 @@ function driverSheet(p: DriverParams): Sheet {
       ['VOL', 'Output low voltage', `IO = ${amps(p.sinkCurrentA)} sink`, '', '', fmt(p.outputLowMaxV), 'V'],
       ['tpd', 'Propagation delay', 'CL = 1 nF, 50 % to 50 %', '', fmt(p.propagationDelayNs), '', 'ns'],
       ...(p.inputPull !== 'none' && p.inputPullOhms !== null
-        ? [[p.inputPull === 'up' ? 'RPU' : 'RPD', `Input ${pullName.replace(' to the input supply', '').replace(' to GND', '')} resistance`, p.inputPull === 'up' ? 'input to its supply' : 'input to GND', '', fmt(p.inputPullOhms / 1000), '', 'kΩ']]
+        ? [
+            [
+              p.inputPull === 'up' ? 'RPU' : 'RPD',
+              `Input ${pullName.replace(' to the input supply', '').replace(' to GND', '')} resistance`,
+              p.inputPull === 'up' ? 'input to its supply' : 'input to GND',
+              '',
+              fmt(p.inputPullOhms / 1000),
+              '',
+              'kΩ',
+            ],
+          ]
         : []),
     ],
     drawing: (w, y) => {
@@ -529,7 +571,13 @@ function rdsOnChart(w: Writer, p: MosfetParams, top: number): number {
   const ly = plotY + plotH - 16;
   w.page.drawLine({ start: { x: lx, y: ly + 3 }, end: { x: lx + 18, y: ly + 3 }, thickness: 1.4, color: ACCENT });
   w.text('maximum (guaranteed)', lx + 22, ly, { size: 7.5 });
-  w.page.drawLine({ start: { x: lx, y: ly - 9 }, end: { x: lx + 18, y: ly - 9 }, thickness: 1.4, color: rgb(0.45, 0.6, 0.75), dashArray: [3, 2] });
+  w.page.drawLine({
+    start: { x: lx, y: ly - 9 },
+    end: { x: lx + 18, y: ly - 9 },
+    thickness: 1.4,
+    color: rgb(0.45, 0.6, 0.75),
+    dashArray: [3, 2],
+  });
   w.text('typical', lx + 22, ly - 12, { size: 7.5 });
 
   y = plotY - 36;

@@ -44,7 +44,9 @@ async function guarded(context: APIContext, next: () => Promise<Response>): Prom
 function refuse(context: APIContext, decision: Exclude<Decision, 'allow'>): Response | Promise<Response> {
   const api = isApiRoute(context.routePattern);
   if (decision === 'method-not-allowed') {
-    return jsonError(405, `This address does not take ${context.request.method}.`, [], { Allow: allowedMethods(context.routePattern).join(', ') });
+    return jsonError(405, `This address does not take ${context.request.method}.`, [], {
+      Allow: allowedMethods(context.routePattern).join(', '),
+    });
   }
   if (decision === 'sign-in') {
     if (api) return jsonError(401, 'Sign in first.');
@@ -64,6 +66,7 @@ async function forbiddenPage(context: APIContext): Promise<Response> {
 function unavailable(context: APIContext): Response {
   if (isApiRoute(context.routePattern)) return jsonError(503, 'The database is not answering; try again in a moment.');
   return new Response('Stallpoint cannot reach its database right now. Try again in a moment.', {
-    status: 503, headers: { 'Content-Type': 'text/plain; charset=utf-8', 'Cache-Control': 'no-store' },
+    status: 503,
+    headers: { 'Content-Type': 'text/plain; charset=utf-8', 'Cache-Control': 'no-store' },
   });
 }

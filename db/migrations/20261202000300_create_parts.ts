@@ -12,7 +12,10 @@ export async function up(knex: Knex): Promise<void> {
     t.enu('lifecycle', ['active', 'nrnd', 'last-buy', 'obsolete']).notNullable().defaultTo('active').comment('Production status');
     t.date('lifecycle_effective_date').nullable().comment('Date the current lifecycle status took effect');
     t.string('lifecycle_note', 500).nullable().comment('Why the lifecycle changed (notice number, replacement)');
-    t.enu('review_status', ['draft', 'pending', 'approved', 'rejected']).notNullable().defaultTo('approved').comment('Librarian review state');
+    t.enu('review_status', ['draft', 'pending', 'approved', 'rejected'])
+      .notNullable()
+      .defaultTo('approved')
+      .comment('Librarian review state');
     t.string('review_note', 500).nullable().comment('Reason given with the last review decision');
     t.integer('created_by').unsigned().nullable().references('users.id').onDelete('SET NULL').comment('Who created or proposed the part');
     t.timestamp('created_at', { precision: 3 }).notNullable().defaultTo(knex.fn.now(3)).comment('Creation time (UTC)');

@@ -9,7 +9,11 @@ export async function up(knex: Knex): Promise<void> {
     t.boolean('inverting').notNullable().comment('True when output is the inverse of input');
     t.double('supply_min_v').notNullable().comment('Minimum output-side supply, V');
     t.double('supply_max_v').notNullable().comment('Maximum output-side supply, V');
-    t.enu('input_logic', ['fixed', 'ratio', 'input-rail']).notNullable().comment('fixed: thresholds in V (TTL-compatible); ratio: fraction of own supply (CMOS); input-rail: fraction of a separate input rail');
+    t.enu('input_logic', ['fixed', 'ratio', 'input-rail'])
+      .notNullable()
+      .comment(
+        'fixed: thresholds in V (TTL-compatible); ratio: fraction of own supply (CMOS); input-rail: fraction of a separate input rail',
+      );
     t.double('input_high_min').notNullable().comment('VIH min: volts for fixed, fraction of the reference rail otherwise');
     t.double('input_low_max').notNullable().comment('VIL max: volts for fixed, fraction of the reference rail otherwise');
     t.double('output_high_drop_v').notNullable().comment('Supply minus VOH at rated source current, V');

@@ -8,7 +8,9 @@ export async function up(knex: Knex): Promise<void> {
     t.specificType('secret_hash', 'binary(32)').notNullable().comment('SHA-256 of the secret half of the token');
     t.integer('user_id').unsigned().notNullable().references('users.id').onDelete('CASCADE').comment('The signed-in person');
     t.datetime('created_at', { precision: 3 }).notNullable().comment('Sign-in time (UTC); absolute expiry counts from here');
-    t.datetime('last_active_at', { precision: 3 }).notNullable().comment('Last refresh (UTC, at most hourly); idle expiry counts from here');
+    t.datetime('last_active_at', { precision: 3 })
+      .notNullable()
+      .comment('Last refresh (UTC, at most hourly); idle expiry counts from here');
     t.index(['user_id'], 'sessions_user_idx');
   });
 }

@@ -6,8 +6,12 @@ import type { Knex } from 'knex';
  */
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.alterTable('driver_params', (t) => {
-    t.enu('input_pull', ['up', 'down', 'none']).nullable().comment('Internal input pull as the datasheet states it: up (to the input-side supply), down (to ground) or none');
-    t.double('input_pull_ohms').nullable().comment('Typical value of the internal input pull, ohm; null when the datasheet does not state it');
+    t.enu('input_pull', ['up', 'down', 'none'])
+      .nullable()
+      .comment('Internal input pull as the datasheet states it: up (to the input-side supply), down (to ground) or none');
+    t.double('input_pull_ohms')
+      .nullable()
+      .comment('Typical value of the internal input pull, ohm; null when the datasheet does not state it');
   });
 }
 

@@ -6,7 +6,10 @@ import type { Knex } from 'knex';
  */
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.alterTable('driver_params', (t) => {
-    t.enu('input_default', ['low', 'high', 'floating']).nullable().comment('Superseded by input_pull: output state with the input left open').alter();
+    t.enu('input_default', ['low', 'high', 'floating'])
+      .nullable()
+      .comment('Superseded by input_pull: output state with the input left open')
+      .alter();
   });
 }
 

@@ -14,7 +14,9 @@ export async function up(knex: Knex): Promise<void> {
  */
 export async function down(knex: Knex): Promise<void> {
   await knex.schema.alterTable('driver_params', (t) => {
-    t.enu('input_default', ['low', 'high', 'floating']).nullable().comment('Superseded by input_pull: output state with the input left open');
+    t.enu('input_default', ['low', 'high', 'floating'])
+      .nullable()
+      .comment('Superseded by input_pull: output state with the input left open');
   });
   await knex('driver_params').update({
     input_default: knex.raw(

@@ -4,7 +4,9 @@ import type { Knex } from 'knex';
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.alterTable('diode_params', (t) => {
     t.double('ifrm_a').nullable().comment('IFRM repetitive peak forward current, A; null when the datasheet gives none');
-    t.double('rth_ja_c_per_w').nullable().comment('Junction-to-ambient thermal resistance on the datasheet test board, K/W; null when not stated');
+    t.double('rth_ja_c_per_w')
+      .nullable()
+      .comment('Junction-to-ambient thermal resistance on the datasheet test board, K/W; null when not stated');
     t.double('tj_max_c').nullable().comment('Maximum junction temperature, C; null when not stated');
   });
 }

@@ -6,8 +6,12 @@ import type { Knex } from 'knex';
  */
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.alterTable('designs', (t) => {
-    t.string('status_reason', 2000).nullable().comment('Why the status last changed when the system changed it (e.g. back to draft after a part change); NULL when set by hand');
-    t.timestamp('status_changed_at', { precision: 3 }).nullable().comment('When the status last changed (UTC); NULL when never changed since creation');
+    t.string('status_reason', 2000)
+      .nullable()
+      .comment('Why the status last changed when the system changed it (e.g. back to draft after a part change); NULL when set by hand');
+    t.timestamp('status_changed_at', { precision: 3 })
+      .nullable()
+      .comment('When the status last changed (UTC); NULL when never changed since creation');
   });
 }
 

@@ -6,10 +6,10 @@
 import type { Knex } from 'knex';
 
 async function tablesOf(knex: Knex, schema: string): Promise<string[]> {
-  const [rows] = (await knex.raw('SELECT TABLE_NAME AS t FROM information_schema.TABLES WHERE TABLE_SCHEMA = ? AND TABLE_TYPE = ? ORDER BY TABLE_NAME', [
-    schema,
-    'BASE TABLE',
-  ])) as [{ t: string }[]];
+  const [rows] = (await knex.raw(
+    'SELECT TABLE_NAME AS t FROM information_schema.TABLES WHERE TABLE_SCHEMA = ? AND TABLE_TYPE = ? ORDER BY TABLE_NAME',
+    [schema, 'BASE TABLE'],
+  )) as [{ t: string }[]];
   return rows.map((r) => r.t);
 }
 

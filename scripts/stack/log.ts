@@ -19,6 +19,6 @@ export function fail(message: string): never {
 export function describeError(err: unknown): string {
   if (err instanceof StackError) return err.message;
   const e = err as NodeJS.ErrnoException;
-  if (e && typeof e === 'object' && 'message' in e) return e.name === 'ConfigError' ? e.message : e.stack ?? e.message;
+  if (e && typeof e === 'object' && 'message' in e) return e.name === 'ConfigError' ? e.message : (e.stack ?? e.message);
   return String(err);
 }

@@ -33,7 +33,10 @@ async function store(knex: Knex, raw: Buffer, from: string, to: string[]): Promi
   await insertCapturedMail(knex, {
     received_at: new Date(),
     envelope_from: from.slice(0, 320),
-    envelope_to: to.map((a) => a.toLowerCase()).join(',').slice(0, 2000),
+    envelope_to: to
+      .map((a) => a.toLowerCase())
+      .join(',')
+      .slice(0, 2000),
     subject: (parsed.subject ?? '').slice(0, 500),
     text_body: parsed.text ?? null,
     html_body: typeof parsed.html === 'string' ? parsed.html : null,
@@ -56,7 +59,10 @@ function createSink(knex: Knex): SMTPServer {
       // Answer 250 only once the message is stored, so a sender that got "sent" can find it at once.
       readAll(stream)
         .then((raw) => store(knex, raw, from, to))
-        .then(() => callback(), (err: Error) => callback(err));
+        .then(
+          () => callback(),
+          (err: Error) => callback(err),
+        );
     },
   });
 }

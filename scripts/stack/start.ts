@@ -21,7 +21,11 @@ const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '.
 process.chdir(root);
 
 const teardown = new Teardown();
-stopOnSignals(teardown, (signal) => log(`${signal}: finishing requests and shutting down…`), () => 0);
+stopOnSignals(
+  teardown,
+  (signal) => log(`${signal}: finishing requests and shutting down…`),
+  () => 0,
+);
 
 async function main(): Promise<void> {
   const fileEnv = ensureEnvFile(path.join(root, '.env'));

@@ -42,7 +42,11 @@ export class Teardown {
  * Installs SIGINT/SIGTERM handlers at once (before anything starts): the first signal runs the
  * teardown and exits with `exitCodeFor(signal)`; a second one exits at once.
  */
-export function stopOnSignals(teardown: Teardown, before: (signal: NodeJS.Signals) => void, exitCodeFor: (signal: NodeJS.Signals) => number): void {
+export function stopOnSignals(
+  teardown: Teardown,
+  before: (signal: NodeJS.Signals) => void,
+  exitCodeFor: (signal: NodeJS.Signals) => number,
+): void {
   let stopping = false;
   const handler = (signal: NodeJS.Signals): void => {
     if (stopping) {

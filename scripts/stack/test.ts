@@ -1,6 +1,6 @@
 /**
  * npm test: the npm start bootstrap on a throwaway data folder and free ports, then vitest
- * (unit, API against the real MariaDB, browser tests in Debian's Chromium). Everything started here
+ * (unit, API against the real MariaDB, browser tests in Debian's Chromium), after prettier, eslint and tsc. Everything started here
  * is stopped again, also when a test fails or a signal arrives during start-up; the exit code is vitest's.
  */
 import path from 'node:path';
@@ -14,7 +14,11 @@ const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '.
 process.chdir(root);
 
 const teardown = new Teardown();
-stopOnSignals(teardown, (signal) => log(`${signal}: stopping the throwaway stack…`), (signal) => (signal === 'SIGINT' ? 130 : 143));
+stopOnSignals(
+  teardown,
+  (signal) => log(`${signal}: stopping the throwaway stack…`),
+  (signal) => (signal === 'SIGINT' ? 130 : 143),
+);
 
 function runVitest(env: NodeJS.ProcessEnv, args: string[]): Promise<number> {
   return new Promise((resolve) => {
@@ -32,6 +36,7 @@ function gate(title: string, cmd: string, args: string[]): void {
 
 let exitCode = 1;
 try {
+  gate('checking format and lint (npm run lint)', 'npm', ['run', '--silent', 'lint']);
   gate('type-checking (tsc --noEmit)', 'npx', ['tsc', '--noEmit', '-p', 'tsconfig.json']);
   ensureChromium();
   const stack = await startThrowawayStack(root, teardown);

@@ -7,7 +7,13 @@ import os from 'node:os';
 import net from 'node:net';
 import { existsSync, mkdtempSync, rmSync, mkdirSync } from 'node:fs';
 import {
-  aptInstall, describeInstance, ensureDatabaseAndUser, ensureMariaDbInstalled, initDataDir, startMariaDb, type MariaDbInstance,
+  aptInstall,
+  describeInstance,
+  ensureDatabaseAndUser,
+  ensureMariaDbInstalled,
+  initDataDir,
+  startMariaDb,
+  type MariaDbInstance,
 } from './mariadb.ts';
 import { generatedSecret } from './env-file.ts';
 import { migrateAndSeed } from './db-setup.ts';

@@ -39,15 +39,36 @@ export default function SignInForm({ next, notice = null }: Props): ReactNode {
   return (
     <form onSubmit={submit} noValidate method="post" className="flex flex-col gap-3" aria-label="Sign in" data-testid="signin-form">
       {notice && !error && <StatusLine tone="ok">{notice}</StatusLine>}
-      <Field readOnly={!hydrated} id="email" label="E-mail address" type="email" value={email} onChange={setEmail} autoComplete="username" autoFocus
-        error={issueFor(issues, 'email')} />
-      <Field readOnly={!hydrated} id="password" label="Password" type="password" value={password} onChange={setPassword} autoComplete="current-password"
-        error={issueFor(issues, 'password')} />
+      <Field
+        readOnly={!hydrated}
+        id="email"
+        label="E-mail address"
+        type="email"
+        value={email}
+        onChange={setEmail}
+        autoComplete="username"
+        autoFocus
+        error={issueFor(issues, 'email')}
+      />
+      <Field
+        readOnly={!hydrated}
+        id="password"
+        label="Password"
+        type="password"
+        value={password}
+        onChange={setPassword}
+        autoComplete="current-password"
+        error={issueFor(issues, 'password')}
+      />
       {error && <StatusLine tone="bad">{error}</StatusLine>}
       {busy && <StatusLine tone="busy">Signing in…</StatusLine>}
       <div className="flex items-center gap-4">
-        <button type="submit" className="btn" disabled={busy || !hydrated}>Sign in</button>
-        <a href="/reset" className="text-sm">Forgot your password?</a>
+        <button type="submit" className="btn" disabled={busy || !hydrated}>
+          Sign in
+        </button>
+        <a href="/reset" className="text-sm">
+          Forgot your password?
+        </a>
       </div>
     </form>
   );

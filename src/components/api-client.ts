@@ -21,7 +21,13 @@ export async function sendJson<T>(method: string, url: string, body?: unknown, s
     });
   } catch (err) {
     if ((err as Error).name === 'AbortError') throw err;
-    return { ok: false, status: 0, error: 'Could not reach Stallpoint. Check your connection and try again.', issues: [], retryAfterSeconds: null };
+    return {
+      ok: false,
+      status: 0,
+      error: 'Could not reach Stallpoint. Check your connection and try again.',
+      issues: [],
+      retryAfterSeconds: null,
+    };
   }
   if (res.status === 204) return { ok: true, status: 204, data: undefined as T };
   const payload = await res.json().catch(() => null);

@@ -58,7 +58,17 @@ export function buildBom({ input, motor, partsById, pull, statusOf, motorStatus,
   const boards = input.boardQuantity;
   const lines: Omit<BomLine, 'line'>[] = [];
   if (motor) {
-    lines.push({ role: 'Motor', quantity: boards, manufacturer: motor.manufacturer, partNumber: motor.mpn, description: motor.description, alternates: '', referenceDesignators: 'M1', pairing: '', status: motorStatus ?? NOT_CHECKED });
+    lines.push({
+      role: 'Motor',
+      quantity: boards,
+      manufacturer: motor.manufacturer,
+      partNumber: motor.mpn,
+      description: motor.description,
+      alternates: '',
+      referenceDesignators: 'M1',
+      pairing: '',
+      status: motorStatus ?? NOT_CHECKED,
+    });
   }
   for (const { role, label, refdes } of ROLE_LINES) {
     const sel = input.selections[role];
@@ -68,12 +78,28 @@ export function buildBom({ input, motor, partsById, pull, statusOf, motorStatus,
     const alternates = alternateParts.map((p) => `${p.mpn} (${p.manufacturer})`).join('; ');
     const say = (p: Part): string => (statusOf ? statusOf(role, p.id as number) : NOT_CHECKED);
     const status = [say(chosen), ...alternateParts.map((p) => `alternate ${p.mpn}: ${say(p)}`)].join('; ');
-    lines.push({ role: label, quantity: boards, manufacturer: chosen.manufacturer, partNumber: chosen.mpn, description: chosen.description, alternates, referenceDesignators: refdes, pairing: pairing?.[role] ?? '', status });
+    lines.push({
+      role: label,
+      quantity: boards,
+      manufacturer: chosen.manufacturer,
+      partNumber: chosen.mpn,
+      description: chosen.description,
+      alternates,
+      referenceDesignators: refdes,
+      pairing: pairing?.[role] ?? '',
+      status,
+    });
   }
   if (pull && pull.ok && pull.chosenOhms != null) {
     lines.push({
-      role: `Pull-${pull.to} resistor (power-on state)`, quantity: boards, manufacturer: 'any', partNumber: `${formatOhms(pull.chosenOhms)} ±1 %, 0.1 W`,
-      description: `Holds the control line ${pull.to === 'down' ? 'low' : 'high'} through reset (to ${pull.railV} V)`, alternates: '', referenceDesignators: 'R1', pairing: '',
+      role: `Pull-${pull.to} resistor (power-on state)`,
+      quantity: boards,
+      manufacturer: 'any',
+      partNumber: `${formatOhms(pull.chosenOhms)} ±1 %, 0.1 W`,
+      description: `Holds the control line ${pull.to === 'down' ? 'low' : 'high'} through reset (to ${pull.railV} V)`,
+      alternates: '',
+      referenceDesignators: 'R1',
+      pairing: '',
       status: 'sized by the power-on walk',
     });
   }

@@ -51,7 +51,13 @@ export function calcMotor(body: CalcMotorRequest): CalcMotorResponse {
       maxPower: { torqueNm: pMax.torqueNm, speedRpm: pMax.speedRpm, currentA: pMax.currentA, powerW: pMax.powerW },
       maxEfficiency: { torqueNm: eMax.torqueNm, speedRpm: eMax.speedRpm, currentA: eMax.currentA, efficiency: eMax.efficiency },
     },
-    curve: motorCurve(at, body.curvePoints ?? 21).map(({ torqueNm, speedRpm, currentA, powerW, efficiency }) => ({ torqueNm, speedRpm, currentA, powerW, efficiency })),
+    curve: motorCurve(at, body.curvePoints ?? 21).map(({ torqueNm, speedRpm, currentA, powerW, efficiency }) => ({
+      torqueNm,
+      speedRpm,
+      currentA,
+      powerW,
+      efficiency,
+    })),
   };
 }
 

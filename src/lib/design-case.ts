@@ -7,7 +7,14 @@ import type { SharedLogicSupply, StallProtection } from './domain/design.ts';
 import type { MotorParams } from './domain/parts.ts';
 import type { SupplyRange } from './driver-checks.ts';
 import type { ESeriesName } from './eseries.ts';
-import { checkConsistency, motorModelFromDatasheet, stallCurrentAtWindingA, windingResistanceOhm, type MotorConsistency, type MotorModel } from './motor.ts';
+import {
+  checkConsistency,
+  motorModelFromDatasheet,
+  stallCurrentAtWindingA,
+  windingResistanceOhm,
+  type MotorConsistency,
+  type MotorModel,
+} from './motor.ts';
 import { rippleOperatingPoint } from './ripple.ts';
 import type { ResetDefault } from './power-on.ts';
 import { pwmOperatingPoint, type MotorLoad } from './pwm.ts';
@@ -136,20 +143,54 @@ interface PointCurrents {
   ripple: RippleSummary | null;
 }
 
-function pointCurrents(model: MotorModel, c: DesignCase, supplyV: number, duty: number, diodeForwardV: number, load: MotorLoad): PointCurrents {
+function pointCurrents(
+  model: MotorModel,
+  c: DesignCase,
+  supplyV: number,
+  duty: number,
+  diodeForwardV: number,
+  load: MotorLoad,
+): PointCurrents {
   const inductanceH = c.motor.inductanceH;
   if (c.drive.mode === 'pwm' && inductanceH != null && inductanceH > 0 && duty < 1) {
     const p = rippleOperatingPoint({
-      model, supplyV, duty, diodeForwardV, load, seriesResistanceOhm: c.seriesResistanceOhm, inductanceH, frequencyHz: c.drive.frequencyHz,
+      model,
+      supplyV,
+      duty,
+      diodeForwardV,
+      load,
+      seriesResistanceOhm: c.seriesResistanceOhm,
+      inductanceH,
+      frequencyHz: c.drive.frequencyHz,
     });
     const r = p.ripple;
     return {
-      meanA: r.meanA, switchRmsA: r.switchRmsA, turnOnA: r.turnOnA, turnOffA: r.turnOffA, diodeMeanA: r.diodeMeanA,
-      ripple: { rippleA: r.rippleA, peakA: r.peakA, continuous: r.continuous, zeroFraction: r.zeroFraction, periodsPerTau: r.periodsPerTau, backEmfV: p.backEmfV, duty, supplyV },
+      meanA: r.meanA,
+      switchRmsA: r.switchRmsA,
+      turnOnA: r.turnOnA,
+      turnOffA: r.turnOffA,
+      diodeMeanA: r.diodeMeanA,
+      ripple: {
+        rippleA: r.rippleA,
+        peakA: r.peakA,
+        continuous: r.continuous,
+        zeroFraction: r.zeroFraction,
+        periodsPerTau: r.periodsPerTau,
+        backEmfV: p.backEmfV,
+        duty,
+        supplyV,
+      },
     };
   }
   const currentA = pwmOperatingPoint(model, supplyV, duty, diodeForwardV, load, c.seriesResistanceOhm).currentA;
-  return { meanA: currentA, switchRmsA: currentA * Math.sqrt(duty), turnOnA: currentA, turnOffA: currentA, diodeMeanA: c.drive.mode === 'pwm' ? (1 - duty) * currentA : 0, ripple: null };
+  return {
+    meanA: currentA,
+    switchRmsA: currentA * Math.sqrt(duty),
+    turnOnA: currentA,
+    turnOffA: currentA,
+    diodeMeanA: c.drive.mode === 'pwm' ? (1 - duty) * currentA : 0,
+    ripple: null,
+  };
 }
 
 /** The model with its winding at the coldest ambient (a cold winding draws the most stall current) [IEC 60028]. */
@@ -180,7 +221,10 @@ function stallCaseOf(c: DesignCase, model: MotorModel, diodeForwardV: number, fu
   for (const duty of dutyGrid(c.drive)) {
     if (duty >= 1) continue;
     const p = pointCurrents(cold, c, c.supplyMaxV, duty, diodeForwardV, stalled);
-    diodeMeanA = Math.max(diodeMeanA, protection.kind === 'current-limit' ? (1 - duty) * Math.min(p.meanA, protection.limitA) : p.diodeMeanA);
+    diodeMeanA = Math.max(
+      diodeMeanA,
+      protection.kind === 'current-limit' ? (1 - duty) * Math.min(p.meanA, protection.limitA) : p.diodeMeanA,
+    );
   }
   return { protection, duty: dutyMax, currentA, currentRmsA, peakA, diodeMeanA };
 }

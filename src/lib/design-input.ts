@@ -9,7 +9,9 @@ export const DRIVER_RAIL_TOLERANCE = 0.05;
 /** The rail feeding a gate driver: the separate rail's ±5 % band, or the motor supply's range (null = the motor supply). */
 export function driverSupplyRangeOf(input: Pick<DesignInput, 'driverSupplyV' | 'supply'>): { minV: number; maxV: number } {
   const v = input.driverSupplyV;
-  return v == null ? { minV: input.supply.minV, maxV: input.supply.maxV } : { minV: v * (1 - DRIVER_RAIL_TOLERANCE), maxV: v * (1 + DRIVER_RAIL_TOLERANCE) };
+  return v == null
+    ? { minV: input.supply.minV, maxV: input.supply.maxV }
+    : { minV: v * (1 - DRIVER_RAIL_TOLERANCE), maxV: v * (1 + DRIVER_RAIL_TOLERANCE) };
 }
 
 export function designCaseOf(input: DesignInput, motor: MotorParams): DesignCase {

@@ -83,7 +83,12 @@ function tiebreak(a: MatchEntry, b: MatchEntry): number {
   return (pa === pb ? 0 : pa < pb ? -1 : 1) || LIFECYCLE_RANK[a.lifecycle] - LIFECYCLE_RANK[b.lifecycle];
 }
 
-function decorate<T extends CandidateResult>(results: T[], parts: Map<number | undefined, Part>, qty: number, chosenId: number | null): MatchEntry<T>[] {
+function decorate<T extends CandidateResult>(
+  results: T[],
+  parts: Map<number | undefined, Part>,
+  qty: number,
+  chosenId: number | null,
+): MatchEntry<T>[] {
   const chosenPackage = chosenId == null ? null : (parts.get(chosenId)?.package ?? null);
   const entries = results.map((r) => {
     const part = r.partId == null ? undefined : parts.get(r.partId);
@@ -110,8 +115,11 @@ function operatingPoint(params: MotorParams, input: DesignInput, supplyV: number
 export function motorView(label: string, params: MotorParams, input: DesignInput): MotorView {
   const series = input.wiringResistanceOhm + input.shuntResistanceOhm;
   const motor = {
-    ratedVoltageV: params.ratedVoltageV, noLoadSpeedRpm: params.noLoadSpeedRpm, noLoadCurrentA: params.noLoadCurrentA,
-    stallCurrentA: params.stallCurrentA, stallTorqueNm: params.stallTorqueNm,
+    ratedVoltageV: params.ratedVoltageV,
+    noLoadSpeedRpm: params.noLoadSpeedRpm,
+    noLoadCurrentA: params.noLoadCurrentA,
+    stallCurrentA: params.stallCurrentA,
+    stallTorqueNm: params.stallTorqueNm,
     ...(params.terminalResistanceOhm != null ? { terminalResistanceOhm: params.terminalResistanceOhm } : {}),
   };
   return {
@@ -129,7 +137,9 @@ export function matchDesign(input: DesignInput, motorLabel: string, motor: Motor
   const designCase = designCaseOf(input, motor);
   const sel = input.selections;
   const ranking = rankDesign(designCase, catalogue, {
-    switchId: sel.switch.chosenPartId, driverId: sel.driver.chosenPartId, diodeId: sel.diode.chosenPartId,
+    switchId: sel.switch.chosenPartId,
+    driverId: sel.driver.chosenPartId,
+    diodeId: sel.diode.chosenPartId,
     resetStartIntended: input.resetStartIntent != null,
   });
   const qty = input.boardQuantity;
@@ -162,7 +172,8 @@ export function effectiveSwitchList(match: DesignMatch): DesignMatch['switch'] {
 /** Default picks: the best passing part per role and up to three further passing parts as alternates. */
 export function suggestSelections(match: DesignMatch): DesignInput['selections'] {
   // Passing parts first; a part marginal only on margins (no hard limit broken) is still a valid pick.
-  const usable = (c: CandidateResult) => c.verdict === 'pass' || (c.verdict === 'marginal' && c.checks.every((x) => x.ok || x.severity === 'margin'));
+  const usable = (c: CandidateResult) =>
+    c.verdict === 'pass' || (c.verdict === 'marginal' && c.checks.every((x) => x.ok || x.severity === 'margin'));
   const pick = (list: CandidateResult[]) => {
     const passing = list.filter((c) => usable(c) && c.partId != null).map((c) => c.partId as number);
     return { chosenPartId: passing[0] ?? null, alternatePartIds: passing.slice(1, 4) };

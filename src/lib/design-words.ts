@@ -61,7 +61,8 @@ export function bomPairingNotes(
 /** The stall protection in words, with what it means for the jam the parts are judged at. */
 export function stallProtectionText(p: StallProtection): string {
   if (p.kind === 'current-limit') return `current limit at ${fmt(p.limitA)} A: a jam settles at that current (steady state)`;
-  if (p.kind === 'cut-off') return `cut-off after ${fmt(p.afterS)} s: a jam heats the parts for that long (single-pulse Zth where the part has it, else steady state)`;
+  if (p.kind === 'cut-off')
+    return `cut-off after ${fmt(p.afterS)} s: a jam heats the parts for that long (single-pulse Zth where the part has it, else steady state)`;
   return 'none: a jam holds the switch on at full stall current until someone notices (steady state, the worst case)';
 }
 
@@ -142,7 +143,10 @@ export function rippleRows(wc: WorstCase, inductanceKnown: boolean): { rows: Fig
     { label: 'Peak current', value: `${fmt(r.peakA)} A` },
     ...base.slice(1),
     { label: 'PWM periods per τe (f·L/R)', value: fmt(r.periodsPerTau) },
-    { label: 'Conduction', value: r.continuous ? 'continuous' : `discontinuous conduction: zero for ${pct(r.zeroFraction)} of each period` },
+    {
+      label: 'Conduction',
+      value: r.continuous ? 'continuous' : `discontinuous conduction: zero for ${pct(r.zeroFraction)} of each period`,
+    },
   ];
   return { rows, note: null };
 }
@@ -151,7 +155,15 @@ export function rippleRows(wc: WorstCase, inductanceKnown: boolean): { rows: Fig
 export function stallRows(wc: WorstCase): FigureRow[] {
   const s = wc.stall;
   const rows: FigureRow[] = [
-    { label: 'Stall protection', value: s.protection.kind === 'none' ? 'none (worst case)' : s.protection.kind === 'current-limit' ? `current limit ${fmt(s.protection.limitA)} A` : `cut-off after ${fmt(s.protection.afterS)} s` },
+    {
+      label: 'Stall protection',
+      value:
+        s.protection.kind === 'none'
+          ? 'none (worst case)'
+          : s.protection.kind === 'current-limit'
+            ? `current limit ${fmt(s.protection.limitA)} A`
+            : `cut-off after ${fmt(s.protection.afterS)} s`,
+    },
     { label: `Jammed: motor current${wc.pwmHz != null ? ` (duty ${pct(s.duty)})` : ''}`, value: `${fmt(s.currentA)} A` },
     { label: 'Jammed: switch RMS current', value: `${fmt(s.currentRmsA)} A` },
   ];

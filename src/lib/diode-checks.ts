@@ -56,7 +56,10 @@ function checkReverseVoltage(d: DiodeParams, supplyMaxV: number, derating: numbe
   const note = ok
     ? `Supply up to ${fmt(supplyMaxV)} V is within VRRM ${fmt(d.vrrmV)} V derated to ${fmt(deratedV)} V.`
     : `Supply up to ${fmt(supplyMaxV)} V exceeds VRRM ${hardOk ? `${fmt(d.vrrmV)} V derated to ${fmt(deratedV)} V` : `${fmt(d.vrrmV)} V itself`}: choose a diode rated at least ${fmt(supplyMaxV / derating)} V.`;
-  return makeCheck({ id: 'reverse-voltage', ok, value: supplyMaxV, limit: deratedV, unit: 'V', margin: marginBelow(supplyMaxV, deratedV), note }, hardOk ? 'margin' : 'hard');
+  return makeCheck(
+    { id: 'reverse-voltage', ok, value: supplyMaxV, limit: deratedV, unit: 'V', margin: marginBelow(supplyMaxV, deratedV), note },
+    hardOk ? 'margin' : 'hard',
+  );
 }
 
 /** Without a stated IFRM, take 2 × IF(AV) as the repetitive peak a small rectifier tolerates [practice, rule of thumb]. */
@@ -69,7 +72,9 @@ export const IFRM_FROM_IFAV_FACTOR = 2;
 function checkRepetitivePeak(d: DiodeParams, peakA: number): Check {
   const stated = d.ifrmA != null;
   const limitA = stated ? (d.ifrmA as number) : IFRM_FROM_IFAV_FACTOR * d.ifAvA;
-  const basis = stated ? `IFRM ${fmt(limitA)} A` : `${fmt(limitA)} A (no IFRM on record: ${IFRM_FROM_IFAV_FACTOR} × IF(AV), a rule of thumb)`;
+  const basis = stated
+    ? `IFRM ${fmt(limitA)} A`
+    : `${fmt(limitA)} A (no IFRM on record: ${IFRM_FROM_IFAV_FACTOR} × IF(AV), a rule of thumb)`;
   const ok = peakA <= limitA;
   const note = ok
     ? `Every turn-off hands the diode up to ${fmt(peakA)} A, within ${basis}.`
@@ -84,7 +89,15 @@ function checkRepetitivePeak(d: DiodeParams, peakA: number): Check {
 function checkDiodeThermal(d: DiodeParams, meanA: number, ambientC: number, pwmHz: number | null): Check {
   const id = 'diode-thermal';
   if (pwmHz == null) {
-    return makeCheck({ id, ok: true, value: null, limit: d.tjMaxC, unit: '°C', margin: null, note: 'On/off drive: the diode carries only the brief decay after each turn-off, no steady heat.' });
+    return makeCheck({
+      id,
+      ok: true,
+      value: null,
+      limit: d.tjMaxC,
+      unit: '°C',
+      margin: null,
+      note: 'On/off drive: the diode carries only the brief decay after each turn-off, no steady heat.',
+    });
   }
   if (d.rthJaCPerW == null || d.tjMaxC == null) {
     const note = `The diode's RθJA or Tj,max is not on record, so its junction at ${fmt(meanA)} A mean cannot be verified: add them from the datasheet.`;
@@ -96,7 +109,15 @@ function checkDiodeThermal(d: DiodeParams, meanA: number, ambientC: number, pwmH
   const note = ok
     ? `At ${fmt(meanA)} A mean (a jam under PWM included) the diode's junction reaches about ${fmt(junctionC)} °C, within Tj,max ${fmt(d.tjMaxC)} °C.`
     : `At ${fmt(meanA)} A mean (a jam under PWM included) the diode's junction would reach about ${fmt(junctionC)} °C, above Tj,max ${fmt(d.tjMaxC)} °C: choose a larger package or a lower-VF diode, or limit the stall current.`;
-  return makeCheck({ id, ok, value: junctionC, limit: d.tjMaxC, unit: '°C', margin: rise > 0 ? (d.tjMaxC - junctionC) / rise : null, note });
+  return makeCheck({
+    id,
+    ok,
+    value: junctionC,
+    limit: d.tjMaxC,
+    unit: '°C',
+    margin: rise > 0 ? (d.tjMaxC - junctionC) / rise : null,
+    note,
+  });
 }
 
 function checkMeanCurrent(d: DiodeParams, meanA: number, pwmHz: number | null): Check {
@@ -123,21 +144,53 @@ function checkOneOffPeak(d: DiodeParams, peakA: number): Check {
 /** Informative: the motor's decay I²·τe/2 against the surge rating's half-sine IFSM²·t/2. */
 function surgeInfo(d: DiodeParams, peakA: number, inductanceH: number | null | undefined, resistanceOhm: number | null | undefined): Check {
   if (inductanceH == null || resistanceOhm == null || resistanceOhm <= 0) {
-    return makeCheck({ id: 'surge-current', ok: true, value: null, limit: null, unit: 'A²s', margin: null, note: 'Motor inductance unknown: surge stress not estimated (it rarely limits small motors).' });
+    return makeCheck({
+      id: 'surge-current',
+      ok: true,
+      value: null,
+      limit: null,
+      unit: 'A²s',
+      margin: null,
+      note: 'Motor inductance unknown: surge stress not estimated (it rarely limits small motors).',
+    });
   }
   const decayI2t = (peakA ** 2 * (inductanceH / resistanceOhm)) / 2;
   const ratingI2t = (d.ifsmA ** 2 * SURGE_PULSE_S) / 2;
   const note = `Decay stress about ${fmt(decayI2t)} A²s against about ${fmt(ratingI2t)} A²s for the surge rating: informative only.`;
-  return makeCheck({ id: 'surge-current', ok: true, value: decayI2t, limit: ratingI2t, unit: 'A²s', margin: marginBelow(decayI2t, ratingI2t), note });
+  return makeCheck({
+    id: 'surge-current',
+    ok: true,
+    value: decayI2t,
+    limit: ratingI2t,
+    unit: 'A²s',
+    margin: marginBelow(decayI2t, ratingI2t),
+    note,
+  });
 }
 
 function checkReverseRecovery(d: DiodeParams, pwmHz: number | null): Check {
   if (pwmHz == null) {
-    return makeCheck({ id: 'reverse-recovery', ok: true, value: d.trrNs, limit: null, unit: 'ns', margin: null, note: 'On/off drive: reverse recovery does not matter; any rectifier type will do.' });
+    return makeCheck({
+      id: 'reverse-recovery',
+      ok: true,
+      value: d.trrNs,
+      limit: null,
+      unit: 'ns',
+      margin: null,
+      note: 'On/off drive: reverse recovery does not matter; any rectifier type will do.',
+    });
   }
   const limitNs = (TRR_SHARE_OF_PERIOD / pwmHz) * 1e9;
   if (d.kind === 'schottky') {
-    return makeCheck({ id: 'reverse-recovery', ok: true, value: null, limit: limitNs, unit: 'ns', margin: null, note: 'Schottky: no stored charge (no reverse recovery to speak of), suited to PWM.' });
+    return makeCheck({
+      id: 'reverse-recovery',
+      ok: true,
+      value: null,
+      limit: limitNs,
+      unit: 'ns',
+      margin: null,
+      note: 'Schottky: no stored charge (no reverse recovery to speak of), suited to PWM.',
+    });
   }
   if (d.trrNs == null) {
     const note = `Reverse recovery time not on record for this ${d.kind} diode: confirm it is below ${fmt(limitNs)} ns (1 % of the PWM period).`;

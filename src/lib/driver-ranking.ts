@@ -33,9 +33,12 @@ export function driverSupplyOf(c: DesignCase): SupplyRange {
 export function gateDriveOfDriver(c: DesignCase, driver: PartOf<'driver'>): GateDrive {
   const supply = driverSupplyOf(c);
   return {
-    voltageV: driverOutputHighV(driver.params, supply.minV), maxVoltageV: supply.maxV,
-    sourceCurrentA: driver.params.sourceCurrentA, sinkCurrentA: driver.params.sinkCurrentA,
-    driverPartId: driver.id ?? null, driverMpn: driver.mpn,
+    voltageV: driverOutputHighV(driver.params, supply.minV),
+    maxVoltageV: supply.maxV,
+    sourceCurrentA: driver.params.sourceCurrentA,
+    sinkCurrentA: driver.params.sinkCurrentA,
+    driverPartId: driver.id ?? null,
+    driverMpn: driver.mpn,
   };
 }
 
@@ -44,7 +47,15 @@ const STANDALONE = new Set(['driver-supply', 'input-high', 'input-low', 'duty-er
 
 /** A driver that holds on its own (no hard failure of the switch-independent checks). */
 export function driverHoldsAlone(c: DesignCase, driver: PartOf<'driver'>, wc: WorstCase): boolean {
-  const checks = checkDriver({ driver: driver.params, supply: driverSupplyOf(c), logic: c.logic, requiredGateV: null, vgsMaxV: Infinity, switchingChargeNc: 0, pwmHz: wc.pwmHz });
+  const checks = checkDriver({
+    driver: driver.params,
+    supply: driverSupplyOf(c),
+    logic: c.logic,
+    requiredGateV: null,
+    vgsMaxV: Infinity,
+    switchingChargeNc: 0,
+    pwmHz: wc.pwmHz,
+  });
   return !checks.some((x) => STANDALONE.has(x.id) && !x.ok && x.severity !== 'margin');
 }
 
@@ -55,15 +66,24 @@ export function driverHoldsAlone(c: DesignCase, driver: PartOf<'driver'>, wc: Wo
 export function provisionalDriver(c: DesignCase, drivers: PartOf<'driver'>[], wc: WorstCase): PartOf<'driver'> | null {
   const viable = drivers.filter((d) => driverHoldsAlone(c, d, wc));
   const supply = driverSupplyOf(c);
-  viable.sort((a, b) => driverOutputHighV(b.params, supply.minV) - driverOutputHighV(a.params, supply.minV) || b.params.sourceCurrentA - a.params.sourceCurrentA || a.mpn.localeCompare(b.mpn));
+  viable.sort(
+    (a, b) =>
+      driverOutputHighV(b.params, supply.minV) - driverOutputHighV(a.params, supply.minV) ||
+      b.params.sourceCurrentA - a.params.sourceCurrentA ||
+      a.mpn.localeCompare(b.mpn),
+  );
   return viable[0] ?? null;
 }
 
 function pairedSwitchCheck(mpn: string, verdict: Verdict): Check {
-  const note = verdict === 'pass'
-    ? `With this driver, ${mpn} passes every check.`
-    : `With this driver, ${mpn} is ${verdict}: see the switch's checks at this drive.`;
-  return makeCheck({ id: 'paired-switch', ok: verdict === 'pass', value: null, limit: null, unit: '', margin: null, note }, verdict === 'marginal' ? 'margin' : 'hard');
+  const note =
+    verdict === 'pass'
+      ? `With this driver, ${mpn} passes every check.`
+      : `With this driver, ${mpn} is ${verdict}: see the switch's checks at this drive.`;
+  return makeCheck(
+    { id: 'paired-switch', ok: verdict === 'pass', value: null, limit: null, unit: '', margin: null, note },
+    verdict === 'marginal' ? 'margin' : 'hard',
+  );
 }
 
 /**
@@ -71,22 +91,46 @@ function pairedSwitchCheck(mpn: string, verdict: Verdict): Check {
  * bill of materials) is marginal; one that no pull can fix fails unless the designer recorded the start as intended.
  */
 function powerOnCheck(powerOn: PowerOnResult, startIntended: boolean): Check {
-  if (!powerOn.motorCanStart) return makeCheck({ id: 'power-on', ok: true, value: null, limit: null, unit: '', margin: null, note: powerOn.note });
+  if (!powerOn.motorCanStart)
+    return makeCheck({ id: 'power-on', ok: true, value: null, limit: null, unit: '', margin: null, note: powerOn.note });
   const fixed = powerOn.recommendedPull?.ok === true && powerOn.withRecommendedPull?.motorState === 'off';
-  if (startIntended) return makeCheck({ id: 'power-on', ok: true, value: null, limit: null, unit: '', margin: null, note: `${powerOn.note} The designer recorded this start at reset as intended.` });
-  return makeCheck({ id: 'power-on', ok: false, value: null, limit: null, unit: '', margin: null, note: powerOn.note }, fixed ? 'margin' : 'hard');
+  if (startIntended)
+    return makeCheck({
+      id: 'power-on',
+      ok: true,
+      value: null,
+      limit: null,
+      unit: '',
+      margin: null,
+      note: `${powerOn.note} The designer recorded this start at reset as intended.`,
+    });
+  return makeCheck(
+    { id: 'power-on', ok: false, value: null, limit: null, unit: '', margin: null, note: powerOn.note },
+    fixed ? 'margin' : 'hard',
+  );
 }
 
 export function powerOnForPair(c: DesignCase, driver: PartOf<'driver'> | null, sw: PartOf<'mosfet'>): PowerOnResult {
   return walkPowerOn({
-    pin: { railV: c.logic.railV, resetDefault: c.logic.resetDefault, sourceCurrentA: c.logic.pinSourceCurrentA, sinkCurrentA: c.logic.pinSinkCurrentA },
+    pin: {
+      railV: c.logic.railV,
+      resetDefault: c.logic.resetDefault,
+      sourceCurrentA: c.logic.pinSourceCurrentA,
+      sinkCurrentA: c.logic.pinSinkCurrentA,
+    },
     driver: driver ? { params: driver.params, supply: driverSupplyOf(c) } : null,
     mosfet: { vgsThMinV: sw.params.vgsThMinV },
     series: c.resistorSeries,
   });
 }
 
-function evaluateDriverPart(c: DesignCase, driver: PartOf<'driver'>, forSwitch: PartOf<'mosfet'>, wc: WorstCase, startIntended: boolean): DriverCandidateResult {
+function evaluateDriverPart(
+  c: DesignCase,
+  driver: PartOf<'driver'>,
+  forSwitch: PartOf<'mosfet'>,
+  wc: WorstCase,
+  startIntended: boolean,
+): DriverCandidateResult {
   const supply = driverSupplyOf(c);
   const sw = forSwitch.params;
   const drive = gateDriveOfDriver(c, driver);
@@ -94,28 +138,49 @@ function evaluateDriverPart(c: DesignCase, driver: PartOf<'driver'>, forSwitch: 
   const powerOn = powerOnForPair(c, driver, forSwitch);
   const checks = [
     ...checkDriver({
-      driver: driver.params, supply, logic: c.logic,
-      requiredGateV: lowestSpecVgsV(rdsOnPointsAt25C(sw.rdsOn)), vgsMaxV: sw.vgsMaxV,
-      switchingChargeNc: switchingChargeNc(sw.qgTotalNc, sw.qgdNc, sw.qgsNc), pwmHz: wc.pwmHz,
+      driver: driver.params,
+      supply,
+      logic: c.logic,
+      requiredGateV: lowestSpecVgsV(rdsOnPointsAt25C(sw.rdsOn)),
+      vgsMaxV: sw.vgsMaxV,
+      switchingChargeNc: switchingChargeNc(sw.qgTotalNc, sw.qgdNc, sw.qgsNc),
+      pwmHz: wc.pwmHz,
     }),
     powerOnCheck(powerOn, startIntended),
     pairedSwitchCheck(forSwitch.mpn, paired.verdict),
   ];
   const verdict = verdictOf(checks);
   return {
-    partId: driver.id ?? null, mpn: driver.mpn, manufacturer: driver.manufacturer,
-    verdict, score: scoreOf(checks, verdict), checks,
-    pairing: { switchPartId: forSwitch.id ?? null, switchMpn: forSwitch.mpn, switchVerdict: paired.verdict, gateDriveV: drive.voltageV, inverting: driver.params.inverting },
+    partId: driver.id ?? null,
+    mpn: driver.mpn,
+    manufacturer: driver.manufacturer,
+    verdict,
+    score: scoreOf(checks, verdict),
+    checks,
+    pairing: {
+      switchPartId: forSwitch.id ?? null,
+      switchMpn: forSwitch.mpn,
+      switchVerdict: paired.verdict,
+      gateDriveV: drive.voltageV,
+      inverting: driver.params.inverting,
+    },
     powerOn,
   };
 }
 
 /** Drivers ranked for one switch, each paired with that switch's evaluation at the driver's output. */
-export function rankDriverCandidates(c: DesignCase, drivers: PartOf<'driver'>[], forSwitch: PartOf<'mosfet'>, wc: WorstCase = worstCaseOf(c), startIntended = false): DriverCandidateResult[] {
+export function rankDriverCandidates(
+  c: DesignCase,
+  drivers: PartOf<'driver'>[],
+  forSwitch: PartOf<'mosfet'>,
+  wc: WorstCase = worstCaseOf(c),
+  startIntended = false,
+): DriverCandidateResult[] {
   return sortCandidates(drivers.map((d) => evaluateDriverPart(c, d, forSwitch, wc, startIntended)));
 }
 
 export function describeDriverNeed(logicHighV: number, mpn: string, requiredV: number, railV: number | null): string {
-  const rail = railV != null ? `a gate driver with a ${fmt(railV)} V or higher output` : `a gate driver whose output reaches ${fmt(requiredV)} V`;
+  const rail =
+    railV != null ? `a gate driver with a ${fmt(railV)} V or higher output` : `a gate driver whose output reaches ${fmt(requiredV)} V`;
   return `No switch passes when driven straight from the ${fmt(logicHighV)} V logic high; ${mpn} needs at least ${fmt(requiredV)} V at its gate: use ${rail}.`;
 }

@@ -25,7 +25,10 @@ export function checkDrainVoltage(vdsMaxV: number, supplyMaxV: number, diodeForw
     : hardOk
       ? `Drain sees up to ${fmt(valueV)} V, inside the ${fmt(vdsMaxV)} V rating but above its ${fmt(deratedV)} V derated value: choose a part rated at least ${fmt(valueV / derating)} V.`
       : `Drain sees up to ${fmt(valueV)} V, above the ${fmt(vdsMaxV)} V rating itself: choose a part rated at least ${fmt(valueV / derating)} V.`;
-  return makeCheck({ id: 'drain-voltage', ok, value: valueV, limit: deratedV, unit: 'V', margin: marginBelow(valueV, deratedV), note }, hardOk ? 'margin' : 'hard');
+  return makeCheck(
+    { id: 'drain-voltage', ok, value: valueV, limit: deratedV, unit: 'V', margin: marginBelow(valueV, deratedV), note },
+    hardOk ? 'margin' : 'hard',
+  );
 }
 
 /** Without a stated plateau, VGS(th) max plus this stands in for it [judgement: the plateau sits a little above threshold]. */
@@ -39,7 +42,9 @@ export function checkMillerPlateau(driveV: number, plateauV: number | null | und
   const stated = plateauV != null;
   const requiredV = stated ? plateauV : vgsThMaxV + PLATEAU_MARGIN_OVER_VTH_V;
   const ok = driveV > requiredV;
-  const basis = stated ? `the ${fmt(requiredV)} V Miller plateau` : `VGS(th) max ${fmt(vgsThMaxV)} V plus ${fmt(PLATEAU_MARGIN_OVER_VTH_V)} V (no plateau on record)`;
+  const basis = stated
+    ? `the ${fmt(requiredV)} V Miller plateau`
+    : `VGS(th) max ${fmt(vgsThMaxV)} V plus ${fmt(PLATEAU_MARGIN_OVER_VTH_V)} V (no plateau on record)`;
   const note = ok
     ? `The ${fmt(driveV)} V drive clears ${basis}, so the channel enhances fully.`
     : `The ${fmt(driveV)} V drive does not clear ${basis}: the part cannot carry the load current fully enhanced and heats in its linear region; raise the gate drive (a gate driver) or choose a part with a lower plateau.`;
@@ -54,13 +59,34 @@ export const TEST_CURRENT_FACTOR = 2;
  * Margin: an RDS(on) line holds only up to about its test current at a low VGS; a worst-case current well above it
  * at a drive near VGS(th) max may pull the part out of full enhancement [docs/engineering.md §5].
  */
-export function checkRdsOnTestCurrent(driveV: number, vgsThMaxV: number, line: { vgsV: number; testCurrentA?: number | null } | null, worstCurrentA: number): Check {
+export function checkRdsOnTestCurrent(
+  driveV: number,
+  vgsThMaxV: number,
+  line: { vgsV: number; testCurrentA?: number | null } | null,
+  worstCurrentA: number,
+): Check {
   const id = 'rdson-test-current';
   if (line == null) {
-    return makeCheck({ id, ok: true, value: worstCurrentA, limit: null, unit: 'A', margin: null, note: 'No RDS(on) line at or below this drive (see the gate-drive check).' });
+    return makeCheck({
+      id,
+      ok: true,
+      value: worstCurrentA,
+      limit: null,
+      unit: 'A',
+      margin: null,
+      note: 'No RDS(on) line at or below this drive (see the gate-drive check).',
+    });
   }
   if (line.testCurrentA == null) {
-    return makeCheck({ id, ok: true, value: worstCurrentA, limit: null, unit: 'A', margin: null, note: `The ${fmt(line.vgsV)} V RDS(on) line states no test current; confirm on the datasheet that it holds at ${fmt(worstCurrentA)} A.` });
+    return makeCheck({
+      id,
+      ok: true,
+      value: worstCurrentA,
+      limit: null,
+      unit: 'A',
+      margin: null,
+      note: `The ${fmt(line.vgsV)} V RDS(on) line states no test current; confirm on the datasheet that it holds at ${fmt(worstCurrentA)} A.`,
+    });
   }
   const near = driveV < vgsThMaxV + TEST_CURRENT_NEAR_THRESHOLD_V;
   const limitA = TEST_CURRENT_FACTOR * line.testCurrentA;
@@ -70,7 +96,18 @@ export function checkRdsOnTestCurrent(driveV: number, vgsThMaxV: number, line: {
       ? `Worst-case ${fmt(worstCurrentA)} A is within ${TEST_CURRENT_FACTOR}× the ${fmt(line.testCurrentA)} A the ${fmt(line.vgsV)} V line was measured at.`
       : `The ${fmt(driveV)} V drive is well above VGS(th) max ${fmt(vgsThMaxV)} V, so the line's ${fmt(line.testCurrentA)} A test current does not limit.`
     : `At ${fmt(driveV)} V, within ${fmt(TEST_CURRENT_NEAR_THRESHOLD_V)} V of VGS(th) max, the ${fmt(line.vgsV)} V line was measured at only ${fmt(line.testCurrentA)} A but the worst case is ${fmt(worstCurrentA)} A: the part may leave full enhancement; drive the gate harder or choose a part specified at this current.`;
-  return makeCheck({ id, ok, value: worstCurrentA, limit: near ? limitA : null, unit: 'A', margin: near ? marginBelow(worstCurrentA, limitA) : null, note }, 'margin');
+  return makeCheck(
+    {
+      id,
+      ok,
+      value: worstCurrentA,
+      limit: near ? limitA : null,
+      unit: 'A',
+      margin: near ? marginBelow(worstCurrentA, limitA) : null,
+      note,
+    },
+    'margin',
+  );
 }
 
 /** How a jammed shaft is judged for the switch (and what it is judged at). */
@@ -91,15 +128,24 @@ export interface StallThermalInput {
 /** Hard: a jam (a steady state unless cut off) must keep Tj ≤ Tj,max; the limit is Tj,max [docs/engineering.md §6]. */
 export function checkStallThermal(s: StallThermalInput): Check {
   const id = 'stall-thermal';
-  const how = s.protection === 'none'
-    ? `With no stall protection a jam is a steady state at ${fmt(s.currentRmsA)} A (RMS)`
-    : s.protection === 'current-limit'
-      ? `With the current limit a jam settles at ${fmt(s.currentRmsA)} A (RMS)`
-      : s.usedZth
-        ? `With the cut-off after ${fmt(s.afterS ?? 0)} s a jam heats the junction for that long at ${fmt(s.currentRmsA)} A (single-pulse Zth)`
-        : `With the cut-off after ${fmt(s.afterS ?? 0)} s but no Zth curve on record, the jam is judged as a steady state at ${fmt(s.currentRmsA)} A`;
+  const how =
+    s.protection === 'none'
+      ? `With no stall protection a jam is a steady state at ${fmt(s.currentRmsA)} A (RMS)`
+      : s.protection === 'current-limit'
+        ? `With the current limit a jam settles at ${fmt(s.currentRmsA)} A (RMS)`
+        : s.usedZth
+          ? `With the cut-off after ${fmt(s.afterS ?? 0)} s a jam heats the junction for that long at ${fmt(s.currentRmsA)} A (single-pulse Zth)`
+          : `With the cut-off after ${fmt(s.afterS ?? 0)} s but no Zth curve on record, the jam is judged as a steady state at ${fmt(s.currentRmsA)} A`;
   if (s.notCharacterised) {
-    return makeCheck({ id, ok: false, value: null, limit: s.tjMaxC, unit: '°C', margin: null, note: `${how}; RDS(on) is not characterised at this drive, so the jam cannot be assessed.` });
+    return makeCheck({
+      id,
+      ok: false,
+      value: null,
+      limit: s.tjMaxC,
+      unit: '°C',
+      margin: null,
+      note: `${how}; RDS(on) is not characterised at this drive, so the jam cannot be assessed.`,
+    });
   }
   if (s.junctionC == null) {
     const note = `${how}: the RDS(on) rise with heat runs away (no steady junction temperature). Limit the stall current, cut the drive off after a short time, or choose a part with lower RDS(on) or RθJA.`;
@@ -120,22 +166,38 @@ export function checkGateVoltageRating(gateDriveMaxV: number, vgsMaxV: number): 
   const note = ok
     ? `Gate sees at most ${fmt(gateDriveMaxV)} V, within VGS(max) ${fmt(vgsMaxV)} V.`
     : `Gate can see ${fmt(gateDriveMaxV)} V, above VGS(max) ${fmt(vgsMaxV)} V: lower the drive voltage (or clamp the gate with a zener) or choose a part rated for it.`;
-  return makeCheck({ id: 'gate-voltage-rating', ok, value: gateDriveMaxV, limit: vgsMaxV, unit: 'V', margin: marginBelow(gateDriveMaxV, vgsMaxV), note });
+  return makeCheck({
+    id: 'gate-voltage-rating',
+    ok,
+    value: gateDriveMaxV,
+    limit: vgsMaxV,
+    unit: 'V',
+    margin: marginBelow(gateDriveMaxV, vgsMaxV),
+    note,
+  });
 }
 
 function gateDriveFailNote(driveV: number, lowestV: number, vgsThMaxV: number, vgsMaxV: number): string {
   const rail = suggestedDriveRailV(lowestV, vgsMaxV);
-  const fix = rail != null
-    ? `add a gate driver with an output of at least ${fmt(lowestV)} V (a ${fmt(rail)} V rail works, below VGS(max) ${fmt(vgsMaxV)} V)`
-    : `add a gate driver whose output reaches ${fmt(lowestV)} V without exceeding VGS(max) ${fmt(vgsMaxV)} V`;
-  const why = driveV < vgsThMaxV
-    ? `a ${fmt(driveV)} V drive is below its VGS(th) max of ${fmt(vgsThMaxV)} V, so some parts will not turn on at all`
-    : `a ${fmt(driveV)} V drive sits between VGS(th) max (${fmt(vgsThMaxV)} V) and that point, where the part may conduct only partly and overheat`;
+  const fix =
+    rail != null
+      ? `add a gate driver with an output of at least ${fmt(lowestV)} V (a ${fmt(rail)} V rail works, below VGS(max) ${fmt(vgsMaxV)} V)`
+      : `add a gate driver whose output reaches ${fmt(lowestV)} V without exceeding VGS(max) ${fmt(vgsMaxV)} V`;
+  const why =
+    driveV < vgsThMaxV
+      ? `a ${fmt(driveV)} V drive is below its VGS(th) max of ${fmt(vgsThMaxV)} V, so some parts will not turn on at all`
+      : `a ${fmt(driveV)} V drive sits between VGS(th) max (${fmt(vgsThMaxV)} V) and that point, where the part may conduct only partly and overheat`;
   return `RDS(on) is only specified at ${fmt(lowestV)} V and up; ${why}: ${fix}, or choose a part specified at ${fmt(driveV)} V or lower.`;
 }
 
 /** Hard: the drive must reach the lowest VGS at which RDS(on) is specified, and VGS(th) max [docs/engineering.md §5]. */
-export function checkGateDrive(driveV: number, lowestSpecV: number | null, vgsThMaxV: number, vgsMaxV: number, rdsOnAtDriveOhm: number | null): Check {
+export function checkGateDrive(
+  driveV: number,
+  lowestSpecV: number | null,
+  vgsThMaxV: number,
+  vgsMaxV: number,
+  rdsOnAtDriveOhm: number | null,
+): Check {
   if (lowestSpecV == null) {
     const note = 'No RDS(on) line is on record for this part: add the datasheet values before relying on it.';
     return makeCheck({ id: 'gate-drive', ok: false, value: driveV, limit: null, unit: 'V', margin: null, note });
@@ -144,7 +206,15 @@ export function checkGateDrive(driveV: number, lowestSpecV: number | null, vgsTh
   const note = ok
     ? `RDS(on) is specified from ${fmt(lowestSpecV)} V; the ${fmt(driveV)} V drive reaches it (about ${fmt((rdsOnAtDriveOhm ?? 0) * 1000)} mΩ at 25 °C).`
     : gateDriveFailNote(driveV, lowestSpecV, vgsThMaxV, vgsMaxV);
-  return makeCheck({ id: 'gate-drive', ok, value: driveV, limit: Math.max(lowestSpecV, vgsThMaxV), unit: 'V', margin: marginAbove(driveV, lowestSpecV), note });
+  return makeCheck({
+    id: 'gate-drive',
+    ok,
+    value: driveV,
+    limit: Math.max(lowestSpecV, vgsThMaxV),
+    unit: 'V',
+    margin: marginAbove(driveV, lowestSpecV),
+    note,
+  });
 }
 
 /** Hard: worst-case stall current (highest supply, coldest winding) ≤ IDM. */
@@ -153,7 +223,15 @@ export function checkStallCurrent(stallCurrentA: number, idPulsedA: number): Che
   const note = ok
     ? `Worst-case stall current ${fmt(stallCurrentA)} A is within the ${fmt(idPulsedA)} A pulsed rating.`
     : `Worst-case stall current ${fmt(stallCurrentA)} A exceeds the ${fmt(idPulsedA)} A pulsed rating: choose a larger part or limit the current (series resistance, current sensing).`;
-  return makeCheck({ id: 'stall-current', ok, value: stallCurrentA, limit: idPulsedA, unit: 'A', margin: marginBelow(stallCurrentA, idPulsedA), note });
+  return makeCheck({
+    id: 'stall-current',
+    ok,
+    value: stallCurrentA,
+    limit: idPulsedA,
+    unit: 'A',
+    margin: marginBelow(stallCurrentA, idPulsedA),
+    note,
+  });
 }
 
 /** Hard: running RMS current ≤ ID(TA) = √((Tj,max − TA)/(RθJA·RDS(on)(Tj,max))) [docs/engineering.md §5]. */
@@ -166,22 +244,45 @@ export function checkRunningCurrent(currentRmsA: number, maxCurrentA: number | n
   const note = ok
     ? `Running current ${fmt(currentRmsA)} A (RMS) is within the ${fmt(maxCurrentA)} A this part carries at ${fmt(ambientC)} °C on its test board.`
     : `Running current ${fmt(currentRmsA)} A (RMS) exceeds the ${fmt(maxCurrentA)} A this part carries at ${fmt(ambientC)} °C: choose a part with lower RDS(on) or better cooling.`;
-  return makeCheck({ id: 'running-current', ok, value: currentRmsA, limit: maxCurrentA, unit: 'A', margin: marginBelow(currentRmsA, maxCurrentA), note });
+  return makeCheck({
+    id: 'running-current',
+    ok,
+    value: currentRmsA,
+    limit: maxCurrentA,
+    unit: 'A',
+    margin: marginBelow(currentRmsA, maxCurrentA),
+    note,
+  });
 }
 
 /** Hard: Tj ≤ Tj,max; margin: Tj ≤ Tj,max − thermal margin. Margin is the share of the rise TA→Tj,max left unused. */
 export type NoJunctionReason = 'runaway' | 'not-characterised' | 'linear';
 
 const NO_JUNCTION_NOTES: Record<NoJunctionReason, string> = {
-  runaway: 'No steady junction temperature: the RDS(on) rise with heat runs away at this current; choose a part with lower RDS(on) or better cooling.',
+  runaway:
+    'No steady junction temperature: the RDS(on) rise with heat runs away at this current; choose a part with lower RDS(on) or better cooling.',
   'not-characterised': 'Junction temperature cannot be assessed: RDS(on) is not characterised at this gate drive.',
   linear: 'Junction temperature cannot be assessed: the gate never passes the Miller plateau, so the part dissipates as a linear resistor.',
 };
 
-export function checkJunctionTemperature(junctionC: number | null, tjMaxC: number, thermalMarginC: number, ambientC: number, reason: NoJunctionReason = 'runaway'): Check {
+export function checkJunctionTemperature(
+  junctionC: number | null,
+  tjMaxC: number,
+  thermalMarginC: number,
+  ambientC: number,
+  reason: NoJunctionReason = 'runaway',
+): Check {
   if (junctionC == null) {
     const note = NO_JUNCTION_NOTES[reason];
-    return makeCheck({ id: 'junction-temperature', ok: false, value: null, limit: tjMaxC - thermalMarginC, unit: '°C', margin: null, note });
+    return makeCheck({
+      id: 'junction-temperature',
+      ok: false,
+      value: null,
+      limit: tjMaxC - thermalMarginC,
+      unit: '°C',
+      margin: null,
+      note,
+    });
   }
   const targetC = tjMaxC - thermalMarginC;
   const hardOk = junctionC <= tjMaxC;
@@ -194,7 +295,10 @@ export function checkJunctionTemperature(junctionC: number | null, tjMaxC: numbe
   const note = ok
     ? `Junction about ${fmt(junctionC)} °C, below the ${fmt(targetC)} °C target (Tj,max ${fmt(tjMaxC)} °C less ${fmt(thermalMarginC)} K). ${board}`
     : `Junction about ${fmt(junctionC)} °C, ${hardOk ? 'inside Tj,max but above' : 'above Tj,max and'} the ${fmt(targetC)} °C target: add copper, lower RDS(on) or switching loss. ${board}`;
-  return makeCheck({ id: 'junction-temperature', ok, value: junctionC, limit: targetC, unit: '°C', margin, note }, hardOk ? 'margin' : 'hard');
+  return makeCheck(
+    { id: 'junction-temperature', ok, value: junctionC, limit: targetC, unit: '°C', margin, note },
+    hardOk ? 'margin' : 'hard',
+  );
 }
 
 /** Share of the PWM period spent in edges above which edges count as slow, and as unusable [practice, judgement]. */
@@ -210,7 +314,8 @@ export function checkSwitchingEdges(turnOnS: number, turnOffS: number, pwmHz: nu
   const edgesS = turnOnS + turnOffS;
   const periodS = 1 / pwmHz;
   if (!Number.isFinite(edgesS)) {
-    const note = 'The gate drive never reaches the Miller plateau, so the part never finishes turning on: raise the drive voltage with a gate driver.';
+    const note =
+      'The gate drive never reaches the Miller plateau, so the part never finishes turning on: raise the drive voltage with a gate driver.';
     return makeCheck({ id: 'switching-edges', ok: false, value: null, limit: EDGE_SHARE_MARGIN * periodS, unit: 's', margin: null, note });
   }
   const limitS = EDGE_SHARE_MARGIN * periodS;
@@ -220,7 +325,18 @@ export function checkSwitchingEdges(turnOnS: number, turnOffS: number, pwmHz: nu
   const note = ok
     ? `${edgesText}, under 2 % of the ${fmt(periodS * 1e6)} µs PWM period.`
     : `${edgesText}, ${fmt((edgesS / periodS) * 100)} % of the ${fmt(periodS * 1e6)} µs PWM period: drive the gate with more current (a gate driver) or lower the PWM frequency.`;
-  return makeCheck({ id: 'switching-edges', ok, value: Number.isFinite(edgesS) ? edgesS : null, limit: limitS, unit: 's', margin: marginBelow(edgesS, limitS), note }, hardOk ? 'margin' : 'hard');
+  return makeCheck(
+    {
+      id: 'switching-edges',
+      ok,
+      value: Number.isFinite(edgesS) ? edgesS : null,
+      limit: limitS,
+      unit: 's',
+      margin: marginBelow(edgesS, limitS),
+      note,
+    },
+    hardOk ? 'margin' : 'hard',
+  );
 }
 
 /** Low-side ranking takes N-channel parts only; a P-channel part belongs on the high side. */

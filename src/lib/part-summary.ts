@@ -68,8 +68,12 @@ export function summarize(part: Part): Record<string, string> {
       const p = part.params;
       const range = p.voltageMinV !== null && p.voltageMaxV !== null ? `${n(p.voltageMinV)}–${n(p.voltageMaxV)}` : '—';
       return {
-        ratedV: n(p.ratedVoltageV), range, noLoad: n(p.noLoadSpeedRpm, 5), noLoadI: n(p.noLoadCurrentA),
-        stallT: n(p.stallTorqueNm * 1000), stallI: n(p.stallCurrentA),
+        ratedV: n(p.ratedVoltageV),
+        range,
+        noLoad: n(p.noLoadSpeedRpm, 5),
+        noLoadI: n(p.noLoadCurrentA),
+        stallT: n(p.stallTorqueNm * 1000),
+        stallI: n(p.stallCurrentA),
       };
     }
     case 'mosfet': {
@@ -77,8 +81,13 @@ export function summarize(part: Part): Record<string, string> {
       const lowest = [...p.rdsOn].sort((a, b) => a.vgsV - b.vgsV)[0];
       const rds = lowest ? `${n(lowest.maxOhm * 1000)} mΩ @ ${n(lowest.vgsV)} V` : '—';
       return {
-        channel: p.channel.toUpperCase(), vds: n(p.vdsMaxV), vgsTh: n(p.vgsThMaxV), rdsOn: rds,
-        id: n(p.idContinuousA), qg: n(p.qgTotalNc), rth: n(p.rthJaCPerW),
+        channel: p.channel.toUpperCase(),
+        vds: n(p.vdsMaxV),
+        vgsTh: n(p.vgsThMaxV),
+        rdsOn: rds,
+        id: n(p.idContinuousA),
+        qg: n(p.qgTotalNc),
+        rth: n(p.rthJaCPerW),
       };
     }
     case 'driver': {
@@ -96,8 +105,11 @@ export function summarize(part: Part): Record<string, string> {
       const p = part.params;
       const kinds = { schottky: 'Schottky', ultrafast: 'Ultrafast', fast: 'Fast', general: 'General purpose' };
       return {
-        kind: kinds[p.kind], vrrm: n(p.vrrmV), ifav: n(p.ifAvA),
-        vf: `${n(p.vfV)} V @ ${n(p.vfAtIfA)} A`, trr: p.trrNs === null ? 'none (Schottky)' : n(p.trrNs),
+        kind: kinds[p.kind],
+        vrrm: n(p.vrrmV),
+        ifav: n(p.ifAvA),
+        vf: `${n(p.vfV)} V @ ${n(p.vfAtIfA)} A`,
+        trr: p.trrNs === null ? 'none (Schottky)' : n(p.trrNs),
       };
     }
   }

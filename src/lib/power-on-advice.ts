@@ -63,8 +63,11 @@ function sizeFor(input: PowerOnInput, sources: readonly PullSource[], t: Thresho
   return sizePullResistor({
     pin: {
       internalPull: opposing == null ? 'none' : needHigh ? 'down' : 'up',
-      internalPullOhms: opposing?.ohms ?? 0, internalPullV: opposing?.toV, internalPullTolerance: 0,
-      railV: input.pin.railV, maxCurrentA: needHigh ? input.pin.sinkCurrentA : input.pin.sourceCurrentA,
+      internalPullOhms: opposing?.ohms ?? 0,
+      internalPullV: opposing?.toV,
+      internalPullTolerance: 0,
+      railV: input.pin.railV,
+      maxCurrentA: needHigh ? input.pin.sinkCurrentA : input.pin.sourceCurrentA,
       leakageA: input.pin.leakageA ?? DEFAULT_PIN_LEAKAGE_A,
     },
     external: { to, railV: needHigh ? input.pin.railV : 0, tolerance: RECOMMENDED_TOLERANCE },
@@ -81,25 +84,44 @@ export function recommendPull(input: PowerOnInput, sources: readonly PullSource[
   const sized = sizeFor(input, sources, t, needHigh);
   if (!sized.ok || sized.chosenOhms == null) {
     // The calculator's "pull the other way" would start the motor here, so the walk words its own reason.
-    const reason = sized.maxOhms == null
-      ? `a pull-${to} to ${fmt(railV)} V cannot take the node ${needHigh ? 'up to' : 'down to'} ${fmt(holdLimitV(input, t, needHigh))} V, where the ${input.driver == null ? 'gate' : 'driver input'} is surely ${needHigh ? 'high' : 'low'}.`
-      : sized.notes[0];
-    return { pull: null, rewalk: null, drawWhenHighA: 0, note: `No external pull-${to} on the pin can hold it: ${reason} ${alternatives(input, needHigh)}` };
+    const reason =
+      sized.maxOhms == null
+        ? `a pull-${to} to ${fmt(railV)} V cannot take the node ${needHigh ? 'up to' : 'down to'} ${fmt(holdLimitV(input, t, needHigh))} V, where the ${input.driver == null ? 'gate' : 'driver input'} is surely ${needHigh ? 'high' : 'low'}.`
+        : sized.notes[0];
+    return {
+      pull: null,
+      rewalk: null,
+      drawWhenHighA: 0,
+      note: `No external pull-${to} on the pin can hold it: ${reason} ${alternatives(input, needHigh)}`,
+    };
   }
   const fitted: PullSource = {
-    label: `recommended pull-${to}`, direction: to, toV: { minV: railV, maxV: railV },
-    ohms: band(sized.chosenOhms, RECOMMENDED_TOLERANCE), basis: `${describeKohm(sized.chosenOhms)} ±1 %`,
+    label: `recommended pull-${to}`,
+    direction: to,
+    toV: { minV: railV, maxV: railV },
+    ohms: band(sized.chosenOhms, RECOMMENDED_TOLERANCE),
+    basis: `${describeKohm(sized.chosenOhms)} ±1 %`,
   };
   const rewalk = walk(input, [...sources, fitted]);
   if (rewalk.motorState !== 'off') {
-    return { pull: null, rewalk, drawWhenHighA: 0, note: `A ${describeKohm(sized.chosenOhms)} pull-${to} would still leave the motor ${rewalk.motorState} at reset, so none is recommended. ${alternatives(input, needHigh)}` };
+    return {
+      pull: null,
+      rewalk,
+      drawWhenHighA: 0,
+      note: `A ${describeKohm(sized.chosenOhms)} pull-${to} would still leave the motor ${rewalk.motorState} at reset, so none is recommended. ${alternatives(input, needHigh)}`,
+    };
   }
   const pull: RecommendedPull = { ...sized, to, railV, tolerance: RECOMMENDED_TOLERANCE };
   const drawWhenHighA = pullDrawCurrentA(pull, input.pin.railV);
   const where = input.driver == null ? 'gate node' : 'driver input';
-  const draw = to === 'down' ? ` While the pin drives high it supplies up to ${fmt(drawWhenHighA * 1000)} mA into it.` : ` While the pin drives low it sinks up to ${fmt((sized.activeCurrentA ?? 0) * 1000)} mA from it.`;
+  const draw =
+    to === 'down'
+      ? ` While the pin drives high it supplies up to ${fmt(drawWhenHighA * 1000)} mA into it.`
+      : ` While the pin drives low it sinks up to ${fmt((sized.activeCurrentA ?? 0) * 1000)} mA from it.`;
   return {
-    pull, rewalk, drawWhenHighA,
+    pull,
+    rewalk,
+    drawWhenHighA,
     note: `Fit a ${describeKohm(sized.chosenOhms)} ±1 % pull-${to} from the pin (${where}) to ${fmt(railV)} V: re-walked at every tolerance corner, it holds the node ${needHigh ? 'high' : 'low'} and the motor off through reset.${draw}`,
   };
 }

@@ -7,7 +7,16 @@ import { fmt } from './checks.ts';
 import type { DriverParams } from './domain/parts.ts';
 import { driverInputThresholdsV, type SupplyRange } from './driver-checks.ts';
 import type { ESeriesName } from './eseries.ts';
-import { band, clampToPin, DEFAULT_PIN_LEAKAGE_A, describeSource, nodeRangeV, rangeText, type NodeRange, type PullSource } from './power-on-network.ts';
+import {
+  band,
+  clampToPin,
+  DEFAULT_PIN_LEAKAGE_A,
+  describeSource,
+  nodeRangeV,
+  rangeText,
+  type NodeRange,
+  type PullSource,
+} from './power-on-network.ts';
 import { recommendPull, type RecommendedPull } from './power-on-advice.ts';
 import type { InternalPull } from './pull-resistor.ts';
 
@@ -36,7 +45,10 @@ export interface ResetDefault {
 
 export interface PowerOnInput {
   pin: {
-    railV: number; resetDefault: ResetDefault; sourceCurrentA: number; sinkCurrentA: number;
+    railV: number;
+    resetDefault: ResetDefault;
+    sourceCurrentA: number;
+    sinkCurrentA: number;
     /** Input leakage, A; absent = DEFAULT_PIN_LEAKAGE_A. */
     leakageA?: number;
     /** True for a pin without a protection diode to its supply (5 V-tolerant): no clamp above its rail. */
@@ -99,9 +111,16 @@ function driverPullSource(input: PowerOnInput): PullSource | null {
   const stated = d.params.inputPullOhms;
   const tol = d.inputPullTolerance ?? DRIVER_PULL_TOLERANCE;
   const ohms = stated == null ? { ...UNSTATED_DRIVER_PULL_OHMS } : band(stated, tol);
-  const basis = stated == null ? 'value not stated: bracketed 10 kΩ–1 MΩ [judgement]' : `${fmt(stated / 1000)} kΩ ±${fmt(tol * 100)} %${d.inputPullTolerance == null ? ' [judgement]' : ''}`;
-  const upRail = d.inputPullRailV != null ? { minV: d.inputPullRailV, maxV: d.inputPullRailV }
-    : d.params.inputLogic === 'input-rail' ? { minV: input.pin.railV, maxV: input.pin.railV } : { minV: d.supply.minV, maxV: d.supply.maxV };
+  const basis =
+    stated == null
+      ? 'value not stated: bracketed 10 kΩ–1 MΩ [judgement]'
+      : `${fmt(stated / 1000)} kΩ ±${fmt(tol * 100)} %${d.inputPullTolerance == null ? ' [judgement]' : ''}`;
+  const upRail =
+    d.inputPullRailV != null
+      ? { minV: d.inputPullRailV, maxV: d.inputPullRailV }
+      : d.params.inputLogic === 'input-rail'
+        ? { minV: input.pin.railV, maxV: input.pin.railV }
+        : { minV: d.supply.minV, maxV: d.supply.maxV };
   const toV = d.params.inputPull === 'up' ? upRail : { minV: 0, maxV: 0 };
   return { label: `driver input pull-${d.params.inputPull}`, direction: d.params.inputPull, toV, ohms, basis };
 }
@@ -112,12 +131,24 @@ export function pullSources(input: PowerOnInput): PullSource[] {
   const rd = input.pin.resetDefault;
   if (rd.pull !== 'none') {
     const v = rd.pull === 'up' ? input.pin.railV : 0;
-    sources.push({ label: `pin pull-${rd.pull}`, direction: rd.pull, toV: { minV: v, maxV: v }, ohms: band(rd.pullOhms, rd.pullTolerance), basis: `${fmt(rd.pullOhms / 1000)} kΩ ±${fmt(rd.pullTolerance * 100)} %` });
+    sources.push({
+      label: `pin pull-${rd.pull}`,
+      direction: rd.pull,
+      toV: { minV: v, maxV: v },
+      ohms: band(rd.pullOhms, rd.pullTolerance),
+      basis: `${fmt(rd.pullOhms / 1000)} kΩ ±${fmt(rd.pullTolerance * 100)} %`,
+    });
   }
   const ext = input.externalPull;
   if (ext != null) {
     const tol = ext.tolerance ?? DEFAULT_EXTERNAL_TOLERANCE;
-    sources.push({ label: `external pull-${ext.to}`, direction: ext.to, toV: { minV: ext.railV, maxV: ext.railV }, ohms: band(ext.ohms, tol), basis: `${fmt(ext.ohms / 1000)} kΩ ±${fmt(tol * 100)} %` });
+    sources.push({
+      label: `external pull-${ext.to}`,
+      direction: ext.to,
+      toV: { minV: ext.railV, maxV: ext.railV },
+      ohms: band(ext.ohms, tol),
+      basis: `${fmt(ext.ohms / 1000)} kΩ ±${fmt(tol * 100)} %`,
+    });
   }
   const drv = driverPullSource(input);
   if (drv != null) sources.push(drv);
@@ -147,20 +178,42 @@ function pinStep(input: PowerOnInput, leakageA: number): PowerOnStep {
   const rd = input.pin.resetDefault;
   const leak = `, leakage up to ${fmt(leakageA * 1e6)} µA`;
   return {
-    stage: 'pin', state: rd.pull === 'none' ? 'undetermined' : rd.pull === 'up' ? 'high' : 'low', minV: null, maxV: null,
-    note: rd.pull === 'none' ? `The pin floats at reset (input, no internal pull${leak}).`
-      : `The pin is an input with a ${fmt(rd.pullOhms / 1000)} kΩ ±${fmt(rd.pullTolerance * 100)} % internal pull-${rd.pull} at reset${leak}.`,
+    stage: 'pin',
+    state: rd.pull === 'none' ? 'undetermined' : rd.pull === 'up' ? 'high' : 'low',
+    minV: null,
+    maxV: null,
+    note:
+      rd.pull === 'none'
+        ? `The pin floats at reset (input, no internal pull${leak}).`
+        : `The pin is an input with a ${fmt(rd.pullOhms / 1000)} kΩ ±${fmt(rd.pullTolerance * 100)} % internal pull-${rd.pull} at reset${leak}.`,
   };
 }
 
-function networkStep(sources: readonly PullSource[], range: NodeRange | null, clamped: boolean, t: Thresholds, input: PowerOnInput): PowerOnStep {
+function networkStep(
+  sources: readonly PullSource[],
+  range: NodeRange | null,
+  clamped: boolean,
+  t: Thresholds,
+  input: PowerOnInput,
+): PowerOnStep {
   const state = classify(range, t);
   if (range == null) {
-    return { stage: 'pull-network', state, minV: null, maxV: null, note: 'Nothing pulls the node (no pin pull, no external pull, no driver input pull): it floats, and leakage or pick-up decide its level.' };
+    return {
+      stage: 'pull-network',
+      state,
+      minV: null,
+      maxV: null,
+      note: 'Nothing pulls the node (no pin pull, no external pull, no driver input pull): it floats, and leakage or pick-up decide its level.',
+    };
   }
-  const clampNote = clamped ? ` A pull above the pin's ${fmt(input.pin.railV)} V supply is clamped by the pin's protection diode near ${fmt(range.maxV)} V [mem]; a tolerant pin would not clamp.` : '';
+  const clampNote = clamped
+    ? ` A pull above the pin's ${fmt(input.pin.railV)} V supply is clamped by the pin's protection diode near ${fmt(range.maxV)} V [mem]; a tolerant pin would not clamp.`
+    : '';
   return {
-    stage: 'pull-network', state, minV: range.minV, maxV: range.maxV,
+    stage: 'pull-network',
+    state,
+    minV: range.minV,
+    maxV: range.maxV,
     note: `${sources.map(describeSource).join('; ')}: the node sits at ${rangeText(range)} over every tolerance corner and leakage, against ${fmt(t.lowMaxV)} V (low) and ${fmt(t.highMinV)} V (high), so it is ${state}.${clampNote}`,
   };
 }
@@ -176,11 +229,24 @@ export function walkChain(input: PowerOnInput, sources: readonly PullSource[]): 
   const d = input.driver;
   const gate = d == null ? (net.state as LineState) : driverOutput(d.params, net.state as LineState);
   if (d != null) {
-    steps.push({ stage: 'driver', state: gate, minV: null, maxV: null,
-      note: `${d.params.inverting ? 'Inverting' : 'Non-inverting'} driver: input ${net.state}, so its output is ${gate} at reset.` });
+    steps.push({
+      stage: 'driver',
+      state: gate,
+      minV: null,
+      maxV: null,
+      note: `${d.params.inverting ? 'Inverting' : 'Non-inverting'} driver: input ${net.state}, so its output is ${gate} at reset.`,
+    });
   }
-  steps.push({ stage: 'gate', state: gate, minV: null, maxV: null,
-    note: d == null ? `The pin drives the gate directly: off only below ${fmt(t.lowMaxV)} V (half of VGS(th) min [judgement]).` : `Gate ${gate}, as the driver output.` });
+  steps.push({
+    stage: 'gate',
+    state: gate,
+    minV: null,
+    maxV: null,
+    note:
+      d == null
+        ? `The pin drives the gate directly: off only below ${fmt(t.lowMaxV)} V (half of VGS(th) min [judgement]).`
+        : `Gate ${gate}, as the driver output.`,
+  });
   const motorState: MotorState = gate === 'low' ? 'off' : gate === 'high' ? 'on' : 'may-run';
   steps.push({ stage: 'motor', state: motorState, minV: null, maxV: null, note: MOTOR_NOTE[motorState] });
   return { steps, motorState };
@@ -193,5 +259,11 @@ export function walkPowerOn(input: PowerOnInput): PowerOnResult {
   const base = { steps: asEntered.steps, motorCanStart, motorStateAtReset: asEntered.motorState };
   if (!motorCanStart) return { ...base, note: MOTOR_NOTE.off, recommendedPull: null, withRecommendedPull: null, pullDrawWhenHighA: 0 };
   const advice = recommendPull(input, sources, firstStageThresholds(input), walkChain);
-  return { ...base, note: `${MOTOR_NOTE[asEntered.motorState]} ${advice.note}`, recommendedPull: advice.pull, withRecommendedPull: advice.rewalk, pullDrawWhenHighA: advice.drawWhenHighA };
+  return {
+    ...base,
+    note: `${MOTOR_NOTE[asEntered.motorState]} ${advice.note}`,
+    recommendedPull: advice.pull,
+    withRecommendedPull: advice.rewalk,
+    pullDrawWhenHighA: advice.drawWhenHighA,
+  };
 }

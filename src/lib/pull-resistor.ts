@@ -133,7 +133,9 @@ export function worstNodeV(req: PullResistorRequest, externalOhms: number): numb
   const values: number[] = [];
   for (const re of [externalOhms * (1 - tolExt), externalOhms * (1 + tolExt)]) {
     if (internalV == null) values.push(req.external.railV + s * leakA * re);
-    else for (const ri of internalExtremesOhms(req.pin)) values.push(pullNodeVoltageV(internalV, ri, req.external.railV, re) + (s * leakA * ri * re) / (ri + re));
+    else
+      for (const ri of internalExtremesOhms(req.pin))
+        values.push(pullNodeVoltageV(internalV, ri, req.external.railV, re) + (s * leakA * ri * re) / (ri + re));
   }
   return s > 0 ? Math.max(...values) : Math.min(...values);
 }
@@ -141,15 +143,21 @@ export function worstNodeV(req: PullResistorRequest, externalOhms: number): numb
 function requestNotes(req: PullResistorRequest): string[] {
   const notes: string[] = [];
   if (req.external.to === 'up' && req.external.railV > req.pin.railV) {
-    notes.push(`The pull-up goes to ${fmt(req.external.railV)} V, above the pin's ${fmt(req.pin.railV)} V supply: use a ${fmt(req.external.railV)} V-tolerant or open-drain pin.`);
+    notes.push(
+      `The pull-up goes to ${fmt(req.external.railV)} V, above the pin's ${fmt(req.pin.railV)} V supply: use a ${fmt(req.external.railV)} V-tolerant or open-drain pin.`,
+    );
   }
   const tolInt = req.pin.internalPullTolerance ?? 0;
   if (req.pin.internalPull !== 'none' && req.pin.internalPullV != null) {
-    notes.push(`Sized against the opposing pull(s) at their strongest, together equal to ${fmt(req.pin.internalPullOhms / 1000)} kΩ to ${fmt(req.pin.internalPullV)} V.`);
+    notes.push(
+      `Sized against the opposing pull(s) at their strongest, together equal to ${fmt(req.pin.internalPullOhms / 1000)} kΩ to ${fmt(req.pin.internalPullV)} V.`,
+    );
   } else if (req.pin.internalPull !== 'none') {
-    notes.push(tolInt > 0
-      ? `Sized against the internal pull at ${fmt((req.pin.internalPullOhms * (1 - tolInt)) / 1000)}–${fmt((req.pin.internalPullOhms * (1 + tolInt)) / 1000)} kΩ (${fmt(req.pin.internalPullOhms / 1000)} kΩ ±${fmt(tolInt * 100)} %).`
-      : `Sized against the internal pull at ${fmt(req.pin.internalPullOhms / 1000)} kΩ with no tolerance: enter the typical value with its tolerance, or the datasheet minimum.`);
+    notes.push(
+      tolInt > 0
+        ? `Sized against the internal pull at ${fmt((req.pin.internalPullOhms * (1 - tolInt)) / 1000)}–${fmt((req.pin.internalPullOhms * (1 + tolInt)) / 1000)} kΩ (${fmt(req.pin.internalPullOhms / 1000)} kΩ ±${fmt(tolInt * 100)} %).`
+        : `Sized against the internal pull at ${fmt(req.pin.internalPullOhms / 1000)} kΩ with no tolerance: enter the typical value with its tolerance, or the datasheet minimum.`,
+    );
   }
   return notes;
 }
@@ -157,9 +165,10 @@ function requestNotes(req: PullResistorRequest): string[] {
 function worstCaseNote(req: PullResistorRequest, nodeV: number): string {
   const tolExt = req.external.tolerance ?? 0;
   const leakA = req.pin.leakageA ?? 0;
-  const conditions = tolExt === 0 && leakA === 0 && (req.pin.internalPullTolerance ?? 0) === 0
-    ? 'no tolerance or leakage entered, so this is the nominal divider'
-    : `worst corner: internal pull at its tolerance extreme, the resistor at ±${fmt(tolExt * 100)} %, ${fmt(leakA * 1e6)} µA leakage pushing toward the threshold`;
+  const conditions =
+    tolExt === 0 && leakA === 0 && (req.pin.internalPullTolerance ?? 0) === 0
+      ? 'no tolerance or leakage entered, so this is the nominal divider'
+      : `worst corner: internal pull at its tolerance extreme, the resistor at ±${fmt(tolExt * 100)} %, ${fmt(leakA * 1e6)} µA leakage pushing toward the threshold`;
   return `The node sits at ${fmt(nodeV)} V (${conditions}); it must stay ${req.node.mustBe === 'low' ? 'at or below' : 'at or above'} ${fmt(req.node.limitV)} V.`;
 }
 
@@ -176,16 +185,28 @@ export function sizePullResistor(req: PullResistorRequest): PullResistorResult {
   const minRawOhms = minPullOhms(req);
   const maxOhms = maxRawOhms == null ? null : roundDownToSeries(maxRawOhms, req.series);
   const minOhms = minRawOhms === 0 ? 0 : roundUpToSeries(minRawOhms, req.series);
-  const fail = (reason: string): PullResistorResult => ({ maxOhms, minOhms, chosenOhms: null, nodeV: null, activeCurrentA: null, ok: false, notes: [reason, ...notes] });
+  const fail = (reason: string): PullResistorResult => ({
+    maxOhms,
+    minOhms,
+    chosenOhms: null,
+    nodeV: null,
+    activeCurrentA: null,
+    ok: false,
+    notes: [reason, ...notes],
+  });
   if (holdOhms == null || maxRawOhms == null) {
-    return fail(`A pull-${req.external.to} to ${fmt(req.external.railV)} V cannot hold the node ${req.node.mustBe} against ${fmt(req.node.limitV)} V: pull the other way.`);
+    return fail(
+      `A pull-${req.external.to} to ${fmt(req.external.railV)} V cannot hold the node ${req.node.mustBe} against ${fmt(req.node.limitV)} V: pull the other way.`,
+    );
   }
   if (maxOhms == null || minOhms == null || maxOhms < minOhms) return fail(fitFailure(req, maxRawOhms, minRawOhms));
   const chosenOhms = maxOhms;
   const nodeV = worstNodeV(req, chosenOhms);
   const activeCurrentA = worstPullCurrentA(activePinV(req) - req.external.railV, chosenOhms, req.external.tolerance ?? 0);
   if (holdOhms > ceilingOhms) {
-    notes.push(`Capped at the practical ceiling of ${fmt(ceilingOhms / 1000)} kΩ: above it leakage and pick-up, not the resistor, set the node.`);
+    notes.push(
+      `Capped at the practical ceiling of ${fmt(ceilingOhms / 1000)} kΩ: above it leakage and pick-up, not the resistor, set the node.`,
+    );
   }
   return { maxOhms, minOhms, chosenOhms, nodeV, activeCurrentA, ok: true, notes: [worstCaseNote(req, nodeV), ...notes] };
 }

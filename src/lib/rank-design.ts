@@ -8,13 +8,27 @@ import { fmt, type Check } from './checks.ts';
 import { avalancheEnergyJ, avalanchePowerW } from './diode-checks.ts';
 import type { PartOf } from './domain/parts.ts';
 import {
-  describeDriverNeed, driverSupplyOf, gateDriveOfDriver, powerOnForPair, provisionalDriver, rankDriverCandidates, type DriverCandidateResult,
+  describeDriverNeed,
+  driverSupplyOf,
+  gateDriveOfDriver,
+  powerOnForPair,
+  provisionalDriver,
+  rankDriverCandidates,
+  type DriverCandidateResult,
 } from './driver-ranking.ts';
 import { DEFAULT_DIODE_FORWARD_V, motorConsistencyOf, motorModelOf, worstCaseOf, type DesignCase, type WorstCase } from './design-case.ts';
 import { suggestedDriveRailV } from './mosfet-checks.ts';
 import type { PowerOnResult } from './power-on.ts';
 import { pullDrawCurrentA } from './power-on-advice.ts';
-import { evaluateSwitchPart, pinGateDrive, rankDiodeCandidates, sortCandidates, type CandidateResult, type GateDrive, type SwitchCandidateResult } from './ranking.ts';
+import {
+  evaluateSwitchPart,
+  pinGateDrive,
+  rankDiodeCandidates,
+  sortCandidates,
+  type CandidateResult,
+  type GateDrive,
+  type SwitchCandidateResult,
+} from './ranking.ts';
 import { lowestSpecVgsV, rdsOnPointsAt25C } from './rdson.ts';
 import { pwmFrequencyCaution } from './ripple.ts';
 import { formatSi } from './units.ts';
@@ -92,7 +106,12 @@ function diodeForwardFor(c: DesignCase, catalogue: DesignCatalogue, picks: Desig
 }
 
 /** Direct drive: the pin, less what a recommended gate pull-down draws while the pin drives high. */
-function directDrive(c: DesignCase, wc: WorstCase, catalogue: DesignCatalogue, picks: DesignPicks): { drive: GateDrive; list: SwitchCandidateResult[]; draw: number } {
+function directDrive(
+  c: DesignCase,
+  wc: WorstCase,
+  catalogue: DesignCatalogue,
+  picks: DesignPicks,
+): { drive: GateDrive; list: SwitchCandidateResult[]; draw: number } {
   const bare = catalogue.mosfets.map((m) => evaluateSwitchPart(c, m, pinGateDrive(c, wc), wc));
   const reference = byId(catalogue.mosfets, picks.switchId) ?? byId(catalogue.mosfets, sortCandidates(bare)[0]?.partId);
   const pull = reference ? powerOnForPair(c, null, reference).recommendedPull : null;
@@ -106,10 +125,20 @@ function directDrive(c: DesignCase, wc: WorstCase, catalogue: DesignCatalogue, p
 function failureSummary(list: SwitchCandidateResult[]): string {
   const counts = new Map<string, number>();
   for (const e of list) for (const x of hardFails(e.checks)) counts.set(x.id, (counts.get(x.id) ?? 0) + 1);
-  return [...counts.entries()].sort((a, b) => b[1] - a[1]).slice(0, 4).map(([id, n]) => `${id} (${n})`).join(', ');
+  return [...counts.entries()]
+    .sort((a, b) => b[1] - a[1])
+    .slice(0, 4)
+    .map(([id, n]) => `${id} (${n})`)
+    .join(', ');
 }
 
-function driverNote(c: DesignCase, catalogue: DesignCatalogue, direct: SwitchCandidateResult[], needed: boolean, fixable: SwitchCandidateResult | undefined): string | null {
+function driverNote(
+  c: DesignCase,
+  catalogue: DesignCatalogue,
+  direct: SwitchCandidateResult[],
+  needed: boolean,
+  fixable: SwitchCandidateResult | undefined,
+): string | null {
   if (direct.some((e) => e.verdict === 'pass')) return null;
   if (!needed) {
     return direct.length === 0
@@ -126,9 +155,13 @@ function dynamicCautions(c: DesignCase, wc: WorstCase, diode: CandidateResult[])
   const cautions: string[] = [];
   const consistency = motorConsistencyOf(c);
   if (consistency.warning) cautions.push(consistency.warning);
-  cautions.push(`Worst-case start-up current is ${fmt(wc.stallCurrentMaxA)} A (stall at ${fmt(wc.supplyMaxV)} V with the winding at ${fmt(wc.windingColdC)} °C): fuse and wiring must carry it.`);
+  cautions.push(
+    `Worst-case start-up current is ${fmt(wc.stallCurrentMaxA)} A (stall at ${fmt(wc.supplyMaxV)} V with the winding at ${fmt(wc.windingColdC)} °C): fuse and wiring must carry it.`,
+  );
   if ((c.stallProtection?.kind ?? 'none') === 'none') {
-    cautions.push('No stall protection is set: a jammed shaft holds the switch on at stall current until someone notices. Switch, diode and motor case can exceed 100 °C; consider a current limit or a timed cut-off.');
+    cautions.push(
+      'No stall protection is set: a jammed shaft holds the switch on at stall current until someone notices. Switch, diode and motor case can exceed 100 °C; consider a current limit or a timed cut-off.',
+    );
   }
   cautions.push('Junction temperatures use the datasheet RθJA from its test board; your board may run hotter or cooler.');
   if (wc.pwmHz != null && c.motor.inductanceH != null) {
@@ -139,8 +172,13 @@ function dynamicCautions(c: DesignCase, wc: WorstCase, diode: CandidateResult[])
   const diodeOk = diode.some((d) => d.verdict !== 'fail');
   if (!diodeOk && c.motor.inductanceH != null) {
     const energyJ = avalancheEnergyJ(c.motor.inductanceH, wc.stallCurrentMaxA);
-    const perCycle = wc.pwmHz != null ? `, ${fmt(avalanchePowerW(c.motor.inductanceH, wc.stallCurrentMaxA, wc.pwmHz))} W at ${formatSi(wc.pwmHz, 'Hz', 3)}` : '';
-    cautions.push(`No suitable freewheel diode: without one, ½·L·I² = ${fmt(energyJ * 1000)} mJ avalanches the switch at every turn-off${perCycle}.`);
+    const perCycle =
+      wc.pwmHz != null
+        ? `, ${fmt(avalanchePowerW(c.motor.inductanceH, wc.stallCurrentMaxA, wc.pwmHz))} W at ${formatSi(wc.pwmHz, 'Hz', 3)}`
+        : '';
+    cautions.push(
+      `No suitable freewheel diode: without one, ½·L·I² = ${fmt(energyJ * 1000)} mJ avalanches the switch at every turn-off${perCycle}.`,
+    );
   }
   return cautions;
 }
@@ -160,17 +198,23 @@ export function rankDesign(c0: DesignCase, catalogue: DesignCatalogue, picks: De
   const chosenDriver = byId(catalogue.drivers, picks.driverId);
   const refDriver = chosenDriver ?? provisionalDriver(c, catalogue.drivers, wc);
   const directPasses = direct.list.some((e) => e.verdict === 'pass');
-  const withDriver = refDriver && (chosenDriver || !directPasses)
-    ? sortCandidates(catalogue.mosfets.map((m) => evaluateSwitchPart(c, m, gateDriveOfDriver(c, refDriver), wc)))
-    : [];
-  const fixable = withDriver.find((e) => e.verdict === 'pass') ?? direct.list.find((e) => hardFails(e.checks).length > 0 && hardFails(e.checks).every((x) => DRIVER_FIXABLE.has(x.id)));
+  const withDriver =
+    refDriver && (chosenDriver || !directPasses)
+      ? sortCandidates(catalogue.mosfets.map((m) => evaluateSwitchPart(c, m, gateDriveOfDriver(c, refDriver), wc)))
+      : [];
+  const fixable =
+    withDriver.find((e) => e.verdict === 'pass') ??
+    direct.list.find((e) => hardFails(e.checks).length > 0 && hardFails(e.checks).every((x) => DRIVER_FIXABLE.has(x.id)));
   const driverHelps = !directPasses && fixable != null;
   const usesDriver = chosenDriver != null || driverHelps;
 
   const effective = usesDriver ? withDriver : direct.list;
   const switchPart = byId(catalogue.mosfets, picks.switchId) ?? byId(catalogue.mosfets, effective[0]?.partId);
-  const driver = usesDriver && switchPart ? rankDriverCandidates(c, catalogue.drivers, switchPart, wc, picks.resetStartIntended === true) : [];
-  const walkDriver = usesDriver ? chosenDriver ?? byId(catalogue.drivers, driver.find((d) => d.verdict !== 'fail')?.partId ?? driver[0]?.partId) : undefined;
+  const driver =
+    usesDriver && switchPart ? rankDriverCandidates(c, catalogue.drivers, switchPart, wc, picks.resetStartIntended === true) : [];
+  const walkDriver = usesDriver
+    ? (chosenDriver ?? byId(catalogue.drivers, driver.find((d) => d.verdict !== 'fail')?.partId ?? driver[0]?.partId))
+    : undefined;
   const powerOn = powerOnFor(c, switchPart, walkDriver);
   const drive = usesDriver && refDriver ? gateDriveOfDriver(c, refDriver) : direct.drive;
   return {
@@ -181,9 +225,13 @@ export function rankDesign(c0: DesignCase, catalogue: DesignCatalogue, picks: De
     requiredGateDriveV: switchPart ? lowestSpecVgsV(rdsOnPointsAt25C(switchPart.params.rdsOn)) : null,
     switchWithDriver: usesDriver ? withDriver : [],
     switchDrive: {
-      by: usesDriver && refDriver ? 'driver' : 'pin', gateV: drive.voltageV, sourceCurrentA: drive.sourceCurrentA,
-      driverPartId: drive.driverPartId ?? null, driverMpn: drive.driverMpn ?? null,
-      provisional: usesDriver && chosenDriver == null, pullDownDrawA: usesDriver ? 0 : direct.draw,
+      by: usesDriver && refDriver ? 'driver' : 'pin',
+      gateV: drive.voltageV,
+      sourceCurrentA: drive.sourceCurrentA,
+      driverPartId: drive.driverPartId ?? null,
+      driverMpn: drive.driverMpn ?? null,
+      provisional: usesDriver && chosenDriver == null,
+      pullDownDrawA: usesDriver ? 0 : direct.draw,
     },
     driver,
     diode,

@@ -23,7 +23,14 @@ export interface CandidateResult {
 export interface SwitchCandidateResult extends CandidateResult {
   evaluation: Omit<SwitchEvaluation, 'checks' | 'verdict'>;
   /** The gate drive the switch was judged at. */
-  drive: { gateV: number; sourceCurrentA: number; sinkCurrentA: number; by: 'pin' | 'driver'; driverPartId: number | null; driverMpn: string | null };
+  drive: {
+    gateV: number;
+    sourceCurrentA: number;
+    sinkCurrentA: number;
+    by: 'pin' | 'driver';
+    driverPartId: number | null;
+    driverMpn: string | null;
+  };
 }
 
 /** A gate drive other than the bare controller pin: a real driver's output high at its lowest supply, and its currents. */
@@ -46,51 +53,81 @@ const INFORMATIVE = new Set(['surge-current', 'drain-spike', 'polarity', 'paired
 
 export function scoreOf(checks: readonly Check[], verdict: Verdict = verdictOf(checks)): number {
   if (verdict === 'fail') return 0;
-  const margins = checks.filter((c) => !INFORMATIVE.has(c.id) && c.limit != null && c.margin != null && Number.isFinite(c.margin)).map((c) => c.margin as number);
+  const margins = checks
+    .filter((c) => !INFORMATIVE.has(c.id) && c.limit != null && c.margin != null && Number.isFinite(c.margin))
+    .map((c) => c.margin as number);
   const smallest = margins.length > 0 ? Math.min(...margins) : 1;
   return Math.round(Math.min(100, Math.max(0, 100 * smallest)) * 10) / 10;
 }
 
 export function sortCandidates<T extends CandidateResult>(results: T[], tiebreak?: (a: T, b: T) => number): T[] {
   return [...results].sort(
-    (a, b) => VERDICT_RANK[a.verdict] - VERDICT_RANK[b.verdict] || b.score - a.score || (tiebreak?.(a, b) ?? 0) || a.mpn.localeCompare(b.mpn),
+    (a, b) =>
+      VERDICT_RANK[a.verdict] - VERDICT_RANK[b.verdict] || b.score - a.score || (tiebreak?.(a, b) ?? 0) || a.mpn.localeCompare(b.mpn),
   );
 }
 
 export function switchInputFromPart(part: PartOf<'mosfet'>): SwitchMosfetInput {
   const p = part.params;
   return {
-    vdsMaxV: p.vdsMaxV, vgsMaxV: p.vgsMaxV, vgsThMaxV: p.vgsThMaxV, idPulsedA: p.idPulsedA, tjMaxC: p.tjMaxC,
-    rthJaCPerW: p.rthJaCPerW, qgTotalNc: p.qgTotalNc, qgdNc: p.qgdNc, qgsNc: p.qgsNc, vPlateauV: p.vPlateauV,
-    rdsOn: rdsOnPointsAt25C(p.rdsOn), channel: p.channel, zthPoints: p.zthPoints,
+    vdsMaxV: p.vdsMaxV,
+    vgsMaxV: p.vgsMaxV,
+    vgsThMaxV: p.vgsThMaxV,
+    idPulsedA: p.idPulsedA,
+    tjMaxC: p.tjMaxC,
+    rthJaCPerW: p.rthJaCPerW,
+    qgTotalNc: p.qgTotalNc,
+    qgdNc: p.qgdNc,
+    qgsNc: p.qgsNc,
+    vPlateauV: p.vPlateauV,
+    rdsOn: rdsOnPointsAt25C(p.rdsOn),
+    channel: p.channel,
+    zthPoints: p.zthPoints,
   };
 }
 
 /** The controller pin as a gate drive: its lowest high level and its current, less what a gate pull-down draws. */
 export function pinGateDrive(c: DesignCase, wc: WorstCase, pullDownDrawA = 0): GateDrive {
   return {
-    voltageV: wc.gateDriveMinV, maxVoltageV: wc.gateDriveMaxV,
-    sourceCurrentA: Math.max(1e-6, c.logic.pinSourceCurrentA - pullDownDrawA), sinkCurrentA: c.logic.pinSinkCurrentA,
-    driverPartId: null, driverMpn: null,
+    voltageV: wc.gateDriveMinV,
+    maxVoltageV: wc.gateDriveMaxV,
+    sourceCurrentA: Math.max(1e-6, c.logic.pinSourceCurrentA - pullDownDrawA),
+    sinkCurrentA: c.logic.pinSinkCurrentA,
+    driverPartId: null,
+    driverMpn: null,
   };
 }
 
 /** The switch's operating values for this case at a given gate drive (the pin's, or a real driver's). */
 export function switchOperatingFor(c: DesignCase, wc: WorstCase, drive: GateDrive): SwitchOperatingInput {
   return {
-    supplyMaxV: wc.supplyMaxV, runningCurrentA: wc.runningCurrentA, stallCurrentA: wc.stallCurrentMaxA,
-    gateDriveV: drive.voltageV, gateDriveMaxV: drive.maxVoltageV ?? drive.voltageV,
-    gateDriveCurrentA: drive.sourceCurrentA, gateDriveSinkCurrentA: drive.sinkCurrentA,
+    supplyMaxV: wc.supplyMaxV,
+    runningCurrentA: wc.runningCurrentA,
+    stallCurrentA: wc.stallCurrentMaxA,
+    gateDriveV: drive.voltageV,
+    gateDriveMaxV: drive.maxVoltageV ?? drive.voltageV,
+    gateDriveCurrentA: drive.sourceCurrentA,
+    gateDriveSinkCurrentA: drive.sinkCurrentA,
     gateResistanceOhm: c.gateResistanceOhm ?? 0,
     ...(wc.pwmHz != null ? { pwmHz: wc.pwmHz, duty: wc.switchDuty } : {}),
-    ambientC: wc.ambientMaxC, diodeForwardV: wc.diodeForwardV,
-    currentRmsA: wc.switchRmsA, turnOnCurrentA: wc.turnOnCurrentA, turnOffCurrentA: wc.turnOffCurrentA,
-    stallProtection: wc.stall.protection, stallDuty: wc.stall.duty, stallCurrentRmsA: wc.stall.currentRmsA,
+    ambientC: wc.ambientMaxC,
+    diodeForwardV: wc.diodeForwardV,
+    currentRmsA: wc.switchRmsA,
+    turnOnCurrentA: wc.turnOnCurrentA,
+    turnOffCurrentA: wc.turnOffCurrentA,
+    stallProtection: wc.stall.protection,
+    stallDuty: wc.stall.duty,
+    stallCurrentRmsA: wc.stall.currentRmsA,
   };
 }
 
 /** Evaluates one MOSFET part for the case at a gate drive; P-channel parts get a failing 'channel' check (low-side design). */
-export function evaluateSwitchPart(c: DesignCase, part: PartOf<'mosfet'>, drive: GateDrive, wc: WorstCase = worstCaseOf(c)): SwitchCandidateResult {
+export function evaluateSwitchPart(
+  c: DesignCase,
+  part: PartOf<'mosfet'>,
+  drive: GateDrive,
+  wc: WorstCase = worstCaseOf(c),
+): SwitchCandidateResult {
   const margins = marginsOf(c);
   const result = evaluateSwitch({ mosfet: switchInputFromPart(part), operating: switchOperatingFor(c, wc, drive), margins });
   return {
@@ -110,14 +147,23 @@ export function evaluateSwitchPart(c: DesignCase, part: PartOf<'mosfet'>, drive:
       stallCurrentRmsA: result.stallCurrentRmsA,
     },
     drive: {
-      gateV: drive.voltageV, sourceCurrentA: drive.sourceCurrentA, sinkCurrentA: drive.sinkCurrentA,
-      by: drive.driverPartId != null ? 'driver' : 'pin', driverPartId: drive.driverPartId ?? null, driverMpn: drive.driverMpn ?? null,
+      gateV: drive.voltageV,
+      sourceCurrentA: drive.sourceCurrentA,
+      sinkCurrentA: drive.sinkCurrentA,
+      by: drive.driverPartId != null ? 'driver' : 'pin',
+      driverPartId: drive.driverPartId ?? null,
+      driverMpn: drive.driverMpn ?? null,
     },
   };
 }
 
 /** Switches ranked at one gate drive for all (the controller pin unless a driver's drive is given). */
-export function rankSwitchCandidates(c: DesignCase, mosfets: PartOf<'mosfet'>[], drive?: GateDrive, wc: WorstCase = worstCaseOf(c)): SwitchCandidateResult[] {
+export function rankSwitchCandidates(
+  c: DesignCase,
+  mosfets: PartOf<'mosfet'>[],
+  drive?: GateDrive,
+  wc: WorstCase = worstCaseOf(c),
+): SwitchCandidateResult[] {
   const d = drive ?? pinGateDrive(c, wc);
   return sortCandidates(mosfets.map((m) => evaluateSwitchPart(c, m, d, wc)));
 }
@@ -125,12 +171,17 @@ export function rankSwitchCandidates(c: DesignCase, mosfets: PartOf<'mosfet'>[],
 export function evaluateDiodePart(c: DesignCase, part: PartOf<'diode'>, wc: WorstCase): CandidateResult {
   const resistanceOhm = c.motor.terminalResistanceOhm ?? c.motor.ratedVoltageV / c.motor.stallCurrentA;
   const checks = checkDiode({
-    diode: part.params, supplyMaxV: wc.supplyMaxV, meanCurrentA: wc.diodeMeanCurrentA,
+    diode: part.params,
+    supplyMaxV: wc.supplyMaxV,
+    meanCurrentA: wc.diodeMeanCurrentA,
     // Under PWM the turn-off current recurs every cycle; for on/off it is the one-off current after a jam.
     peakCurrentA: wc.diodeRepetitivePeakA ?? wc.stall.currentA,
-    stallMeanCurrentA: wc.stall.diodeMeanA, ambientC: wc.ambientMaxC,
-    pwmHz: wc.pwmHz, voltageDerating: marginsOf(c).voltageDerating,
-    motorInductanceH: c.motor.inductanceH, motorResistanceOhm: resistanceOhm,
+    stallMeanCurrentA: wc.stall.diodeMeanA,
+    ambientC: wc.ambientMaxC,
+    pwmHz: wc.pwmHz,
+    voltageDerating: marginsOf(c).voltageDerating,
+    motorInductanceH: c.motor.inductanceH,
+    motorResistanceOhm: resistanceOhm,
   });
   const verdict = verdictOf(checks);
   return { partId: part.id ?? null, mpn: part.mpn, manufacturer: part.manufacturer, verdict, score: scoreOf(checks, verdict), checks };

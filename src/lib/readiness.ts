@@ -52,7 +52,11 @@ export const hardFails = (checks: readonly Check[]): Check[] => checks.filter((c
 /** A review status other than approved, in words a buyer reads plainly. */
 export function reviewWords(status: ReviewStatus): string {
   if (status === 'approved') return 'approved';
-  const what: Record<Exclude<ReviewStatus, 'approved'>, string> = { pending: 'pending review', draft: 'a draft, not reviewed', rejected: 'rejected in review' };
+  const what: Record<Exclude<ReviewStatus, 'approved'>, string> = {
+    pending: 'pending review',
+    draft: 'a draft, not reviewed',
+    rejected: 'rejected in review',
+  };
   return `${what[status]} — not approved`;
 }
 
@@ -86,7 +90,8 @@ function roleIssues(input: DesignInput, match: DesignMatch, role: PartRole, ctx:
   const issues: ReadinessIssue[] = [];
   const usesDriver = match.driverNeeded;
   if (sel.chosenPartId == null) {
-    if (role !== 'driver' || usesDriver) issues.push({ path: `selections.${role}.chosenPartId`, message: `choose a ${ROLE_NAMES[role]} first` });
+    if (role !== 'driver' || usesDriver)
+      issues.push({ path: `selections.${role}.chosenPartId`, message: `choose a ${ROLE_NAMES[role]} first` });
   }
   const picks = [
     ...(sel.chosenPartId != null ? [{ path: `selections.${role}.chosenPartId`, id: sel.chosenPartId }] : []),
@@ -96,7 +101,10 @@ function roleIssues(input: DesignInput, match: DesignMatch, role: PartRole, ctx:
     const facts = ctx.parts?.get(pick.id);
     if (role === 'driver' && !usesDriver && list.length === 0) {
       // Direct drive: no driver was judged, so one on the BOM would be a pick nobody checked.
-      issues.push({ path: pick.path, message: `${facts?.mpn ?? `part ${pick.id}`} is not judged in this design (the switch is driven straight from the logic pin): take it out` });
+      issues.push({
+        path: pick.path,
+        message: `${facts?.mpn ?? `part ${pick.id}`} is not judged in this design (the switch is driven straight from the logic pin): take it out`,
+      });
       continue;
     }
     const problem = pickProblem(find(pick.id), pick.id, facts);
@@ -130,10 +138,12 @@ function powerOnIssues(input: DesignInput, match: DesignMatch): ReadinessIssue[]
   const state = motorStateAtReset(match.powerOn);
   if (state == null || state === 'off' || input.resetStartIntent) return [];
   const what = state === 'on' ? 'starts' : 'may start';
-  return [{
-    path: 'resetStartIntent',
-    message: `the motor ${what} at power-up or reset (${match.powerOn?.note ?? 'see the power-on walk'}): change the reset state or the pull, or record why a start at reset is intended`,
-  }];
+  return [
+    {
+      path: 'resetStartIntent',
+      message: `the motor ${what} at power-up or reset (${match.powerOn?.note ?? 'see the power-on walk'}): change the reset state or the pull, or record why a start at reset is intended`,
+    },
+  ];
 }
 
 function supplyIssues(match: DesignMatch): ReadinessIssue[] {
@@ -146,7 +156,8 @@ function supplyIssues(match: DesignMatch): ReadinessIssue[] {
 function motorIssues(motor: PartFacts | null | undefined): ReadinessIssue[] {
   if (!motor) return [];
   if (motor.lifecycle === 'obsolete') return [{ path: 'motor.partId', message: `the motor ${motor.mpn} is obsolete` }];
-  if (motor.reviewStatus !== 'approved') return [{ path: 'motor.partId', message: `the motor ${motor.mpn} is ${reviewWords(motor.reviewStatus)}` }];
+  if (motor.reviewStatus !== 'approved')
+    return [{ path: 'motor.partId', message: `the motor ${motor.mpn} is ${reviewWords(motor.reviewStatus)}` }];
   return [];
 }
 
@@ -174,13 +185,17 @@ const MARK: Readonly<Record<Verdict, string>> = { pass: '✓ pass', marginal: '!
 export function pickStatus(match: DesignMatch, role: PartRole, partId: number, facts?: PartFacts): PickStatus {
   const list = roleList(match, role);
   const entry = list.find((e) => e.partId === partId);
-  const problem = role === 'driver' && !match.driverNeeded && list.length === 0
-    ? 'not judged (direct drive)'
-    : pickProblem(entry, partId, facts);
+  const problem =
+    role === 'driver' && !match.driverNeeded && list.length === 0 ? 'not judged (direct drive)' : pickProblem(entry, partId, facts);
   if (!entry) return { verdict: null, reviewStatus: facts?.reviewStatus ?? null, holds: false, text: `✕ ${problem ?? 'not a candidate'}` };
   const review = reviewWords(entry.reviewStatus);
   const failing = hardFails(entry.checks).map((c) => c.id);
   const margins = entry.checks.filter((c) => !c.ok && c.severity === 'margin').map((c) => c.id);
   const detail = failing.length ? ` (${failing.join(', ')})` : margins.length ? ` (margin: ${margins.join(', ')})` : '';
-  return { verdict: entry.verdict, reviewStatus: entry.reviewStatus, holds: problem == null, text: `${MARK[entry.verdict]}${detail} · ${review}` };
+  return {
+    verdict: entry.verdict,
+    reviewStatus: entry.reviewStatus,
+    holds: problem == null,
+    text: `${MARK[entry.verdict]}${detail} · ${review}`,
+  };
 }

@@ -240,7 +240,15 @@ function runInterval(startA: number, interval: Interval, r: number, l: number, t
 
 function runPeriod(startA: number, on: Interval, off: Interval, r: number, l: number): PeriodTotals {
   const totals: PeriodTotals = {
-    endA: 0, turnOffA: 0, minA: startA, maxA: startA, onChargeAs: 0, onSquareA2s: 0, offChargeAs: 0, offSquareA2s: 0, zeroS: 0,
+    endA: 0,
+    turnOffA: 0,
+    minA: startA,
+    maxA: startA,
+    onChargeAs: 0,
+    onSquareA2s: 0,
+    offChargeAs: 0,
+    offSquareA2s: 0,
+    zeroS: 0,
   };
   totals.turnOffA = runInterval(startA, on, r, l, totals, true);
   totals.endA = runInterval(totals.turnOffA, off, r, l, totals, false);
@@ -253,7 +261,11 @@ function simulationIntervals(input: RippleInput, stepsPerPeriod: number): { on: 
   const offSteps = input.duty < 1 ? Math.max(1, Math.round((1 - input.duty) * stepsPerPeriod)) : 0;
   return {
     on: { driveV: input.supplyV - input.backEmfV, steps: onSteps, stepS: onSteps > 0 ? (input.duty * periodS) / onSteps : 0 },
-    off: { driveV: -input.diodeForwardV - input.backEmfV, steps: offSteps, stepS: offSteps > 0 ? ((1 - input.duty) * periodS) / offSteps : 0 },
+    off: {
+      driveV: -input.diodeForwardV - input.backEmfV,
+      steps: offSteps,
+      stepS: offSteps > 0 ? ((1 - input.duty) * periodS) / offSteps : 0,
+    },
   };
 }
 

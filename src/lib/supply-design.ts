@@ -25,8 +25,15 @@ import { motorModelOf } from './design-case.ts';
 import { motorAtSupply, type MotorModel } from './motor.ts';
 import { operatingPointAtSpeed, operatingPointAtTorque } from './motor-curve.ts';
 import {
-  brownoutCheck, bulkCapacitanceF, mechanicalTimeConstantS, runningCurrentCheck, startCurrentCheck, startFigures, supplyNotes,
-  type SupplyCase, type SupplyReport,
+  brownoutCheck,
+  bulkCapacitanceF,
+  mechanicalTimeConstantS,
+  runningCurrentCheck,
+  startCurrentCheck,
+  startFigures,
+  supplyNotes,
+  type SupplyCase,
+  type SupplyReport,
 } from './supply.ts';
 
 /** Above this multiple of the motor's rated maximum the supply is a fail, not a caution [practice]. */
@@ -61,7 +68,15 @@ export function supplyMotorVoltageCheck(supplyMaxV: number, motor: DesignCase['m
     ? `Supply maximum ${fmt(supplyMaxV)} V is within the motor's ${rated}.`
     : `⚠ Supply maximum ${fmt(supplyMaxV)} V is above the motor's ${rated}: it over-speeds and runs hot, brushes and bearings wear early${over ? `; above ${fmt(failV)} V (1.5×) this is a fail` : ''}. Lower the supply (or limit the duty) or choose a motor rated for it.`;
   return makeCheck(
-    { id: 'supply-motor-voltage', ok, value: supplyMaxV, limit: ratedMaxV, unit: 'V', margin: ratedMaxV !== 0 ? (ratedMaxV - supplyMaxV) / ratedMaxV : null, note },
+    {
+      id: 'supply-motor-voltage',
+      ok,
+      value: supplyMaxV,
+      limit: ratedMaxV,
+      unit: 'V',
+      margin: ratedMaxV !== 0 ? (ratedMaxV - supplyMaxV) / ratedMaxV : null,
+      note,
+    },
     over ? 'hard' : 'margin',
   );
 }
@@ -69,7 +84,10 @@ export function supplyMotorVoltageCheck(supplyMaxV: number, motor: DesignCase['m
 function caseAt(c: DesignCase, model: MotorModel, supplyV: number, windingC: number): SupplyCase {
   const internalResistanceOhm = c.source?.internalResistanceOhm ?? 0;
   return {
-    model, supplyV, windingC, internalResistanceOhm,
+    model,
+    supplyV,
+    windingC,
+    internalResistanceOhm,
     // DesignCase.seriesResistanceOhm already carries R_int; the source's share is taken back out here.
     seriesResistanceOhm: Math.max(0, c.seriesResistanceOhm - internalResistanceOhm),
     currentLimitA: c.source?.currentLimitA ?? null,
@@ -81,12 +99,20 @@ function designBulk(c: DesignCase, model: MotorModel): { bulk: { capacitanceF: n
   const logic = c.logicSupply;
   if (!logic) return { bulk: null, reason: null };
   const J = c.motor.rotorInertiaKgM2;
-  if (J == null) return { bulk: null, reason: 'No bulk-capacitance figure: the motor record gives no rotor inertia J, and the ride-through time τm = J·R/(Kt·Ke) needs it.' };
+  if (J == null)
+    return {
+      bulk: null,
+      reason: 'No bulk-capacitance figure: the motor record gives no rotor inertia J, and the ride-through time τm = J·R/(Kt·Ke) needs it.',
+    };
   const limitV = logic.minSupplyV + logic.regulatorDropoutV;
   let best: { capacitanceF: number; tauS: number } | null = null;
   for (const supplyV of [c.supplyMinV, c.supplyMaxV]) {
     const dipV = supplyV - limitV;
-    if (!(dipV > 0)) return { bulk: null, reason: `No bulk-capacitance figure: at ${fmt(supplyV)} V the source is not above the ${fmt(limitV)} V the controller needs, so no dip is allowed.` };
+    if (!(dipV > 0))
+      return {
+        bulk: null,
+        reason: `No bulk-capacitance figure: at ${fmt(supplyV)} V the source is not above the ${fmt(limitV)} V the controller needs, so no dip is allowed.`,
+      };
     const k = caseAt(c, model, supplyV, c.ambientMinC);
     const start = startFigures(k);
     const tauS = mechanicalTimeConstantS(model, J, start.loopOhm);
@@ -110,11 +136,19 @@ export function supplyReportForCase(c: DesignCase, model: MotorModel = motorMode
   if (c.logicSupply) checks.push(brownoutCheck(sag.sourceVoltageAtStartV, c.logicSupply));
   const { bulk, reason } = designBulk(c, model);
   const notes = supplyNotes({
-    checks, supplyV: c.supplyMinV, startCurrentA: startMax.startCurrentA, internalResistanceOhm: c.source?.internalResistanceOhm ?? 0,
-    currentLimitA: limitA, logic: c.logicSupply ?? null, bulk, noBulkReason: reason,
+    checks,
+    supplyV: c.supplyMinV,
+    startCurrentA: startMax.startCurrentA,
+    internalResistanceOhm: c.source?.internalResistanceOhm ?? 0,
+    currentLimitA: limitA,
+    logic: c.logicSupply ?? null,
+    bulk,
+    noBulkReason: reason,
   });
   if (startWeak.startTorqueNm < loadTorqueNm && startWeak.startActualCurrentA === startWeak.startCurrentA) {
-    notes.unshift(`At the lowest supply (${fmt(c.supplyMinV)} V, winding at ${fmt(c.ambientMaxC)} °C) the motor's own start torque (${fmt(startWeak.startTorqueNm * 1000)} mN·m) is below the ${fmt(loadTorqueNm * 1000)} mN·m load: it stalls whatever the source.`);
+    notes.unshift(
+      `At the lowest supply (${fmt(c.supplyMinV)} V, winding at ${fmt(c.ambientMaxC)} °C) the motor's own start torque (${fmt(startWeak.startTorqueNm * 1000)} mN·m) is below the ${fmt(loadTorqueNm * 1000)} mN·m load: it stalls whatever the source.`,
+    );
   }
   return {
     verdict: verdictOf(checks),

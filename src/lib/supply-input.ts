@@ -16,8 +16,13 @@ export function findSupplyPreset(id: string | null): SupplyPreset | undefined {
 /** Everything a preset carries: voltages, internal resistance, continuous rating and current limit. */
 export function supplyFromPreset(p: SupplyPreset): DesignSupply {
   return {
-    minV: p.minV, nomV: p.nomV, maxV: p.maxV, preset: p.id,
-    internalResistanceOhm: p.internalResistanceOhm, continuousCurrentA: p.continuousCurrentA, currentLimitA: p.currentLimitA,
+    minV: p.minV,
+    nomV: p.nomV,
+    maxV: p.maxV,
+    preset: p.id,
+    internalResistanceOhm: p.internalResistanceOhm,
+    continuousCurrentA: p.continuousCurrentA,
+    currentLimitA: p.currentLimitA,
   };
 }
 

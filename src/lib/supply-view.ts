@@ -28,7 +28,9 @@ export function checkVerdict(check: Pick<Check, 'ok' | 'severity'>): Verdict {
 /** "1.53 A", "500 mA", "2.54 V"; an em dash when there is no number. */
 export function quantityText(value: number | null, unit: string): string {
   if (value == null || !Number.isFinite(value)) return '—';
-  return formatSi(value, unit, 3).replace(/(\.\d*?)0+(?=\s)/, '$1').replace(/\.(?=\s)/, '');
+  return formatSi(value, unit, 3)
+    .replace(/(\.\d*?)0+(?=\s)/, '$1')
+    .replace(/\.(?=\s)/, '');
 }
 
 /** Torques in mN·m whatever their size (0.637 mN·m, not 637 µN·m): the unit the motor's figures use. */

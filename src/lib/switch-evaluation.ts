@@ -4,10 +4,27 @@
  */
 import { verdictOf, type Check, type Verdict } from './checks.ts';
 import {
-  checkChannel, checkDrainVoltage, checkGateDrive, checkGateVoltageRating, checkJunctionTemperature, checkMillerPlateau,
-  checkRdsOnTestCurrent, checkRunningCurrent, checkStallCurrent, checkStallThermal, checkSwitchingEdges, type NoJunctionReason,
+  checkChannel,
+  checkDrainVoltage,
+  checkGateDrive,
+  checkGateVoltageRating,
+  checkJunctionTemperature,
+  checkMillerPlateau,
+  checkRdsOnTestCurrent,
+  checkRunningCurrent,
+  checkStallCurrent,
+  checkStallThermal,
+  checkSwitchingEdges,
+  type NoJunctionReason,
 } from './mosfet-checks.ts';
-import { DEFAULT_RDSON_TEMPCO_PER_C, governingLineAt, lowestSpecVgsV, rdsOnAtDriveOhm, rdsOnAtTemperatureOhm, type RdsOnPoint } from './rdson.ts';
+import {
+  DEFAULT_RDSON_TEMPCO_PER_C,
+  governingLineAt,
+  lowestSpecVgsV,
+  rdsOnAtDriveOhm,
+  rdsOnAtTemperatureOhm,
+  type RdsOnPoint,
+} from './rdson.ts';
 import { gateDrivePowerW, switchingChargeNc, switchingLossAtEdgesW, switchingTimes, type SwitchingTimes } from './switching.ts';
 import { maxCurrentAtAmbientA, solveConductionJunction, zthAtPulseCPerW, type ZthCurvePoint } from './thermal.ts';
 
@@ -136,17 +153,32 @@ function stallCaseOf(op: SwitchOperatingInput, pwmHz: number | null): StallCase 
   return { protection, duty, currentA, currentRmsA };
 }
 
-function stallThermalCheck(m: SwitchMosfetInput, op: SwitchOperatingInput, rdsOn25: number | null, alpha: number, edges: SwitchingTimes, pwmHz: number | null): { check: Check; junctionC: number | null; rmsA: number } {
+function stallThermalCheck(
+  m: SwitchMosfetInput,
+  op: SwitchOperatingInput,
+  rdsOn25: number | null,
+  alpha: number,
+  edges: SwitchingTimes,
+  pwmHz: number | null,
+): { check: Check; junctionC: number | null; rmsA: number } {
   const s = stallCaseOf(op, pwmHz);
   const base = { protection: s.protection.kind, currentRmsA: s.currentRmsA, tjMaxC: m.tjMaxC, ambientC: op.ambientC };
-  if (rdsOn25 == null) return { check: checkStallThermal({ ...base, junctionC: null, notCharacterised: true }), junctionC: null, rmsA: s.currentRmsA };
+  if (rdsOn25 == null)
+    return { check: checkStallThermal({ ...base, junctionC: null, notCharacterised: true }), junctionC: null, rmsA: s.currentRmsA };
   const cutOff = s.protection.kind === 'cut-off' ? s.protection.afterS : null;
   const usedZth = cutOff != null && (m.zthPoints?.length ?? 0) > 0;
   const rthCPerW = usedZth ? zthAtPulseCPerW(m.zthPoints ?? [], cutOff as number, m.rthJaCPerW) : m.rthJaCPerW;
   const clampV = op.supplyMaxV + op.diodeForwardV;
   const swW = pwmHz != null && s.duty < 1 ? switchingLossAtEdgesW(clampV, s.currentA, s.currentA, edges.turnOnS, edges.turnOffS, pwmHz) : 0;
   const solved = Number.isFinite(swW)
-    ? solveConductionJunction({ ambientC: op.ambientC, rthJaCPerW: rthCPerW, currentRmsA: s.currentRmsA, rdsOn25Ohm: rdsOn25, alphaPerC: alpha, otherLossW: swW })
+    ? solveConductionJunction({
+        ambientC: op.ambientC,
+        rthJaCPerW: rthCPerW,
+        currentRmsA: s.currentRmsA,
+        rdsOn25Ohm: rdsOn25,
+        alphaPerC: alpha,
+        otherLossW: swW,
+      })
     : { junctionC: null };
   const check = checkStallThermal({ ...base, junctionC: solved.junctionC, afterS: cutOff ?? undefined, usedZth });
   return { check, junctionC: solved.junctionC, rmsA: s.currentRmsA };
@@ -165,12 +197,21 @@ export function evaluateSwitch(input: SwitchEvaluationInput): SwitchEvaluation {
   const clampV = op.supplyMaxV + op.diodeForwardV;
   const swLossW = pwm.hz == null ? 0 : switchingLossAtEdgesW(clampV, turnOnA, turnOffA, edges.turnOnS, edges.turnOffS, pwm.hz);
   // A drive that never crosses the plateau leaves the part in its linear region: no steady state to report.
-  const thermal = rdsOnAtDriveOhms == null || !Number.isFinite(swLossW)
-    ? null
-    : solveConductionJunction({ ambientC: op.ambientC, rthJaCPerW: m.rthJaCPerW, currentRmsA, rdsOn25Ohm: rdsOnAtDriveOhms, alphaPerC: alpha, otherLossW: swLossW });
-  const maxCurrentA = rdsOnAtDriveOhms == null
-    ? null
-    : maxCurrentAtAmbientA(m.tjMaxC, op.ambientC, m.rthJaCPerW, rdsOnAtTemperatureOhm(rdsOnAtDriveOhms, m.tjMaxC, alpha));
+  const thermal =
+    rdsOnAtDriveOhms == null || !Number.isFinite(swLossW)
+      ? null
+      : solveConductionJunction({
+          ambientC: op.ambientC,
+          rthJaCPerW: m.rthJaCPerW,
+          currentRmsA,
+          rdsOn25Ohm: rdsOnAtDriveOhms,
+          alphaPerC: alpha,
+          otherLossW: swLossW,
+        });
+  const maxCurrentA =
+    rdsOnAtDriveOhms == null
+      ? null
+      : maxCurrentAtAmbientA(m.tjMaxC, op.ambientC, m.rthJaCPerW, rdsOnAtTemperatureOhm(rdsOnAtDriveOhms, m.tjMaxC, alpha));
   const stall = stallThermalCheck(m, op, rdsOnAtDriveOhms, alpha, edges, pwm.hz);
   const worstCurrentA = Math.max(turnOffA, op.runningCurrentA, stallCaseOf(op, pwm.hz).currentA);
   const checks: Check[] = [
@@ -182,7 +223,13 @@ export function evaluateSwitch(input: SwitchEvaluationInput): SwitchEvaluation {
     checkRdsOnTestCurrent(op.gateDriveV, m.vgsThMaxV, governingLineAt(m.rdsOn, op.gateDriveV), worstCurrentA),
     checkStallCurrent(op.stallCurrentA, m.idPulsedA),
     checkRunningCurrent(currentRmsA, maxCurrentA, op.ambientC),
-    checkJunctionTemperature(thermal?.junctionC ?? null, m.tjMaxC, margins.thermalMarginC, op.ambientC, noJunctionReason(rdsOnAtDriveOhms, swLossW)),
+    checkJunctionTemperature(
+      thermal?.junctionC ?? null,
+      m.tjMaxC,
+      margins.thermalMarginC,
+      op.ambientC,
+      noJunctionReason(rdsOnAtDriveOhms, swLossW),
+    ),
     stall.check,
     checkSwitchingEdges(edges.turnOnS, edges.turnOffS, pwm.hz),
   ];

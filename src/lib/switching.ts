@@ -53,7 +53,14 @@ export function gateDrivePowerW(qgTotalNc: number, driveV: number, frequencyHz: 
 }
 
 /** With ripple the edges switch different currents: P ≈ ½·(V + V_F)·(I_on·t_on + I_off·t_off)·f [docs/engineering.md §4]. */
-export function switchingLossAtEdgesW(clampV: number, turnOnCurrentA: number, turnOffCurrentA: number, turnOnS: number, turnOffS: number, frequencyHz: number): number {
+export function switchingLossAtEdgesW(
+  clampV: number,
+  turnOnCurrentA: number,
+  turnOffCurrentA: number,
+  turnOnS: number,
+  turnOffS: number,
+  frequencyHz: number,
+): number {
   if (frequencyHz <= 0) return 0;
   const onJ = turnOnCurrentA > 0 ? turnOnCurrentA * turnOnS : 0;
   const offJ = turnOffCurrentA > 0 ? turnOffCurrentA * turnOffS : 0;

@@ -30,13 +30,21 @@ export const CONFIG_KEYS: readonly ConfigKey[] = [
     meaning:
       'address put into e-mailed links; required outside local mail-sink mode. Its host is also allowed as a request host at build time (besides 127.0.0.1 and localhost); a change rebuilds the app on the next start',
   },
-  { key: 'SMTP_HOST', defaultText: 'the local sink', meaning: 'SMTP server for outgoing mail; when set (and `MAIL_SINK` is not `local`) no sink starts' },
+  {
+    key: 'SMTP_HOST',
+    defaultText: 'the local sink',
+    meaning: 'SMTP server for outgoing mail; when set (and `MAIL_SINK` is not `local`) no sink starts',
+  },
   { key: 'SMTP_PORT', defaultText: "sink's port", meaning: 'SMTP port' },
   { key: 'SMTP_SECURE', defaultText: '`false`', meaning: '`true` for TLS from the first byte (port 465); otherwise STARTTLS when offered' },
   { key: 'SMTP_USER', defaultText: 'none', meaning: 'SMTP user name, when the server wants one' },
   { key: 'SMTP_PASSWORD', defaultText: 'none', meaning: 'SMTP password, when the server wants one' },
   { key: 'MAIL_FROM', defaultText: '`Stallpoint <no-reply@stallpoint.invalid>`', meaning: 'sender of invitations and reset links' },
-  { key: 'MAIL_SINK', defaultText: '`local` under `npm start`/`npm test`', meaning: '`local`: mail is caught by the sink and shown to admins on `/mail`' },
+  {
+    key: 'MAIL_SINK',
+    defaultText: '`local` under `npm start`/`npm test`',
+    meaning: '`local`: mail is caught by the sink and shown to admins on `/mail`',
+  },
   { key: 'SMTP_SINK_PORT', defaultText: '`2526` (`npm test`: a free port)', meaning: 'port of the local sink on 127.0.0.1' },
   { key: 'CALC_RATE_LIMIT_PER_MIN', defaultText: '`600`', meaning: 'calculator requests per client address per minute (per app server)' },
   {

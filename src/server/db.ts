@@ -28,10 +28,7 @@ export type Db = Knex | Knex.Transaction;
 /** True when the database answers a trivial query within the timeout. */
 export async function pingDb(timeoutMs = 2_000): Promise<boolean> {
   try {
-    await Promise.race([
-      db().raw('select 1'),
-      new Promise((_, reject) => setTimeout(() => reject(new Error('timeout')), timeoutMs)),
-    ]);
+    await Promise.race([db().raw('select 1'), new Promise((_, reject) => setTimeout(() => reject(new Error('timeout')), timeoutMs))]);
     return true;
   } catch {
     return false;

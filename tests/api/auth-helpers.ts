@@ -17,7 +17,11 @@ export function uniqueEmail(prefix: string): string {
 }
 
 export async function createPerson(knex: Knex, input: { email: string; password: string; roles: Role[]; name?: string }): Promise<number> {
-  const [id] = await knex('users').insert({ email: input.email, name: input.name ?? 'Test Person', password_hash: await hashPassword(input.password) });
+  const [id] = await knex('users').insert({
+    email: input.email,
+    name: input.name ?? 'Test Person',
+    password_hash: await hashPassword(input.password),
+  });
   if (input.roles.length) await knex('user_roles').insert(input.roles.map((role) => ({ user_id: id, role })));
   return Number(id);
 }
@@ -56,7 +60,11 @@ export interface CapturedRow {
 export async function waitForMail(knex: Knex, to: string, afterId = 0, timeoutMs = 10_000): Promise<CapturedRow> {
   const deadline = Date.now() + timeoutMs;
   for (;;) {
-    const row = await knex('captured_mail').where('id', '>', afterId).andWhere('envelope_to', 'like', `%${to}%`).orderBy('id', 'desc').first();
+    const row = await knex('captured_mail')
+      .where('id', '>', afterId)
+      .andWhere('envelope_to', 'like', `%${to}%`)
+      .orderBy('id', 'desc')
+      .first();
     if (row) return row;
     if (Date.now() > deadline) throw new Error(`no mail to ${to} arrived in the sink`);
     await new Promise((r) => setTimeout(r, 100));

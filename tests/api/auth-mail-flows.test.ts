@@ -9,7 +9,16 @@ import { sha256 } from '@oslojs/crypto/sha2';
 import { appDb, appUrl } from '../helpers/stack.ts';
 import { commonPasswordCount } from '../../src/server/auth/password-rules.ts';
 import {
-  createPerson, demoEmail, lastMailId, meStatus, postJson, sessionCookie, signIn, tokenFrom, uniqueEmail, waitForMail,
+  createPerson,
+  demoEmail,
+  lastMailId,
+  meStatus,
+  postJson,
+  sessionCookie,
+  signIn,
+  tokenFrom,
+  uniqueEmail,
+  waitForMail,
 } from './auth-helpers.ts';
 
 const knex = appDb();
@@ -27,7 +36,9 @@ afterAll(async () => {
 const GOOD_PASSWORD = 'copper winding on a warm bench';
 const hashOf = (token: string): Buffer => Buffer.from(sha256(new TextEncoder().encode(token)));
 
-async function invite(roles: string[] = ['buyer']): Promise<{ email: string; token: string; mail: Awaited<ReturnType<typeof waitForMail>> }> {
+async function invite(
+  roles: string[] = ['buyer'],
+): Promise<{ email: string; token: string; mail: Awaited<ReturnType<typeof waitForMail>> }> {
   const email = uniqueEmail('invitee');
   created.push(email);
   const before = await lastMailId(knex);
@@ -46,7 +57,9 @@ describe('invitation', () => {
     expect(mail.html_body).toContain(`/invite?token=${token}`);
     expect(mail.html_body).not.toMatch(/<img|utm_|pixel/i);
     // Only the hash of the link's token is stored (ASVS 5.0 V6.4.1).
-    const row = await knex('account_tokens').where({ token_hash: hashOf(token) }).first();
+    const row = await knex('account_tokens')
+      .where({ token_hash: hashOf(token) })
+      .first();
     expect(row).toMatchObject({ purpose: 'invite', used_at: null });
     expect(JSON.stringify(await knex('account_tokens').select('*'))).not.toContain(token);
     const hours = (new Date(row.expires_at).getTime() - new Date(row.created_at).getTime()) / 3600_000;
@@ -88,7 +101,9 @@ describe('invitation', () => {
     const second = tokenFrom((await waitForMail(knex, email, before)).text_body, '/invite');
     expect(second).not.toBe(first);
     expect((await postJson('/api/auth/invite-accept', { token: first, password: GOOD_PASSWORD })).status).toBe(400);
-    await knex('account_tokens').where({ token_hash: hashOf(second) }).update({ expires_at: new Date(Date.now() - 1000) });
+    await knex('account_tokens')
+      .where({ token_hash: hashOf(second) })
+      .update({ expires_at: new Date(Date.now() - 1000) });
     expect((await postJson('/api/auth/invite-accept', { token: second, password: GOOD_PASSWORD })).status).toBe(400);
   });
 
@@ -130,7 +145,9 @@ describe('password reset', () => {
     const mail = await waitForMail(knex, email, before);
     expect(mail.text_body).toContain('30 minutes');
     const token = tokenFrom(mail.text_body, '/reset');
-    const row = await knex('account_tokens').where({ token_hash: hashOf(token) }).first();
+    const row = await knex('account_tokens')
+      .where({ token_hash: hashOf(token) })
+      .first();
     expect((new Date(row.expires_at).getTime() - new Date(row.created_at).getTime()) / 60_000).toBe(30);
 
     expect((await request(appUrl()).get(`/reset?token=${token}`)).text).toContain(email);
@@ -149,7 +166,9 @@ describe('password reset', () => {
     const before = await lastMailId(knex);
     await postJson('/api/auth/reset-request', { email });
     const token = tokenFrom((await waitForMail(knex, email, before)).text_body, '/reset');
-    await knex('account_tokens').where({ token_hash: hashOf(token) }).update({ created_at: new Date(Date.now() - 31 * 60_000), expires_at: new Date(Date.now() - 60_000) });
+    await knex('account_tokens')
+      .where({ token_hash: hashOf(token) })
+      .update({ created_at: new Date(Date.now() - 31 * 60_000), expires_at: new Date(Date.now() - 60_000) });
     expect((await request(appUrl()).get(`/reset?token=${token}`)).status).toBe(410);
     expect((await postJson('/api/auth/reset', { token, password: 'the second long test passphrase' })).status).toBe(400);
   });
@@ -170,10 +189,18 @@ describe('password rules', () => {
     expect(wrong.status).toBe(400);
     expect(wrong.body.issues[0].path).toBe('currentPassword');
     const long = 'x'.repeat(129);
-    const tooLong = await postJson('/api/auth/password', { currentPassword: 'the old long test passphrase', newPassword: long }, here.cookie);
+    const tooLong = await postJson(
+      '/api/auth/password',
+      { currentPassword: 'the old long test passphrase', newPassword: long },
+      here.cookie,
+    );
     expect(tooLong.status).toBe(400);
     expect(tooLong.body.issues[0].path).toBe('newPassword');
-    const res = await postJson('/api/auth/password', { currentPassword: 'the old long test passphrase', newPassword: GOOD_PASSWORD }, here.cookie);
+    const res = await postJson(
+      '/api/auth/password',
+      { currentPassword: 'the old long test passphrase', newPassword: GOOD_PASSWORD },
+      here.cookie,
+    );
     expect(res.status).toBe(200);
     const fresh = String(res.headers['set-cookie']).split(';')[0];
     expect(await meStatus(there.cookie)).toBe(401);
@@ -208,11 +235,23 @@ describe('people administration', () => {
     created.push(email);
     const id = await createPerson(knex, { email, password: GOOD_PASSWORD, roles: ['buyer'] });
     const s = await signIn(email, GOOD_PASSWORD);
-    const res = await request(appUrl()).put(`/api/people/${id}/roles`).set('Cookie', admin).set('Content-Type', 'application/json').send({ roles: ['librarian', 'designer'] });
+    const res = await request(appUrl())
+      .put(`/api/people/${id}/roles`)
+      .set('Cookie', admin)
+      .set('Content-Type', 'application/json')
+      .send({ roles: ['librarian', 'designer'] });
     expect(res.status).toBe(200);
     expect((await request(appUrl()).get('/api/auth/me').set('Cookie', s.cookie)).body.user.roles).toEqual(['librarian', 'designer']);
-    const adminId = (await knex('users').where({ email: demoEmail('admin') }).first('id')).id;
-    const self = await request(appUrl()).put(`/api/people/${adminId}/roles`).set('Cookie', admin).set('Content-Type', 'application/json').send({ roles: ['buyer'] });
+    const adminId = (
+      await knex('users')
+        .where({ email: demoEmail('admin') })
+        .first('id')
+    ).id;
+    const self = await request(appUrl())
+      .put(`/api/people/${adminId}/roles`)
+      .set('Cookie', admin)
+      .set('Content-Type', 'application/json')
+      .send({ roles: ['buyer'] });
     expect(self.status).toBe(409);
     const people = await request(appUrl()).get('/api/people').set('Cookie', admin);
     expect(people.body.people.find((p: { email: string }) => p.email === email).roles).toEqual(['librarian', 'designer']);
@@ -222,6 +261,12 @@ describe('people administration', () => {
     const page = await request(appUrl()).get('/mail').set('Cookie', admin);
     expect(page.status).toBe(200);
     expect(page.text).toContain('data-testid="captured-mail"');
-    expect((await request(appUrl()).get('/mail').set('Cookie', await sessionCookie(knex, demoEmail('librarian')))).status).toBe(403);
+    expect(
+      (
+        await request(appUrl())
+          .get('/mail')
+          .set('Cookie', await sessionCookie(knex, demoEmail('librarian')))
+      ).status,
+    ).toBe(403);
   });
 });

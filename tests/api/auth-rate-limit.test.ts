@@ -28,7 +28,9 @@ afterAll(async () => {
 
 /** Moves a bucket's window into the past, as if its time had run out. */
 async function windowPassed(bucketKey: string, seconds: number): Promise<void> {
-  await knex('rate_limit_buckets').where({ bucket_key: bucketKey }).update({ window_started_at: new Date(Date.now() - seconds * 1000 - 1000) });
+  await knex('rate_limit_buckets')
+    .where({ bucket_key: bucketKey })
+    .update({ window_started_at: new Date(Date.now() - seconds * 1000 - 1000) });
 }
 
 describe('consume() with a controllable clock', () => {
@@ -87,7 +89,11 @@ describe('sign-in per account', () => {
   it('a successful sign-in clears the account’s failures', async () => {
     for (let i = 0; i < 3; i++) await postJson('/api/auth/signin', { email, password: `wrong guess ${i}` });
     expect((await postJson('/api/auth/signin', { email, password: PASSWORD })).status).toBe(200);
-    expect(await knex('rate_limit_buckets').where({ bucket_key: accountBucket(email) }).first()).toBeUndefined();
+    expect(
+      await knex('rate_limit_buckets')
+        .where({ bucket_key: accountBucket(email) })
+        .first(),
+    ).toBeUndefined();
   });
 });
 
@@ -95,7 +101,9 @@ describe('sign-in per client address', () => {
   it(`after ${SIGNIN_ADDRESS_LIMIT.limit} failures from one address refuses every account from it; lifted when the window ends`, async () => {
     // A different unknown address each time: the per-account limit never trips, only the per-address one.
     for (let i = 0; i < SIGNIN_ADDRESS_LIMIT.limit; i++) {
-      expect((await postJson('/api/auth/signin', { email: uniqueEmail('stuffing'), password: 'credential stuffing try' })).status).toBe(401);
+      expect((await postJson('/api/auth/signin', { email: uniqueEmail('stuffing'), password: 'credential stuffing try' })).status).toBe(
+        401,
+      );
     }
     const limited = await postJson('/api/auth/signin', { email, password: PASSWORD });
     expect(limited.status).toBe(429);

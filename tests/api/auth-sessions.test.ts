@@ -4,8 +4,12 @@ import request from 'supertest';
 import { sha256 } from '@oslojs/crypto/sha2';
 import { appDb, appUrl } from '../helpers/stack.ts';
 import {
-  createSession, invalidateUserSessions, validateSessionToken,
-  SESSION_ABSOLUTE_MS, SESSION_IDLE_MS, SESSION_REFRESH_MS,
+  createSession,
+  invalidateUserSessions,
+  validateSessionToken,
+  SESSION_ABSOLUTE_MS,
+  SESSION_IDLE_MS,
+  SESSION_REFRESH_MS,
 } from '../../src/server/auth/session.ts';
 import { createPerson, demoEmail, DEMO_PASSWORD, meStatus, postJson, signIn, uniqueEmail } from './auth-helpers.ts';
 
@@ -71,7 +75,9 @@ describe('sessions are stored hashed (ASVS 5.0 V7.2.3: 160-bit random token; onl
     const [sessionId, secret] = token.split('.');
     const row = await knex('sessions').where({ id: sessionId }).first();
     expect(Buffer.from(row.secret_hash)).toEqual(Buffer.from(sha256(new TextEncoder().encode(secret))));
-    const everything = JSON.stringify(await knex('sessions').select('*')) + (await knex('sessions').select('*')).map((r) => Buffer.from(r.secret_hash).toString('latin1')).join('');
+    const everything =
+      JSON.stringify(await knex('sessions').select('*')) +
+      (await knex('sessions').select('*')).map((r) => Buffer.from(r.secret_hash).toString('latin1')).join('');
     expect(everything).not.toContain(secret);
     expect(everything).not.toContain(token);
   });
@@ -119,7 +125,9 @@ describe('expiry with a controllable clock (ASVS 5.0 V7.3.1 idle, V7.3.2 absolut
   it('the app refuses an idle-expired session and clears the cookie', async () => {
     const { token, cookie } = await signIn(email, PASSWORD);
     const eightDaysAgo = new Date(Date.now() - 8 * DAY_MS);
-    await knex('sessions').where({ id: token.split('.')[0] }).update({ last_active_at: eightDaysAgo, created_at: eightDaysAgo });
+    await knex('sessions')
+      .where({ id: token.split('.')[0] })
+      .update({ last_active_at: eightDaysAgo, created_at: eightDaysAgo });
     const res = await request(appUrl()).get('/api/auth/me').set('Cookie', cookie);
     expect(res.status).toBe(401);
     expect(String(res.headers['set-cookie'])).toMatch(/stallpoint_session=;.*Max-Age=0/);
@@ -127,7 +135,9 @@ describe('expiry with a controllable clock (ASVS 5.0 V7.3.1 idle, V7.3.2 absolut
 
   it('the app refuses a session past its absolute lifetime even when recently used', async () => {
     const { token, cookie } = await signIn(email, PASSWORD);
-    await knex('sessions').where({ id: token.split('.')[0] }).update({ created_at: new Date(Date.now() - 31 * DAY_MS), last_active_at: new Date() });
+    await knex('sessions')
+      .where({ id: token.split('.')[0] })
+      .update({ created_at: new Date(Date.now() - 31 * DAY_MS), last_active_at: new Date() });
     expect(await meStatus(cookie)).toBe(401);
   });
 });
@@ -139,18 +149,33 @@ describe('sign-out', () => {
     const res = await postJson('/api/auth/signout', {}, a.cookie);
     expect(res.status).toBe(200);
     expect(String(res.headers['set-cookie'])).toMatch(/Max-Age=0/);
-    expect(await knex('sessions').where({ id: a.token.split('.')[0] }).first()).toBeUndefined();
+    expect(
+      await knex('sessions')
+        .where({ id: a.token.split('.')[0] })
+        .first(),
+    ).toBeUndefined();
     expect(await meStatus(a.cookie)).toBe(401);
     expect(await meStatus(b.cookie)).toBe(200);
   });
 
   it('from the header form (same origin) redirects to the sign-in page; a cross-site form is refused', async () => {
     const a = await signIn(email, PASSWORD);
-    const same = await request(appUrl()).post('/api/auth/signout').set('Cookie', a.cookie).set('Origin', appUrl()).type('form').send('').redirects(0);
+    const same = await request(appUrl())
+      .post('/api/auth/signout')
+      .set('Cookie', a.cookie)
+      .set('Origin', appUrl())
+      .type('form')
+      .send('')
+      .redirects(0);
     expect(same.status).toBe(303);
     expect(same.headers.location).toBe('/signin?signedOut=1');
     const b = await signIn(email, PASSWORD);
-    const cross = await request(appUrl()).post('/api/auth/signout').set('Cookie', b.cookie).set('Origin', 'https://elsewhere.example').type('form').send('');
+    const cross = await request(appUrl())
+      .post('/api/auth/signout')
+      .set('Cookie', b.cookie)
+      .set('Origin', 'https://elsewhere.example')
+      .type('form')
+      .send('');
     expect(cross.status).toBe(403);
     expect(await meStatus(b.cookie)).toBe(200);
   });

@@ -21,7 +21,9 @@ const post = (body: unknown) => api().post('/api/calc/supply').set('Content-Type
 const EXAMPLE = {
   motor: { ...MOTOR_M1, rotorInertiaKgM2: 1.5e-7 },
   supply: { voltageV: 3.0, internalResistanceOhm: 0.3, continuousCurrentA: 1.0, currentLimitA: 0.5 },
-  seriesResistanceOhm: 0, windingC: 20, loadTorqueNm: 0.0003,
+  seriesResistanceOhm: 0,
+  windingC: 20,
+  loadTorqueNm: 0.0003,
   logic: { sharedWithMotor: true, minSupplyV: 2.7, regulatorDropoutV: 0 },
   allowedDipV: 0.2,
 };
@@ -34,7 +36,15 @@ const TAU = (1.5e-7 * (R + 0.3)) / (KT * KT); // 65.5 ms
 const I_AVAIL = Math.min(0.2 / 0.3, 0.5); // 0.5 A
 const C_BULK = ((I_START - I_AVAIL) * TAU) / 0.2; // 0.336 F
 
-interface CheckBody { id: string; ok: boolean; severity?: string; value: number; limit: number; unit: string; note: string }
+interface CheckBody {
+  id: string;
+  ok: boolean;
+  severity?: string;
+  value: number;
+  limit: number;
+  unit: string;
+  note: string;
+}
 const checkOf = (body: { checks: CheckBody[] }, id: string): CheckBody | undefined => body.checks.find((c) => c.id === id);
 
 describe('POST /api/calc/supply: the contract example', () => {
@@ -56,7 +66,11 @@ describe('POST /api/calc/supply: the contract example', () => {
 
   it('judges the three checks: running passes, the limited start is marginal (0.637 > 0.3 mN·m), the shared rail fails (0.833 < 2.7 V)', async () => {
     const res = await post(EXAMPLE);
-    expect(res.body.checks.map((c: CheckBody) => c.id).sort()).toEqual(['logic-brownout', 'supply-running-current', 'supply-start-current']);
+    expect(res.body.checks.map((c: CheckBody) => c.id).sort()).toEqual([
+      'logic-brownout',
+      'supply-running-current',
+      'supply-start-current',
+    ]);
     expect(checkOf(res.body, 'supply-running-current')).toMatchObject({ ok: true, limit: 1.0, unit: 'A' });
     expect(checkOf(res.body, 'supply-start-current')).toMatchObject({ ok: false, severity: 'margin', limit: 0.5, unit: 'A' });
     expect(checkOf(res.body, 'supply-start-current')!.value).toBeCloseTo(I_START, 6);
@@ -142,10 +156,18 @@ describe('POST /api/calc/supply: bad input is a 400 naming the field', () => {
 
   it('415 for a non-JSON content type; 400 for broken JSON', async () => {
     // A same-origin Origin header, as a browser sends: without it Astro's CSRF origin check answers 403 first.
-    const text = await api().post('/api/calc/supply').set('Origin', appUrl()).set('Content-Type', 'text/plain').send(JSON.stringify(EXAMPLE));
+    const text = await api()
+      .post('/api/calc/supply')
+      .set('Origin', appUrl())
+      .set('Content-Type', 'text/plain')
+      .send(JSON.stringify(EXAMPLE));
     expect(text.status).toBe(415);
     expect(text.body.issues[0].path).toBe('(headers).content-type');
-    const form = await api().post('/api/calc/supply').set('Origin', appUrl()).set('Content-Type', 'application/x-www-form-urlencoded').send('motor=1');
+    const form = await api()
+      .post('/api/calc/supply')
+      .set('Origin', appUrl())
+      .set('Content-Type', 'application/x-www-form-urlencoded')
+      .send('motor=1');
     expect(form.status).toBe(415);
     const broken = await api().post('/api/calc/supply').set('Content-Type', 'application/json').send('{"motor":');
     expect(broken.status).toBe(400);
@@ -156,25 +178,61 @@ describe('POST /api/calc/supply: bad input is a 400 naming the field', () => {
 describe('POST /api/calc/supply: random bodies never give a 5xx', () => {
   // Numbers of every kind, including the extremes and the wrong types, in and out of the right shape.
   const value = fc.oneof(
-    fc.double({ noNaN: true, noDefaultInfinity: true }), fc.double({ min: 1e-9, max: 1e4, noNaN: true }),
-    fc.integer({ min: -5, max: 5 }), fc.constantFrom(0, -0, 1e308, 5e-324, null, true, '3', ''), fc.string({ maxLength: 4 }),
+    fc.double({ noNaN: true, noDefaultInfinity: true }),
+    fc.double({ min: 1e-9, max: 1e4, noNaN: true }),
+    fc.integer({ min: -5, max: 5 }),
+    fc.constantFrom(0, -0, 1e308, 5e-324, null, true, '3', ''),
+    fc.string({ maxLength: 4 }),
   );
   const maybe = <T>(arb: fc.Arbitrary<T>) => fc.option(arb, { nil: undefined });
   const shaped = fc.record({
-    motor: maybe(fc.record({
-      ratedVoltageV: maybe(value), noLoadSpeedRpm: maybe(value), noLoadCurrentA: maybe(value), stallCurrentA: maybe(value),
-      stallTorqueNm: maybe(value), rotorInertiaKgM2: maybe(value),
-    })),
-    supply: maybe(fc.record({ voltageV: maybe(value), internalResistanceOhm: maybe(value), continuousCurrentA: maybe(value), currentLimitA: maybe(value) })),
-    seriesResistanceOhm: maybe(value), windingC: maybe(value), loadTorqueNm: maybe(value), allowedDipV: maybe(value),
-    logic: maybe(fc.oneof(fc.record({ sharedWithMotor: maybe(fc.oneof(fc.boolean(), value)), minSupplyV: maybe(value), regulatorDropoutV: maybe(value) }), value)),
+    motor: maybe(
+      fc.record({
+        ratedVoltageV: maybe(value),
+        noLoadSpeedRpm: maybe(value),
+        noLoadCurrentA: maybe(value),
+        stallCurrentA: maybe(value),
+        stallTorqueNm: maybe(value),
+        rotorInertiaKgM2: maybe(value),
+      }),
+    ),
+    supply: maybe(
+      fc.record({
+        voltageV: maybe(value),
+        internalResistanceOhm: maybe(value),
+        continuousCurrentA: maybe(value),
+        currentLimitA: maybe(value),
+      }),
+    ),
+    seriesResistanceOhm: maybe(value),
+    windingC: maybe(value),
+    loadTorqueNm: maybe(value),
+    allowedDipV: maybe(value),
+    logic: maybe(
+      fc.oneof(
+        fc.record({ sharedWithMotor: maybe(fc.oneof(fc.boolean(), value)), minSupplyV: maybe(value), regulatorDropoutV: maybe(value) }),
+        value,
+      ),
+    ),
   });
 
   // The contract example with one or two fields replaced: mostly valid bodies, so the 200 path is exercised too.
   const FIELDS = [
-    ['motor', 'ratedVoltageV'], ['motor', 'noLoadSpeedRpm'], ['motor', 'noLoadCurrentA'], ['motor', 'stallCurrentA'], ['motor', 'rotorInertiaKgM2'],
-    ['supply', 'voltageV'], ['supply', 'internalResistanceOhm'], ['supply', 'continuousCurrentA'], ['supply', 'currentLimitA'],
-    ['logic', 'minSupplyV'], ['logic', 'regulatorDropoutV'], ['seriesResistanceOhm'], ['windingC'], ['loadTorqueNm'], ['allowedDipV'],
+    ['motor', 'ratedVoltageV'],
+    ['motor', 'noLoadSpeedRpm'],
+    ['motor', 'noLoadCurrentA'],
+    ['motor', 'stallCurrentA'],
+    ['motor', 'rotorInertiaKgM2'],
+    ['supply', 'voltageV'],
+    ['supply', 'internalResistanceOhm'],
+    ['supply', 'continuousCurrentA'],
+    ['supply', 'currentLimitA'],
+    ['logic', 'minSupplyV'],
+    ['logic', 'regulatorDropoutV'],
+    ['seriesResistanceOhm'],
+    ['windingC'],
+    ['loadTorqueNm'],
+    ['allowedDipV'],
   ];
   const nearExample = fc.array(fc.tuple(fc.constantFrom(...FIELDS), value), { minLength: 1, maxLength: 2 }).map((changes) => {
     const body = structuredClone(EXAMPLE) as Record<string, unknown>;
@@ -187,21 +245,24 @@ describe('POST /api/calc/supply: random bodies never give a 5xx', () => {
 
   it('answers 200 with finite figures, or 400 with the error shape (or 429 when rate limited)', async () => {
     let answered200 = 0;
-    await fc.assert(fc.asyncProperty(fc.oneof(nearExample, nearExample, shaped, fc.anything()), async (body) => {
-      const res = await post(body);
-      expect(res.status).toBeLessThan(500);
-      expect([200, 400, 429]).toContain(res.status);
-      if (res.status === 200) {
-        answered200 += 1;
-        for (const key of ['startCurrentA', 'startActualCurrentA', 'sourceVoltageAtStartV', 'startTorqueNm', 'runningCurrentA']) {
-          expect(Number.isFinite(res.body[key])).toBe(true);
+    await fc.assert(
+      fc.asyncProperty(fc.oneof(nearExample, nearExample, shaped, fc.anything()), async (body) => {
+        const res = await post(body);
+        expect(res.status).toBeLessThan(500);
+        expect([200, 400, 429]).toContain(res.status);
+        if (res.status === 200) {
+          answered200 += 1;
+          for (const key of ['startCurrentA', 'startActualCurrentA', 'sourceVoltageAtStartV', 'startTorqueNm', 'runningCurrentA']) {
+            expect(Number.isFinite(res.body[key])).toBe(true);
+          }
+          expect(['pass', 'marginal', 'fail']).toContain(res.body.verdict);
+        } else {
+          expect(typeof res.body.error).toBe('string');
+          expect(Array.isArray(res.body.issues)).toBe(true);
         }
-        expect(['pass', 'marginal', 'fail']).toContain(res.body.verdict);
-      } else {
-        expect(typeof res.body.error).toBe('string');
-        expect(Array.isArray(res.body.issues)).toBe(true);
-      }
-    }), { numRuns: 120 });
+      }),
+      { numRuns: 120 },
+    );
     expect(answered200).toBeGreaterThan(0); // the property did reach the computation
   }, 120_000);
 });

@@ -39,7 +39,9 @@ describe('POST /api/calc/motor', () => {
 
   it('warns when the datasheet torque disagrees (60 g·cm → ratio ≈ 1.733)', async () => {
     const gcmToNm = 9.80665e-5; // SI Brochure, g_n = 9.80665 m/s² exactly
-    const res = await api().post('/api/calc/motor').send({ motor: { ...M1, stallTorqueNm: 60 * gcmToNm }, supplyV: 3 });
+    const res = await api()
+      .post('/api/calc/motor')
+      .send({ motor: { ...M1, stallTorqueNm: 60 * gcmToNm }, supplyV: 3 });
     expect(res.body.consistency.torqueRatio).toBeCloseTo((60 * gcmToNm) / (Ke * 1.6), 3);
     expect(typeof res.body.consistency.warning).toBe('string');
   });
@@ -68,12 +70,14 @@ describe('POST /api/calc/motor', () => {
 
 describe('POST /api/calc/pull-resistor', () => {
   it('docs/engineering.md §9: 40 kΩ internal pull-up to 3.3 V, node ≤ 0.5 V → E12 6.8 kΩ, node 0.4795 V', async () => {
-    const res = await api().post('/api/calc/pull-resistor').send({
-      pin: { internalPull: 'up', internalPullOhms: 40000, railV: 3.3, maxCurrentA: 0.004 },
-      external: { to: 'down', railV: 0 },
-      node: { mustBe: 'low', limitV: 0.5 },
-      series: 'E12',
-    });
+    const res = await api()
+      .post('/api/calc/pull-resistor')
+      .send({
+        pin: { internalPull: 'up', internalPullOhms: 40000, railV: 3.3, maxCurrentA: 0.004 },
+        external: { to: 'down', railV: 0 },
+        node: { mustBe: 'low', limitV: 0.5 },
+        series: 'E12',
+      });
     expect(res.status).toBe(200);
     expect(res.body.chosenOhms).toBe(6800);
     // divider re-derived: V = 3.3·6.8k/(40k + 6.8k)
@@ -83,10 +87,14 @@ describe('POST /api/calc/pull-resistor', () => {
   });
 
   it('400 names an unknown series', async () => {
-    const res = await api().post('/api/calc/pull-resistor').send({
-      pin: { internalPull: 'up', internalPullOhms: 40000, railV: 3.3, maxCurrentA: 0.004 },
-      external: { to: 'down', railV: 0 }, node: { mustBe: 'low', limitV: 0.5 }, series: 'E7',
-    });
+    const res = await api()
+      .post('/api/calc/pull-resistor')
+      .send({
+        pin: { internalPull: 'up', internalPullOhms: 40000, railV: 3.3, maxCurrentA: 0.004 },
+        external: { to: 'down', railV: 0 },
+        node: { mustBe: 'low', limitV: 0.5 },
+        series: 'E7',
+      });
     expect(res.status).toBe(400);
     expect(res.body.issues[0].path).toBe('series');
   });

@@ -21,7 +21,8 @@ let partId = 0;
 async function makePdf(title: string, pages = 2): Promise<Buffer> {
   const doc = await PDFDocument.create();
   const font = await doc.embedFont(StandardFonts.Helvetica);
-  for (let i = 0; i < pages; i++) doc.addPage([595, 842]).drawText(`${title} page ${i + 1} (invented test datasheet)`, { x: 50, y: 780, size: 12, font });
+  for (let i = 0; i < pages; i++)
+    doc.addPage([595, 842]).drawText(`${title} page ${i + 1} (invented test datasheet)`, { x: 50, y: 780, size: 12, font });
   return Buffer.from(await doc.save());
 }
 const files = (): string[] => (existsSync(STORE) ? readdirSync(STORE).sort() : []);
@@ -40,14 +41,23 @@ function streamUpload(totalBytes: number, cookie: string): Promise<number> {
   return new Promise((resolve, reject) => {
     const req = http.request(url, {
       method: 'POST',
-      headers: { 'Content-Type': `multipart/form-data; boundary=${boundary}`, 'Transfer-Encoding': 'chunked', Cookie: cookie, Origin: appUrl() },
+      headers: {
+        'Content-Type': `multipart/form-data; boundary=${boundary}`,
+        'Transfer-Encoding': 'chunked',
+        Cookie: cookie,
+        Origin: appUrl(),
+      },
     });
     req.on('response', (res) => {
       res.resume();
       resolve(res.statusCode ?? 0);
     });
-    req.on('error', (err) => ((err as NodeJS.ErrnoException).code === 'EPIPE' || (err as NodeJS.ErrnoException).code === 'ECONNRESET' ? undefined : reject(err)));
-    req.write(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="huge.pdf"\r\nContent-Type: application/pdf\r\n\r\n%PDF-1.7\n`);
+    req.on('error', (err) =>
+      (err as NodeJS.ErrnoException).code === 'EPIPE' || (err as NodeJS.ErrnoException).code === 'ECONNRESET' ? undefined : reject(err),
+    );
+    req.write(
+      `--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="huge.pdf"\r\nContent-Type: application/pdf\r\n\r\n%PDF-1.7\n`,
+    );
     const chunk = Buffer.alloc(1024 * 1024, 0x20);
     let sent = 0;
     const pump = (): void => {
@@ -72,15 +82,31 @@ describe('POST /api/parts/:id/datasheets', () => {
     const pdf = await makePdf('CWN30L02-S3 rev B', 3);
     const res = await upload(pdf, 'CWN30L02-S3 rev B.pdf', librarian, 'Rev. B');
     expect(res.status, JSON.stringify(res.body)).toBe(201);
-    expect(res.body).toMatchObject({ originalName: 'CWN30L02-S3 rev B.pdf', pages: 3, bytes: pdf.length, revision: 'Rev. B', sha256: createHash('sha256').update(pdf).digest('hex') });
+    expect(res.body).toMatchObject({
+      originalName: 'CWN30L02-S3 rev B.pdf',
+      pages: 3,
+      bytes: pdf.length,
+      revision: 'Rev. B',
+      sha256: createHash('sha256').update(pdf).digest('hex'),
+    });
     const row = await knex('datasheets').where({ id: res.body.id }).first();
     expect(row.storage_key).toMatch(/^[0-9a-f-]{36}\.pdf$/);
     expect(files()).toContain(row.storage_key);
-    const audit = await knex('audit_events').where({ entity_type: 'part', entity_id: partId, action: 'datasheet.add' }).orderBy('id', 'desc').first();
+    const audit = await knex('audit_events')
+      .where({ entity_type: 'part', entity_id: partId, action: 'datasheet.add' })
+      .orderBy('id', 'desc')
+      .first();
     expect(JSON.parse(audit.after_json).datasheet.id).toBe(res.body.id);
 
-    const down = await request(appUrl()).get(`/api/datasheets/${res.body.id}`).set('Cookie', await sessionCookie('designer')).buffer(true)
-      .parse((r, cb) => { const c: Buffer[] = []; r.on('data', (d: Buffer) => c.push(d)); r.on('end', () => cb(null, Buffer.concat(c))); });
+    const down = await request(appUrl())
+      .get(`/api/datasheets/${res.body.id}`)
+      .set('Cookie', await sessionCookie('designer'))
+      .buffer(true)
+      .parse((r, cb) => {
+        const c: Buffer[] = [];
+        r.on('data', (d: Buffer) => c.push(d));
+        r.on('end', () => cb(null, Buffer.concat(c)));
+      });
     expect(down.status).toBe(200);
     expect(down.headers['content-type']).toBe('application/pdf');
     expect(down.headers['content-disposition']).toMatch(/^attachment; filename="CWN30L02-S3 rev B\.pdf"/);
@@ -147,15 +173,27 @@ describe('POST /api/parts/:id/datasheets', () => {
     });
 
     it('no file field, a JSON body, a bad revision label, a designer, an unknown part', async () => {
-      const noFile = await request(appUrl()).post(`/api/parts/${partId}/datasheets`).set('Cookie', librarian).set('Origin', appUrl()).field('revision', 'A');
+      const noFile = await request(appUrl())
+        .post(`/api/parts/${partId}/datasheets`)
+        .set('Cookie', librarian)
+        .set('Origin', appUrl())
+        .field('revision', 'A');
       expect(noFile.status).toBe(400);
-      const json = await request(appUrl()).post(`/api/parts/${partId}/datasheets`).set('Cookie', librarian).set('Content-Type', 'application/json').send('{}');
+      const json = await request(appUrl())
+        .post(`/api/parts/${partId}/datasheets`)
+        .set('Cookie', librarian)
+        .set('Content-Type', 'application/json')
+        .send('{}');
       expect(json.status).toBe(415);
       const badRevision = await upload(await makePdf('rev'), 'rev.pdf', librarian, '<script>');
       expect(badRevision.status).toBe(400);
       expect(badRevision.body.issues[0].path).toBe('revision');
       expect((await upload(await makePdf('designer'), 'd.pdf', await sessionCookie('designer'))).status).toBe(403);
-      const unknown = await request(appUrl()).post('/api/parts/99999999/datasheets').set('Cookie', librarian).set('Origin', appUrl()).attach('file', await makePdf('x'), 'x.pdf');
+      const unknown = await request(appUrl())
+        .post('/api/parts/99999999/datasheets')
+        .set('Cookie', librarian)
+        .set('Origin', appUrl())
+        .attach('file', await makePdf('x'), 'x.pdf');
       expect(unknown.status).toBe(404);
       await unchanged();
     });
@@ -167,8 +205,18 @@ describe('GET and DELETE /api/datasheets/:id', () => {
     const created = (await upload(await makePdf('to remove'), 'remove-me.pdf')).body;
     const key = (await knex('datasheets').where({ id: created.id }).first()).storage_key;
     expect((await request(appUrl()).get(`/api/datasheets/${created.id}`)).status).toBe(401);
-    expect((await request(appUrl()).delete(`/api/datasheets/${created.id}`).set('Cookie', await sessionCookie('buyer')).set('Content-Type', 'application/json')).status).toBe(403);
-    expect((await request(appUrl()).delete(`/api/datasheets/${created.id}`).set('Cookie', librarian).set('Content-Type', 'application/json')).status).toBe(204);
+    expect(
+      (
+        await request(appUrl())
+          .delete(`/api/datasheets/${created.id}`)
+          .set('Cookie', await sessionCookie('buyer'))
+          .set('Content-Type', 'application/json')
+      ).status,
+    ).toBe(403);
+    expect(
+      (await request(appUrl()).delete(`/api/datasheets/${created.id}`).set('Cookie', librarian).set('Content-Type', 'application/json'))
+        .status,
+    ).toBe(204);
     expect(files()).not.toContain(key);
     expect((await request(appUrl()).get(`/api/datasheets/${created.id}`).set('Cookie', librarian)).status).toBe(404);
   });

@@ -56,17 +56,25 @@ describe('matching a seeded design', () => {
     const parts = await partsById(ids);
     if (design.input.motor.source !== 'catalogue') throw new Error('seeded design uses a catalogue motor');
     const motor = (await partsById([design.input.motor.partId])).get(design.input.motor.partId) as PartOf<'motor'>;
-    const direct = rankDesign(designCaseOf(design.input, motor.params), {
-      mosfets: match.switch.map((e) => parts.get(e.partId as number) as PartOf<'mosfet'>),
-      drivers: [...parts.values()].filter((p): p is PartOf<'driver'> => p.category === 'driver'),
-      diodes: match.diode.map((e) => parts.get(e.partId as number) as PartOf<'diode'>),
-    }, {
-      switchId: design.input.selections.switch.chosenPartId, driverId: design.input.selections.driver.chosenPartId,
-      diodeId: design.input.selections.diode.chosenPartId, resetStartIntended: design.input.resetStartIntent != null,
-    });
+    const direct = rankDesign(
+      designCaseOf(design.input, motor.params),
+      {
+        mosfets: match.switch.map((e) => parts.get(e.partId as number) as PartOf<'mosfet'>),
+        drivers: [...parts.values()].filter((p): p is PartOf<'driver'> => p.category === 'driver'),
+        diodes: match.diode.map((e) => parts.get(e.partId as number) as PartOf<'diode'>),
+      },
+      {
+        switchId: design.input.selections.switch.chosenPartId,
+        driverId: design.input.selections.driver.chosenPartId,
+        diodeId: design.input.selections.diode.chosenPartId,
+        resetStartIntended: design.input.resetStartIntent != null,
+      },
+    );
     // Same verdicts, scores and checks per part; the match's order also breaks ties by price, so compare by part.
     const strip = (l: { partId: number | null; verdict: string; score: number; checks: unknown[] }[]) =>
-      l.map((e) => ({ partId: e.partId, verdict: e.verdict, score: e.score, checks: e.checks })).sort((a, b) => (a.partId ?? 0) - (b.partId ?? 0));
+      l
+        .map((e) => ({ partId: e.partId, verdict: e.verdict, score: e.score, checks: e.checks }))
+        .sort((a, b) => (a.partId ?? 0) - (b.partId ?? 0));
     expect(strip(match.switch)).toEqual(strip(direct.switch));
     expect(strip(match.diode)).toEqual(strip(direct.diode));
     expect(match.driverNeeded).toBe(direct.driverNeeded);
@@ -92,7 +100,10 @@ describe('matching a seeded design', () => {
     const id = await seededDesignId(pump.name);
     const match = (await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({})).body as DesignMatch;
     const parts = await partsById(match.diode.map((e) => e.partId as number));
-    const general = match.diode.filter((e) => parts.get(e.partId as number)?.category === 'diode' && (parts.get(e.partId as number) as PartOf<'diode'>).params.kind === 'general');
+    const general = match.diode.filter(
+      (e) =>
+        parts.get(e.partId as number)?.category === 'diode' && (parts.get(e.partId as number) as PartOf<'diode'>).params.kind === 'general',
+    );
     expect(general.length).toBeGreaterThan(0);
     for (const g of general) {
       expect(g.verdict).toBe('fail');
@@ -131,12 +142,18 @@ describe('designs CRUD', () => {
     const id = created.body.id;
     const same = await api().put(`/api/designs/${id}`).set('Cookie', designer).send({ version: created.body.version, input });
     expect(same.body.revision).toBe(1); // nothing changed: no new revision
-    const changed = await api().put(`/api/designs/${id}`).set('Cookie', designer).send({ version: created.body.version, input: { ...input, ambientMaxC: 50 } });
+    const changed = await api()
+      .put(`/api/designs/${id}`)
+      .set('Cookie', designer)
+      .send({ version: created.body.version, input: { ...input, ambientMaxC: 50 } });
     expect(changed.status).toBe(200);
     expect(changed.body.revision).toBe(2);
     const first = await api().get(`/api/designs/${id}?revision=1`).set('Cookie', designer);
     expect(first.body.input.ambientMaxC).toBe(input.ambientMaxC);
-    const stale = await api().put(`/api/designs/${id}`).set('Cookie', designer).send({ version: created.body.version, input: { ...input, ambientMaxC: 55 } });
+    const stale = await api()
+      .put(`/api/designs/${id}`)
+      .set('Cookie', designer)
+      .send({ version: created.body.version, input: { ...input, ambientMaxC: 55 } });
     expect(stale.status).toBe(409);
     expect(stale.body.issues[0].path).toBe('version');
   });
@@ -144,10 +161,16 @@ describe('designs CRUD', () => {
   it('names the wrong field on bad input and writes nothing', async () => {
     const input = await newInput();
     const before = Number((await knex('designs').count({ n: '*' }))[0].n);
-    const res = await api().post('/api/designs').set('Cookie', designer).send({ ...input, supply: { ...input.supply, minV: 20 } });
+    const res = await api()
+      .post('/api/designs')
+      .set('Cookie', designer)
+      .send({ ...input, supply: { ...input.supply, minV: 20 } });
     expect(res.status).toBe(400);
     expect(res.body.issues.map((i: { path: string }) => i.path)).toContain('supply.nomV');
-    const missing = await api().post('/api/designs').set('Cookie', designer).send({ ...input, selections: { ...input.selections, diode: { chosenPartId: 99999999, alternatePartIds: [] } } });
+    const missing = await api()
+      .post('/api/designs')
+      .set('Cookie', designer)
+      .send({ ...input, selections: { ...input.selections, diode: { chosenPartId: 99999999, alternatePartIds: [] } } });
     expect(missing.status).toBe(400);
     expect(missing.body.issues[0].path).toBe('selections.diode.chosenPartId');
     expect(Number((await knex('designs').count({ n: '*' }))[0].n)).toBe(before);
@@ -168,18 +191,33 @@ describe('bill of materials', () => {
   it('round-trips through papaparse with the chosen parts and alternates', async () => {
     const id = await seededDesignId(demoDesigns[1].name);
     const design = (await api().get(`/api/designs/${id}`).set('Cookie', buyer)).body as { input: DesignInput };
-    const res = await api().get(`/api/designs/${id}/bom.csv`).set('Cookie', buyer).buffer(true).parse((r, cb) => {
-      let text = '';
-      r.setEncoding('utf8');
-      r.on('data', (c: string) => (text += c));
-      r.on('end', () => cb(null, text));
-    });
+    const res = await api()
+      .get(`/api/designs/${id}/bom.csv`)
+      .set('Cookie', buyer)
+      .buffer(true)
+      .parse((r, cb) => {
+        let text = '';
+        r.setEncoding('utf8');
+        r.on('data', (c: string) => (text += c));
+        r.on('end', () => cb(null, text));
+      });
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toMatch(/text\/csv/);
     expect(res.headers['content-disposition']).toMatch(/attachment; filename=".+-rev\d+\.csv"/);
     const parsed = Papa.parse<Record<string, string>>(res.body as string, { header: true, skipEmptyLines: true });
     expect(parsed.errors).toEqual([]);
-    expect(parsed.meta.fields).toEqual(['Line', 'Role', 'Quantity', 'Manufacturer', 'Part number', 'Description', 'Alternates', 'Reference designators', 'Judged at / paired with', 'Status at current catalogue']);
+    expect(parsed.meta.fields).toEqual([
+      'Line',
+      'Role',
+      'Quantity',
+      'Manufacturer',
+      'Part number',
+      'Description',
+      'Alternates',
+      'Reference designators',
+      'Judged at / paired with',
+      'Status at current catalogue',
+    ]);
     const sw = await knex('parts').where({ id: design.input.selections.switch.chosenPartId }).first();
     const q1 = parsed.data.find((r) => r['Reference designators'] === 'Q1');
     expect(q1?.['Part number']).toBe(sw.mpn);
@@ -190,21 +228,29 @@ describe('bill of materials', () => {
     expect(parsed.data.find((r) => r['Reference designators'] === 'D1')?.['Judged at / paired with']).toBe('');
   });
 
-  it('pairs the agitator\'s switch with its chosen driver on both lines', async () => {
+  it("pairs the agitator's switch with its chosen driver on both lines", async () => {
     const id = await seededDesignId(demoDesigns[2].name);
-    const res = await api().get(`/api/designs/${id}/bom.csv`).set('Cookie', buyer).buffer(true).parse((r, cb) => {
-      let text = '';
-      r.setEncoding('utf8');
-      r.on('data', (c: string) => (text += c));
-      r.on('end', () => cb(null, text));
-    });
+    const res = await api()
+      .get(`/api/designs/${id}/bom.csv`)
+      .set('Cookie', buyer)
+      .buffer(true)
+      .parse((r, cb) => {
+        let text = '';
+        r.setEncoding('utf8');
+        r.on('data', (c: string) => (text += c));
+        r.on('end', () => cb(null, text));
+      });
     expect(res.status).toBe(200);
     const rows = Papa.parse<Record<string, string>>(res.body as string, { header: true, skipEmptyLines: true }).data;
     const q1 = rows.find((r) => r['Reference designators'] === 'Q1');
     const u1 = rows.find((r) => r['Reference designators'] === 'U1');
     expect(q1 && u1).toBeTruthy();
-    const judged = q1?.['Judged at / paired with'].match(new RegExp(`^judged at ([\\d.]+) V gate drive from driver ${u1?.['Part number']}$`));
-    const paired = u1?.['Judged at / paired with'].match(new RegExp(`^paired with switch ${q1?.['Part number']} at ([\\d.]+) V gate drive$`));
+    const judged = q1?.['Judged at / paired with'].match(
+      new RegExp(`^judged at ([\\d.]+) V gate drive from driver ${u1?.['Part number']}$`),
+    );
+    const paired = u1?.['Judged at / paired with'].match(
+      new RegExp(`^paired with switch ${q1?.['Part number']} at ([\\d.]+) V gate drive$`),
+    );
     expect(judged, q1?.['Judged at / paired with']).toBeTruthy();
     expect(paired, u1?.['Judged at / paired with']).toBeTruthy();
     // The seed's 12 V driver rail is judged at 11.4 V minimum (12 × 0.95): the driver's output high sits just below it.
@@ -221,11 +267,15 @@ describe('design report PDF', () => {
     const { CAUTIONS } = await import('../../src/lib/safety-notes.ts');
     const id = await seededDesignId(demoDesigns[2].name);
     const design = (await api().get(`/api/designs/${id}`).set('Cookie', buyer)).body as { input: DesignInput; revision: number };
-    const res = await api().get(`/api/designs/${id}/report.pdf`).set('Cookie', buyer).buffer(true).parse((r, cb) => {
-      const chunks: Buffer[] = [];
-      r.on('data', (c: Buffer) => chunks.push(c));
-      r.on('end', () => cb(null, Buffer.concat(chunks)));
-    });
+    const res = await api()
+      .get(`/api/designs/${id}/report.pdf`)
+      .set('Cookie', buyer)
+      .buffer(true)
+      .parse((r, cb) => {
+        const chunks: Buffer[] = [];
+        r.on('data', (c: Buffer) => chunks.push(c));
+        r.on('end', () => cb(null, Buffer.concat(chunks)));
+      });
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toBe('application/pdf');
     const bytes = new Uint8Array(res.body as Buffer);
@@ -234,7 +284,11 @@ describe('design report PDF', () => {
     const text = (await pdfPageTexts(bytes)).join(' ');
     expect(text).toContain(demoDesigns[2].name);
     expect(text).toContain(`Rev ${design.revision}`);
-    const chosen = [design.input.selections.switch.chosenPartId, design.input.selections.driver.chosenPartId, design.input.selections.diode.chosenPartId];
+    const chosen = [
+      design.input.selections.switch.chosenPartId,
+      design.input.selections.driver.chosenPartId,
+      design.input.selections.diode.chosenPartId,
+    ];
     for (const partId of chosen) {
       expect(partId).not.toBeNull();
       const part = await knex('parts').where({ id: partId }).first('mpn');
@@ -255,17 +309,28 @@ describe('marking a design ready', () => {
     const unsafe: DesignInput = {
       ...base,
       name: `Ready check ${Date.now()}`,
-      selections: { ...base.selections, switch: { chosenPartId: base.selections.switch.chosenPartId, alternatePartIds: [failing!.partId as number] } },
+      selections: {
+        ...base.selections,
+        switch: { chosenPartId: base.selections.switch.chosenPartId, alternatePartIds: [failing!.partId as number] },
+      },
     };
     const created = await api().post('/api/designs').set('Cookie', designer).send(unsafe);
     expect(created.status).toBe(201);
-    const refused = await api().post(`/api/designs/${created.body.id}/status`).set('Cookie', designer).send({ status: 'ready', version: created.body.version });
+    const refused = await api()
+      .post(`/api/designs/${created.body.id}/status`)
+      .set('Cookie', designer)
+      .send({ status: 'ready', version: created.body.version });
     expect(refused.status).toBe(409);
     expect(refused.body.issues.map((i: { path: string }) => i.path)).toEqual(['selections.switch.alternatePartIds.0']);
 
-    const safe = await api().put(`/api/designs/${created.body.id}`).set('Cookie', designer)
+    const safe = await api()
+      .put(`/api/designs/${created.body.id}`)
+      .set('Cookie', designer)
       .send({ version: created.body.version, input: { ...unsafe, selections: base.selections } });
-    const ready = await api().post(`/api/designs/${created.body.id}/status`).set('Cookie', designer).send({ status: 'ready', version: safe.body.version });
+    const ready = await api()
+      .post(`/api/designs/${created.body.id}/status`)
+      .set('Cookie', designer)
+      .send({ status: 'ready', version: safe.body.version });
     expect(ready.status).toBe(200);
     expect(ready.body.status).toBe('ready');
     const shortlist = await api().get('/shortlist').set('Cookie', buyer);

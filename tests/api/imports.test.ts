@@ -49,7 +49,10 @@ describe('POST /api/imports', () => {
     expect(first.status, JSON.stringify(first.body)).toBe(201);
     expect(first.body.counts.created).toBe(sampleRows.length);
     expect(await partCount()).toBe(before + sampleRows.length);
-    const imported = await knex('parts').whereIn('mpn', sampleRows.map((r) => r.mpn));
+    const imported = await knex('parts').whereIn(
+      'mpn',
+      sampleRows.map((r) => r.mpn),
+    );
     expect(imported.map((p) => p.review_status)).toEqual(sampleRows.map(() => 'pending'));
     const again = await post('commit', SAMPLE, key);
     expect(again.status).toBe(200);
@@ -63,7 +66,12 @@ describe('POST /api/imports', () => {
     const mosfet = sampleRows.find((r) => r.category === 'mosfet')!;
     const id = imported.find((p) => p.mpn === mosfet.mpn)!.id;
     const part = (await request(appUrl()).get(`/api/parts/${id}`).set('Cookie', librarian)).body;
-    expect(part.params.rdsOn.map((r: { vgsV: number }) => r.vgsV)).toEqual([1, 2, 3, 4].map((i) => mosfet[`rdsOn${i}VgsV`]).filter(Boolean).map(Number));
+    expect(part.params.rdsOn.map((r: { vgsV: number }) => r.vgsV)).toEqual(
+      [1, 2, 3, 4]
+        .map((i) => mosfet[`rdsOn${i}VgsV`])
+        .filter(Boolean)
+        .map(Number),
+    );
     expect(part.sources[0].sku).toBe(mosfet.sku);
   });
 
@@ -78,10 +86,12 @@ describe('POST /api/imports', () => {
     const before = await partCount();
     const preview = await post('preview', csv);
     expect(preview.status).toBe(200);
-    expect(preview.body.errors).toEqual(expect.arrayContaining([
-      expect.objectContaining({ line: mosfetIndex + 2, column: 'vdsMaxV' }),
-      expect.objectContaining({ line: diodeIndex + 2, column: 'vdsMaxV', message: expect.stringContaining('does not apply') }),
-    ]));
+    expect(preview.body.errors).toEqual(
+      expect.arrayContaining([
+        expect.objectContaining({ line: mosfetIndex + 2, column: 'vdsMaxV' }),
+        expect.objectContaining({ line: diodeIndex + 2, column: 'vdsMaxV', message: expect.stringContaining('does not apply') }),
+      ]),
+    );
     expect(preview.body.counts.invalid).toBe(2);
     const commit = await post('commit', csv, `test-bad-${Date.now()}`);
     expect(commit.status).toBe(400);
@@ -98,10 +108,12 @@ describe('POST /api/imports', () => {
     rows[motor] = { ...rows[motor], stallCurrentA: '' };
     rows.push({ ...rows[0] });
     const res = await post('preview', Papa.unparse(rows));
-    expect(res.body.errors).toEqual(expect.arrayContaining([
-      expect.objectContaining({ line: motor + 2, column: 'stallCurrentA' }),
-      expect.objectContaining({ line: rows.length + 1, column: 'mpn', message: 'the same maker and part number as line 2' }),
-    ]));
+    expect(res.body.errors).toEqual(
+      expect.arrayContaining([
+        expect.objectContaining({ line: motor + 2, column: 'stallCurrentA' }),
+        expect.objectContaining({ line: rows.length + 1, column: 'mpn', message: 'the same maker and part number as line 2' }),
+      ]),
+    );
   });
 
   it('refuses an unknown column (line 1), a commit without a key, a non-CSV body and a designer', async () => {
@@ -110,7 +122,11 @@ describe('POST /api/imports', () => {
     const noKey = await post('commit', SAMPLE);
     expect(noKey.status).toBe(400);
     expect(noKey.body.issues.map((i: { path: string }) => i.path)).toContain('(headers).idempotency-key');
-    const json = await request(appUrl()).post('/api/imports?mode=preview').set('Cookie', librarian).set('Content-Type', 'application/json').send('{}');
+    const json = await request(appUrl())
+      .post('/api/imports?mode=preview')
+      .set('Cookie', librarian)
+      .set('Content-Type', 'application/json')
+      .send('{}');
     expect(json.status).toBe(415);
     const badMode = await post('apply', SAMPLE);
     expect(badMode.status).toBe(400);
@@ -124,10 +140,15 @@ describe('POST /api/imports', () => {
     expect(created.status).toBe(201);
     const diode = created.body.rows.find((r: { category: string }) => r.category === 'diode');
     const part = (await request(appUrl()).get(`/api/parts/${diode.partId}`).set('Cookie', librarian)).body;
-    const approved = await request(appUrl()).post(`/api/parts/${part.id}/review`).set('Cookie', librarian).set('Content-Type', 'application/json')
+    const approved = await request(appUrl())
+      .post(`/api/parts/${part.id}/review`)
+      .set('Cookie', librarian)
+      .set('Content-Type', 'application/json')
       .send(JSON.stringify({ decision: 'approve', version: part.version }));
     expect(approved.body.reviewStatus).toBe('approved');
-    const found = await request(appUrl()).get('/api/parts').set('Cookie', await sessionCookie('designer'))
+    const found = await request(appUrl())
+      .get('/api/parts')
+      .set('Cookie', await sessionCookie('designer'))
       .query({ category: 'diode', vrrmMinV: part.params.vrrmV, kind: part.params.kind, reviewStatus: 'approved', pageSize: 200 });
     expect(found.body.items.map((p: { mpn: string }) => p.mpn)).toContain(part.mpn);
     expect(mpns).toContain(part.mpn);

@@ -21,7 +21,10 @@ beforeAll(async () => {
 async function getAll(query: Record<string, string | number | boolean>): Promise<Part[]> {
   const items: Part[] = [];
   for (let page = 1; ; page++) {
-    const res = await request(appUrl()).get('/api/parts').query({ ...query, page, pageSize: 200 }).set('Cookie', cookie);
+    const res = await request(appUrl())
+      .get('/api/parts')
+      .query({ ...query, page, pageSize: 200 })
+      .set('Cookie', cookie);
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     items.push(...res.body.items);
     if (items.length >= res.body.total) return items;
@@ -35,34 +38,80 @@ function rdsOnAt(p: Part | Seed, driveV: number): number | null {
   return usable.length ? usable[0].maxOhm : null;
 }
 
-const M = (f: (p: Extract<Seed, { category: 'mosfet' }>['params']) => boolean): Pred => (p) => p.category === 'mosfet' && f(p.params);
-const D = (f: (p: Extract<Seed, { category: 'driver' }>['params']) => boolean): Pred => (p) => p.category === 'driver' && f(p.params);
-const G = (f: (p: Extract<Seed, { category: 'diode' }>['params']) => boolean): Pred => (p) => p.category === 'diode' && f(p.params);
-const W = (f: (p: Extract<Seed, { category: 'motor' }>['params']) => boolean): Pred => (p) => p.category === 'motor' && f(p.params);
+const M =
+  (f: (p: Extract<Seed, { category: 'mosfet' }>['params']) => boolean): Pred =>
+  (p) =>
+    p.category === 'mosfet' && f(p.params);
+const D =
+  (f: (p: Extract<Seed, { category: 'driver' }>['params']) => boolean): Pred =>
+  (p) =>
+    p.category === 'driver' && f(p.params);
+const G =
+  (f: (p: Extract<Seed, { category: 'diode' }>['params']) => boolean): Pred =>
+  (p) =>
+    p.category === 'diode' && f(p.params);
+const W =
+  (f: (p: Extract<Seed, { category: 'motor' }>['params']) => boolean): Pred =>
+  (p) =>
+    p.category === 'motor' && f(p.params);
 const acceptsLogic = (d: Extract<Seed, { category: 'driver' }>['params'], railV: number, supplyV?: number): boolean =>
-  d.inputLogic === 'fixed' ? d.inputHighMin <= railV : d.inputLogic === 'ratio' ? d.inputHighMin * (supplyV ?? d.supplyMinV) <= railV : true;
+  d.inputLogic === 'fixed'
+    ? d.inputHighMin <= railV
+    : d.inputLogic === 'ratio'
+      ? d.inputHighMin * (supplyV ?? d.supplyMinV) <= railV
+      : true;
 
 const CASES: [string, Record<string, string | number | boolean>, Pred][] = [
   ['MOSFET VDS ≥ 30 V', { category: 'mosfet', vdsMinV: 30 }, M((p) => p.vdsMaxV >= 30)],
   ['MOSFET VGS(th) max ≤ 1 V', { category: 'mosfet', vgsThMaxV: 1 }, M((p) => p.vgsThMaxV <= 1)],
   ['MOSFET characterised at 1.8 V', { category: 'mosfet', rdsOnAtVgsV: 1.8 }, M((p) => Math.min(...p.rdsOn.map((r) => r.vgsV)) <= 1.8)],
-  ['MOSFET RDS(on) ≤ 100 mΩ at 2.5 V', { category: 'mosfet', rdsOnAtVgsV: 2.5, rdsOnMaxOhm: 0.1 }, (p) => (rdsOnAt(p, 2.5) ?? Infinity) <= 0.1],
-  ['MOSFET RDS(on) ≤ 50 mΩ at 3.3 V (judged at the 2.5 V line)', { category: 'mosfet', rdsOnAtVgsV: 3.3, rdsOnMaxOhm: 0.05 }, (p) => (rdsOnAt(p, 3.3) ?? Infinity) <= 0.05],
-  ['MOSFET RDS(on) ≤ 30 mΩ at 10 V', { category: 'mosfet', rdsOnAtVgsV: 10, rdsOnMaxOhm: 0.03 }, (p) => (rdsOnAt(p, 10) ?? Infinity) <= 0.03],
+  [
+    'MOSFET RDS(on) ≤ 100 mΩ at 2.5 V',
+    { category: 'mosfet', rdsOnAtVgsV: 2.5, rdsOnMaxOhm: 0.1 },
+    (p) => (rdsOnAt(p, 2.5) ?? Infinity) <= 0.1,
+  ],
+  [
+    'MOSFET RDS(on) ≤ 50 mΩ at 3.3 V (judged at the 2.5 V line)',
+    { category: 'mosfet', rdsOnAtVgsV: 3.3, rdsOnMaxOhm: 0.05 },
+    (p) => (rdsOnAt(p, 3.3) ?? Infinity) <= 0.05,
+  ],
+  [
+    'MOSFET RDS(on) ≤ 30 mΩ at 10 V',
+    { category: 'mosfet', rdsOnAtVgsV: 10, rdsOnMaxOhm: 0.03 },
+    (p) => (rdsOnAt(p, 10) ?? Infinity) <= 0.03,
+  ],
   ['MOSFET ID ≥ 3 A and Qg ≤ 10 nC', { category: 'mosfet', idMinA: 3, qgMaxNc: 10 }, M((p) => p.idContinuousA >= 3 && p.qgTotalNc <= 10)],
   ['P-channel MOSFETs', { category: 'mosfet', channel: 'p' }, M((p) => p.channel === 'p')],
   ['MOSFETs in SOT-23', { category: 'mosfet', package: 'SOT-23' }, (p) => p.category === 'mosfet' && p.package === 'SOT-23'],
-  ['driver at 12 V supply accepting 3.3 V logic', { category: 'driver', logicRailV: 3.3, supplyV: 12 },
-    D((d) => d.supplyMinV <= 12 && d.supplyMaxV >= 12 && acceptsLogic(d, 3.3, 12))],
+  [
+    'driver at 12 V supply accepting 3.3 V logic',
+    { category: 'driver', logicRailV: 3.3, supplyV: 12 },
+    D((d) => d.supplyMinV <= 12 && d.supplyMaxV >= 12 && acceptsLogic(d, 3.3, 12)),
+  ],
   ['driver input accepts 1.8 V logic', { category: 'driver', logicRailV: 1.8 }, D((d) => acceptsLogic(d, 1.8))],
-  ['driver at 5 V supply accepting 3.3 V logic', { category: 'driver', logicRailV: 3.3, supplyV: 5 },
-    D((d) => d.supplyMinV <= 5 && d.supplyMaxV >= 5 && acceptsLogic(d, 3.3, 5))],
+  [
+    'driver at 5 V supply accepting 3.3 V logic',
+    { category: 'driver', logicRailV: 3.3, supplyV: 5 },
+    D((d) => d.supplyMinV <= 5 && d.supplyMaxV >= 5 && acceptsLogic(d, 3.3, 5)),
+  ],
   ['driver output high ≥ 10 V', { category: 'driver', outputHighMinV: 10 }, D((d) => d.supplyMaxV - d.outputHighDropV >= 10)],
-  ['non-inverting driver at 12 V', { category: 'driver', supplyV: 12, inverting: false }, D((d) => !d.inverting && d.supplyMinV <= 12 && d.supplyMaxV >= 12)],
+  [
+    'non-inverting driver at 12 V',
+    { category: 'driver', supplyV: 12, inverting: false },
+    D((d) => !d.inverting && d.supplyMinV <= 12 && d.supplyMaxV >= 12),
+  ],
   ['Schottky diodes', { category: 'diode', kind: 'schottky' }, G((d) => d.kind === 'schottky')],
   ['diode VRRM ≥ 40 V and IF(AV) ≥ 1 A', { category: 'diode', vrrmMinV: 40, ifAvMinA: 1 }, G((d) => d.vrrmV >= 40 && d.ifAvA >= 1)],
-  ['diode trr ≤ 50 ns (Schottky passes)', { category: 'diode', trrMaxNs: 50 }, G((d) => (d.trrNs === null ? d.kind === 'schottky' : d.trrNs <= 50))],
-  ['motor rated 5–12 V', { category: 'motor', ratedVoltageMinV: 5, ratedVoltageMaxV: 12 }, W((m) => m.ratedVoltageV >= 5 && m.ratedVoltageV <= 12)],
+  [
+    'diode trr ≤ 50 ns (Schottky passes)',
+    { category: 'diode', trrMaxNs: 50 },
+    G((d) => (d.trrNs === null ? d.kind === 'schottky' : d.trrNs <= 50)),
+  ],
+  [
+    'motor rated 5–12 V',
+    { category: 'motor', ratedVoltageMinV: 5, ratedVoltageMaxV: 12 },
+    W((m) => m.ratedVoltageV >= 5 && m.ratedVoltageV <= 12),
+  ],
   ['motor no-load ≥ 10 000 rpm', { category: 'motor', noLoadSpeedMinRpm: 10000 }, W((m) => m.noLoadSpeedRpm >= 10000)],
   ['motor stall torque ≥ 10 mN·m', { category: 'motor', stallTorqueMinNm: 0.01 }, W((m) => m.stallTorqueNm >= 0.01)],
   ['filter key implies its category', { vrrmMinV: 100 }, G((d) => d.vrrmV >= 100)],
@@ -70,22 +119,42 @@ const CASES: [string, Record<string, string | number | boolean>, Pred][] = [
 
 describe('GET /api/parts filters match a plain filter over the seed', () => {
   it.each(CASES)('%s', async (_name, query, pred) => {
-    const expected = demoParts.filter(pred).map((p) => p.mpn).sort();
+    const expected = demoParts
+      .filter(pred)
+      .map((p) => p.mpn)
+      .sort();
     expect(expected.length, 'the case should select some seed parts').toBeGreaterThan(0);
-    expect(expected.length, 'the case should leave some seed parts out').toBeLessThan(demoParts.filter((p) => p.category === (query.category ?? 'diode')).length);
+    expect(expected.length, 'the case should leave some seed parts out').toBeLessThan(
+      demoParts.filter((p) => p.category === (query.category ?? 'diode')).length,
+    );
     const items = await getAll(query);
     const seedMpns = new Set(demoParts.map((p) => p.mpn));
-    expect(items.filter((p) => seedMpns.has(p.mpn)).map((p) => p.mpn).sort()).toEqual(expected);
+    expect(
+      items
+        .filter((p) => seedMpns.has(p.mpn))
+        .map((p) => p.mpn)
+        .sort(),
+    ).toEqual(expected);
     for (const item of items) expect(pred(item), `${item.mpn} should satisfy the filter`).toBe(true);
   });
 
   it('lifecycle and review filters return exactly the parts in those states', async () => {
     const all = await getAll({});
     const nrnd = await getAll({ lifecycle: 'nrnd,obsolete' });
-    expect(nrnd.map((p) => p.id).sort()).toEqual(all.filter((p) => ['nrnd', 'obsolete'].includes(p.lifecycle)).map((p) => p.id).sort());
+    expect(nrnd.map((p) => p.id).sort()).toEqual(
+      all
+        .filter((p) => ['nrnd', 'obsolete'].includes(p.lifecycle))
+        .map((p) => p.id)
+        .sort(),
+    );
     expect(nrnd.length).toBeGreaterThan(0);
     const pending = await getAll({ reviewStatus: 'pending' });
-    expect(pending.map((p) => p.id).sort()).toEqual(all.filter((p) => p.reviewStatus === 'pending').map((p) => p.id).sort());
+    expect(pending.map((p) => p.id).sort()).toEqual(
+      all
+        .filter((p) => p.reviewStatus === 'pending')
+        .map((p) => p.id)
+        .sort(),
+    );
   });
 });
 
@@ -96,7 +165,10 @@ describe('GET /api/parts pages and sorts on the server', () => {
     expect(vds).toEqual([...vds].sort((a, b) => b - a));
     const collected: number[] = [];
     for (let page = 1; page <= Math.ceil(whole.length / 7); page++) {
-      const res = await request(appUrl()).get('/api/parts').query({ category: 'mosfet', sort: '-vdsMaxV', page, pageSize: 7 }).set('Cookie', cookie);
+      const res = await request(appUrl())
+        .get('/api/parts')
+        .query({ category: 'mosfet', sort: '-vdsMaxV', page, pageSize: 7 })
+        .set('Cookie', cookie);
       expect(res.body).toMatchObject({ total: whole.length, page, pageSize: 7 });
       collected.push(...res.body.items.map((p: Part) => p.id));
     }
@@ -123,9 +195,20 @@ describe('GET /api/parts text search', () => {
   });
 
   it('matches maker names and combines with parameter filters', async () => {
-    const res = await request(appUrl()).get('/api/parts').query({ q: 'Thornbury', category: 'mosfet', vdsMinV: 60, pageSize: 200 }).set('Cookie', cookie);
-    const expected = demoParts.filter((p) => p.manufacturer === 'Thornbury Power Devices' && p.category === 'mosfet' && p.params.vdsMaxV >= 60).map((p) => p.mpn).sort();
-    expect(res.body.items.map((p: Part) => p.mpn).filter((m: string) => expected.includes(m)).sort()).toEqual(expected);
+    const res = await request(appUrl())
+      .get('/api/parts')
+      .query({ q: 'Thornbury', category: 'mosfet', vdsMinV: 60, pageSize: 200 })
+      .set('Cookie', cookie);
+    const expected = demoParts
+      .filter((p) => p.manufacturer === 'Thornbury Power Devices' && p.category === 'mosfet' && p.params.vdsMaxV >= 60)
+      .map((p) => p.mpn)
+      .sort();
+    expect(
+      res.body.items
+        .map((p: Part) => p.mpn)
+        .filter((m: string) => expected.includes(m))
+        .sort(),
+    ).toEqual(expected);
     for (const p of res.body.items as Part[]) expect(p.category === 'mosfet' && p.params.vdsMaxV >= 60).toBe(true);
   });
 });
@@ -157,20 +240,31 @@ describe('CSV export of a filtered list', () => {
   it('carries exactly the parts of the same filter, in the import format', async () => {
     const query = { category: 'diode', vrrmMinV: 100 };
     const json = await getAll(query);
-    const res = await request(appUrl()).get('/api/parts.csv').query(query).set('Cookie', cookie).buffer(true).parse((r, cb) => {
-      let s = '';
-      r.on('data', (c: Buffer) => (s += c.toString('utf8')));
-      r.on('end', () => cb(null, s));
-    });
+    const res = await request(appUrl())
+      .get('/api/parts.csv')
+      .query(query)
+      .set('Cookie', cookie)
+      .buffer(true)
+      .parse((r, cb) => {
+        let s = '';
+        r.on('data', (c: Buffer) => (s += c.toString('utf8')));
+        r.on('end', () => cb(null, s));
+      });
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toMatch(/^text\/csv/);
     expect(res.headers['content-disposition']).toMatch(/^attachment; filename="stallpoint-parts-diode-/);
     const lines = (res.body as string).trim().split(/\r\n/);
     const header = lines[0].split(',');
     expect(header.slice(0, 3)).toEqual(['category', 'manufacturer', 'mpn']);
-    const mpns = lines.slice(1).map((l) => l.split(',')[header.indexOf('mpn')]).sort();
+    const mpns = lines
+      .slice(1)
+      .map((l) => l.split(',')[header.indexOf('mpn')])
+      .sort();
     expect(mpns).toEqual(json.map((p) => p.mpn).sort());
-    const viaFormat = await request(appUrl()).get('/api/parts').query({ ...query, format: 'csv' }).set('Cookie', cookie);
+    const viaFormat = await request(appUrl())
+      .get('/api/parts')
+      .query({ ...query, format: 'csv' })
+      .set('Cookie', cookie);
     expect(viaFormat.headers['content-type']).toMatch(/^text\/csv/);
   });
 });

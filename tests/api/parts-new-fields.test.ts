@@ -29,18 +29,65 @@ const paths = (res: request.Response): string[] => (res.body.issues ?? []).map((
 const partCount = async (): Promise<number> => Number((await knex('parts').count({ n: '*' }).first())!.n);
 
 const driverParams = {
-  kind: 'gate-driver', channels: 1, inverting: true, supplyMinV: 4.5, supplyMaxV: 18, inputLogic: 'fixed', inputHighMin: 2, inputLowMax: 0.8,
-  outputHighDropV: 0.1, outputLowMaxV: 0.05, sourceCurrentA: 1.5, sinkCurrentA: 2, propagationDelayNs: 40, inputPull: 'up', inputPullOhms: 100_000,
+  kind: 'gate-driver',
+  channels: 1,
+  inverting: true,
+  supplyMinV: 4.5,
+  supplyMaxV: 18,
+  inputLogic: 'fixed',
+  inputHighMin: 2,
+  inputLowMax: 0.8,
+  outputHighDropV: 0.1,
+  outputLowMaxV: 0.05,
+  sourceCurrentA: 1.5,
+  sinkCurrentA: 2,
+  propagationDelayNs: 40,
+  inputPull: 'up',
+  inputPullOhms: 100_000,
 };
-const diodeParams = { kind: 'schottky', vrrmV: 40, ifAvA: 1, ifsmA: 25, vfV: 0.45, vfAtIfA: 1, trrNs: null, ifrmA: 2.5, rthJaCPerW: 90, tjMaxC: 150 };
+const diodeParams = {
+  kind: 'schottky',
+  vrrmV: 40,
+  ifAvA: 1,
+  ifsmA: 25,
+  vfV: 0.45,
+  vfAtIfA: 1,
+  trrNs: null,
+  ifrmA: 2.5,
+  rthJaCPerW: 90,
+  tjMaxC: 150,
+};
 const mosfetParams = {
-  channel: 'n', vdsMaxV: 30, vgsMaxV: 20, vgsThMinV: 1, vgsThMaxV: 2.5, vgsThTestCurrentA: 0.00025, idContinuousA: 4, idPulsedA: 20,
-  qgTotalNc: 6, qgTestVgsV: 4.5, qgsNc: null, qgdNc: null, vPlateauV: null, rthJaCPerW: 250, tjMaxC: 150, bodyDiodeVfV: null,
+  channel: 'n',
+  vdsMaxV: 30,
+  vgsMaxV: 20,
+  vgsThMinV: 1,
+  vgsThMaxV: 2.5,
+  vgsThTestCurrentA: 0.00025,
+  idContinuousA: 4,
+  idPulsedA: 20,
+  qgTotalNc: 6,
+  qgTestVgsV: 4.5,
+  qgsNc: null,
+  qgdNc: null,
+  vPlateauV: null,
+  rthJaCPerW: 250,
+  tjMaxC: 150,
+  bodyDiodeVfV: null,
   rdsOn: [{ vgsV: 4.5, tjC: 25, maxOhm: 0.05, typOhm: 0.04, idA: 2 }],
-  zthPoints: [{ pulseS: 0.001, zthCPerW: 5 }, { pulseS: 0.1, zthCPerW: 60 }, { pulseS: 10, zthCPerW: 200 }],
+  zthPoints: [
+    { pulseS: 0.001, zthCPerW: 5 },
+    { pulseS: 0.1, zthCPerW: 60 },
+    { pulseS: 10, zthCPerW: 200 },
+  ],
 };
 const part = (category: string, stem: string, params: Record<string, unknown>) => ({
-  category, manufacturer: MAKER, mpn: mpn(stem), description: `Test ${category}`, package: 'SOT-23', params,
+  category,
+  manufacturer: MAKER,
+  mpn: mpn(stem),
+  description: `Test ${category}`,
+  package: 'SOT-23',
+  params,
 });
 
 describe('parts API: the new fields', () => {
@@ -50,7 +97,9 @@ describe('parts API: the new fields', () => {
     const got = await get(created.body.id);
     expect(got.params).toMatchObject({ inverting: true, inputPull: 'up', inputPullOhms: 100_000 });
     const { id: _id, ...rest } = got;
-    const edited = await request(appUrl()).put(`/api/parts/${got.id}`).set('Cookie', librarian)
+    const edited = await request(appUrl())
+      .put(`/api/parts/${got.id}`)
+      .set('Cookie', librarian)
       .send({ ...rest, params: { ...got.params, inputPull: 'none', inputPullOhms: null }, version: got.version });
     expect(edited.status, JSON.stringify(edited.body)).toBe(200);
     expect((await get(got.id)).params).toMatchObject({ inputPull: 'none', inputPullOhms: null });
@@ -72,9 +121,36 @@ describe('parts API: the new fields', () => {
     ['a negative IFRM', 'diode', { ...diodeParams, ifrmA: -1 }, 'params.ifrmA'],
     ['a zero RθJA', 'diode', { ...diodeParams, rthJaCPerW: 0 }, 'params.rthJaCPerW'],
     ['a Tj max of 400 °C', 'diode', { ...diodeParams, tjMaxC: 400 }, 'params.tjMaxC'],
-    ['Zth pulses not increasing', 'mosfet', { ...mosfetParams, zthPoints: [{ pulseS: 0.1, zthCPerW: 60 }, { pulseS: 0.01, zthCPerW: 70 }] }, 'params.zthPoints.1.pulseS'],
-    ['a Zth that falls as the pulse lengthens', 'mosfet', { ...mosfetParams, zthPoints: [{ pulseS: 0.01, zthCPerW: 60 }, { pulseS: 1, zthCPerW: 40 }] }, 'params.zthPoints.1.zthCPerW'],
-    ['a Zth above RθJA (250 K/W)', 'mosfet', { ...mosfetParams, zthPoints: [{ pulseS: 100, zthCPerW: 300 }] }, 'params.zthPoints.0.zthCPerW'],
+    [
+      'Zth pulses not increasing',
+      'mosfet',
+      {
+        ...mosfetParams,
+        zthPoints: [
+          { pulseS: 0.1, zthCPerW: 60 },
+          { pulseS: 0.01, zthCPerW: 70 },
+        ],
+      },
+      'params.zthPoints.1.pulseS',
+    ],
+    [
+      'a Zth that falls as the pulse lengthens',
+      'mosfet',
+      {
+        ...mosfetParams,
+        zthPoints: [
+          { pulseS: 0.01, zthCPerW: 60 },
+          { pulseS: 1, zthCPerW: 40 },
+        ],
+      },
+      'params.zthPoints.1.zthCPerW',
+    ],
+    [
+      'a Zth above RθJA (250 K/W)',
+      'mosfet',
+      { ...mosfetParams, zthPoints: [{ pulseS: 100, zthCPerW: 300 }] },
+      'params.zthPoints.0.zthCPerW',
+    ],
   ])('refuses %s with 400 naming the field, and writes nothing', async (_name, category, params, field) => {
     const before = await partCount();
     const res = await post(part(category, 'IRD-BAD', params as Record<string, unknown>));
@@ -91,11 +167,16 @@ const importCsv = (mode: 'preview' | 'commit', csv: string) => {
 };
 
 async function exportCsv(query: Record<string, string>): Promise<Record<string, string>[]> {
-  const res = await request(appUrl()).get('/api/parts.csv').query(query).set('Cookie', librarian).buffer(true).parse((r, cb) => {
-    let s = '';
-    r.on('data', (c: Buffer) => (s += c.toString('utf8')));
-    r.on('end', () => cb(null, s));
-  });
+  const res = await request(appUrl())
+    .get('/api/parts.csv')
+    .query(query)
+    .set('Cookie', librarian)
+    .buffer(true)
+    .parse((r, cb) => {
+      let s = '';
+      r.on('data', (c: Buffer) => (s += c.toString('utf8')));
+      r.on('end', () => cb(null, s));
+    });
   expect(res.status).toBe(200);
   return Papa.parse<Record<string, string>>(res.body as string, { header: true, skipEmptyLines: true }).data;
 }
@@ -103,15 +184,68 @@ async function exportCsv(query: Record<string, string>): Promise<Record<string, 
 describe('CSV import and export of the new columns', () => {
   // Cells written as the export writes numbers (plain decimals), so a round trip compares cell for cell.
   const cells: Record<string, string>[] = [
-    { category: 'driver', mpn: mpn('IRD-CSV-DRV'), kind: 'gate-driver', channels: '1', inverting: 'true', supplyMinV: '4.5', supplyMaxV: '18', inputLogic: 'fixed',
-      inputHighMin: '2', inputLowMax: '0.8', outputHighDropV: '0.1', outputLowMaxV: '0.05', sourceCurrentA: '1.5', sinkCurrentA: '2', propagationDelayNs: '40',
-      inputPull: 'down', inputPullOhms: '150000' },
-    { category: 'diode', mpn: mpn('IRD-CSV-DIO'), kind: 'schottky', vrrmV: '40', ifAvA: '1', ifsmA: '25', vfV: '0.45', vfAtIfA: '1', ifrmA: '2.5', rthJaCPerW: '90', tjMaxC: '150' },
-    { category: 'mosfet', mpn: mpn('IRD-CSV-FET'), channel: 'n', vdsMaxV: '30', vgsMaxV: '20', vgsThMinV: '1', vgsThMaxV: '2.5', idContinuousA: '4', idPulsedA: '20',
-      qgTotalNc: '6', qgTestVgsV: '4.5', rthJaCPerW: '250', tjMaxC: '150', rdsOn1VgsV: '4.5', rdsOn1MaxOhm: '0.05',
-      zth1PulseS: '0.001', zth1CPerW: '5', zth2PulseS: '0.1', zth2CPerW: '60', zth3PulseS: '10', zth3CPerW: '200' },
+    {
+      category: 'driver',
+      mpn: mpn('IRD-CSV-DRV'),
+      kind: 'gate-driver',
+      channels: '1',
+      inverting: 'true',
+      supplyMinV: '4.5',
+      supplyMaxV: '18',
+      inputLogic: 'fixed',
+      inputHighMin: '2',
+      inputLowMax: '0.8',
+      outputHighDropV: '0.1',
+      outputLowMaxV: '0.05',
+      sourceCurrentA: '1.5',
+      sinkCurrentA: '2',
+      propagationDelayNs: '40',
+      inputPull: 'down',
+      inputPullOhms: '150000',
+    },
+    {
+      category: 'diode',
+      mpn: mpn('IRD-CSV-DIO'),
+      kind: 'schottky',
+      vrrmV: '40',
+      ifAvA: '1',
+      ifsmA: '25',
+      vfV: '0.45',
+      vfAtIfA: '1',
+      ifrmA: '2.5',
+      rthJaCPerW: '90',
+      tjMaxC: '150',
+    },
+    {
+      category: 'mosfet',
+      mpn: mpn('IRD-CSV-FET'),
+      channel: 'n',
+      vdsMaxV: '30',
+      vgsMaxV: '20',
+      vgsThMinV: '1',
+      vgsThMaxV: '2.5',
+      idContinuousA: '4',
+      idPulsedA: '20',
+      qgTotalNc: '6',
+      qgTestVgsV: '4.5',
+      rthJaCPerW: '250',
+      tjMaxC: '150',
+      rdsOn1VgsV: '4.5',
+      rdsOn1MaxOhm: '0.05',
+      zth1PulseS: '0.001',
+      zth1CPerW: '5',
+      zth2PulseS: '0.1',
+      zth2CPerW: '60',
+      zth3PulseS: '10',
+      zth3CPerW: '200',
+    },
   ];
-  const rows: Record<string, string>[] = cells.map((r) => ({ manufacturer: MAKER, description: 'Test import row', package: 'SOT-23', ...r }));
+  const rows: Record<string, string>[] = cells.map((r) => ({
+    manufacturer: MAKER,
+    description: 'Test import row',
+    package: 'SOT-23',
+    ...r,
+  }));
   const fields = [...new Set(rows.flatMap((r) => Object.keys(r)))];
   const csvOf = (data: Record<string, string>[]) => Papa.unparse({ fields, data: data.map((r) => fields.map((f) => r[f] ?? '')) });
 
@@ -122,7 +256,11 @@ describe('CSV import and export of the new columns', () => {
     const [driver, diode, mosfet] = await Promise.all(ids.map(get));
     expect(driver.params).toMatchObject({ inputPull: 'down', inputPullOhms: 150_000, inverting: true });
     expect(diode.params).toMatchObject({ ifrmA: 2.5, rthJaCPerW: 90, tjMaxC: 150 });
-    expect(mosfet.params.zthPoints).toEqual([{ pulseS: 0.001, zthCPerW: 5 }, { pulseS: 0.1, zthCPerW: 60 }, { pulseS: 10, zthCPerW: 200 }]);
+    expect(mosfet.params.zthPoints).toEqual([
+      { pulseS: 0.001, zthCPerW: 5 },
+      { pulseS: 0.1, zthCPerW: 60 },
+      { pulseS: 10, zthCPerW: 200 },
+    ]);
 
     const exported = (await exportCsv({ q: tag })).filter((r) => rows.some((x) => x.mpn === r.mpn));
     expect(exported.map((r) => r.mpn).sort()).toEqual(rows.map((r) => r.mpn).sort());
@@ -134,8 +272,12 @@ describe('CSV import and export of the new columns', () => {
 
     // The exported rows, renamed, import again (every column of the export) and carry equal parameters.
     const again = exported.map((r) => ({ ...r, mpn: `${r.mpn}-R`, sku: r.sku ? `${r.sku}R` : r.sku }));
-    const reimported = await request(appUrl()).post('/api/imports?mode=commit').set('Cookie', librarian).set('Content-Type', 'text/csv')
-      .set('Idempotency-Key', `new-fields-again-${tag}`).send(Papa.unparse(again));
+    const reimported = await request(appUrl())
+      .post('/api/imports?mode=commit')
+      .set('Cookie', librarian)
+      .set('Content-Type', 'text/csv')
+      .set('Idempotency-Key', `new-fields-again-${tag}`)
+      .send(Papa.unparse(again));
     expect(reimported.status, JSON.stringify(reimported.body)).toBe(201);
     for (const r of reimported.body.rows as { mpn: string; partId: number }[]) {
       const original = [driver, diode, mosfet].find((p) => `${p.mpn}-R` === r.mpn);

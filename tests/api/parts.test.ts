@@ -20,10 +20,26 @@ let serial = 0;
 function newDiode(overrides: Record<string, unknown> = {}): Record<string, unknown> {
   serial += 1;
   return {
-    category: 'diode', manufacturer: 'Ostler Rectifier Works', mpn: `ORS${10 + serial}-45-MB-T${Date.now().toString(36)}`,
-    description: 'Test Schottky diode, 45 V', package: 'SMB',
+    category: 'diode',
+    manufacturer: 'Ostler Rectifier Works',
+    mpn: `ORS${10 + serial}-45-MB-T${Date.now().toString(36)}`,
+    description: 'Test Schottky diode, 45 V',
+    package: 'SMB',
     params: { kind: 'schottky', vrrmV: 45, ifAvA: 2, ifsmA: 50, vfV: 0.55, vfAtIfA: 2, trrNs: null },
-    sources: [{ distributor: 'Fenwick Row Electronics', sku: `FRE-9${String(serial).padStart(5, '0')}`, moq: 1, leadTimeDays: 5, stockQty: 100, currency: 'USD', priceBreaks: [{ qty: 1, unitPrice: 0.3 }, { qty: 100, unitPrice: 0.12 }] }],
+    sources: [
+      {
+        distributor: 'Fenwick Row Electronics',
+        sku: `FRE-9${String(serial).padStart(5, '0')}`,
+        moq: 1,
+        leadTimeDays: 5,
+        stockQty: 100,
+        currency: 'USD',
+        priceBreaks: [
+          { qty: 1, unitPrice: 0.3 },
+          { qty: 100, unitPrice: 0.12 },
+        ],
+      },
+    ],
     ...overrides,
   };
 }
@@ -76,7 +92,22 @@ describe('POST /api/parts', () => {
     ['a part number with spaces', { mpn: 'OR S10 45' }, 'mpn'],
     ['an unknown category', { category: 'valve' }, 'category'],
     ['a bad lifecycle date', { lifecycleEffectiveDate: '2026-02-30' }, 'lifecycleEffectiveDate'],
-    ['two price breaks at one quantity', { sources: [{ distributor: 'Fenwick Row Electronics', sku: 'FRE-100001', priceBreaks: [{ qty: 10, unitPrice: 1 }, { qty: 10, unitPrice: 0.9 }] }] }, 'sources.0.priceBreaks'],
+    [
+      'two price breaks at one quantity',
+      {
+        sources: [
+          {
+            distributor: 'Fenwick Row Electronics',
+            sku: 'FRE-100001',
+            priceBreaks: [
+              { qty: 10, unitPrice: 1 },
+              { qty: 10, unitPrice: 0.9 },
+            ],
+          },
+        ],
+      },
+      'sources.0.priceBreaks',
+    ],
   ])('refuses %s with 400 naming the field', async (_n, override, field) => {
     const res = await send('post', '/api/parts', 'librarian', newDiode(override));
     expect(res.status).toBe(400);
@@ -85,16 +116,39 @@ describe('POST /api/parts', () => {
 
   it('refuses a MOSFET whose VGS(th) min is above its max and a repeated RDS(on) line', async () => {
     const res = await send('post', '/api/parts', 'librarian', {
-      category: 'mosfet', manufacturer: 'Calderwick Semiconductor', mpn: `CWN30L90-S3-T${Date.now().toString(36)}`, package: 'SOT-23',
-      params: { channel: 'n', vdsMaxV: 30, vgsMaxV: 20, vgsThMinV: 2.5, vgsThMaxV: 1.5, idContinuousA: 3, idPulsedA: 12, qgTotalNc: 5, qgTestVgsV: 4.5, rthJaCPerW: 200, tjMaxC: 150,
-        rdsOn: [{ vgsV: 4.5, maxOhm: 0.05 }, { vgsV: 4.5, maxOhm: 0.06 }] },
+      category: 'mosfet',
+      manufacturer: 'Calderwick Semiconductor',
+      mpn: `CWN30L90-S3-T${Date.now().toString(36)}`,
+      package: 'SOT-23',
+      params: {
+        channel: 'n',
+        vdsMaxV: 30,
+        vgsMaxV: 20,
+        vgsThMinV: 2.5,
+        vgsThMaxV: 1.5,
+        idContinuousA: 3,
+        idPulsedA: 12,
+        qgTotalNc: 5,
+        qgTestVgsV: 4.5,
+        rthJaCPerW: 200,
+        tjMaxC: 150,
+        rdsOn: [
+          { vgsV: 4.5, maxOhm: 0.05 },
+          { vgsV: 4.5, maxOhm: 0.06 },
+        ],
+      },
     });
     expect(res.status).toBe(400);
     expect(paths(res)).toEqual(expect.arrayContaining(['params.vgsThMinV', 'params.rdsOn.1.vgsV']));
   });
 
   it('refuses a body that is not JSON (415) and a duplicate maker and part number (409 at mpn)', async () => {
-    const form = await request(appUrl()).post('/api/parts').set('Cookie', cookies.librarian).set('Origin', appUrl()).type('form').send('mpn=x');
+    const form = await request(appUrl())
+      .post('/api/parts')
+      .set('Cookie', cookies.librarian)
+      .set('Origin', appUrl())
+      .type('form')
+      .send('mpn=x');
     expect([403, 415]).toContain(form.status);
     const text = await request(appUrl()).post('/api/parts').set('Cookie', cookies.librarian).set('Content-Type', 'text/csv').send('a,b');
     expect(text.status).toBe(415);
@@ -117,7 +171,11 @@ describe('PUT /api/parts/:id with optimistic locking', () => {
     const first = await send('put', `/api/parts/${created.id}`, 'librarian', { ...created, description: 'first edit', version: 1 });
     expect(first.status, JSON.stringify(first.body)).toBe(200);
     expect(first.body).toMatchObject({ description: 'first edit', version: 2 });
-    const stale = await send('put', `/api/parts/${created.id}`, 'admin', { ...created, description: 'second edit from an old page', version: 1 });
+    const stale = await send('put', `/api/parts/${created.id}`, 'admin', {
+      ...created,
+      description: 'second edit from an old page',
+      version: 1,
+    });
     expect(stale.status).toBe(409);
     expect(paths(stale)).toContain('version');
     const now = await request(appUrl()).get(`/api/parts/${created.id}`).set('Cookie', cookies.buyer);
@@ -132,7 +190,11 @@ describe('PUT /api/parts/:id with optimistic locking', () => {
     const created = (await send('post', '/api/parts', 'librarian', newDiode())).body;
     const { version: _v, ...noVersion } = created;
     expect(paths(await send('put', `/api/parts/${created.id}`, 'librarian', noVersion))).toContain('version');
-    const motor = { ...created, category: 'motor', params: { ratedVoltageV: 6, noLoadSpeedRpm: 9000, noLoadCurrentA: 0.1, stallTorqueNm: 0.005, stallCurrentA: 1.5 } };
+    const motor = {
+      ...created,
+      category: 'motor',
+      params: { ratedVoltageV: 6, noLoadSpeedRpm: 9000, noLoadCurrentA: 0.1, stallTorqueNm: 0.005, stallCurrentA: 1.5 },
+    };
     expect(paths(await send('put', `/api/parts/${created.id}`, 'librarian', motor))).toContain('category');
     expect(paths(await send('put', `/api/parts/${created.id}`, 'librarian', { ...created, lifecycle: 'obsolete' }))).toContain('lifecycle');
   });
@@ -154,9 +216,15 @@ describe('review', () => {
     const noReason = await send('post', `/api/parts/${proposal.id}/review`, 'librarian', { decision: 'reject', version: proposal.version });
     expect(noReason.status).toBe(400);
     expect(paths(noReason)).toContain('reason');
-    expect((await send('post', `/api/parts/${proposal.id}/review`, 'designer', { decision: 'approve', version: proposal.version })).status).toBe(403);
+    expect(
+      (await send('post', `/api/parts/${proposal.id}/review`, 'designer', { decision: 'approve', version: proposal.version })).status,
+    ).toBe(403);
     const mailBefore = await lastMailId(knex);
-    const rejected = await send('post', `/api/parts/${proposal.id}/review`, 'librarian', { decision: 'reject', reason: 'VF does not match page 3 of the datasheet', version: proposal.version });
+    const rejected = await send('post', `/api/parts/${proposal.id}/review`, 'librarian', {
+      decision: 'reject',
+      reason: 'VF does not match page 3 of the datasheet',
+      version: proposal.version,
+    });
     expect(rejected.status).toBe(200);
     expect(rejected.body.reviewStatus).toBe('rejected');
     const row = await knex('parts').where({ id: proposal.id }).first();
@@ -165,7 +233,10 @@ describe('review', () => {
     expect(mail.subject).toContain(proposal.mpn);
     expect(mail.text_body).toContain('VF does not match page 3 of the datasheet');
     expect(mail.text_body).toMatch(new RegExp(`/parts/${proposal.id}\\b`));
-    const again = await send('post', `/api/parts/${proposal.id}/review`, 'librarian', { decision: 'approve', version: rejected.body.version });
+    const again = await send('post', `/api/parts/${proposal.id}/review`, 'librarian', {
+      decision: 'approve',
+      version: rejected.body.version,
+    });
     expect(again.status).toBe(409);
 
     const other = (await send('post', '/api/parts', 'designer', newDiode())).body;
@@ -178,11 +249,30 @@ describe('review', () => {
 describe('lifecycle and supply data', () => {
   it('a librarian moves a part to NRND with date and note; the trail has before and after', async () => {
     const part = (await send('post', '/api/parts', 'librarian', newDiode())).body;
-    const bad = await send('post', `/api/parts/${part.id}/lifecycle`, 'librarian', { lifecycle: 'nrnd', effectiveDate: '31.12.2026', note: '', version: part.version });
+    const bad = await send('post', `/api/parts/${part.id}/lifecycle`, 'librarian', {
+      lifecycle: 'nrnd',
+      effectiveDate: '31.12.2026',
+      note: '',
+      version: part.version,
+    });
     expect(bad.status).toBe(400);
     expect(paths(bad)).toEqual(expect.arrayContaining(['effectiveDate', 'note']));
-    expect((await send('post', `/api/parts/${part.id}/lifecycle`, 'designer', { lifecycle: 'nrnd', effectiveDate: '2026-12-31', note: 'notice 12', version: part.version })).status).toBe(403);
-    const moved = await send('post', `/api/parts/${part.id}/lifecycle`, 'librarian', { lifecycle: 'nrnd', effectiveDate: '2026-12-31', note: 'Maker notice PCN-0412', version: part.version });
+    expect(
+      (
+        await send('post', `/api/parts/${part.id}/lifecycle`, 'designer', {
+          lifecycle: 'nrnd',
+          effectiveDate: '2026-12-31',
+          note: 'notice 12',
+          version: part.version,
+        })
+      ).status,
+    ).toBe(403);
+    const moved = await send('post', `/api/parts/${part.id}/lifecycle`, 'librarian', {
+      lifecycle: 'nrnd',
+      effectiveDate: '2026-12-31',
+      note: 'Maker notice PCN-0412',
+      version: part.version,
+    });
     expect(moved.status).toBe(200);
     expect(moved.body).toMatchObject({ lifecycle: 'nrnd', lifecycleEffectiveDate: '2026-12-31', version: part.version + 1 });
     const event = (await events(part.id)).at(-1);
@@ -193,7 +283,20 @@ describe('lifecycle and supply data', () => {
 
   it('a buyer replaces sources and price breaks; a designer may not', async () => {
     const part = (await send('post', '/api/parts', 'librarian', newDiode())).body;
-    const sources = [{ distributor: 'Kelderhaus Bauteile', sku: 'KB-123-4567', moq: 10, leadTimeDays: 14, stockQty: 2500, currency: 'EUR', priceBreaks: [{ qty: 10, unitPrice: 0.2 }, { qty: 1000, unitPrice: 0.09 }] }];
+    const sources = [
+      {
+        distributor: 'Kelderhaus Bauteile',
+        sku: 'KB-123-4567',
+        moq: 10,
+        leadTimeDays: 14,
+        stockQty: 2500,
+        currency: 'EUR',
+        priceBreaks: [
+          { qty: 10, unitPrice: 0.2 },
+          { qty: 1000, unitPrice: 0.09 },
+        ],
+      },
+    ];
     expect((await send('put', `/api/parts/${part.id}/sources`, 'designer', { sources, version: part.version })).status).toBe(403);
     const res = await send('put', `/api/parts/${part.id}/sources`, 'buyer', { sources, version: part.version });
     expect(res.status).toBe(200);
@@ -207,9 +310,26 @@ describe('lifecycle and supply data', () => {
 describe('DELETE /api/parts/:id', () => {
   it('librarians only, refused when stale, then gone with a trail entry', async () => {
     const part = (await send('post', '/api/parts', 'librarian', newDiode())).body;
-    expect((await request(appUrl()).delete(`/api/parts/${part.id}`).set('Cookie', cookies.designer).set('Content-Type', 'application/json')).status).toBe(403);
-    expect((await request(appUrl()).delete(`/api/parts/${part.id}?version=7`).set('Cookie', cookies.librarian).set('Content-Type', 'application/json')).status).toBe(409);
-    expect((await request(appUrl()).delete(`/api/parts/${part.id}?version=1`).set('Cookie', cookies.librarian).set('Content-Type', 'application/json')).status).toBe(204);
+    expect(
+      (await request(appUrl()).delete(`/api/parts/${part.id}`).set('Cookie', cookies.designer).set('Content-Type', 'application/json'))
+        .status,
+    ).toBe(403);
+    expect(
+      (
+        await request(appUrl())
+          .delete(`/api/parts/${part.id}?version=7`)
+          .set('Cookie', cookies.librarian)
+          .set('Content-Type', 'application/json')
+      ).status,
+    ).toBe(409);
+    expect(
+      (
+        await request(appUrl())
+          .delete(`/api/parts/${part.id}?version=1`)
+          .set('Cookie', cookies.librarian)
+          .set('Content-Type', 'application/json')
+      ).status,
+    ).toBe(204);
     expect((await request(appUrl()).get(`/api/parts/${part.id}`).set('Cookie', cookies.librarian)).status).toBe(404);
     expect(await knex('part_sources').where({ part_id: part.id })).toEqual([]);
     expect((await events(part.id)).at(-1).action).toBe('part.delete');

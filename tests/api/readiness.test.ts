@@ -26,16 +26,24 @@ beforeAll(async () => {
 afterAll(() => knex.destroy());
 
 const fanName = demoDesigns[1].name;
-const getPart = async (id: number): Promise<Part & { version: number }> => (await api().get(`/api/parts/${id}`).set('Cookie', librarian)).body;
+const getPart = async (id: number): Promise<Part & { version: number }> =>
+  (await api().get(`/api/parts/${id}`).set('Cookie', librarian)).body;
 const getDesign = async (id: number) => (await api().get(`/api/designs/${id}`).set('Cookie', designer)).body;
 const lifecycle = (id: number, to: string, version: number) =>
-  api().post(`/api/parts/${id}/lifecycle`).set('Cookie', librarian).send({ lifecycle: to, effectiveDate: '2026-12-01', note: 'readiness test', version });
-const markReady = (id: number, version: number) => api().post(`/api/designs/${id}/status`).set('Cookie', designer).send({ status: 'ready', version });
+  api()
+    .post(`/api/parts/${id}/lifecycle`)
+    .set('Cookie', librarian)
+    .send({ lifecycle: to, effectiveDate: '2026-12-01', note: 'readiness test', version });
+const markReady = (id: number, version: number) =>
+  api().post(`/api/designs/${id}/status`).set('Cookie', designer).send({ status: 'ready', version });
 
 async function editParams(id: number, change: (params: Record<string, unknown>) => Record<string, unknown>) {
   const part = await getPart(id);
   const { id: _id, ...rest } = part as unknown as Record<string, unknown>;
-  return api().put(`/api/parts/${id}`).set('Cookie', librarian).send({ ...rest, params: change(part.params as unknown as Record<string, unknown>), version: part.version });
+  return api()
+    .put(`/api/parts/${id}`)
+    .set('Cookie', librarian)
+    .send({ ...rest, params: change(part.params as unknown as Record<string, unknown>), version: part.version });
 }
 
 /** A ready copy of the demo fan made by this file, so other test files keep their designs. */
@@ -63,7 +71,10 @@ describe('obsoleting a chosen part of the ready demo fan', () => {
       expect(design.status).toBe('draft');
       expect(design.statusReason).toContain(before.mpn);
       expect(design.statusReason).toMatch(/obsolete/);
-      const audit = await knex('audit_events').where({ entity_type: 'design', entity_id: fan.id, action: 'design.unready' }).orderBy('id', 'desc').first();
+      const audit = await knex('audit_events')
+        .where({ entity_type: 'design', entity_id: fan.id, action: 'design.unready' })
+        .orderBy('id', 'desc')
+        .first();
       expect(audit?.note).toContain(before.mpn);
       const refused = await markReady(fan.id, design.version);
       expect(refused.status).toBe(409);
@@ -120,25 +131,53 @@ describe('property: no design stays ready while any pick fails at the current ca
       }
     };
     try {
-      await fc.assert(fc.asyncProperty(fc.array(step, { minLength: 1, maxLength: 3 }), async (steps) => {
-        // Each run starts from the seeded parts with the copy ready again, so every run has something at stake.
-        await restore();
-        const copy = await getDesign(copyId);
-        if (copy.status !== 'ready') expect((await markReady(copyId, copy.version)).status).toBe(200);
-        for (const s of steps) {
-          const part = await getPart(s.part);
-          const res = s.kind === 'obsolete' || s.kind === 'nrnd' ? await lifecycle(s.part, s.kind, part.version) : await editParams(s.part, (p) => s.kind === 'vds-down' ? { ...p, vdsMaxV: Math.max(1, Number(p.vdsMaxV) / s.factor) }
-            : s.kind === 'rth-up' ? { ...p, rthJaCPerW: Number(p.rthJaCPerW) * s.factor, ...(Array.isArray(p.zthPoints) ? { zthPoints: (p.zthPoints as { pulseS: number; zthCPerW: number }[]).map((z) => ({ ...z, zthCPerW: z.zthCPerW * s.factor })) } : {}) }
-            : { ...p, rdsOn: (p.rdsOn as { maxOhm: number; typOhm: number | null }[]).map((r) => ({ ...r, maxOhm: r.maxOhm * s.factor, typOhm: r.typOhm == null ? null : r.typOhm * s.factor })) });
-          expect(res.status, JSON.stringify(res.body)).toBe(200);
-          const ready = await knex('designs').where({ status: 'ready' }).select('id');
-          for (const { id } of ready) {
-            const d = await getDesign(id);
-            const match = (await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({})).body as DesignMatch;
-            expect(readinessIssues(d.input, match), `design ${id} is ready`).toEqual([]);
+      await fc.assert(
+        fc.asyncProperty(fc.array(step, { minLength: 1, maxLength: 3 }), async (steps) => {
+          // Each run starts from the seeded parts with the copy ready again, so every run has something at stake.
+          await restore();
+          const copy = await getDesign(copyId);
+          if (copy.status !== 'ready') expect((await markReady(copyId, copy.version)).status).toBe(200);
+          for (const s of steps) {
+            const part = await getPart(s.part);
+            const res =
+              s.kind === 'obsolete' || s.kind === 'nrnd'
+                ? await lifecycle(s.part, s.kind, part.version)
+                : await editParams(s.part, (p) =>
+                    s.kind === 'vds-down'
+                      ? { ...p, vdsMaxV: Math.max(1, Number(p.vdsMaxV) / s.factor) }
+                      : s.kind === 'rth-up'
+                        ? {
+                            ...p,
+                            rthJaCPerW: Number(p.rthJaCPerW) * s.factor,
+                            ...(Array.isArray(p.zthPoints)
+                              ? {
+                                  zthPoints: (p.zthPoints as { pulseS: number; zthCPerW: number }[]).map((z) => ({
+                                    ...z,
+                                    zthCPerW: z.zthCPerW * s.factor,
+                                  })),
+                                }
+                              : {}),
+                          }
+                        : {
+                            ...p,
+                            rdsOn: (p.rdsOn as { maxOhm: number; typOhm: number | null }[]).map((r) => ({
+                              ...r,
+                              maxOhm: r.maxOhm * s.factor,
+                              typOhm: r.typOhm == null ? null : r.typOhm * s.factor,
+                            })),
+                          },
+                  );
+            expect(res.status, JSON.stringify(res.body)).toBe(200);
+            const ready = await knex('designs').where({ status: 'ready' }).select('id');
+            for (const { id } of ready) {
+              const d = await getDesign(id);
+              const match = (await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({})).body as DesignMatch;
+              expect(readinessIssues(d.input, match), `design ${id} is ready`).toEqual([]);
+            }
           }
-        }
-      }), { numRuns: 15 });
+        }),
+        { numRuns: 15 },
+      );
     } finally {
       await restore();
       // The demo fan shares these parts: put it back on the shortlist if a step sent it to draft.
@@ -202,16 +241,25 @@ describe('an inverting driver with an internal input pull-down on a floating pin
     const agitator = await knex('designs').where({ name: agitatorName }).first('id');
     const base = (await getDesign(agitator.id)).input as DesignInput;
     const template = await getPart(base.selections.driver.chosenPartId as number);
-    expect(template.params, 'the hand figures below assume a fixed-threshold 1.2 V input').toMatchObject({ inputLogic: 'fixed', inputHighMin: 1.2 });
+    expect(template.params, 'the hand figures below assume a fixed-threshold 1.2 V input').toMatchObject({
+      inputLogic: 'fixed',
+      inputHighMin: 1.2,
+    });
     // Invented part: the demo agitator's driver as an inverting variant with a strong (2.2 kΩ) input pull-down,
     // so no external pull-up can rescue it. By hand (divider, VIH 1.2 V plus a 10 % of 1.8 V margin = 1.38 V):
     // against 2.2 kΩ at −30 % = 1.54 kΩ a pull-up to 1.8 V must be ≤ 1540·(1.8 − 1.38)/1.38 = 469 Ω, but the
     // pin sinks 2 mA, so it can only pull a resistor of ≥ 1.8/0.002 = 900 Ω low. The motor starts at reset.
-    const created = await api().post('/api/parts').set('Cookie', librarian).send({
-      category: 'driver', manufacturer: template.manufacturer, mpn: `PLR1IL20-S6-T${Date.now().toString(36).toUpperCase()}`,
-      description: 'Test part: inverting gate driver, 1.8 V input stage, strong internal input pull-down', package: template.package,
-      params: { ...(template.params as unknown as Record<string, unknown>), inverting: true, inputPull: 'down', inputPullOhms: 2200 },
-    });
+    const created = await api()
+      .post('/api/parts')
+      .set('Cookie', librarian)
+      .send({
+        category: 'driver',
+        manufacturer: template.manufacturer,
+        mpn: `PLR1IL20-S6-T${Date.now().toString(36).toUpperCase()}`,
+        description: 'Test part: inverting gate driver, 1.8 V input stage, strong internal input pull-down',
+        package: template.package,
+        params: { ...(template.params as unknown as Record<string, unknown>), inverting: true, inputPull: 'down', inputPullOhms: 2200 },
+      });
     expect(created.status, JSON.stringify(created.body)).toBe(201);
     expect(created.body.params).toMatchObject({ inverting: true, inputPull: 'down', inputPullOhms: 2200 });
     const input: DesignInput = {
@@ -234,7 +282,10 @@ describe('an inverting driver with an internal input pull-down on a floating pin
     expect(issuesOf(refused).find((x) => x.path === 'resetStartIntent')?.message).toMatch(/motor starts at power-up or reset/);
 
     const reason = 'Agitator must stir from power-up to keep the slurry suspended (test)';
-    const saved = await api().put(`/api/designs/${design.id}`).set('Cookie', designer).send({ version: design.version, input: { ...input, resetStartIntent: { reason } } });
+    const saved = await api()
+      .put(`/api/designs/${design.id}`)
+      .set('Cookie', designer)
+      .send({ version: design.version, input: { ...input, resetStartIntent: { reason } } });
     expect(saved.status, JSON.stringify(saved.body)).toBe(200);
     const ready = await markReady(design.id, saved.body.version);
     expect(ready.status, JSON.stringify(ready.body)).toBe(200);
@@ -252,7 +303,10 @@ describe('changing the RDS(on) lines of a chosen switch', () => {
     const original = before.params as unknown as Record<string, unknown>;
     // 10 Ω on every line: at the fan's start-up current (amperes at 12.6 V) P = I²·R is tens of watts in a
     // small package, far past Tj max at any RθJA the catalogue holds (Joule’s law; docs/engineering.md §5.6).
-    const res = await editParams(partId, (p) => ({ ...p, rdsOn: (p.rdsOn as Record<string, unknown>[]).map((r) => ({ ...r, maxOhm: 10, typOhm: null })) }));
+    const res = await editParams(partId, (p) => ({
+      ...p,
+      rdsOn: (p.rdsOn as Record<string, unknown>[]).map((r) => ({ ...r, maxOhm: 10, typOhm: null })),
+    }));
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     try {
       const design = await getDesign(id);
@@ -261,7 +315,10 @@ describe('changing the RDS(on) lines of a chosen switch', () => {
       expect(design.statusReason).toMatch(/was edited/);
       expect(design.statusReason).toMatch(/junction-temperature|stall-thermal|running-current|stall-current/);
       // The long reason (several failing checks) is kept whole on the design and clipped to fit the audit note.
-      const audit = await knex('audit_events').where({ entity_type: 'design', entity_id: id, action: 'design.unready' }).orderBy('id', 'desc').first();
+      const audit = await knex('audit_events')
+        .where({ entity_type: 'design', entity_id: id, action: 'design.unready' })
+        .orderBy('id', 'desc')
+        .first();
       expect(audit?.note).toContain(before.mpn);
       expect(JSON.parse(audit.after_json).reasons.some((r: { message: string }) => r.message.includes(before.mpn))).toBe(true);
       const refused = await markReady(id, design.version);

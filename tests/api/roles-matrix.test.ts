@@ -33,13 +33,19 @@ function walk(dir: string): string[] {
 
 /** Astro's route pattern for a file: `api/people/[id]/roles.ts` → `/api/people/[id]/roles`. */
 function patternOf(file: string): string {
-  const rel = path.relative(PAGES_DIR, file).split(path.sep).join('/').replace(/\.(astro|ts|js|md|mdx|html)$/, '');
+  const rel = path
+    .relative(PAGES_DIR, file)
+    .split(path.sep)
+    .join('/')
+    .replace(/\.(astro|ts|js|md|mdx|html)$/, '');
   const route = `/${rel}`.replace(/\/index$/, '');
   return route === '' ? '/' : route;
 }
 
 function exportedMethods(source: string): string[] {
-  const found = HTTP_METHODS.filter((m) => new RegExp(`export\\s+(const|let|async\\s+function|function)\\s+${m}\\b|export\\s*\\{[^}]*\\b${m}\\b`).test(source));
+  const found = HTTP_METHODS.filter((m) =>
+    new RegExp(`export\\s+(const|let|async\\s+function|function)\\s+${m}\\b|export\\s*\\{[^}]*\\b${m}\\b`).test(source),
+  );
   return /export\s+(const|async\s+function|function)\s+ALL\b/.test(source) ? [...HTTP_METHODS] : found;
 }
 
@@ -49,7 +55,12 @@ function routeFiles(): RouteFile[] {
     .map((file) => {
       const pattern = patternOf(file);
       const api = !file.endsWith('.astro');
-      return { file: path.relative(process.cwd(), file), pattern, api, methods: api ? exportedMethods(readFileSync(file, 'utf8')) : ['GET'] };
+      return {
+        file: path.relative(process.cwd(), file),
+        pattern,
+        api,
+        methods: api ? exportedMethods(readFileSync(file, 'utf8')) : ['GET'],
+      };
     })
     .sort((a, b) => a.pattern.localeCompare(b.pattern));
 }
@@ -173,7 +184,9 @@ function expectOutcome(res: request.Response, route: RouteFile, expected: Expect
 
 describe('the route list', () => {
   it('finds the pages and API routes', () => {
-    expect(ROUTES.map((r) => r.pattern)).toEqual(expect.arrayContaining(['/', '/signin', '/people', '/api/health', '/api/auth/signin', '/api/people/[id]/roles']));
+    expect(ROUTES.map((r) => r.pattern)).toEqual(
+      expect.arrayContaining(['/', '/signin', '/people', '/api/health', '/api/auth/signin', '/api/people/[id]/roles']),
+    );
   });
 
   it('has a hand-written row for every method of every route file, and no row without a route', () => {

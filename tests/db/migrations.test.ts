@@ -27,8 +27,21 @@ describe('migrations', () => {
   it('go up, all the way down, and up again', async () => {
     await db.migrate.latest();
     const first = await tables();
-    expect(first).toEqual(expect.arrayContaining(['parts', 'mosfet_params', 'mosfet_rds_on_points', 'driver_params',
-      'diode_params', 'motor_params', 'part_sources', 'part_price_breaks', 'datasheets', 'audit_events', 'users']));
+    expect(first).toEqual(
+      expect.arrayContaining([
+        'parts',
+        'mosfet_params',
+        'mosfet_rds_on_points',
+        'driver_params',
+        'diode_params',
+        'motor_params',
+        'part_sources',
+        'part_price_breaks',
+        'datasheets',
+        'audit_events',
+        'users',
+      ]),
+    );
     await db.migrate.rollback(undefined, true);
     expect(await tables()).toEqual([]);
     await db.migrate.latest();
@@ -62,15 +75,36 @@ describe('migrations', () => {
     await stepUntil('up', '20261202030200_create_design_parts.ts'); // the schema just before the input-pull migrations
     const mpn = (i: number) => `MIGTEST-${i}`;
     for (const [i, row] of table.entries()) {
-      const [id] = await db('parts').insert({ category: 'driver', manufacturer: 'Invented Migration Drives', mpn: mpn(i), description: 'migration test row' });
+      const [id] = await db('parts').insert({
+        category: 'driver',
+        manufacturer: 'Invented Migration Drives',
+        mpn: mpn(i),
+        description: 'migration test row',
+      });
       await db('driver_params').insert({
-        part_id: id, kind: 'gate-driver', channels: 1, inverting: row.inverting, supply_min_v: 4.5, supply_max_v: 18, input_logic: 'fixed',
-        input_high_min: 2, input_low_max: 0.8, output_high_drop_v: 0.1, output_low_max_v: 0.1, source_current_a: 1, sink_current_a: 1,
-        propagation_delay_ns: 50, input_default: row.inputDefault,
+        part_id: id,
+        kind: 'gate-driver',
+        channels: 1,
+        inverting: row.inverting,
+        supply_min_v: 4.5,
+        supply_max_v: 18,
+        input_logic: 'fixed',
+        input_high_min: 2,
+        input_low_max: 0.8,
+        output_high_drop_v: 0.1,
+        output_low_max_v: 0.1,
+        source_current_a: 1,
+        sink_current_a: 1,
+        propagation_delay_ns: 50,
+        input_default: row.inputDefault,
       });
     }
-    const read = (cols: string[]) => db('driver_params').join('parts', 'parts.id', 'driver_params.part_id').where('parts.manufacturer', 'Invented Migration Drives')
-      .orderBy('parts.mpn').select(['parts.mpn', ...cols.map((c) => `driver_params.${c}`)]);
+    const read = (cols: string[]) =>
+      db('driver_params')
+        .join('parts', 'parts.id', 'driver_params.part_id')
+        .where('parts.manufacturer', 'Invented Migration Drives')
+        .orderBy('parts.mpn')
+        .select(['parts.mpn', ...cols.map((c) => `driver_params.${c}`)]);
     const expectedUp = table.map((r, i) => ({ mpn: mpn(i), input_pull: r.inputPull, input_pull_ohms: null }));
 
     await db.migrate.latest();

@@ -6,8 +6,22 @@ import { demoDesigns } from '../../db/seeds/designs.ts';
 const db = scratchDb();
 afterAll(() => db.destroy());
 
-const TABLES = ['users', 'user_roles', 'parts', 'mosfet_params', 'mosfet_rds_on_points', 'mosfet_zth_points', 'driver_params',
-  'diode_params', 'motor_params', 'part_sources', 'part_price_breaks', 'designs', 'design_revisions', 'design_parts'];
+const TABLES = [
+  'users',
+  'user_roles',
+  'parts',
+  'mosfet_params',
+  'mosfet_rds_on_points',
+  'mosfet_zth_points',
+  'driver_params',
+  'diode_params',
+  'motor_params',
+  'part_sources',
+  'part_price_breaks',
+  'designs',
+  'design_revisions',
+  'design_parts',
+];
 
 async function counts(): Promise<Record<string, number>> {
   const out: Record<string, number> = {};
@@ -37,7 +51,10 @@ describe('demo seed', () => {
     expect(by.diode).toBeGreaterThanOrEqual(15);
     expect(Number((await db('parts').where('review_status', 'pending').count({ n: '*' }))[0].n)).toBeGreaterThan(0);
     expect(Number((await db('parts').whereIn('lifecycle', ['nrnd', 'obsolete']).count({ n: '*' }))[0].n)).toBeGreaterThan(0);
-    const withoutSource = await db('parts').leftJoin('part_sources', 'parts.id', 'part_sources.part_id').whereNull('part_sources.id').count({ n: '*' });
+    const withoutSource = await db('parts')
+      .leftJoin('part_sources', 'parts.id', 'part_sources.part_id')
+      .whereNull('part_sources.id')
+      .count({ n: '*' });
     expect(Number(withoutSource[0].n)).toBe(0);
   });
 });

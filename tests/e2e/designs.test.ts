@@ -84,7 +84,10 @@ describe('design workspace', () => {
     // With a 1 A limit the jam current falls to about 0.89 A RMS, about (0.89/1.65)² ≈ 0.29 of the heat, so the rise of
     // ~178 K above 50 °C becomes ~52 K plus the RDS(on) tempco's share: well within 150 °C (hand estimate).
     const switches = page.getByTestId('candidates-switch');
-    await page.getByTestId('step-switch').getByRole('button', { name: /Show all/ }).click();
+    await page
+      .getByTestId('step-switch')
+      .getByRole('button', { name: /Show all/ })
+      .click();
     const row = switches.locator('tr[data-mpn="CWN60L04-S3"]');
     await expect(row.getAttribute('data-verdict')).resolves.toBe('fail');
     await row.getByRole('button', { name: 'Reasons' }).click();

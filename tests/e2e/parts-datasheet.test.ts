@@ -23,7 +23,10 @@ afterAll(async () => {
 async function makePdf(): Promise<Buffer> {
   const doc = await PDFDocument.create();
   const font = await doc.embedFont(StandardFonts.Helvetica);
-  for (const n of [1, 2]) doc.addPage([595, 842]).drawText(`PLR1NT15-S5 invented browser-test datasheet, page ${n}, ${Date.now()}`, { x: 40, y: 790, size: 11, font });
+  for (const n of [1, 2])
+    doc
+      .addPage([595, 842])
+      .drawText(`PLR1NT15-S5 invented browser-test datasheet, page ${n}, ${Date.now()}`, { x: 40, y: 790, size: 11, font });
   return Buffer.from(await doc.save());
 }
 
@@ -41,7 +44,9 @@ describe('datasheet upload on the part page', () => {
     await page.waitForSelector('[data-testid="datasheets"]');
     await page.waitForSelector('astro-island:not([ssr]) [data-testid="datasheets"]'); // the upload island is hydrated
     await page.getByLabel('Revision label (optional)').fill('Rev. 2');
-    await page.locator('[data-testid="datasheet-input"]').setInputFiles({ name: 'PLR1NT15-S5 datasheet.pdf', mimeType: 'application/pdf', buffer: pdf });
+    await page
+      .locator('[data-testid="datasheet-input"]')
+      .setInputFiles({ name: 'PLR1NT15-S5 datasheet.pdf', mimeType: 'application/pdf', buffer: pdf });
     await page.waitForSelector('[data-testid="upload-done"]');
     const row = page.locator('[data-testid="datasheet-row"]', { hasText: 'PLR1NT15-S5 datasheet.pdf' });
     await expect(row.textContent()).resolves.toContain('rev. Rev. 2 · 2 pages');
@@ -54,7 +59,9 @@ describe('datasheet upload on the part page', () => {
 
     // A text file renamed to .pdf is refused with a message, and the list does not grow.
     const before = await page.locator('[data-testid="datasheet-row"]').count();
-    await page.locator('[data-testid="datasheet-input"]').setInputFiles({ name: 'notes.pdf', mimeType: 'application/pdf', buffer: Buffer.from('plain text, not a PDF') });
+    await page
+      .locator('[data-testid="datasheet-input"]')
+      .setInputFiles({ name: 'notes.pdf', mimeType: 'application/pdf', buffer: Buffer.from('plain text, not a PDF') });
     await page.waitForSelector('[data-testid="upload-error"]');
     expect(await page.locator('[data-testid="datasheet-row"]').count()).toBe(before);
     expect(errors.filter((e) => !/Failed to load resource/.test(e))).toEqual([]);

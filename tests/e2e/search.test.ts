@@ -49,7 +49,9 @@ describe('search page', () => {
       const rows = document.querySelectorAll('[data-testid="results-table"] tbody tr');
       return document.querySelector('[data-testid="result-count"]')?.textContent?.includes('match') && rows.length >= n;
     }, expected.length);
-    const shown = await page.locator('[data-testid="results-table"] tbody tr').evaluateAll((trs) => trs.map((tr) => tr.getAttribute('data-mpn')));
+    const shown = await page
+      .locator('[data-testid="results-table"] tbody tr')
+      .evaluateAll((trs) => trs.map((tr) => tr.getAttribute('data-mpn')));
     const seed = new Set(demoMosfets.map((m) => m.mpn));
     expect(shown.filter((m) => seed.has(m!)).sort()).toEqual(expected);
     await page.screenshot({ path: screenshotPath('search-mosfets'), fullPage: false });

@@ -53,12 +53,18 @@ async function landOn(page: Page, url: string): Promise<void> {
   page.on('requestfailed', (r) => pending.delete(`${r.method()} ${r.url()}`));
   await Promise.race([
     page.waitForURL(url, { waitUntil: 'domcontentloaded' }).catch(async (err: Error) => {
-      const status = await page.getByTestId('form-status').allInnerTexts().catch(() => []);
+      const status = await page
+        .getByTestId('form-status')
+        .allInnerTexts()
+        .catch(() => []);
       throw new Error(`${err.message}\nat ${page.url()}, status ${JSON.stringify(status)}, unfinished ${JSON.stringify([...pending])}`);
     }),
-    alert.waitFor({ timeout: 60_000 }).then(async () => {
-      throw new Error(`sign-in stayed on ${page.url()}: ${await alert.innerText()}`);
-    }, () => undefined),
+    alert.waitFor({ timeout: 60_000 }).then(
+      async () => {
+        throw new Error(`sign-in stayed on ${page.url()}: ${await alert.innerText()}`);
+      },
+      () => undefined,
+    ),
   ]);
 }
 

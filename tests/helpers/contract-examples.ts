@@ -15,12 +15,33 @@ export const PULL_BODY = {
 
 export const SWITCH_BODY = {
   mosfet: {
-    vdsMaxV: 30, vgsMaxV: 20, vgsThMaxV: 2.5, idPulsedA: 20, tjMaxC: 150, rthJaCPerW: 250, qgTotalNc: 6, qgdNc: 2, qgsNc: 1.5,
-    vPlateauV: 2.6, rdsOn: [{ vgsV: 4.5, ohms: 0.05 }, { vgsV: 10, ohms: 0.035 }], rdsOnTempCoeffPerC: 0.005,
+    vdsMaxV: 30,
+    vgsMaxV: 20,
+    vgsThMaxV: 2.5,
+    idPulsedA: 20,
+    tjMaxC: 150,
+    rthJaCPerW: 250,
+    qgTotalNc: 6,
+    qgdNc: 2,
+    qgsNc: 1.5,
+    vPlateauV: 2.6,
+    rdsOn: [
+      { vgsV: 4.5, ohms: 0.05 },
+      { vgsV: 10, ohms: 0.035 },
+    ],
+    rdsOnTempCoeffPerC: 0.005,
   },
   operating: {
-    supplyMaxV: 5, runningCurrentA: 0.8, stallCurrentA: 3, gateDriveV: 5, gateDriveCurrentA: 0.02, gateResistanceOhm: 0,
-    pwmHz: 20000, duty: 0.6, ambientC: 40, diodeForwardV: 0.5,
+    supplyMaxV: 5,
+    runningCurrentA: 0.8,
+    stallCurrentA: 3,
+    gateDriveV: 5,
+    gateDriveCurrentA: 0.02,
+    gateResistanceOhm: 0,
+    pwmHz: 20000,
+    duty: 0.6,
+    ambientC: 40,
+    diodeForwardV: 0.5,
   },
   margins: { voltageDerating: 0.8, thermalMarginC: 25 },
 };

@@ -6,7 +6,12 @@ export async function pdfPageTexts(bytes: Uint8Array): Promise<string[]> {
   const pages: string[] = [];
   for (let i = 1; i <= doc.numPages; i++) {
     const content = await (await doc.getPage(i)).getTextContent();
-    pages.push(content.items.map((it) => ('str' in it ? it.str : '')).join(' ').replace(/\s+/g, ' '));
+    pages.push(
+      content.items
+        .map((it) => ('str' in it ? it.str : ''))
+        .join(' ')
+        .replace(/\s+/g, ' '),
+    );
   }
   await doc.destroy();
   return pages;

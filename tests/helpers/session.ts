@@ -19,10 +19,15 @@ const cache = new Map<DemoRole, string>();
 export async function sessionCookie(role: DemoRole): Promise<string> {
   const known = cache.get(role);
   if (known) return known;
-  const res = await request(appUrl()).post('/api/auth/signin').set('Content-Type', 'application/json')
+  const res = await request(appUrl())
+    .post('/api/auth/signin')
+    .set('Content-Type', 'application/json')
     .send(JSON.stringify({ email: demoAddress(role), password: DEMO_PASSWORD }));
   if (res.status !== 200) throw new Error(`sign-in as ${role} answered ${res.status}: ${JSON.stringify(res.body)}`);
-  const cookie = ([] as string[]).concat(res.headers['set-cookie'] ?? []).map((c) => c.split(';')[0]).find((c) => /^stallpoint_session=./.test(c));
+  const cookie = ([] as string[])
+    .concat(res.headers['set-cookie'] ?? [])
+    .map((c) => c.split(';')[0])
+    .find((c) => /^stallpoint_session=./.test(c));
   if (!cookie) throw new Error(`sign-in as ${role} set no session cookie`);
   cache.set(role, cookie);
   return cookie;

@@ -15,8 +15,13 @@ describe('readConfig', () => {
     expect(c.dataDir).toBe('.data');
     expect(c.publicUrl).toBeNull();
     expect(c.mail).toEqual({
-      host: '127.0.0.1', port: 2526, secure: false, user: null, password: null,
-      from: 'Stallpoint <no-reply@stallpoint.invalid>', sinkLocal: false,
+      host: '127.0.0.1',
+      port: 2526,
+      secure: false,
+      user: null,
+      password: null,
+      from: 'Stallpoint <no-reply@stallpoint.invalid>',
+      sinkLocal: false,
     });
     expect(c.sinkPort).toBeNull();
     expect(c.calcRateLimitPerMin).toBe(600);
@@ -25,8 +30,15 @@ describe('readConfig', () => {
 
   it('reads set values and treats blank ones as unset', () => {
     const c = readConfig({
-      PORT: '8080', DB_PORT: '3306', DB_POOL_MAX: '4', PUBLIC_URL: 'https://stallpoint.example.org/',
-      SMTP_SECURE: 'true', SMTP_USER: 'u', MAIL_SINK: 'local', TRUST_PROXY: '1', HOST: '  ',
+      PORT: '8080',
+      DB_PORT: '3306',
+      DB_POOL_MAX: '4',
+      PUBLIC_URL: 'https://stallpoint.example.org/',
+      SMTP_SECURE: 'true',
+      SMTP_USER: 'u',
+      MAIL_SINK: 'local',
+      TRUST_PROXY: '1',
+      HOST: '  ',
     });
     expect(c.port).toBe(8080);
     expect(c.db.port).toBe(3306);

@@ -9,7 +9,8 @@ import type { DesignInput } from '../../src/lib/domain/design.ts';
 import type { Part, PartOf } from '../../src/lib/domain/parts.ts';
 
 let nextId = 1;
-const withIds = <T extends object>(list: readonly T[]): (T & { id: number; version: number })[] => list.map((p) => ({ ...p, id: nextId++, version: 1 }));
+const withIds = <T extends object>(list: readonly T[]): (T & { id: number; version: number })[] =>
+  list.map((p) => ({ ...p, id: nextId++, version: 1 }));
 const mosfets = withIds(demoMosfets) as PartOf<'mosfet'>[];
 const drivers = withIds(demoDrivers) as PartOf<'driver'>[];
 const diodes = withIds(demoDiodes) as PartOf<'diode'>[];
@@ -22,7 +23,12 @@ function inputFor(name: string): { input: DesignInput; motor: (typeof demoMotors
   return { input: { ...rest, motor: { source: 'catalogue', partId: 1 }, selections: { switch: none, driver: none, diode: none } }, motor };
 }
 
-const catalogue = (m: PartOf<'mosfet'>[]): MatchCatalogue => ({ mosfets: m, drivers, diodes, excluded: { switch: 0, driver: 0, diode: 0 } });
+const catalogue = (m: PartOf<'mosfet'>[]): MatchCatalogue => ({
+  mosfets: m,
+  drivers,
+  diodes,
+  excluded: { switch: 0, driver: 0, diode: 0 },
+});
 
 describe('design matching (invented demo catalogue)', () => {
   it('common practice: 3.3 V logic with only standard-level switches (RDS(on) given at 10 V) needs a driver of 5 V or more', () => {
@@ -58,14 +64,21 @@ describe('bill of materials', () => {
     const match = matchDesign(input, motor.mpn, motor.params, catalogue(mosfets.filter((m) => m.params.channel === 'n')));
     const withSel = { ...input, selections: suggestSelections(match) };
     const partsById = new Map<number, Part>([...mosfets, ...diodes, ...drivers].map((p) => [p.id as number, p]));
-    const lines = buildBom({ input: withSel, motor: { manufacturer: motor.manufacturer, mpn: motor.mpn, description: motor.description }, partsById, pull: match.powerOn?.recommendedPull ?? null });
+    const lines = buildBom({
+      input: withSel,
+      motor: { manufacturer: motor.manufacturer, mpn: motor.mpn, description: motor.description },
+      partsById,
+      pull: match.powerOn?.recommendedPull ?? null,
+    });
     expect(lines.map((l) => l.referenceDesignators)).toEqual(expect.arrayContaining(['M1', 'Q1', 'D1']));
     expect(lines.every((l) => l.quantity === input.boardQuantity)).toBe(true);
     const parsed = Papa.parse<Record<string, string>>(bomToCsv(lines), { header: true, skipEmptyLines: true });
     expect(parsed.errors).toEqual([]);
     expect(parsed.data).toHaveLength(lines.length);
     expect(parsed.data.map((r) => r['Part number'])).toEqual(lines.map((l) => l.partNumber));
-    expect(parsed.data.find((r) => r['Reference designators'] === 'Q1')?.Alternates.split('; ')).toHaveLength(withSel.selections.switch.alternatePartIds.length);
+    expect(parsed.data.find((r) => r['Reference designators'] === 'Q1')?.Alternates.split('; ')).toHaveLength(
+      withSel.selections.switch.alternatePartIds.length,
+    );
   });
 
   it('carries the pairing notes in their own column, on the switch line only when no driver is chosen', () => {
@@ -74,11 +87,25 @@ describe('bill of materials', () => {
     const withSel = { ...input, selections: suggestSelections(match) };
     const partsById = new Map<number, Part>([...mosfets, ...diodes, ...drivers].map((p) => [p.id as number, p]));
     const lines = buildBom({
-      input: withSel, motor: { manufacturer: motor.manufacturer, mpn: motor.mpn, description: motor.description }, partsById, pull: null,
+      input: withSel,
+      motor: { manufacturer: motor.manufacturer, mpn: motor.mpn, description: motor.description },
+      partsById,
+      pull: null,
       pairing: { switch: 'judged at 2.9 V gate drive from the controller pin' },
     });
     const parsed = Papa.parse<Record<string, string>>(bomToCsv(lines), { header: true, skipEmptyLines: true });
-    expect(parsed.meta.fields).toEqual(['Line', 'Role', 'Quantity', 'Manufacturer', 'Part number', 'Description', 'Alternates', 'Reference designators', 'Judged at / paired with', 'Status at current catalogue']);
+    expect(parsed.meta.fields).toEqual([
+      'Line',
+      'Role',
+      'Quantity',
+      'Manufacturer',
+      'Part number',
+      'Description',
+      'Alternates',
+      'Reference designators',
+      'Judged at / paired with',
+      'Status at current catalogue',
+    ]);
     const byRef = Object.fromEntries(parsed.data.map((r) => [r['Reference designators'], r['Judged at / paired with']]));
     expect(byRef).toMatchObject({ M1: '', Q1: 'judged at 2.9 V gate drive from the controller pin', D1: '' });
   });
@@ -89,7 +116,11 @@ describe.each([
   ['duty above 1', (i: DesignInput) => ({ ...i, drive: { mode: 'pwm', frequencyHz: 20000, dutyMin: 0.2, dutyMax: 1.2 } }), 'drive.dutyMax'],
   ['ambient reversed', (i: DesignInput) => ({ ...i, ambientMinC: 60, ambientMaxC: 20 }), 'ambientMinC'],
   ['logic high above rail', (i: DesignInput) => ({ ...i, logic: { ...i.logic, highV: 4 } }), 'logic.highV'],
-  ['four alternates', (i: DesignInput) => ({ ...i, selections: { ...i.selections, switch: { chosenPartId: 1, alternatePartIds: [2, 3, 4, 5] } } }), 'selections.switch.alternatePartIds'],
+  [
+    'four alternates',
+    (i: DesignInput) => ({ ...i, selections: { ...i.selections, switch: { chosenPartId: 1, alternatePartIds: [2, 3, 4, 5] } } }),
+    'selections.switch.alternatePartIds',
+  ],
   ['negative wiring', (i: DesignInput) => ({ ...i, wiringResistanceOhm: -1 }), 'wiringResistanceOhm'],
 ])('design input schema: %s', (_name, mutate, path) => {
   it(`names ${path}`, () => {

@@ -37,21 +37,71 @@ const noSelections: DesignInput['selections'] = {
 /** Invented bench fan: 12 V adapter, switched on/off from a 3.3 V controller pin that floats at reset. */
 const fanMotor = motorByMpn('HVM-390F-120A');
 const benchFan: DesignInput = {
-  name: 'Fume bench fan, 12 V', motor: { source: 'catalogue', partId: fanMotor.id as number },
-  supply: { minV: 11.4, nomV: 12, maxV: 12.6, preset: 'bench-12v', internalResistanceOhm: 0, continuousCurrentA: null, currentLimitA: null }, wiringResistanceOhm: 0.05, shuntResistanceOhm: 0,
-  logic: { railV: 3.3, highV: 2.9, lowV: 0.4, pinSourceCurrentA: 0.008, pinSinkCurrentA: 0.008, resetPull: 'none', resetPullOhms: 40_000, resetPullTolerance: 0.3, sharedSupply: null },
-  drive: { mode: 'onoff' }, ambientMinC: 0, ambientMaxC: 40, load: { kind: 'speed', speedRpm: 15_000 },
-  margins: { voltageDerating: 0.8, thermalMarginC: 25 }, driverSupplyV: null, boardQuantity: 25, stallProtection: { kind: 'none' }, resetStartIntent: null, selections: noSelections,
+  name: 'Fume bench fan, 12 V',
+  motor: { source: 'catalogue', partId: fanMotor.id as number },
+  supply: {
+    minV: 11.4,
+    nomV: 12,
+    maxV: 12.6,
+    preset: 'bench-12v',
+    internalResistanceOhm: 0,
+    continuousCurrentA: null,
+    currentLimitA: null,
+  },
+  wiringResistanceOhm: 0.05,
+  shuntResistanceOhm: 0,
+  logic: {
+    railV: 3.3,
+    highV: 2.9,
+    lowV: 0.4,
+    pinSourceCurrentA: 0.008,
+    pinSinkCurrentA: 0.008,
+    resetPull: 'none',
+    resetPullOhms: 40_000,
+    resetPullTolerance: 0.3,
+    sharedSupply: null,
+  },
+  drive: { mode: 'onoff' },
+  ambientMinC: 0,
+  ambientMaxC: 40,
+  load: { kind: 'speed', speedRpm: 15_000 },
+  margins: { voltageDerating: 0.8, thermalMarginC: 25 },
+  driverSupplyV: null,
+  boardQuantity: 25,
+  stallProtection: { kind: 'none' },
+  resetStartIntent: null,
+  selections: noSelections,
 };
 
 /** Invented battery dosing pump: 2S Li-ion, PWM from 1.8 V logic (needs a gate driver), motor entered by hand. */
 const pumpParams = motorByMpn('HVM-370P-072A').params;
 const batteryPump: DesignInput = {
-  name: 'Portable sampler pump (PWM)', motor: { source: 'manual', label: 'Gear-pump motor, 7.2 V (entered by hand)', params: pumpParams },
-  supply: { minV: 6, nomV: 7.4, maxV: 8.4, preset: '2s-liion', internalResistanceOhm: 0, continuousCurrentA: null, currentLimitA: null }, wiringResistanceOhm: 0.08, shuntResistanceOhm: 0.05,
-  logic: { railV: 1.8, highV: 1.35, lowV: 0.45, pinSourceCurrentA: 0.004, pinSinkCurrentA: 0.004, resetPull: 'down', resetPullOhms: 40_000, resetPullTolerance: 0.3, sharedSupply: null },
-  drive: { mode: 'pwm', frequencyHz: 20_000, dutyMin: 0.3, dutyMax: 0.9 }, ambientMinC: -10, ambientMaxC: 45, load: { kind: 'torque', torqueNm: 0.008 },
-  margins: { voltageDerating: 0.8, thermalMarginC: 25 }, driverSupplyV: null, boardQuantity: 100, stallProtection: { kind: 'none' }, resetStartIntent: null, selections: noSelections,
+  name: 'Portable sampler pump (PWM)',
+  motor: { source: 'manual', label: 'Gear-pump motor, 7.2 V (entered by hand)', params: pumpParams },
+  supply: { minV: 6, nomV: 7.4, maxV: 8.4, preset: '2s-liion', internalResistanceOhm: 0, continuousCurrentA: null, currentLimitA: null },
+  wiringResistanceOhm: 0.08,
+  shuntResistanceOhm: 0.05,
+  logic: {
+    railV: 1.8,
+    highV: 1.35,
+    lowV: 0.45,
+    pinSourceCurrentA: 0.004,
+    pinSinkCurrentA: 0.004,
+    resetPull: 'down',
+    resetPullOhms: 40_000,
+    resetPullTolerance: 0.3,
+    sharedSupply: null,
+  },
+  drive: { mode: 'pwm', frequencyHz: 20_000, dutyMin: 0.3, dutyMax: 0.9 },
+  ambientMinC: -10,
+  ambientMaxC: 45,
+  load: { kind: 'torque', torqueNm: 0.008 },
+  margins: { voltageDerating: 0.8, thermalMarginC: 25 },
+  driverSupplyV: null,
+  boardQuantity: 100,
+  stallProtection: { kind: 'none' },
+  resetStartIntent: null,
+  selections: noSelections,
 };
 
 function reportData(base: DesignInput, choose = true): DesignReportData {
@@ -65,7 +115,14 @@ function reportData(base: DesignInput, choose = true): DesignReportData {
   const match = matchDesign(input, label, params, catalogue);
   const motor = motorPart ? { manufacturer: motorPart.manufacturer, mpn: motorPart.mpn, description: motorPart.description } : null;
   const bom = buildBom({ input, motor, partsById, pull: match.powerOn?.recommendedPull ?? null });
-  const design = { id: 7, name: base.name, revision: 1, ownerName: 'Dana Example', status: 'draft' as const, generatedAt: new Date('2026-03-02T09:30:00Z') };
+  const design = {
+    id: 7,
+    name: base.name,
+    revision: 1,
+    ownerName: 'Dana Example',
+    status: 'draft' as const,
+    generatedAt: new Date('2026-03-02T09:30:00Z'),
+  };
   return { design, input, match, bom, partsById };
 }
 
@@ -75,7 +132,12 @@ interface PageText {
   imageOps: number;
 }
 
-const IMAGE_OPS = new Set<number>([OPS.paintImageXObject, OPS.paintInlineImageXObject, OPS.paintImageMaskXObject, OPS.paintImageXObjectRepeat]);
+const IMAGE_OPS = new Set<number>([
+  OPS.paintImageXObject,
+  OPS.paintInlineImageXObject,
+  OPS.paintImageMaskXObject,
+  OPS.paintImageXObjectRepeat,
+]);
 
 /** Text (items joined by spaces, whitespace collapsed) and drawing-operator counts per page, via pdfjs-dist. */
 async function readPages(bytes: Uint8Array): Promise<PageText[]> {
@@ -84,7 +146,10 @@ async function readPages(bytes: Uint8Array): Promise<PageText[]> {
   for (let i = 1; i <= doc.numPages; i++) {
     const page = await doc.getPage(i);
     const content = await page.getTextContent();
-    const text = content.items.map((item) => ('str' in item ? item.str : '')).join(' ').replace(/\s+/g, ' ');
+    const text = content.items
+      .map((item) => ('str' in item ? item.str : ''))
+      .join(' ')
+      .replace(/\s+/g, ' ');
     const ops = await page.getOperatorList();
     pages.push({
       text,
@@ -101,9 +166,16 @@ const mpnOf = (id: number | null): string => (id == null ? '(none)' : (partsById
 describe.each([
   // Both drivers run from the motor supply (driverSupplyV null), so the lowest driver supply is the supply minimum
   // entered above: 11.4 V for the fan (no switch holds a jam on the 2.9 V pin drive), 6 V for the pump.
-  { title: 'bench fan, on/off, 3.3 V logic', design: benchFan, out: process.env.REPORT_PDF_OUT, judged: ['lowest driver supply of 11.4 V (the chosen driver)'] },
   {
-    title: 'battery pump, PWM, 1.8 V logic with a driver', design: batteryPump, out: process.env.REPORT_PDF_OUT?.replace(/\.pdf$/, '-pump.pdf'),
+    title: 'bench fan, on/off, 3.3 V logic',
+    design: benchFan,
+    out: process.env.REPORT_PDF_OUT,
+    judged: ['lowest driver supply of 11.4 V (the chosen driver)'],
+  },
+  {
+    title: 'battery pump, PWM, 1.8 V logic with a driver',
+    design: batteryPump,
+    out: process.env.REPORT_PDF_OUT?.replace(/\.pdf$/, '-pump.pdf'),
     judged: ['lowest driver supply of 6 V (the chosen driver)', 'Drivers are ranked for the chosen switch'],
   },
 ])('design report: $title', ({ design, out, judged }) => {
@@ -167,8 +239,12 @@ describe.each([
     expect(chartPage?.constructPathOps).toBeGreaterThan(30); // 4 curves, grid, axes, markers
     expect(pages.every((p) => p.imageOps === 0)).toBe(true);
     const doc = await PDFDocument.load(bytes);
-    const images = doc.context.enumerateIndirectObjects().filter(([, obj]) =>
-      (obj instanceof PDFRawStream || obj instanceof PDFStream) && obj.dict.get(PDFName.of('Subtype')) === PDFName.of('Image'));
+    const images = doc.context
+      .enumerateIndirectObjects()
+      .filter(
+        ([, obj]) =>
+          (obj instanceof PDFRawStream || obj instanceof PDFStream) && obj.dict.get(PDFName.of('Subtype')) === PDFName.of('Image'),
+      );
     expect(images).toHaveLength(0);
   });
 
@@ -181,7 +257,7 @@ describe.each([
 });
 
 describe('design report with a recorded reset-start intent', () => {
-  it('prints the motor state at reset and the designer\'s reason', async () => {
+  it("prints the motor state at reset and the designer's reason", async () => {
     const reason = 'The fan purges the hood at power-up before the controller boots.';
     const bytes = await buildDesignReportPdf(reportData({ ...benchFan, resetStartIntent: { reason } }));
     const text = (await readPages(bytes)).map((p) => p.text).join(' ');
@@ -206,7 +282,11 @@ describe('shared font loader', () => {
     const fonts = await loadSourceSans(pdf);
     expect(faceHasChars(fonts.regular, 'Ωθµ±°–·')).toBe(true);
     expect(faceHasChars(fonts.regular, '≤')).toBe(false); // not in the shipped Latin or Greek subsets
-    expect(textRuns(fonts.regular, 'I ≤ 2 A').map((r) => r.text).join('')).toBe('I <= 2 A');
+    expect(
+      textRuns(fonts.regular, 'I ≤ 2 A')
+        .map((r) => r.text)
+        .join(''),
+    ).toBe('I <= 2 A');
     expect(measureText(fonts.bold, 'RθJA 250 K/W', 9)).toBeGreaterThan(0);
   });
 });

@@ -4,8 +4,13 @@ import { diodePart } from './fixtures.ts';
 
 function input(params: Parameters<typeof diodePart>[2], overrides: Partial<DiodeCheckInput> = {}): DiodeCheckInput {
   return {
-    diode: diodePart(1, 'INV-D1', params).params, supplyMaxV: 12, meanCurrentA: 0.4, peakCurrentA: 3, pwmHz: 20000,
-    voltageDerating: 0.8, ...overrides,
+    diode: diodePart(1, 'INV-D1', params).params,
+    supplyMaxV: 12,
+    meanCurrentA: 0.4,
+    peakCurrentA: 3,
+    pwmHz: 20000,
+    voltageDerating: 0.8,
+    ...overrides,
   };
 }
 const check = (i: DiodeCheckInput, id: string) => checkDiode(i).find((c) => c.id === id);
@@ -33,7 +38,7 @@ describe('freewheel diode checks (docs/engineering.md §8)', () => {
   });
 
   it('the t_rr limit is 1 % of the PWM period', () => {
-    expect(check(input({ kind: 'fast', trrNs: 150 }), 'reverse-recovery')?.limit).toBeCloseTo(0.01 / 20000 * 1e9, 9); // practice
+    expect(check(input({ kind: 'fast', trrNs: 150 }), 'reverse-recovery')?.limit).toBeCloseTo((0.01 / 20000) * 1e9, 9); // practice
   });
 
   it('drain spike ≈ V + V_F + L·di/dt', () => {

@@ -7,8 +7,14 @@ const LVTTL_OUT = { highV: 2.4, lowV: 0.4, railV: 3.3 };
 
 function input(params: Parameters<typeof driverPart>[2], overrides: Partial<DriverCheckInput> = {}): DriverCheckInput {
   return {
-    driver: driverPart(1, 'INV-GD1', params).params, supply: { minV: 10.8, maxV: 13.2 }, logic: LVTTL_OUT,
-    requiredGateV: 4.5, vgsMaxV: 20, switchingChargeNc: 3, pwmHz: 20000, ...overrides,
+    driver: driverPart(1, 'INV-GD1', params).params,
+    supply: { minV: 10.8, maxV: 13.2 },
+    logic: LVTTL_OUT,
+    requiredGateV: 4.5,
+    vgsMaxV: 20,
+    switchingChargeNc: 3,
+    pwmHz: 20000,
+    ...overrides,
   };
 }
 const byId = (checks: ReturnType<typeof checkDriver>, id: string) => checks.find((c) => c.id === id);

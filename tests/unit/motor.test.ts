@@ -1,7 +1,11 @@
 import { all, create } from 'mathjs';
 import { describe, expect, it } from 'vitest';
 import {
-  checkConsistency, motorAtSupply, motorModelFromDatasheet, stallCurrentAtWindingA, windingResistanceOhm,
+  checkConsistency,
+  motorAtSupply,
+  motorModelFromDatasheet,
+  stallCurrentAtWindingA,
+  windingResistanceOhm,
   type MotorDatasheetPoints,
 } from '../../src/lib/motor.ts';
 import { maxEfficiencyPoint, maxPowerPoint, motorCurve, operatingPointAtSpeed, operatingPointAtTorque } from '../../src/lib/motor-curve.ts';
@@ -14,7 +18,13 @@ const nmToGcm = (nm: number): number => math.unit(nm, 'N m').toNumber('gf cm'); 
 const rpmToRad = (rpm: number): number => math.unit(rpm, 'rpm').toNumber('rad/s'); // mathjs cross-check
 
 /** docs/engineering.md §2 worked example M1 (invented). */
-const M1: MotorDatasheetPoints = { ratedVoltageV: 3, noLoadSpeedRpm: 12000, noLoadCurrentA: 0.2, stallCurrentA: 1.8, stallTorqueNm: 0.0033953 };
+const M1: MotorDatasheetPoints = {
+  ratedVoltageV: 3,
+  noLoadSpeedRpm: 12000,
+  noLoadCurrentA: 0.2,
+  stallCurrentA: 1.8,
+  stallTorqueNm: 0.0033953,
+};
 
 /** Independent re-derivation of M1's constants from the power balance at no load: V·I0 = I0²R + Ke·ω0·I0. */
 const m1R = M1.ratedVoltageV / M1.stallCurrentA;
@@ -112,7 +122,13 @@ describe('consistency check', () => {
 describe('common practice: small 3 V motor, 12 800 rpm at 0.32 A, max efficiency 10 000 rpm at 1.28 A', () => {
   // common practice: Is recovered from I_maxeff = √(I0·Is) → Is = 1.28²/0.32 = 5.12 A
   const isA = 1.28 ** 2 / 0.32;
-  const points: MotorDatasheetPoints = { ratedVoltageV: 3, noLoadSpeedRpm: 12800, noLoadCurrentA: 0.32, stallCurrentA: isA, stallTorqueNm: gcmToNm(80) };
+  const points: MotorDatasheetPoints = {
+    ratedVoltageV: 3,
+    noLoadSpeedRpm: 12800,
+    noLoadCurrentA: 0.32,
+    stallCurrentA: isA,
+    stallTorqueNm: gcmToNm(80),
+  };
   const model = motorModelFromDatasheet(points);
 
   it('Is = 5.12 A', () => expect(isA).toBeCloseTo(5.12, 12)); // common practice example

@@ -16,11 +16,16 @@ const par = (a: number, b: number): number => (a * b) / (a + b);
 
 type PinPull = 'up' | 'down' | 'none';
 const pin = (pull: PinPull, over: Partial<PowerOnInput['pin']> = {}): PowerOnInput['pin'] => ({
-  railV: RAIL_V, resetDefault: { pull, pullOhms: 40000, pullTolerance: 0.3 }, sourceCurrentA: 0.004, sinkCurrentA: 0.004, ...over,
+  railV: RAIL_V,
+  resetDefault: { pull, pullOhms: 40000, pullTolerance: 0.3 },
+  sourceCurrentA: 0.004,
+  sinkCurrentA: 0.004,
+  ...over,
 });
 const gate = { vgsThMinV: 1.0 };
 const driver = (inverting: boolean, inputPull: PinPull, inputPullOhms: number | null = 100_000): NonNullable<PowerOnInput['driver']> => ({
-  params: driverPart(1, 'KF-GD12', { inverting, inputPull, inputPullOhms, supplyMinV: 4.5, supplyMaxV: 18 }).params, supply: { minV: 12, maxV: 12 },
+  params: driverPart(1, 'KF-GD12', { inverting, inputPull, inputPullOhms, supplyMinV: 4.5, supplyMaxV: 18 }).params,
+  supply: { minV: 12, maxV: 12 },
 });
 
 // Node ranges by hand (divider V = (V_a·R_b + V_b·R_a)/(R_a + R_b), leakage ±1 µA·(R_a‖R_b)):
@@ -37,7 +42,13 @@ const driver = (inverting: boolean, inputPull: PinPull, inputPullOhms: number | 
 //  pin floating + driver down: ±1µA·130k = ±0.13 V                                            → low
 //  pin floating + driver up 12 V: 12 ∓ 0.13 V → clamped 3.6 V                                 → high
 // Non-inverting: output = input; inverting: flipped; undetermined stays undetermined. Motor off ⇔ gate surely low.
-interface Row { pinPull: PinPull; inverting: boolean | null; driverPull: PinPull; motor: MotorState; reason: string }
+interface Row {
+  pinPull: PinPull;
+  inverting: boolean | null;
+  driverPull: PinPull;
+  motor: MotorState;
+  reason: string;
+}
 const MATRIX: Row[] = [
   { pinPull: 'up', inverting: false, driverPull: 'up', motor: 'on', reason: 'node clamped at 3.6 V, high → output high' },
   { pinPull: 'up', inverting: false, driverPull: 'down', motor: 'may-run', reason: 'pulls fight: 1.864–2.738 V straddles VIH 2.0 V' },
@@ -63,13 +74,20 @@ const MATRIX: Row[] = [
   { pinPull: 'none', inverting: null, driverPull: 'none', motor: 'may-run', reason: 'the gate floats' },
 ];
 
-const inputOf = (r: Row): PowerOnInput => ({ pin: pin(r.pinPull), mosfet: gate, driver: r.inverting == null ? null : driver(r.inverting, r.driverPull) });
-const rowName = (r: Row): string => `pin ${r.pinPull}, ${r.inverting == null ? 'direct drive' : `${r.inverting ? 'inverting' : 'non-inverting'} driver with input pull ${r.driverPull}`}`;
+const inputOf = (r: Row): PowerOnInput => ({
+  pin: pin(r.pinPull),
+  mosfet: gate,
+  driver: r.inverting == null ? null : driver(r.inverting, r.driverPull),
+});
+const rowName = (r: Row): string =>
+  `pin ${r.pinPull}, ${r.inverting == null ? 'direct drive' : `${r.inverting ? 'inverting' : 'non-inverting'} driver with input pull ${r.driverPull}`}`;
 
 describe('power-on matrix: 3 pin states × driver polarity × driver input pull, plus direct drive (written by hand)', () => {
   it.each(MATRIX.map((r) => [rowName(r), r] as const))('%s', (_name, row) => {
     const r = walkPowerOn(inputOf(row));
-    expect(r.steps.map((s) => s.stage)).toEqual(row.inverting == null ? ['pin', 'pull-network', 'gate', 'motor'] : ['pin', 'pull-network', 'driver', 'gate', 'motor']);
+    expect(r.steps.map((s) => s.stage)).toEqual(
+      row.inverting == null ? ['pin', 'pull-network', 'gate', 'motor'] : ['pin', 'pull-network', 'driver', 'gate', 'motor'],
+    );
     expect(r.motorStateAtReset, row.reason).toBe(row.motor);
     expect(r.steps[r.steps.length - 1].state).toBe(row.motor);
     expect(r.motorCanStart).toBe(row.motor !== 'off');
@@ -101,7 +119,18 @@ const bound = (rThOhms: number | null, vThV: number, limitV: number, extV: numbe
 };
 const R20K = par(28e3, 70e3); // pin 28 kΩ ‖ driver 70 kΩ = 20 kΩ
 const V_TH_MIXED = (3.3 / 28e3 + 12 / 70e3) * R20K; // 5.786 V
-const E12_NEXT: Record<number, number> = { 1500: 1800, 2700: 3300, 3900: 4700, 4700: 5600, 6800: 8200, 10000: 12000, 27000: 33000, 390000: 470000, 470000: 560000, 820000: 1e6 };
+const E12_NEXT: Record<number, number> = {
+  1500: 1800,
+  2700: 3300,
+  3900: 4700,
+  4700: 5600,
+  6800: 8200,
+  10000: 12000,
+  27000: 33000,
+  390000: 470000,
+  470000: 560000,
+  820000: 1e6,
+};
 const RECOMMENDED: { row: Row; ohms: number; raw: number }[] = [
   { row: MATRIX[0], ohms: 1500, raw: bound(R20K, V_TH_MIXED, 0.47, 0) }, // 1744 Ω
   { row: MATRIX[1], ohms: 3900, raw: bound(28e3, 3.3, 0.47, 0) }, // 4559 Ω (the driver pull-down helps: ignored)
@@ -145,7 +174,10 @@ describe('every matrix row where the motor can start gets a pull that the re-wal
   });
 
   it('no recommendation for an inverting driver whose VIH the logic rail cannot reach (CMOS-ratio 0.7·12 V = 8.4 V)', () => {
-    const ratio = { ...driver(true, 'down'), params: { ...driver(true, 'down').params, inputLogic: 'ratio' as const, inputHighMin: 0.7, inputLowMax: 0.3 } };
+    const ratio = {
+      ...driver(true, 'down'),
+      params: { ...driver(true, 'down').params, inputLogic: 'ratio' as const, inputHighMin: 0.7, inputLowMax: 0.3 },
+    };
     const r = walkPowerOn({ pin: pin('down'), mosfet: gate, driver: ratio });
     expect(r.motorStateAtReset).toBe('on'); // ±0.037 V ≤ 0.3·12 = 3.6 V: low, inverted → high
     expect(r.recommendedPull).toBeNull();

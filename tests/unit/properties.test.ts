@@ -66,7 +66,13 @@ const mosfetParams: fc.Arbitrary<Partial<MosfetParams>> = fc.record({
   rthJaCPerW: num(40, 500),
   tjMaxC: fc.constantFrom(125, 150, 175),
   rdsOn: fc.array(
-    fc.record({ vgsV: fc.constantFrom(1.8, 2.5, 4.5, 10), tjC: fc.constant(25), maxOhm: num(0.005, 2), typOhm: fc.constant(null), idA: fc.constant(null) }),
+    fc.record({
+      vgsV: fc.constantFrom(1.8, 2.5, 4.5, 10),
+      tjC: fc.constant(25),
+      maxOhm: num(0.005, 2),
+      typOhm: fc.constant(null),
+      idA: fc.constant(null),
+    }),
     { minLength: 0, maxLength: 3 },
   ),
 });
@@ -83,7 +89,10 @@ describe('ranking properties', () => {
             supplyMaxV,
             drive: mode === 'onoff' ? { mode: 'onoff' } : { mode: 'pwm', frequencyHz: 20000, dutyMin: 0.3, dutyMax: 0.9 },
           });
-          const ranked = rankSwitchCandidates(c, params.map((p, i) => mosfetPart(i + 1, `INV-R${i}`, p)));
+          const ranked = rankSwitchCandidates(
+            c,
+            params.map((p, i) => mosfetPart(i + 1, `INV-R${i}`, p)),
+          );
           ranked.forEach((r, i) => {
             if (i > 0) expect(VERDICT_RANK[r.verdict]).toBeGreaterThanOrEqual(VERDICT_RANK[ranked[i - 1].verdict]);
             if (r.verdict === 'pass') expect(r.checks.every((x) => x.ok)).toBe(true);

@@ -25,7 +25,17 @@ describe('worstPullCurrentA (Ohm’s law at the low tolerance end)', () => {
   });
 
   it('pullDrawCurrentA: a pull-down draws V/(R·(1 − tol)) while the pin is high; a pull-up or an unfitted pull draws nothing', () => {
-    const base = { maxOhms: 10_000, minOhms: 1000, chosenOhms: 10_000, nodeV: 0.3, activeCurrentA: null, ok: true, notes: [], railV: 0, tolerance: 0.01 };
+    const base = {
+      maxOhms: 10_000,
+      minOhms: 1000,
+      chosenOhms: 10_000,
+      nodeV: 0.3,
+      activeCurrentA: null,
+      ok: true,
+      notes: [],
+      railV: 0,
+      tolerance: 0.01,
+    };
     expect(pullDrawCurrentA({ ...base, to: 'down' }, 3.3)).toBeCloseTo(1 / 3000, 12);
     expect(pullDrawCurrentA({ ...base, to: 'up', railV: 3.3 }, 3.3)).toBe(0);
     expect(pullDrawCurrentA({ ...base, to: 'down', ok: false, chosenOhms: null }, 3.3)).toBe(0);
@@ -39,7 +49,14 @@ describe('ranking and power-on agree on a recommended gate pull-down’s draw', 
     // R_i = 40 kΩ·0.7 = 28 kΩ, with 1 µA leakage: R_e ≤ 28000·0.5/((3.3 − 0.5) + 1e-6·28000) = 4950.5 Ω,
     // at +1 %: 4901.5 Ω, E12 round-down (IEC 60063): 4.7 kΩ. The pin (8 mA) can drive it: ≥ 3.3/(0.008·0.99) = 417 Ω.
     const c = caseM1({
-      logic: { highV: 3.1, lowV: 0.4, railV: 3.3, pinSourceCurrentA: 0.008, pinSinkCurrentA: 0.008, resetDefault: { pull: 'up', pullOhms: 40_000, pullTolerance: 0.3 } },
+      logic: {
+        highV: 3.1,
+        lowV: 0.4,
+        railV: 3.3,
+        pinSourceCurrentA: 0.008,
+        pinSinkCurrentA: 0.008,
+        resetDefault: { pull: 'up', pullOhms: 40_000, pullTolerance: 0.3 },
+      },
       stallProtection: { kind: 'current-limit', limitA: 1 },
     });
     const part = mosfetPart(1, 'INV-N30L');

@@ -13,13 +13,17 @@ const E12 = [10, 12, 15, 18, 22, 27, 33, 39, 47, 56, 68, 82];
 function pullDown(internalOhms: number, limitV = 0.5): PullResistorRequest {
   return {
     pin: { internalPull: 'up', internalPullOhms: internalOhms, railV: 3.3, maxCurrentA: 0.004 },
-    external: { to: 'down', railV: 0 }, node: { mustBe: 'low', limitV }, series: 'E12',
+    external: { to: 'down', railV: 0 },
+    node: { mustBe: 'low', limitV },
+    series: 'E12',
   };
 }
 
 const pullUpAgainstDown: PullResistorRequest = {
   pin: { internalPull: 'down', internalPullOhms: 40000, railV: 3.3, maxCurrentA: 0.004 },
-  external: { to: 'up', railV: 3.3 }, node: { mustBe: 'high', limitV: 2.0 }, series: 'E12',
+  external: { to: 'up', railV: 3.3 },
+  node: { mustBe: 'high', limitV: 2.0 },
+  series: 'E12',
 };
 
 describe('docs/engineering.md §9 examples (tolerances 0, leakage 0: the calculator as before)', () => {
@@ -42,53 +46,94 @@ describe('docs/engineering.md §9 examples (tolerances 0, leakage 0: the calcula
   });
 });
 
-const withPin = (req: PullResistorRequest, pin: Partial<PullResistorRequest['pin']>, rest: Partial<PullResistorRequest> = {}): PullResistorRequest => ({ ...req, ...rest, pin: { ...req.pin, ...pin } });
+const withPin = (
+  req: PullResistorRequest,
+  pin: Partial<PullResistorRequest['pin']>,
+  rest: Partial<PullResistorRequest> = {},
+): PullResistorRequest => ({ ...req, ...rest, pin: { ...req.pin, ...pin } });
 const noPull = (leakageA: number, rest: Partial<PullResistorRequest> = {}): PullResistorRequest =>
-  withPin(pullDown(0), { internalPull: 'none', internalPullOhms: 0, leakageA }, { external: { to: 'down', railV: 0, tolerance: 0.01 }, ...rest });
+  withPin(
+    pullDown(0),
+    { internalPull: 'none', internalPullOhms: 0, leakageA },
+    { external: { to: 'down', railV: 0, tolerance: 0.01 }, ...rest },
+  );
 
 describe('tolerances, leakage and the ceiling (docs/engineering.md §9; docs/engineering.md §power-on), values derived by hand', () => {
   it.each([
     {
       name: '40 kΩ ±30 % up, 1 % resistor, 1 µA: R_i = 28 kΩ, bound 28k·0.5/((2.8 + 0.028)·1.01) = 4901 Ω → 4.7 kΩ',
-      req: withPin(pullDown(40000), { internalPullTolerance: 0.3, leakageA: 1e-6 }, { external: { to: 'down', railV: 0, tolerance: 0.01 } }),
-      chosen: 4700, minOhms: 1000, // 3.3/(4 mA·0.99) = 833 Ω → 1 kΩ
+      req: withPin(
+        pullDown(40000),
+        { internalPullTolerance: 0.3, leakageA: 1e-6 },
+        { external: { to: 'down', railV: 0, tolerance: 0.01 } },
+      ),
+      chosen: 4700,
+      minOhms: 1000, // 3.3/(4 mA·0.99) = 833 Ω → 1 kΩ
       // worst corner R_i 28 kΩ, R_e 4747 Ω: divider + I·(R_i‖R_e)
       nodeV: (3.3 * 4747) / (28000 + 4747) + (1e-6 * 28000 * 4747) / (28000 + 4747), // 0.4824 V
       currentA: 3.3 / (4700 * 0.99),
     },
     {
       name: '40 kΩ ±30 % down, pull-up 1 %, VIH 2.0, 1 µA: bound 28k·1.3/((2.0 + 0.028)·1.01) = 17 771 Ω → 15 kΩ',
-      req: withPin(pullUpAgainstDown, { internalPullTolerance: 0.3, leakageA: 1e-6 }, { external: { to: 'up', railV: 3.3, tolerance: 0.01 } }),
-      chosen: 15000, minOhms: 1000,
+      req: withPin(
+        pullUpAgainstDown,
+        { internalPullTolerance: 0.3, leakageA: 1e-6 },
+        { external: { to: 'up', railV: 3.3, tolerance: 0.01 } },
+      ),
+      chosen: 15000,
+      minOhms: 1000,
       nodeV: (3.3 * 28000) / (28000 + 15150) - (1e-6 * 28000 * 15150) / (28000 + 15150), // 2.1315 V
       currentA: 3.3 / (15000 * 0.99),
     },
     {
       name: 'no internal pull, 1 µA, 1 %: bound 0.5 V/(1 µA·1.01) = 495 kΩ → 470 kΩ',
-      req: noPull(1e-6), chosen: 470000, minOhms: 1000, nodeV: 1e-6 * 470000 * 1.01, currentA: 3.3 / (470000 * 0.99),
+      req: noPull(1e-6),
+      chosen: 470000,
+      minOhms: 1000,
+      nodeV: 1e-6 * 470000 * 1.01,
+      currentA: 3.3 / (470000 * 0.99),
     },
     {
       name: 'no internal pull, no leakage: unbounded, so the 1 MΩ ceiling (an E12 value) is the answer',
-      req: noPull(0), chosen: 1_000_000, minOhms: 1000, nodeV: 0, currentA: 3.3 / (1e6 * 0.99),
+      req: noPull(0),
+      chosen: 1_000_000,
+      minOhms: 1000,
+      nodeV: 0,
+      currentA: 3.3 / (1e6 * 0.99),
     },
     {
       name: '1 pA leakage would allow 0.5/(1e-12·1.01) ≈ 495 GΩ: the ceiling caps it at 1 MΩ',
-      req: noPull(1e-12), chosen: 1_000_000, minOhms: 1000, nodeV: 1e-12 * 1.01e6, currentA: 3.3 / (1e6 * 0.99),
+      req: noPull(1e-12),
+      chosen: 1_000_000,
+      minOhms: 1000,
+      nodeV: 1e-12 * 1.01e6,
+      currentA: 3.3 / (1e6 * 0.99),
     },
     {
       name: 'a 250 kΩ ceiling rounds down to E12 220 kΩ',
-      req: noPull(0, { ceilingOhms: 250_000 }), chosen: 220_000, minOhms: 1000, nodeV: 0, currentA: 3.3 / (220000 * 0.99),
+      req: noPull(0, { ceilingOhms: 250_000 }),
+      chosen: 220_000,
+      minOhms: 1000,
+      nodeV: 0,
+      currentA: 3.3 / (220000 * 0.99),
     },
     {
       name: 'a 250 kΩ ceiling in E24 gives 240 kΩ',
-      req: noPull(0, { ceilingOhms: 250_000, series: 'E24' }), chosen: 240_000, minOhms: 910, nodeV: 0, currentA: 3.3 / (240000 * 0.99), // 833 Ω → IEC 60063 E24 round-up 910 Ω
+      req: noPull(0, { ceilingOhms: 250_000, series: 'E24' }),
+      chosen: 240_000,
+      minOhms: 910,
+      nodeV: 0,
+      currentA: 3.3 / (240000 * 0.99), // 833 Ω → IEC 60063 E24 round-up 910 Ω
     },
     {
       // Helping pull-down 40 kΩ ±30 %, 20 µA leakage: at R_i = 52 kΩ, d_int + I·R_i = −0.5 + 1.04 = 0.54 → 52k·0.5/0.54 = 48.1 kΩ;
       // at 28 kΩ: −0.5 + 0.56 = 0.06 → 233 kΩ. The weak end of a helping pull is the worst: 47 kΩ.
       name: 'a helping internal pull with heavy leakage is worst at +tol: 47 kΩ',
       req: withPin(pullDown(40000), { internalPull: 'down', internalPullTolerance: 0.3, leakageA: 20e-6 }),
-      chosen: 47000, minOhms: 1000, nodeV: (20e-6 * 52000 * 47000) / 99000, currentA: 3.3 / 47000,
+      chosen: 47000,
+      minOhms: 1000,
+      nodeV: (20e-6 * 52000 * 47000) / 99000,
+      currentA: 3.3 / 47000,
     },
   ])('$name', ({ req, chosen, minOhms, nodeV, currentA }) => {
     const r = sizePullResistor(req);
@@ -125,7 +170,9 @@ describe('common practice: 4.7 kΩ pull-up to 5 V against a 40 kΩ internal pull
     expect(currentA * 1000).toBeCloseTo(1.06, 2); // common practice example
     const r = sizePullResistor({
       pin: { internalPull: 'down', internalPullOhms: 40000, railV: 5, maxCurrentA: 0.004 },
-      external: { to: 'up', railV: 5 }, node: { mustBe: 'high', limitV: 3.5 }, series: 'E12',
+      external: { to: 'up', railV: 5 },
+      node: { mustBe: 'high', limitV: 3.5 },
+      series: 'E12',
     });
     expect(r.minOhms as number).toBeLessThanOrEqual(4700); // 5 V / 4 mA = 1.25 kΩ → 1.5 kΩ
     expect(r.maxOhms).toBe(15000); // 40 kΩ·1.5/3.5 = 17.1 kΩ → IEC 60063 E12 round-down 15 kΩ
@@ -153,16 +200,31 @@ describe('edge cases', () => {
   });
 
   it('warns when the pull-up rail is above the pin supply', () => {
-    const r = sizePullResistor({ ...pullUpAgainstDown, external: { to: 'up', railV: 5 }, node: { mustBe: 'high', limitV: 3.5 }, series: 'E24' });
+    const r = sizePullResistor({
+      ...pullUpAgainstDown,
+      external: { to: 'up', railV: 5 },
+      node: { mustBe: 'high', limitV: 3.5 },
+      series: 'E24',
+    });
     expect(r.notes.join(' ')).toMatch(/tolerant/); // docs/engineering.md §9
   });
 });
 
 describe('request schema: the new optional fields (api-contract.md, Extensions)', () => {
-  const body = { pin: { internalPull: 'up', internalPullOhms: 40000, railV: 3.3, maxCurrentA: 0.004 }, external: { to: 'down', railV: 0 }, node: { mustBe: 'low', limitV: 0.5 }, series: 'E12' };
+  const body = {
+    pin: { internalPull: 'up', internalPullOhms: 40000, railV: 3.3, maxCurrentA: 0.004 },
+    external: { to: 'down', railV: 0 },
+    node: { mustBe: 'low', limitV: 0.5 },
+    series: 'E12',
+  };
   it('accepts the old body unchanged and the new fields within bounds', () => {
     expect(parseCalcBody(calcPullResistorRequestSchema, body).ok).toBe(true);
-    const full = { ...body, pin: { ...body.pin, internalPullTolerance: 0.3, leakageA: 1e-6 }, external: { ...body.external, tolerance: 0.01 }, ceilingOhms: 1e6 };
+    const full = {
+      ...body,
+      pin: { ...body.pin, internalPullTolerance: 0.3, leakageA: 1e-6 },
+      external: { ...body.external, tolerance: 0.01 },
+      ceilingOhms: 1e6,
+    };
     expect(parseCalcBody(calcPullResistorRequestSchema, full).ok).toBe(true);
   });
   it.each([
@@ -208,34 +270,47 @@ const nextE12Above = (ohms: number): number => {
 };
 
 describe('property: the chosen value holds the node at its tolerance extremes with leakage', () => {
-  const request = fc.record({
-    pull: fc.constantFrom('up' as const, 'down' as const, 'none' as const),
-    internalOhms: fc.double({ min: 5_000, max: 200_000, noNaN: true }),
-    tolI: fc.double({ min: 0, max: 0.5, noNaN: true }),
-    tolE: fc.double({ min: 0, max: 0.2, noNaN: true }),
-    leakA: fc.double({ min: 0, max: 5e-6, noNaN: true }),
-    railV: fc.double({ min: 1.8, max: 5, noNaN: true }),
-    limitFraction: fc.double({ min: 0.1, max: 0.9, noNaN: true }),
-    mustBe: fc.constantFrom('low' as const, 'high' as const),
-  }).map((p): PullResistorRequest => ({
-    pin: { internalPull: p.pull, internalPullOhms: p.internalOhms, railV: p.railV, maxCurrentA: 0.004, internalPullTolerance: p.tolI, leakageA: p.leakA },
-    external: p.mustBe === 'low' ? { to: 'down', railV: 0, tolerance: p.tolE } : { to: 'up', railV: p.railV, tolerance: p.tolE },
-    node: { mustBe: p.mustBe, limitV: p.limitFraction * p.railV }, series: 'E12',
-  }));
+  const request = fc
+    .record({
+      pull: fc.constantFrom('up' as const, 'down' as const, 'none' as const),
+      internalOhms: fc.double({ min: 5_000, max: 200_000, noNaN: true }),
+      tolI: fc.double({ min: 0, max: 0.5, noNaN: true }),
+      tolE: fc.double({ min: 0, max: 0.2, noNaN: true }),
+      leakA: fc.double({ min: 0, max: 5e-6, noNaN: true }),
+      railV: fc.double({ min: 1.8, max: 5, noNaN: true }),
+      limitFraction: fc.double({ min: 0.1, max: 0.9, noNaN: true }),
+      mustBe: fc.constantFrom('low' as const, 'high' as const),
+    })
+    .map((p): PullResistorRequest => ({
+      pin: {
+        internalPull: p.pull,
+        internalPullOhms: p.internalOhms,
+        railV: p.railV,
+        maxCurrentA: 0.004,
+        internalPullTolerance: p.tolI,
+        leakageA: p.leakA,
+      },
+      external: p.mustBe === 'low' ? { to: 'down', railV: 0, tolerance: p.tolE } : { to: 'up', railV: p.railV, tolerance: p.tolE },
+      node: { mustBe: p.mustBe, limitV: p.limitFraction * p.railV },
+      series: 'E12',
+    }));
 
   it('holds at the chosen value, is at most 1 MΩ, and the next E12 value up would not hold (or passes the ceiling)', () => {
-    fc.assert(fc.property(request, (req) => {
-      const r = sizePullResistor(req);
-      if (!r.ok) return r.chosenOhms === null && (r.minOhms ?? 0) > (r.maxOhms ?? 0);
-      const chosen = r.chosenOhms as number;
-      const node = worstNodeByHand(req, chosen);
-      const holds = (v: number): boolean => (req.node.mustBe === 'low' ? v <= req.node.limitV + 1e-12 : v >= req.node.limitV - 1e-12);
-      expect(holds(node)).toBe(true);
-      expect(r.nodeV as number).toBeCloseTo(node, 9);
-      expect(chosen).toBeLessThanOrEqual(1e6);
-      const next = nextE12Above(chosen);
-      if (next <= 1e6) expect(holds(worstNodeByHand(req, next) + (req.node.mustBe === 'low' ? 1e-12 : -1e-12))).toBe(false);
-      return true;
-    }), { numRuns: 300 });
+    fc.assert(
+      fc.property(request, (req) => {
+        const r = sizePullResistor(req);
+        if (!r.ok) return r.chosenOhms === null && (r.minOhms ?? 0) > (r.maxOhms ?? 0);
+        const chosen = r.chosenOhms as number;
+        const node = worstNodeByHand(req, chosen);
+        const holds = (v: number): boolean => (req.node.mustBe === 'low' ? v <= req.node.limitV + 1e-12 : v >= req.node.limitV - 1e-12);
+        expect(holds(node)).toBe(true);
+        expect(r.nodeV as number).toBeCloseTo(node, 9);
+        expect(chosen).toBeLessThanOrEqual(1e6);
+        const next = nextE12Above(chosen);
+        if (next <= 1e6) expect(holds(worstNodeByHand(req, next) + (req.node.mustBe === 'low' ? 1e-12 : -1e-12))).toBe(false);
+        return true;
+      }),
+      { numRuns: 300 },
+    );
   });
 });

@@ -19,8 +19,17 @@ const KE_M1 = (3 - 0.2 * R_M1) / ((12000 * 2 * Math.PI) / 60); // docs/engineeri
 const logicLevel = mosfetPart(1, 'INV-N30L');
 /** Standard-level part: VGS(th) up to 4 V, RDS(on) from 4.5 V (invented). */
 const standardLevel = mosfetPart(2, 'INV-N30S', {
-  vgsThMinV: 2, vgsThMaxV: 4, qgTotalNc: 10, qgTestVgsV: 10, qgsNc: 2, qgdNc: 3, vPlateauV: 4.4,
-  rdsOn: [{ vgsV: 4.5, tjC: 25, maxOhm: 0.06, typOhm: null, idA: 2 }, { vgsV: 10, tjC: 25, maxOhm: 0.04, typOhm: null, idA: 2 }],
+  vgsThMinV: 2,
+  vgsThMaxV: 4,
+  qgTotalNc: 10,
+  qgTestVgsV: 10,
+  qgsNc: 2,
+  qgdNc: 3,
+  vPlateauV: 4.4,
+  rdsOn: [
+    { vgsV: 4.5, tjC: 25, maxOhm: 0.06, typOhm: null, idA: 2 },
+    { vgsV: 10, tjC: 25, maxOhm: 0.04, typOhm: null, idA: 2 },
+  ],
 });
 const weakPart = mosfetPart(3, 'INV-N12T', { vdsMaxV: 4, idPulsedA: 2 });
 

@@ -14,27 +14,77 @@ import { demoDesigns } from '../../db/seeds/designs.ts';
 
 const ok = (id: string): Check => ({ id, ok: true, value: 1, limit: 2, unit: '', margin: 0.5, note: `${id} holds` });
 const hard = (id: string, note: string): Check => ({ id, ok: false, value: 3, limit: 2, unit: '', margin: -0.5, note, severity: 'hard' });
-const margin = (id: string, note: string): Check => ({ id, ok: false, value: 1.9, limit: 2, unit: '', margin: 0.05, note, severity: 'margin' });
+const margin = (id: string, note: string): Check => ({
+  id,
+  ok: false,
+  value: 1.9,
+  limit: 2,
+  unit: '',
+  margin: 0.05,
+  note,
+  severity: 'margin',
+});
 
 type E = DesignMatch['switch'][number];
 function entry(partId: number, mpn: string, verdict: E['verdict'], checks: Check[], extra: Partial<E> = {}): E {
-  return { partId, mpn, manufacturer: 'Invented Maker', verdict, score: 50, checks, package: 'SOT-23', lifecycle: 'active', reviewStatus: 'approved', priceAtQty: null, ...extra } as E;
+  return {
+    partId,
+    mpn,
+    manufacturer: 'Invented Maker',
+    verdict,
+    score: 50,
+    checks,
+    package: 'SOT-23',
+    lifecycle: 'active',
+    reviewStatus: 'approved',
+    priceAtQty: null,
+    ...extra,
+  } as E;
 }
 
 const OFF_WALK: PowerOnResult = {
   steps: [{ stage: 'motor', state: 'off', minV: null, maxV: null, note: 'off' }],
-  motorCanStart: false, note: 'The gate is held low through reset: the motor stays off.', recommendedPull: null,
-  motorStateAtReset: 'off', withRecommendedPull: null, pullDrawWhenHighA: 0,
+  motorCanStart: false,
+  note: 'The gate is held low through reset: the motor stays off.',
+  recommendedPull: null,
+  motorStateAtReset: 'off',
+  withRecommendedPull: null,
+  pullDrawWhenHighA: 0,
 };
 const RUNS_NO_FIX: PowerOnResult = {
   steps: [{ stage: 'motor', state: 'on', minV: null, maxV: null, note: 'on' }],
-  motorCanStart: true, note: 'The gate is driven high at reset: the motor starts as soon as power is applied.',
-  recommendedPull: { to: 'down', railV: 0, tolerance: 0.01, maxOhms: null, minOhms: null, chosenOhms: null, nodeV: null, activeCurrentA: null, ok: false, notes: ['no value holds'] },
-  motorStateAtReset: 'on', withRecommendedPull: null, pullDrawWhenHighA: 0,
+  motorCanStart: true,
+  note: 'The gate is driven high at reset: the motor starts as soon as power is applied.',
+  recommendedPull: {
+    to: 'down',
+    railV: 0,
+    tolerance: 0.01,
+    maxOhms: null,
+    minOhms: null,
+    chosenOhms: null,
+    nodeV: null,
+    activeCurrentA: null,
+    ok: false,
+    notes: ['no value holds'],
+  },
+  motorStateAtReset: 'on',
+  withRecommendedPull: null,
+  pullDrawWhenHighA: 0,
 };
 const RUNS_PULL_FITS: PowerOnResult = {
   ...RUNS_NO_FIX,
-  recommendedPull: { to: 'down', railV: 0, tolerance: 0.01, maxOhms: 12_000, minOhms: 1_000, chosenOhms: 10_000, nodeV: 0.6, activeCurrentA: 0.0003, ok: true, notes: [] },
+  recommendedPull: {
+    to: 'down',
+    railV: 0,
+    tolerance: 0.01,
+    maxOhms: 12_000,
+    minOhms: 1_000,
+    chosenOhms: 10_000,
+    nodeV: 0.6,
+    activeCurrentA: 0.0003,
+    ok: true,
+    notes: [],
+  },
   withRecommendedPull: { steps: [], motorState: 'off' },
 };
 
@@ -74,7 +124,12 @@ describe('readiness rule (hand-written table of the sign-off rule)', () => {
   });
 
   it('a chosen part marginal only on margins holds', () => {
-    const m = match({ switch: [entry(11, 'QX11', 'marginal', [ok('drain-voltage'), margin('junction', 'Tj 2 K short of the target')]), entry(12, 'QX12', 'pass', [])] });
+    const m = match({
+      switch: [
+        entry(11, 'QX11', 'marginal', [ok('drain-voltage'), margin('junction', 'Tj 2 K short of the target')]),
+        entry(12, 'QX12', 'pass', []),
+      ],
+    });
     expect(readinessIssues(input(), m)).toEqual([]);
   });
 
@@ -84,14 +139,21 @@ describe('readiness rule (hand-written table of the sign-off rule)', () => {
   });
 
   it('marginal with a hard fail among its checks is refused, naming the pick, the check and its note', () => {
-    const m = match({ switch: [entry(11, 'QX11', 'marginal', [margin('junction', 'short'), hard('stall-thermal', 'Tj reaches 450 °C at a jam')]), entry(12, 'QX12', 'pass', [])] });
+    const m = match({
+      switch: [
+        entry(11, 'QX11', 'marginal', [margin('junction', 'short'), hard('stall-thermal', 'Tj reaches 450 °C at a jam')]),
+        entry(12, 'QX12', 'pass', []),
+      ],
+    });
     const issues = readinessIssues(input(), m);
     expect(paths(issues)).toEqual(['selections.switch.chosenPartId']);
     expect(issues[0].message).toBe('QX11 fails stall-thermal: Tj reaches 450 °C at a jam');
   });
 
   it('a failing alternate is refused at its own path', () => {
-    const m = match({ switch: [entry(11, 'QX11', 'pass', []), entry(12, 'QX12', 'fail', [hard('drain-voltage', '30 V exceeds the derated 24 V')])] });
+    const m = match({
+      switch: [entry(11, 'QX11', 'pass', []), entry(12, 'QX12', 'fail', [hard('drain-voltage', '30 V exceeds the derated 24 V')])],
+    });
     const issues = readinessIssues(input(), m);
     expect(paths(issues)).toEqual(['selections.switch.alternatePartIds.0']);
     expect(issues[0].message).toMatch(/^QX12 fails drain-voltage: .*30 V exceeds the derated 24 V/);
@@ -108,13 +170,22 @@ describe('readiness rule (hand-written table of the sign-off rule)', () => {
     const parts = new Map([[12, { mpn: 'QX12', lifecycle: 'obsolete' as const, reviewStatus: 'approved' as const }]]);
     const m = match({ switch: [entry(11, 'QX11', 'pass', [])] });
     const issues = readinessIssues(input(), m, { parts });
-    expect(issues).toEqual([{ path: 'selections.switch.alternatePartIds.0', message: 'QX12 is not among the current candidates: it is obsolete' }]);
+    expect(issues).toEqual([
+      { path: 'selections.switch.alternatePartIds.0', message: 'QX12 is not among the current candidates: it is obsolete' },
+    ]);
   });
 
   it('a missing switch or diode is refused; a driver only when the match uses one', () => {
     const none = { chosenPartId: null, alternatePartIds: [] };
-    expect(paths(readinessIssues(input({}, { switch: none, diode: none }), match({ powerOn: null })))).toEqual(['selections.switch.chosenPartId', 'selections.diode.chosenPartId']);
-    const withDriver = match({ driverNeeded: true, switchWithDriver: [entry(11, 'QX11', 'pass', []), entry(12, 'QX12', 'pass', [])], driver: [entry(21, 'UX21', 'pass', []) as never] });
+    expect(paths(readinessIssues(input({}, { switch: none, diode: none }), match({ powerOn: null })))).toEqual([
+      'selections.switch.chosenPartId',
+      'selections.diode.chosenPartId',
+    ]);
+    const withDriver = match({
+      driverNeeded: true,
+      switchWithDriver: [entry(11, 'QX11', 'pass', []), entry(12, 'QX12', 'pass', [])],
+      driver: [entry(21, 'UX21', 'pass', []) as never],
+    });
     expect(paths(readinessIssues(input(), withDriver))).toEqual(['selections.driver.chosenPartId']);
     expect(readinessIssues(input({}, { driver: { chosenPartId: 21, alternatePartIds: [] } }), withDriver)).toEqual([]);
   });
@@ -122,7 +193,10 @@ describe('readiness rule (hand-written table of the sign-off rule)', () => {
   it('behind a driver, switches are judged from the driver-driven list, not the direct one', () => {
     const m = match({
       driverNeeded: true,
-      switch: [entry(11, 'QX11', 'fail', [hard('gate-drive', 'logic high below spec VGS')]), entry(12, 'QX12', 'fail', [hard('gate-drive', 'x')])],
+      switch: [
+        entry(11, 'QX11', 'fail', [hard('gate-drive', 'logic high below spec VGS')]),
+        entry(12, 'QX12', 'fail', [hard('gate-drive', 'x')]),
+      ],
       switchWithDriver: [entry(11, 'QX11', 'pass', []), entry(12, 'QX12', 'pass', [])],
       driver: [entry(21, 'UX21', 'pass', []) as never],
     });
@@ -154,15 +228,32 @@ describe('readiness rule (hand-written table of the sign-off rule)', () => {
   });
 
   it('a supply report that fails is refused; marginal is not', () => {
-    const supply = (verdict: 'fail' | 'marginal', checks: Check[]) => ({ verdict, checks, startCurrentA: 3, startActualCurrentA: 3, sourceVoltageAtStartV: 4, startTorqueNm: 0.01, runningCurrentA: 1, bulkCapacitanceF: null, notes: [] });
-    const failing = readinessIssues(input(), match({ supply: supply('fail', [hard('logic-brownout', 'the rail dips to 2.1 V at start')]) }));
+    const supply = (verdict: 'fail' | 'marginal', checks: Check[]) => ({
+      verdict,
+      checks,
+      startCurrentA: 3,
+      startActualCurrentA: 3,
+      sourceVoltageAtStartV: 4,
+      startTorqueNm: 0.01,
+      runningCurrentA: 1,
+      bulkCapacitanceF: null,
+      notes: [],
+    });
+    const failing = readinessIssues(
+      input(),
+      match({ supply: supply('fail', [hard('logic-brownout', 'the rail dips to 2.1 V at start')]) }),
+    );
     expect(failing).toEqual([{ path: 'supply', message: 'the supply fails logic-brownout: the rail dips to 2.1 V at start' }]);
     expect(readinessIssues(input(), match({ supply: supply('marginal', [margin('supply-start-current', 'close')]) }))).toEqual([]);
   });
 
   it('an obsolete or unapproved catalogue motor is refused', () => {
-    expect(readinessIssues(input(), match(), { motor: { mpn: 'MX1', lifecycle: 'obsolete', reviewStatus: 'approved' } })).toEqual([{ path: 'motor.partId', message: 'the motor MX1 is obsolete' }]);
-    expect(paths(readinessIssues(input(), match(), { motor: { mpn: 'MX1', lifecycle: 'active', reviewStatus: 'pending' } }))).toEqual(['motor.partId']);
+    expect(readinessIssues(input(), match(), { motor: { mpn: 'MX1', lifecycle: 'obsolete', reviewStatus: 'approved' } })).toEqual([
+      { path: 'motor.partId', message: 'the motor MX1 is obsolete' },
+    ]);
+    expect(paths(readinessIssues(input(), match(), { motor: { mpn: 'MX1', lifecycle: 'active', reviewStatus: 'pending' } }))).toEqual([
+      'motor.partId',
+    ]);
   });
 });
 
@@ -180,6 +271,11 @@ describe('pick status for BOM and shortlist lines (hand-written table)', () => {
 
   it('a pick left out of the candidates does not hold', () => {
     const s = pickStatus(match(), 'switch', 99, { mpn: 'QX99', lifecycle: 'obsolete', reviewStatus: 'approved' });
-    expect(s).toEqual({ verdict: null, reviewStatus: 'approved', holds: false, text: '✕ QX99 is not among the current candidates: it is obsolete' });
+    expect(s).toEqual({
+      verdict: null,
+      reviewStatus: 'approved',
+      holds: false,
+      text: '✕ QX99 is not among the current candidates: it is obsolete',
+    });
   });
 });

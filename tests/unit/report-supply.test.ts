@@ -15,15 +15,20 @@ import { buildDesignReportPdf } from '../../src/server/reports/design-report.ts'
 import { pdfPageTexts } from '../helpers/pdf-text.ts';
 
 let nextId = 1;
-const withIds = <P extends Omit<Part, 'id' | 'version'>>(parts: P[]): (P & { id: number; version: number })[] => parts.map((p) => ({ ...p, id: nextId++, version: 1 }));
+const withIds = <P extends Omit<Part, 'id' | 'version'>>(parts: P[]): (P & { id: number; version: number })[] =>
+  parts.map((p) => ({ ...p, id: nextId++, version: 1 }));
 const motors = withIds(demoMotors) as PartOf<'motor'>[];
 const catalogue = {
-  mosfets: withIds(demoMosfets) as PartOf<'mosfet'>[], drivers: withIds(demoDrivers) as PartOf<'driver'>[], diodes: withIds(demoDiodes) as PartOf<'diode'>[],
+  mosfets: withIds(demoMosfets) as PartOf<'mosfet'>[],
+  drivers: withIds(demoDrivers) as PartOf<'driver'>[],
+  diodes: withIds(demoDiodes) as PartOf<'diode'>[],
   excluded: { switch: 0, driver: 0, diode: 0 },
 };
 const motor = motors.find((m) => m.mpn === 'HVM-260P-060A')!;
 const noSelections: DesignInput['selections'] = {
-  switch: { chosenPartId: null, alternatePartIds: [] }, driver: { chosenPartId: null, alternatePartIds: [] }, diode: { chosenPartId: null, alternatePartIds: [] },
+  switch: { chosenPartId: null, alternatePartIds: [] },
+  driver: { chosenPartId: null, alternatePartIds: [] },
+  diode: { chosenPartId: null, alternatePartIds: [] },
 };
 const demo = demoDesigns.find((d) => d.name.startsWith('P-20 bench prototype'))!;
 const { motorMpn: _m, ready: _r, laterRevisions = [], ...rev1Fields } = demo;
@@ -32,7 +37,14 @@ const rev2: DesignInput = { ...rev1, ...laterRevisions[0] };
 
 async function supplySection(input: DesignInput, revision: number): Promise<string> {
   const match = matchDesign(input, motor.mpn, motor.params, catalogue);
-  const design = { id: 4, name: input.name, revision, ownerName: 'Dana Example', status: 'draft' as const, generatedAt: new Date('2026-03-02T09:30:00Z') };
+  const design = {
+    id: 4,
+    name: input.name,
+    revision,
+    ownerName: 'Dana Example',
+    status: 'draft' as const,
+    generatedAt: new Date('2026-03-02T09:30:00Z'),
+  };
   const bytes = await buildDesignReportPdf({ design, input, match, bom: [], partsById: new Map() }, { standardFonts: false });
   const text = (await pdfPageTexts(bytes)).join(' ');
   const start = text.indexOf('Supply and logic at start');

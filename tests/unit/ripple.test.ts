@@ -14,7 +14,16 @@ import {
 } from '../../src/lib/ripple.ts';
 
 const CURRENT_KEYS = [
-  'meanA', 'motorRmsA', 'switchRmsA', 'switchMeanA', 'diodeMeanA', 'diodeRmsA', 'turnOnA', 'turnOffA', 'peakA', 'rippleA',
+  'meanA',
+  'motorRmsA',
+  'switchRmsA',
+  'switchMeanA',
+  'diodeMeanA',
+  'diodeRmsA',
+  'turnOnA',
+  'turnOffA',
+  'peakA',
+  'rippleA',
 ] as const;
 
 /**
@@ -124,12 +133,30 @@ describe('worked example, 20 kHz: continuous, the mean-voltage model holds', () 
 
 // Hand-picked cases: continuous and discontinuous, several f, D, E; the simulation is the second method.
 describe.each<[string, RippleInput]>([
-  ['CCM f·τe 10, D 0.3', { supplyV: 12, resistanceOhm: 2, inductanceH: 1e-3, diodeForwardV: 0.5, duty: 0.3, frequencyHz: 20000, backEmfV: 3 }],
-  ['CCM f·τe 2.5, D 0.7', { supplyV: 24, resistanceOhm: 1, inductanceH: 0.5e-3, diodeForwardV: 0.8, duty: 0.7, frequencyHz: 5000, backEmfV: 10 }],
-  ['CCM no diode drop, E 0 (docs/engineering.md §4 M1 at 1 kHz)', { supplyV: 3, resistanceOhm: 3 / 1.8, inductanceH: 0.15e-3, diodeForwardV: 0, duty: 0.5, frequencyHz: 1000, backEmfV: 0 }],
-  ['DCM f·τe 0.5, D 0.2', { supplyV: 12, resistanceOhm: 2.4, inductanceH: 1.2e-3, diodeForwardV: 0.7, duty: 0.2, frequencyHz: 1000, backEmfV: 6 }],
-  ['DCM light load f·τe 5', { supplyV: 12, resistanceOhm: 2, inductanceH: 1e-3, diodeForwardV: 0.4, duty: 0.5, frequencyHz: 10000, backEmfV: 5.5 }],
-  ['DCM f·τe 0.1, D 0.8', { supplyV: 6, resistanceOhm: 4, inductanceH: 0.2e-3, diodeForwardV: 0.3, duty: 0.8, frequencyHz: 2000, backEmfV: 1 }],
+  [
+    'CCM f·τe 10, D 0.3',
+    { supplyV: 12, resistanceOhm: 2, inductanceH: 1e-3, diodeForwardV: 0.5, duty: 0.3, frequencyHz: 20000, backEmfV: 3 },
+  ],
+  [
+    'CCM f·τe 2.5, D 0.7',
+    { supplyV: 24, resistanceOhm: 1, inductanceH: 0.5e-3, diodeForwardV: 0.8, duty: 0.7, frequencyHz: 5000, backEmfV: 10 },
+  ],
+  [
+    'CCM no diode drop, E 0 (docs/engineering.md §4 M1 at 1 kHz)',
+    { supplyV: 3, resistanceOhm: 3 / 1.8, inductanceH: 0.15e-3, diodeForwardV: 0, duty: 0.5, frequencyHz: 1000, backEmfV: 0 },
+  ],
+  [
+    'DCM f·τe 0.5, D 0.2',
+    { supplyV: 12, resistanceOhm: 2.4, inductanceH: 1.2e-3, diodeForwardV: 0.7, duty: 0.2, frequencyHz: 1000, backEmfV: 6 },
+  ],
+  [
+    'DCM light load f·τe 5',
+    { supplyV: 12, resistanceOhm: 2, inductanceH: 1e-3, diodeForwardV: 0.4, duty: 0.5, frequencyHz: 10000, backEmfV: 5.5 },
+  ],
+  [
+    'DCM f·τe 0.1, D 0.8',
+    { supplyV: 6, resistanceOhm: 4, inductanceH: 0.2e-3, diodeForwardV: 0.3, duty: 0.8, frequencyHz: 2000, backEmfV: 1 },
+  ],
   ['duty 1: DC', { supplyV: 12, resistanceOhm: 2, inductanceH: 1e-3, diodeForwardV: 0.5, duty: 1, frequencyHz: 5000, backEmfV: 4 }],
   ['duty 0', { supplyV: 12, resistanceOhm: 2, inductanceH: 1e-3, diodeForwardV: 0.5, duty: 0, frequencyHz: 5000, backEmfV: 4 }],
   ['V below E', { supplyV: 5, resistanceOhm: 2, inductanceH: 1e-3, diodeForwardV: 0.5, duty: 0.6, frequencyHz: 5000, backEmfV: 6 }],
@@ -152,7 +179,15 @@ describe('docs/engineering.md §4 examples: M1, L 0.15 mH, 3 V, D 0.5, E 0, VF 0
     [5000, 0.908], // docs/engineering.md §4 example [calc]
     [20000, 0.2484], // docs/engineering.md §4 example [calc]
   ])('%d Hz → ΔI %d A', (f, expected) => {
-    const r = periodicCurrent({ supplyV: 3, resistanceOhm: M1_R, inductanceH: 0.15e-3, diodeForwardV: 0, duty: 0.5, frequencyHz: f, backEmfV: 0 });
+    const r = periodicCurrent({
+      supplyV: 3,
+      resistanceOhm: M1_R,
+      inductanceH: 0.15e-3,
+      diodeForwardV: 0,
+      duty: 0.5,
+      frequencyHz: f,
+      backEmfV: 0,
+    });
     expect(r.continuous).toBe(true);
     expect(r.rippleA).toBeCloseTo(expected, 3);
     expect(r.rippleA).toBeCloseTo(handRippleA(3, 0, M1_R, 0.15e-3, 0.5, f), 12); // re-derived by the hand formula
@@ -186,7 +221,15 @@ describe('limits', () => {
   });
 
   it('duty 1 is DC: (V − E)/R, no ripple, all through the switch', () => {
-    const r = periodicCurrent({ supplyV: 12, resistanceOhm: 2, inductanceH: 1e-3, diodeForwardV: 0.7, duty: 1, frequencyHz: 5000, backEmfV: 4 });
+    const r = periodicCurrent({
+      supplyV: 12,
+      resistanceOhm: 2,
+      inductanceH: 1e-3,
+      diodeForwardV: 0.7,
+      duty: 1,
+      frequencyHz: 5000,
+      backEmfV: 4,
+    });
     expect(r.meanA).toBeCloseTo(4, 12); // Ohm's law: (12 − 4)/2
     expect(r.switchRmsA).toBeCloseTo(4, 12);
     expect(r.rippleA).toBeCloseTo(0, 12);
@@ -199,7 +242,16 @@ describe('limits', () => {
     ['V = E', { backEmfV: 12 }],
     ['V < E', { backEmfV: 13 }],
   ])('%s: no current at all', (_name, change) => {
-    const r = periodicCurrent({ supplyV: 12, resistanceOhm: 2, inductanceH: 1e-3, diodeForwardV: 0.7, duty: 0.5, frequencyHz: 5000, backEmfV: 4, ...change });
+    const r = periodicCurrent({
+      supplyV: 12,
+      resistanceOhm: 2,
+      inductanceH: 1e-3,
+      diodeForwardV: 0.7,
+      duty: 0.5,
+      frequencyHz: 5000,
+      backEmfV: 4,
+      ...change,
+    });
     for (const key of CURRENT_KEYS) expect(r[key], key).toBe(0);
     expect(r.zeroFraction).toBe(1);
     expect(r.continuous).toBe(false);
@@ -212,7 +264,16 @@ describe('limits', () => {
     ['duty', { duty: 1.2 }],
     ['backEmfV', { backEmfV: -1 }],
   ])('bad %s is refused with its name', (field, change) => {
-    const input = { supplyV: 12, resistanceOhm: 2, inductanceH: 1e-3, diodeForwardV: 0.7, duty: 0.5, frequencyHz: 5000, backEmfV: 4, ...change };
+    const input = {
+      supplyV: 12,
+      resistanceOhm: 2,
+      inductanceH: 1e-3,
+      diodeForwardV: 0.7,
+      duty: 0.5,
+      frequencyHz: 5000,
+      backEmfV: 4,
+      ...change,
+    };
     expect(() => periodicCurrent(input)).toThrow(field);
   });
 });
@@ -233,7 +294,14 @@ describe('back-EMF for a mean current', () => {
 });
 
 // Invented motor for the motor-level call: 2.2 Ω winding + 0.2 Ω series = the worked example's 2.4 Ω loop.
-const MOTOR: MotorModel = { ratedVoltageV: 12, resistanceOhm: 2.2, keVsPerRad: 0.01, ktNmPerA: 0.01, noLoadCurrentA: 0.1, frictionTorqueNm: 0.001 };
+const MOTOR: MotorModel = {
+  ratedVoltageV: 12,
+  resistanceOhm: 2.2,
+  keVsPerRad: 0.01,
+  ktNmPerA: 0.01,
+  noLoadCurrentA: 0.1,
+  frictionTorqueNm: 0.001,
+};
 const AT = { model: MOTOR, supplyV: 12.6, duty: 0.5, diodeForwardV: 0.7, seriesResistanceOhm: 0.2, inductanceH: 1.2e-3 };
 const RPM_PER_RAD_S = 30 / Math.PI; // docs/engineering.md §1: 1 rpm = π/30 rad/s
 
@@ -247,7 +315,7 @@ describe('rippleOperatingPoint', () => {
   });
 
   it.each<[string, { kind: 'speed'; speedRpm: number } | { kind: 'stall-only' }, number]>([
-    ['speed 3000 rpm', { kind: 'speed', speedRpm: 3000 }, 0.01 * 3000 / RPM_PER_RAD_S], // docs/engineering.md §2: E = Ke·ω
+    ['speed 3000 rpm', { kind: 'speed', speedRpm: 3000 }, (0.01 * 3000) / RPM_PER_RAD_S], // docs/engineering.md §2: E = Ke·ω
     ['stall-only', { kind: 'stall-only' }, 0], // stalled: ω = 0
   ])('%s at 20 kHz: E from the load, mean current from the mean-voltage model', (_name, load, backEmfV) => {
     const p = rippleOperatingPoint({ ...AT, frequencyHz: 20000, load });
@@ -280,7 +348,14 @@ describe('PWM frequency caution', () => {
 
   it('the threshold f·τe = 5 keeps the D = 0.5 ripple near 5 % of stall current, so a 3 % load stays continuous and 2 % does not', () => {
     const l = 1e-3;
-    const input = { supplyV: 12, resistanceOhm: 2, inductanceH: l, diodeForwardV: 0, duty: 0.5, frequencyHz: (MIN_PERIODS_PER_TAU * 2) / l };
+    const input = {
+      supplyV: 12,
+      resistanceOhm: 2,
+      inductanceH: l,
+      diodeForwardV: 0,
+      duty: 0.5,
+      frequencyHz: (MIN_PERIODS_PER_TAU * 2) / l,
+    };
     expect(handRippleA(12, 0, 2, l, 0.5, input.frequencyHz) / 6).toBeCloseTo(0.05, 3); // docs/engineering.md §4 formula: (1 − a)/(1 + a), a = e^(−0.1)
     expect(solveBackEmfForMeanCurrentV(input, 0.03 * 6).result.continuous).toBe(true); // mean above ΔI/2 (2.5 % of V/R)
     expect(solveBackEmfForMeanCurrentV(input, 0.02 * 6).result.continuous).toBe(false); // mean below ΔI/2
@@ -292,18 +367,28 @@ const num = (min: number, max: number): fc.Arbitrary<number> => fc.double({ min,
 const rippleInputs = (minPeriodsPerTau: number, maxPeriodsPerTau: number): fc.Arbitrary<RippleInput> =>
   fc
     .record({
-      supplyV: num(1, 48), resistanceOhm: num(0.05, 20), periodsPerTau: num(minPeriodsPerTau, maxPeriodsPerTau),
-      diodeForwardV: num(0, 1), duty: num(0, 1), emfFraction: num(0, 1.1), frequencyHz: num(100, 100000),
+      supplyV: num(1, 48),
+      resistanceOhm: num(0.05, 20),
+      periodsPerTau: num(minPeriodsPerTau, maxPeriodsPerTau),
+      diodeForwardV: num(0, 1),
+      duty: num(0, 1),
+      emfFraction: num(0, 1.1),
+      frequencyHz: num(100, 100000),
     })
     .map(({ periodsPerTau, emfFraction, ...c }) => ({
-      ...c, inductanceH: (periodsPerTau * c.resistanceOhm) / c.frequencyHz, backEmfV: emfFraction * c.supplyV,
+      ...c,
+      inductanceH: (periodsPerTau * c.resistanceOhm) / c.frequencyHz,
+      backEmfV: emfFraction * c.supplyV,
     }));
 
 describe('properties', () => {
   it('closed form and simulation agree (1e-5 of the current scale) for random drives, f·τe 0.05 to 30', () => {
-    fc.assert(fc.property(rippleInputs(0.05, 30), (input) => expectAgreement(periodicCurrent(input), simulatePeriodicCurrent(input), input)), {
-      numRuns: 60,
-    });
+    fc.assert(
+      fc.property(rippleInputs(0.05, 30), (input) => expectAgreement(periodicCurrent(input), simulatePeriodicCurrent(input), input)),
+      {
+        numRuns: 60,
+      },
+    );
   });
 
   it('outputs are finite and hang together (RMS partition, means, bounds, the volt-second balance), f·τe 1e-4 to 1e4', () => {
@@ -330,8 +415,12 @@ describe('properties', () => {
         }
         if (input.duty > 0 && input.supplyV > input.backEmfV) {
           // Mean of L·di/dt over a period is zero: R·Ī = D·(V − E) − (1 − D − z)·(VF + E) (hand derivation from the ODEs)
-          const balanceA = (input.duty * (input.supplyV - input.backEmfV) - (1 - input.duty - r.zeroFraction) * (input.diodeForwardV + input.backEmfV)) / input.resistanceOhm;
-          expect(Math.abs(r.meanA - balanceA)).toBeLessThanOrEqual(1e-8 * Math.max(r.peakA, (input.supplyV + input.diodeForwardV) / input.resistanceOhm));
+          const balanceA =
+            (input.duty * (input.supplyV - input.backEmfV) - (1 - input.duty - r.zeroFraction) * (input.diodeForwardV + input.backEmfV)) /
+            input.resistanceOhm;
+          expect(Math.abs(r.meanA - balanceA)).toBeLessThanOrEqual(
+            1e-8 * Math.max(r.peakA, (input.supplyV + input.diodeForwardV) / input.resistanceOhm),
+          );
         }
       }),
       { numRuns: 300 },
@@ -342,12 +431,14 @@ describe('properties', () => {
     fc.assert(
       fc.property(rippleInputs(0.01, 100), num(0, 1), num(0, 1), (input, f1, f2) => {
         const [lo, hi] = [Math.min(f1, f2), Math.max(f1, f2)].map((k) => k * input.supplyV);
-        expect(periodicCurrent({ ...input, backEmfV: hi }).meanA).toBeLessThanOrEqual(periodicCurrent({ ...input, backEmfV: lo }).meanA + 1e-12);
+        expect(periodicCurrent({ ...input, backEmfV: hi }).meanA).toBeLessThanOrEqual(
+          periodicCurrent({ ...input, backEmfV: lo }).meanA + 1e-12,
+        );
         const { backEmfV: _ignored, ...base } = input;
         const targetA = f1 * periodicCurrent({ ...input, backEmfV: 0 }).meanA;
         const solved = solveBackEmfForMeanCurrentV(base, targetA);
         expect(solved.backEmfV >= 0 && solved.backEmfV <= input.supplyV).toBe(true);
-        expect(Math.abs(solved.result.meanA - targetA)).toBeLessThanOrEqual(1e-9 * input.supplyV / input.resistanceOhm);
+        expect(Math.abs(solved.result.meanA - targetA)).toBeLessThanOrEqual((1e-9 * input.supplyV) / input.resistanceOhm);
       }),
       { numRuns: 100 },
     );

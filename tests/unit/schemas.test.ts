@@ -1,7 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import { calcMotor, calcPullResistor, calcSwitch } from '../../src/lib/calc.ts';
 import {
-  calcMotorRequestSchema, calcPullResistorRequestSchema, calcSwitchRequestSchema, parseCalcBody,
+  calcMotorRequestSchema,
+  calcPullResistorRequestSchema,
+  calcSwitchRequestSchema,
+  parseCalcBody,
 } from '../../src/lib/schemas/calc.ts';
 
 /** api-contract.md request examples. */
@@ -36,7 +39,17 @@ describe('valid bodies', () => {
     if (!parsed.ok) throw new Error('expected valid');
     const r = calcSwitch(parsed.data);
     // api-contract.md fields, plus the jam figures of its "Extensions"
-    expect(Object.keys(r).sort()).toEqual(['checks', 'conductionLossW', 'gateDrivePowerW', 'junctionC', 'rdsOnAtDriveOhms', 'stallCurrentRmsA', 'stallJunctionC', 'switchingLossW', 'verdict']);
+    expect(Object.keys(r).sort()).toEqual([
+      'checks',
+      'conductionLossW',
+      'gateDrivePowerW',
+      'junctionC',
+      'rdsOnAtDriveOhms',
+      'stallCurrentRmsA',
+      'stallJunctionC',
+      'switchingLossW',
+      'verdict',
+    ]);
     // api-contract.md "Extensions": no stall protection given → a 3 A steady jam, which this SOT-23-class part cannot hold
     expect(r.verdict).toBe('fail');
     expect(r.checks.filter((c) => !c.ok).map((c) => c.id)).toEqual(['stall-thermal']);
@@ -57,8 +70,18 @@ describe.each([
   ['pull', calcPullResistorRequestSchema, { ...PULL_BODY, series: 'E13' }, 'series'],
   ['pull', calcPullResistorRequestSchema, { ...PULL_BODY, pin: { ...PULL_BODY.pin, internalPullOhms: 0 } }, 'pin.internalPullOhms'],
   ['switch', calcSwitchRequestSchema, { ...SWITCH_BODY, operating: { ...SWITCH_BODY.operating, duty: 1.5 } }, 'operating.duty'],
-  ['switch', calcSwitchRequestSchema, { ...SWITCH_BODY, mosfet: { ...SWITCH_BODY.mosfet, rdsOn: [{ vgsV: 4.5, ohms: -1 }] } }, 'mosfet.rdsOn.0.ohms'],
-  ['switch', calcSwitchRequestSchema, { ...SWITCH_BODY, operating: { ...SWITCH_BODY.operating, ambientC: undefined } }, 'operating.ambientC'],
+  [
+    'switch',
+    calcSwitchRequestSchema,
+    { ...SWITCH_BODY, mosfet: { ...SWITCH_BODY.mosfet, rdsOn: [{ vgsV: 4.5, ohms: -1 }] } },
+    'mosfet.rdsOn.0.ohms',
+  ],
+  [
+    'switch',
+    calcSwitchRequestSchema,
+    { ...SWITCH_BODY, operating: { ...SWITCH_BODY.operating, ambientC: undefined } },
+    'operating.ambientC',
+  ],
 ] as const)('%s: invalid body', (_name, schema, body, path) => {
   it(`reports ${path}`, () => {
     const r = parseCalcBody(schema, body);

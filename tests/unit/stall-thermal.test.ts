@@ -9,8 +9,12 @@ import { evaluateSwitch, type SwitchEvaluationInput, type SwitchStallProtection 
 import { zthAtPulseCPerW } from '../../src/lib/thermal.ts';
 
 const ZTH_A = [
-  { pulseS: 1e-3, zthCPerW: 1.5 }, { pulseS: 1e-2, zthCPerW: 6 }, { pulseS: 0.1, zthCPerW: 25 },
-  { pulseS: 1, zthCPerW: 70 }, { pulseS: 10, zthCPerW: 150 }, { pulseS: 100, zthCPerW: 230 },
+  { pulseS: 1e-3, zthCPerW: 1.5 },
+  { pulseS: 1e-2, zthCPerW: 6 },
+  { pulseS: 0.1, zthCPerW: 25 },
+  { pulseS: 1, zthCPerW: 70 },
+  { pulseS: 10, zthCPerW: 150 },
+  { pulseS: 100, zthCPerW: 230 },
 ]; // invented single-pulse curve of §6.6 switch A
 
 /** Fixed-point Tj for a heat loop; null when it diverges (runaway). */
@@ -29,13 +33,27 @@ function jam(part: 'A' | 'B', protection: SwitchStallProtection, withZth = true)
   const a = part === 'A';
   return {
     mosfet: {
-      vdsMaxV: 40, vgsMaxV: 20, vgsThMaxV: 2.5, idPulsedA: 40, tjMaxC: 150, rthJaCPerW: a ? 250 : 60, qgTotalNc: 10,
-      vPlateauV: 3.5, rdsOn: [{ vgsV: 4.5, ohms: a ? 0.05 : 0.02 }], zthPoints: a && withZth ? ZTH_A : [],
+      vdsMaxV: 40,
+      vgsMaxV: 20,
+      vgsThMaxV: 2.5,
+      idPulsedA: 40,
+      tjMaxC: 150,
+      rthJaCPerW: a ? 250 : 60,
+      qgTotalNc: 10,
+      vPlateauV: 3.5,
+      rdsOn: [{ vgsV: 4.5, ohms: a ? 0.05 : 0.02 }],
+      zthPoints: a && withZth ? ZTH_A : [],
     },
     // §6.6 "12 V case": Is,max = 12.6 V / 2.211 Ω (cold winding) = 5.698 A, on/off, TA 40 °C
     operating: {
-      supplyMaxV: 12.6, runningCurrentA: 0.7, stallCurrentA: 12.6 / 2.211, gateDriveV: 10, gateDriveCurrentA: 1,
-      ambientC: 40, diodeForwardV: 0.5, stallProtection: protection,
+      supplyMaxV: 12.6,
+      runningCurrentA: 0.7,
+      stallCurrentA: 12.6 / 2.211,
+      gateDriveV: 10,
+      gateDriveCurrentA: 1,
+      ambientC: 40,
+      diodeForwardV: 0.5,
+      stallProtection: protection,
     },
   };
 }
@@ -46,7 +64,15 @@ describe.each([
   ['no protection, large part: about 92 °C', 'B', { kind: 'none' }, true, 60, 12.6 / 2.211, 'ok'],
   ['current limit 1.5 A: about 75 °C', 'A', { kind: 'current-limit', limitA: 1.5 }, true, 250, 1.5, 'ok'],
   ['cut-off after 0.1 s: Zth 25 K/W, about 95 °C', 'A', { kind: 'cut-off', afterS: 0.1 }, true, 25, 12.6 / 2.211, 'ok'],
-  ['cut-off after 0.5 s: Zth 51.3 K/W, about 194 °C', 'A', { kind: 'cut-off', afterS: 0.5 }, true, 25 * Math.pow(70 / 25, Math.log10(5)), 12.6 / 2.211, 'fail'],
+  [
+    'cut-off after 0.5 s: Zth 51.3 K/W, about 194 °C',
+    'A',
+    { kind: 'cut-off', afterS: 0.5 },
+    true,
+    25 * Math.pow(70 / 25, Math.log10(5)),
+    12.6 / 2.211,
+    'fail',
+  ],
   ['cut-off after 300 s: beyond the curve, RθJA, runaway', 'A', { kind: 'cut-off', afterS: 300 }, true, 250, 12.6 / 2.211, 'fail'],
   ['cut-off without a Zth curve: judged as a steady state', 'A', { kind: 'cut-off', afterS: 0.1 }, false, 250, 12.6 / 2.211, 'fail'],
 ] as const)('%s', (_name, part, protection, withZth, rthCPerW, currentA, expected) => {

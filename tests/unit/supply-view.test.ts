@@ -5,7 +5,12 @@
 import { describe, expect, it } from 'vitest';
 import { bulkCapacitanceView, checkVerdict, limitRelation, quantityText, supplyCheckTitle, torqueText } from '../../src/lib/supply-view.ts';
 import {
-  cellCount, defaultSharedSupply, packInternalResistanceOhm, perCellInternalResistanceOhm, presetCells, supplyFromPreset,
+  cellCount,
+  defaultSharedSupply,
+  packInternalResistanceOhm,
+  perCellInternalResistanceOhm,
+  presetCells,
+  supplyFromPreset,
 } from '../../src/lib/supply-input.ts';
 import { SUPPLY_PRESETS } from '../../src/lib/domain/design.ts';
 import { designInputSchema } from '../../src/lib/schemas/design.ts';
@@ -98,7 +103,15 @@ describe('supply inputs', () => {
 
   it('a preset copies R_int, continuous rating and limit: USB 2.0 port 0.5 A [std: USB 2.0 specification]', () => {
     const usb2 = SUPPLY_PRESETS.find((p) => p.id === 'usb2-port')!;
-    expect(supplyFromPreset(usb2)).toEqual({ minV: 4.75, nomV: 5, maxV: 5.25, preset: 'usb2-port', internalResistanceOhm: 0, continuousCurrentA: 0.5, currentLimitA: 0.5 });
+    expect(supplyFromPreset(usb2)).toEqual({
+      minV: 4.75,
+      nomV: 5,
+      maxV: 5.25,
+      preset: 'usb2-port',
+      internalResistanceOhm: 0,
+      continuousCurrentA: 0.5,
+      currentLimitA: 0.5,
+    });
     const nimh = SUPPLY_PRESETS.find((p) => p.id === '4xAA-nimh')!;
     // 4 × ~0.03 Ω per AA NiMH cell (from memory), no limit of its own.
     expect(supplyFromPreset(nimh)).toMatchObject({ internalResistanceOhm: 0.12, currentLimitA: null });
@@ -111,10 +124,24 @@ describe('supply inputs', () => {
 
   it('an old saved design without the source fields still parses, with no R_int, rating or limit', () => {
     const old = {
-      name: 'Saved before the supply step', motor: { source: 'catalogue', partId: 1 },
+      name: 'Saved before the supply step',
+      motor: { source: 'catalogue', partId: 1 },
       supply: { minV: 4, nomV: 4.8, maxV: 5.8 },
-      logic: { railV: 3.3, highV: 2.9, lowV: 0.4, pinSourceCurrentA: 0.004, pinSinkCurrentA: 0.004, resetPull: 'none', resetPullOhms: 0, resetPullTolerance: 0 },
-      drive: { mode: 'onoff' }, ambientMinC: 0, ambientMaxC: 40, load: { kind: 'stall-only' }, margins: {},
+      logic: {
+        railV: 3.3,
+        highV: 2.9,
+        lowV: 0.4,
+        pinSourceCurrentA: 0.004,
+        pinSinkCurrentA: 0.004,
+        resetPull: 'none',
+        resetPullOhms: 0,
+        resetPullTolerance: 0,
+      },
+      drive: { mode: 'onoff' },
+      ambientMinC: 0,
+      ambientMaxC: 40,
+      load: { kind: 'stall-only' },
+      margins: {},
     };
     const parsed = designInputSchema.safeParse(old);
     expect(parsed.success).toBe(true);
@@ -128,7 +155,13 @@ describe('supply calculator form → POST /api/calc/supply body', () => {
     const built = toSupplyRequest(DEFAULT_SUPPLY_FORM);
     expect(built.ok).toBe(true);
     if (!built.ok) return;
-    const b = built.body as { motor: Record<string, number>; supply: Record<string, number>; loadTorqueNm: number; logic: Record<string, unknown>; allowedDipV: number };
+    const b = built.body as {
+      motor: Record<string, number>;
+      supply: Record<string, number>;
+      loadTorqueNm: number;
+      logic: Record<string, unknown>;
+      allowedDipV: number;
+    };
     expect(b.motor).toMatchObject({ ratedVoltageV: 3, noLoadSpeedRpm: 12000, noLoadCurrentA: 0.2, stallCurrentA: 1.8 });
     expect(b.motor.rotorInertiaKgM2).toBeCloseTo(1.5e-7, 15);
     expect(b.supply).toEqual({ voltageV: 3, internalResistanceOhm: 0.3, continuousCurrentA: 1, currentLimitA: 0.5 });

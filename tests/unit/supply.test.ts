@@ -27,11 +27,20 @@ const OMEGA0 = (12000 * 2 * Math.PI) / 60;
 const KE = (V - I0 * R) / OMEGA0; // = Kt, 2.12207e-3
 const ALPHA = 0.00393; // IEC 60028
 
-const M1 = { ratedVoltageV: 3, noLoadSpeedRpm: 12000, noLoadCurrentA: 0.2, stallCurrentA: 1.8, stallTorqueNm: 0.0033953, rotorInertiaKgM2: 1.5e-7 };
+const M1 = {
+  ratedVoltageV: 3,
+  noLoadSpeedRpm: 12000,
+  noLoadCurrentA: 0.2,
+  stallCurrentA: 1.8,
+  stallTorqueNm: 0.0033953,
+  rotorInertiaKgM2: 1.5e-7,
+};
 const CONTRACT = {
   motor: M1,
   supply: { voltageV: 3.0, internalResistanceOhm: 0.3, continuousCurrentA: 1.0, currentLimitA: 0.5 },
-  seriesResistanceOhm: 0, windingC: 20, loadTorqueNm: 0.0003,
+  seriesResistanceOhm: 0,
+  windingC: 20,
+  loadTorqueNm: 0.0003,
   logic: { sharedWithMotor: true, minSupplyV: 2.7, regulatorDropoutV: 0 },
   allowedDipV: 0.2,
 };
@@ -141,7 +150,10 @@ describe('supply: shared controller rail', () => {
   });
 
   it('a regulator dropout adds to the need: 2.2 V + 0.3 V = 2.5 V holds at 2.542 V, 2.3 V + 0.3 V does not', () => {
-    expect(check(run({ ...base, logic: { minSupplyV: 2.2, regulatorDropoutV: 0.3 } }), 'logic-brownout')).toMatchObject({ ok: true, limit: 2.5 });
+    expect(check(run({ ...base, logic: { minSupplyV: 2.2, regulatorDropoutV: 0.3 } }), 'logic-brownout')).toMatchObject({
+      ok: true,
+      limit: 2.5,
+    });
     expect(check(run({ ...base, logic: { minSupplyV: 2.3, regulatorDropoutV: 0.3 } }), 'logic-brownout')!.ok).toBe(false);
   });
 
@@ -217,7 +229,7 @@ describe('supply of a design at its worst cases', () => {
     // start at the highest supply 5.25 V, winding at the coldest ambient 15 °C, 0.15 Ω cable
     const rCold = 3 * (1 + ALPHA * (15 - 20));
     expect(r.startCurrentA).toBeCloseTo(5.25 / (rCold + 0.15), 9);
-    expect(r.startCurrentA).toBeCloseTo(1.70, 2);
+    expect(r.startCurrentA).toBeCloseTo(1.7, 2);
     expect(r.startTorqueNm).toBeCloseTo(kt * (0.5 - 0.15), 10); // 2.06 mN·m < 3 mN·m
     expect(check(r as never, 'supply-start-current')).toMatchObject({ ok: false, severity: 'hard' });
     // brown-out at the lowest supply, coldest winding: 0.5 A · (R_cold + 0.15 Ω) against 3.0 + 0.3 V
@@ -241,11 +253,17 @@ describe('supply of a design at its worst cases', () => {
 
   it('brown-out worst case is the lowest supply: raising only the maximum leaves the sag unchanged', () => {
     const higher = { ...input1, supply: { ...input1.supply, maxV: 6 } };
-    expect(supplyReportForCase(designCaseOf(higher, motor)).sourceVoltageAtStartV).toBeCloseTo(supplyReportForCase(designCaseOf(input1, motor)).sourceVoltageAtStartV, 12);
+    expect(supplyReportForCase(designCaseOf(higher, motor)).sourceVoltageAtStartV).toBeCloseTo(
+      supplyReportForCase(designCaseOf(input1, motor)).sourceVoltageAtStartV,
+      12,
+    );
   });
 
   it('supply against the motor [practice]: above the rated maximum marginal, above 1.5× a fail', () => {
-    const at = (maxV: number, params: MotorParams = motor) => supplyReportForCase(designCaseOf({ ...input2, supply: { ...input2.supply, maxV } }, params)).checks.find((c) => c.id === 'supply-motor-voltage')!;
+    const at = (maxV: number, params: MotorParams = motor) =>
+      supplyReportForCase(designCaseOf({ ...input2, supply: { ...input2.supply, maxV } }, params)).checks.find(
+        (c) => c.id === 'supply-motor-voltage',
+      )!;
     expect(at(7.2).ok).toBe(true); // = voltageMaxV 7.2 V
     expect(at(8)).toMatchObject({ ok: false, severity: 'margin', limit: 7.2 });
     expect(at(7.2 * 1.5 + 0.1)).toMatchObject({ ok: false, severity: 'hard' });

@@ -14,13 +14,25 @@ type Patch = { mosfet?: Partial<SwitchEvaluationInput['mosfet']>; operating?: Pa
  */
 function withPatch(p: Patch): SwitchEvaluationInput {
   const base = contractExample();
-  return { ...base, mosfet: { ...base.mosfet, ...p.mosfet }, operating: { ...base.operating, stallProtection: { kind: 'current-limit', limitA: 1 }, ...p.operating } };
+  return {
+    ...base,
+    mosfet: { ...base.mosfet, ...p.mosfet },
+    operating: { ...base.operating, stallProtection: { kind: 'current-limit', limitA: 1 }, ...p.operating },
+  };
 }
 
 describe('contract example', () => {
   const r = evaluateSwitch(contractExample());
   it('carries the contract fields and check ids, and fails only the sustained-stall check', () => {
-    for (const id of ['drain-voltage', 'gate-voltage-rating', 'gate-drive', 'stall-current', 'running-current', 'junction-temperature', 'stall-thermal']) {
+    for (const id of [
+      'drain-voltage',
+      'gate-voltage-rating',
+      'gate-drive',
+      'stall-current',
+      'running-current',
+      'junction-temperature',
+      'stall-thermal',
+    ]) {
       expect(r.checks.map((c) => c.id)).toContain(id); // api-contract.md: required check ids (stall-thermal from "Extensions")
     }
     // api-contract.md "Extensions": absent stall protection = a jam judged as a steady state at stallCurrentA (3 A)
@@ -63,13 +75,45 @@ describe.each([
   ['gate drive above VGS(max)', { operating: { gateDriveV: 12 }, mosfet: { vgsMaxV: 8 } }, 'gate-voltage-rating', 'fail'], // docs/engineering.md §5
   ['stall current above IDM', { operating: { stallCurrentA: 25 } }, 'stall-current', 'fail'], // docs/engineering.md §5
   ['running current above ID(TA)', { operating: { runningCurrentA: 2.5, pwmHz: undefined, duty: undefined } }, 'running-current', 'fail'], // docs/engineering.md §5
-  ['junction between Tj,max − margin and Tj,max', { operating: { runningCurrentA: 1.6, pwmHz: undefined, duty: undefined, ambientC: 80 } }, 'junction-temperature', 'marginal'], // docs/engineering.md §5, 25 K practice
+  [
+    'junction between Tj,max − margin and Tj,max',
+    { operating: { runningCurrentA: 1.6, pwmHz: undefined, duty: undefined, ambientC: 80 } },
+    'junction-temperature',
+    'marginal',
+  ], // docs/engineering.md §5, 25 K practice
   ['slow edges from a weak pin under PWM', { operating: { gateDriveCurrentA: 0.0002 } }, 'switching-edges', 'fail'], // docs/engineering.md §5: flag slow edges
   ['P-channel on the low side', { mosfet: { channel: 'p' as const } }, 'channel', 'fail'], // low side needs N-channel
   // docs/engineering.md §5.4: below the plateau the channel cannot carry the current, in on/off drive too
-  ['on/off drive below the Miller plateau', { mosfet: { rdsOn: [{ vgsV: 2.5, ohms: 0.08 }, { vgsV: 4.5, ohms: 0.05 }] }, operating: { gateDriveV: 2.55, pwmHz: undefined, duty: undefined } }, 'miller-plateau', 'fail'],
+  [
+    'on/off drive below the Miller plateau',
+    {
+      mosfet: {
+        rdsOn: [
+          { vgsV: 2.5, ohms: 0.08 },
+          { vgsV: 4.5, ohms: 0.05 },
+        ],
+      },
+      operating: { gateDriveV: 2.55, pwmHz: undefined, duty: undefined },
+    },
+    'miller-plateau',
+    'fail',
+  ],
   // docs/engineering.md §5.5 [judgement]: 3 V is within 1 V of VGS(th) max 2.5 V; the 2.5 V line measured at 0.3 A, worst case 1 A (the limit) > 2 × 0.3 A
-  ['worst current far above the RDS(on) test current near threshold', { mosfet: { vPlateauV: 2.7, rdsOn: [{ vgsV: 2.5, ohms: 0.08, testCurrentA: 0.3 }, { vgsV: 4.5, ohms: 0.05 }] }, operating: { gateDriveV: 3, gateDriveCurrentA: 0.2 } }, 'rdson-test-current', 'marginal'],
+  [
+    'worst current far above the RDS(on) test current near threshold',
+    {
+      mosfet: {
+        vPlateauV: 2.7,
+        rdsOn: [
+          { vgsV: 2.5, ohms: 0.08, testCurrentA: 0.3 },
+          { vgsV: 4.5, ohms: 0.05 },
+        ],
+      },
+      operating: { gateDriveV: 3, gateDriveCurrentA: 0.2 },
+    },
+    'rdson-test-current',
+    'marginal',
+  ],
 ] as const)('%s', (_name, patch, id, verdict) => {
   it(`${id} fails and the verdict is ${verdict}`, () => {
     const r = evaluateSwitch(withPatch(patch as Patch));
@@ -93,7 +137,18 @@ describe('actionable notes', () => {
   });
 
   it('common practice: VGS(th) up to 4 V is not reliably switched by 3.3 V', () => {
-    const r = evaluateSwitch(withPatch({ mosfet: { vgsThMaxV: 4, rdsOn: [{ vgsV: 2.5, ohms: 0.1 }, { vgsV: 4.5, ohms: 0.05 }] }, operating: { gateDriveV: 3.3 } }));
+    const r = evaluateSwitch(
+      withPatch({
+        mosfet: {
+          vgsThMaxV: 4,
+          rdsOn: [
+            { vgsV: 2.5, ohms: 0.1 },
+            { vgsV: 4.5, ohms: 0.05 },
+          ],
+        },
+        operating: { gateDriveV: 3.3 },
+      }),
+    );
     const check = r.checks.find((c) => c.id === 'gate-drive');
     expect(check?.ok).toBe(false); // common practice: drive below VGS(th) max fails even with a low spec point on record
     expect(check?.note).toMatch(/VGS\(th\) max of 4 V/);

@@ -23,7 +23,14 @@ describe('switching loss, docs/engineering.md §5 example', () => {
 
 describe('gate current limits and charge', () => {
   it('caps the gate current at the driver rating', () => {
-    const t = switchingTimes({ switchingChargeNc: 3, driveV: 3.3, plateauV: 2.2, gateResistanceOhm: 0, sourceLimitA: 0.004, sinkLimitA: 0.008 });
+    const t = switchingTimes({
+      switchingChargeNc: 3,
+      driveV: 3.3,
+      plateauV: 2.2,
+      gateResistanceOhm: 0,
+      sourceLimitA: 0.004,
+      sinkLimitA: 0.008,
+    });
     expect(t.turnOnS).toBeCloseTo(3e-9 / 0.004, 15); // docs/engineering.md §5/§5: t ≈ Q_sw/I
     expect(t.turnOffS).toBeCloseTo(3e-9 / 0.008, 15); // docs/engineering.md §7
   });

@@ -1,6 +1,15 @@
 import { all, create } from 'mathjs';
 import { describe, expect, it } from 'vitest';
-import { convertTorque, formatOhms, formatSi, radPerSToRpm, rpmToRadPerS, torqueFromNm, torqueToNm, type TorqueUnit } from '../../src/lib/units.ts';
+import {
+  convertTorque,
+  formatOhms,
+  formatSi,
+  radPerSToRpm,
+  rpmToRadPerS,
+  torqueFromNm,
+  torqueToNm,
+  type TorqueUnit,
+} from '../../src/lib/units.ts';
 
 // Independent reference: mathjs, with gram-force and ounce-force built from its own standard gravity
 // (g_n = 9.80665 m/s², SI Brochure) and rpm from its 'cycle' unit; kgf is mathjs' built-in unit.

@@ -3,8 +3,18 @@ import { mosfetParamsSchema, diodeParamsSchema } from '../../src/lib/schemas/par
 
 // An invented SOT-23 logic-level MOSFET with RθJA 250 K/W (the demo catalogue's typical SOT-23 value).
 const base = {
-  channel: 'n', vdsMaxV: 30, vgsMaxV: 20, vgsThMinV: 1, vgsThMaxV: 2.5, idContinuousA: 3, idPulsedA: 12,
-  qgTotalNc: 5, qgTestVgsV: 4.5, rthJaCPerW: 250, tjMaxC: 150, rdsOn: [{ vgsV: 4.5, maxOhm: 0.05 }],
+  channel: 'n',
+  vdsMaxV: 30,
+  vgsMaxV: 20,
+  vgsThMinV: 1,
+  vgsThMaxV: 2.5,
+  idContinuousA: 3,
+  idPulsedA: 12,
+  qgTotalNc: 5,
+  qgTestVgsV: 4.5,
+  rthJaCPerW: 250,
+  tjMaxC: 150,
+  rdsOn: [{ vgsV: 4.5, maxOhm: 0.05 }],
 };
 const paths = (zthPoints: unknown): string[] => {
   const r = mosfetParamsSchema.safeParse({ ...base, zthPoints });
@@ -16,12 +26,55 @@ const paths = (zthPoints: unknown): string[] => {
 describe('single-pulse Zth points', () => {
   it.each([
     ['none (the field may be left out)', undefined, []],
-    ['a curve rising toward RθJA', [{ pulseS: 0.001, zthCPerW: 5 }, { pulseS: 1, zthCPerW: 135 }, { pulseS: 100, zthCPerW: 243 }], []],
-    ['the last point equal to RθJA', [{ pulseS: 0.01, zthCPerW: 19 }, { pulseS: 1000, zthCPerW: 250 }], []],
-    ['a Zth above RθJA (250 K/W)', [{ pulseS: 0.01, zthCPerW: 19 }, { pulseS: 100, zthCPerW: 260 }], ['zthPoints.1.zthCPerW']],
-    ['pulses out of order', [{ pulseS: 1, zthCPerW: 135 }, { pulseS: 0.1, zthCPerW: 62 }], ['zthPoints.1.pulseS']],
-    ['the same pulse twice', [{ pulseS: 1, zthCPerW: 135 }, { pulseS: 1, zthCPerW: 140 }], ['zthPoints.1.pulseS']],
-    ['a Zth falling as the pulse lengthens', [{ pulseS: 0.1, zthCPerW: 62 }, { pulseS: 1, zthCPerW: 40 }], ['zthPoints.1.zthCPerW']],
+    [
+      'a curve rising toward RθJA',
+      [
+        { pulseS: 0.001, zthCPerW: 5 },
+        { pulseS: 1, zthCPerW: 135 },
+        { pulseS: 100, zthCPerW: 243 },
+      ],
+      [],
+    ],
+    [
+      'the last point equal to RθJA',
+      [
+        { pulseS: 0.01, zthCPerW: 19 },
+        { pulseS: 1000, zthCPerW: 250 },
+      ],
+      [],
+    ],
+    [
+      'a Zth above RθJA (250 K/W)',
+      [
+        { pulseS: 0.01, zthCPerW: 19 },
+        { pulseS: 100, zthCPerW: 260 },
+      ],
+      ['zthPoints.1.zthCPerW'],
+    ],
+    [
+      'pulses out of order',
+      [
+        { pulseS: 1, zthCPerW: 135 },
+        { pulseS: 0.1, zthCPerW: 62 },
+      ],
+      ['zthPoints.1.pulseS'],
+    ],
+    [
+      'the same pulse twice',
+      [
+        { pulseS: 1, zthCPerW: 135 },
+        { pulseS: 1, zthCPerW: 140 },
+      ],
+      ['zthPoints.1.pulseS'],
+    ],
+    [
+      'a Zth falling as the pulse lengthens',
+      [
+        { pulseS: 0.1, zthCPerW: 62 },
+        { pulseS: 1, zthCPerW: 40 },
+      ],
+      ['zthPoints.1.zthCPerW'],
+    ],
     ['a zero impedance', [{ pulseS: 0.1, zthCPerW: 0 }], ['zthPoints.0.zthCPerW']],
     ['a negative pulse', [{ pulseS: -0.1, zthCPerW: 10 }], ['zthPoints.0.pulseS']],
   ] as const)('%s', (_name, points, expected) => {

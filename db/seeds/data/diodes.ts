@@ -21,7 +21,18 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'schottky', vrrmV: 30, ifAvA: 0.5, ifsmA: 5, vfV: 0.47, vfAtIfA: 0.5, trrNs: null, ifrmA: null, rthJaCPerW: 380, tjMaxC: 125 },
+    params: {
+      kind: 'schottky',
+      vrrmV: 30,
+      ifAvA: 0.5,
+      ifsmA: 5,
+      vfV: 0.47,
+      vfAtIfA: 0.5,
+      trrNs: null,
+      ifrmA: null,
+      rthJaCPerW: 380,
+      tjMaxC: 125,
+    },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -63,7 +74,18 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'schottky', vrrmV: 20, ifAvA: 1, ifsmA: 25, vfV: 0.4, vfAtIfA: 1, trrNs: null, ifrmA: null, rthJaCPerW: 180, tjMaxC: 125 },
+    params: {
+      kind: 'schottky',
+      vrrmV: 20,
+      ifAvA: 1,
+      ifsmA: 25,
+      vfV: 0.4,
+      vfAtIfA: 1,
+      trrNs: null,
+      ifrmA: null,
+      rthJaCPerW: 180,
+      tjMaxC: 125,
+    },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -105,7 +127,18 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'schottky', vrrmV: 40, ifAvA: 1, ifsmA: 25, vfV: 0.52, vfAtIfA: 1, trrNs: null, ifrmA: 3, rthJaCPerW: 170, tjMaxC: 150 },
+    params: {
+      kind: 'schottky',
+      vrrmV: 40,
+      ifAvA: 1,
+      ifsmA: 25,
+      vfV: 0.52,
+      vfAtIfA: 1,
+      trrNs: null,
+      ifrmA: 3,
+      rthJaCPerW: 170,
+      tjMaxC: 150,
+    },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -146,7 +179,18 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'schottky', vrrmV: 40, ifAvA: 2, ifsmA: 50, vfV: 0.5, vfAtIfA: 2, trrNs: null, ifrmA: null, rthJaCPerW: 85, tjMaxC: 150 },
+    params: {
+      kind: 'schottky',
+      vrrmV: 40,
+      ifAvA: 2,
+      ifsmA: 50,
+      vfV: 0.5,
+      vfAtIfA: 2,
+      trrNs: null,
+      ifrmA: null,
+      rthJaCPerW: 85,
+      tjMaxC: 150,
+    },
     sources: [
       {
         distributor: 'Kelderhaus Bauteile',
@@ -215,7 +259,18 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'schottky', vrrmV: 60, ifAvA: 2, ifsmA: 50, vfV: 0.68, vfAtIfA: 2, trrNs: null, ifrmA: null, rthJaCPerW: 90, tjMaxC: 150 },
+    params: {
+      kind: 'schottky',
+      vrrmV: 60,
+      ifAvA: 2,
+      ifsmA: 50,
+      vfV: 0.68,
+      vfAtIfA: 2,
+      trrNs: null,
+      ifrmA: null,
+      rthJaCPerW: 90,
+      tjMaxC: 150,
+    },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -256,7 +311,18 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'schottky', vrrmV: 100, ifAvA: 1, ifsmA: 30, vfV: 0.8, vfAtIfA: 1, trrNs: null, ifrmA: null, rthJaCPerW: 95, tjMaxC: 150 },
+    params: {
+      kind: 'schottky',
+      vrrmV: 100,
+      ifAvA: 1,
+      ifsmA: 30,
+      vfV: 0.8,
+      vfAtIfA: 1,
+      trrNs: null,
+      ifrmA: null,
+      rthJaCPerW: 95,
+      tjMaxC: 150,
+    },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -312,7 +378,18 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'schottky', vrrmV: 100, ifAvA: 3, ifsmA: 80, vfV: 0.82, vfAtIfA: 3, trrNs: null, ifrmA: 6, rthJaCPerW: 55, tjMaxC: 150 },
+    params: {
+      kind: 'schottky',
+      vrrmV: 100,
+      ifAvA: 3,
+      ifsmA: 80,
+      vfV: 0.82,
+      vfAtIfA: 3,
+      trrNs: null,
+      ifrmA: 6,
+      rthJaCPerW: 55,
+      tjMaxC: 150,
+    },
     sources: [
       {
         distributor: 'Kelderhaus Bauteile',
@@ -340,7 +417,18 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'pending',
-    params: { kind: 'schottky', vrrmV: 45, ifAvA: 5, ifsmA: 150, vfV: 0.55, vfAtIfA: 5, trrNs: null, ifrmA: 10, rthJaCPerW: 40, tjMaxC: 150 },
+    params: {
+      kind: 'schottky',
+      vrrmV: 45,
+      ifAvA: 5,
+      ifsmA: 150,
+      vfV: 0.55,
+      vfAtIfA: 5,
+      trrNs: null,
+      ifrmA: 10,
+      rthJaCPerW: 40,
+      tjMaxC: 150,
+    },
     sources: [
       {
         distributor: 'Ashdown Component Supply',
@@ -367,7 +455,18 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'ultrafast', vrrmV: 200, ifAvA: 1, ifsmA: 30, vfV: 0.95, vfAtIfA: 1, trrNs: 35, ifrmA: null, rthJaCPerW: 80, tjMaxC: 175 },
+    params: {
+      kind: 'ultrafast',
+      vrrmV: 200,
+      ifAvA: 1,
+      ifsmA: 30,
+      vfV: 0.95,
+      vfAtIfA: 1,
+      trrNs: 35,
+      ifrmA: null,
+      rthJaCPerW: 80,
+      tjMaxC: 175,
+    },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -480,7 +579,18 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'ultrafast', vrrmV: 600, ifAvA: 1, ifsmA: 30, vfV: 1.7, vfAtIfA: 1, trrNs: 75, ifrmA: null, rthJaCPerW: 75, tjMaxC: 150 },
+    params: {
+      kind: 'ultrafast',
+      vrrmV: 600,
+      ifAvA: 1,
+      ifsmA: 30,
+      vfV: 1.7,
+      vfAtIfA: 1,
+      trrNs: 75,
+      ifrmA: null,
+      rthJaCPerW: 75,
+      tjMaxC: 150,
+    },
     sources: [
       {
         distributor: 'Ashdown Component Supply',
@@ -521,7 +631,18 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'fast', vrrmV: 200, ifAvA: 1.5, ifsmA: 40, vfV: 1.2, vfAtIfA: 1.5, trrNs: 150, ifrmA: null, rthJaCPerW: 85, tjMaxC: 150 },
+    params: {
+      kind: 'fast',
+      vrrmV: 200,
+      ifAvA: 1.5,
+      ifsmA: 40,
+      vfV: 1.2,
+      vfAtIfA: 1.5,
+      trrNs: 150,
+      ifrmA: null,
+      rthJaCPerW: 85,
+      tjMaxC: 150,
+    },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -716,7 +837,18 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'general', vrrmV: 1000, ifAvA: 1, ifsmA: 30, vfV: 1.1, vfAtIfA: 1, trrNs: 30000, ifrmA: null, rthJaCPerW: 60, tjMaxC: 175 },
+    params: {
+      kind: 'general',
+      vrrmV: 1000,
+      ifAvA: 1,
+      ifsmA: 30,
+      vfV: 1.1,
+      vfAtIfA: 1,
+      trrNs: 30000,
+      ifrmA: null,
+      rthJaCPerW: 60,
+      tjMaxC: 175,
+    },
     sources: [
       {
         distributor: 'Ashdown Component Supply',
@@ -743,7 +875,18 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'general', vrrmV: 600, ifAvA: 1, ifsmA: 30, vfV: 1.1, vfAtIfA: 1, trrNs: 2500, ifrmA: null, rthJaCPerW: 85, tjMaxC: 150 },
+    params: {
+      kind: 'general',
+      vrrmV: 600,
+      ifAvA: 1,
+      ifsmA: 30,
+      vfV: 1.1,
+      vfAtIfA: 1,
+      trrNs: 2500,
+      ifrmA: null,
+      rthJaCPerW: 85,
+      tjMaxC: 150,
+    },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',
@@ -784,7 +927,18 @@ export const demoDiodes: DemoPart<'diode'>[] = [
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
     reviewStatus: 'approved',
-    params: { kind: 'general', vrrmV: 200, ifAvA: 3, ifsmA: 150, vfV: 1.2, vfAtIfA: 3, trrNs: 3000, ifrmA: 20, rthJaCPerW: 35, tjMaxC: 175 },
+    params: {
+      kind: 'general',
+      vrrmV: 200,
+      ifAvA: 3,
+      ifsmA: 150,
+      vfV: 1.2,
+      vfAtIfA: 3,
+      trrNs: 3000,
+      ifrmA: 20,
+      rthJaCPerW: 35,
+      tjMaxC: 175,
+    },
     sources: [
       {
         distributor: 'Fenwick Row Electronics',

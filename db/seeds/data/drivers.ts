@@ -20,7 +20,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Pellinor Analog',
     mpn: 'PLR1NT15-S5',
-    description: 'Single low-side gate driver with TTL-level input and an internal input pull-down, so the output stays low while the input is open.',
+    description:
+      'Single low-side gate driver with TTL-level input and an internal input pull-down, so the output stays low while the input is open.',
     package: 'SOT-23-5',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -78,7 +79,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Pellinor Analog',
     mpn: 'PLR1IT15-S5',
-    description: 'Inverting version of PLR1NT15-S5; its input has the same internal pull-down, so with the input open the output sits high, which turns a low-side switch on at reset.',
+    description:
+      'Inverting version of PLR1NT15-S5; its input has the same internal pull-down, so with the input open the output sits high, which turns a low-side switch on at reset.',
     package: 'SOT-23-5',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -152,7 +154,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Pellinor Analog',
     mpn: 'PLR2NT30-SO8',
-    description: 'Dual non-inverting 3 A low-side gate driver with TTL-level inputs and internal input pull-downs that hold both outputs low while the inputs are open, for two pump channels or paralleled outputs.',
+    description:
+      'Dual non-inverting 3 A low-side gate driver with TTL-level inputs and internal input pull-downs that hold both outputs low while the inputs are open, for two pump channels or paralleled outputs.',
     package: 'SOIC-8',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -271,7 +274,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Pellinor Analog',
     mpn: 'PLR1NT40-DF6',
-    description: 'Fast 4 A single gate driver for 10 V to 20 V supplies, sized for large-gate TO-220 and DPAK switches; an internal input pull-down keeps the output low while the input is open.',
+    description:
+      'Fast 4 A single gate driver for 10 V to 20 V supplies, sized for large-gate TO-220 and DPAK switches; an internal input pull-down keeps the output low while the input is open.',
     package: 'DFN2020-6',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -316,7 +320,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Pellinor Analog',
     mpn: 'PLR1IT40-DF6',
-    description: 'Inverting counterpart of PLR1NT40-DF6 for 10 V to 20 V supplies; the same internal input pull-down makes the output default high with the input open.',
+    description:
+      'Inverting counterpart of PLR1NT40-DF6 for 10 V to 20 V supplies; the same internal input pull-down makes the output default high with the input open.',
     package: 'DFN2020-6',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -374,7 +379,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Pellinor Analog',
     mpn: 'PLR1NC10-S5',
-    description: 'Single gate driver whose input thresholds scale with its own supply, so 3.3 V logic cannot drive it when it runs from 5 V or more; the input has no internal pull and floats when left open.',
+    description:
+      'Single gate driver whose input thresholds scale with its own supply, so 3.3 V logic cannot drive it when it runs from 5 V or more; the input has no internal pull and floats when left open.',
     package: 'SOT-23-5',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -520,7 +526,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Pellinor Analog',
     mpn: 'PLR1NL20-S6',
-    description: 'Single gate driver with a low-voltage input stage that accepts 1.8 V logic and drives the gate to its full supply; an internal input pull-down holds the output low at reset.',
+    description:
+      'Single gate driver with a low-voltage input stage that accepts 1.8 V logic and drives the gate to its full supply; an internal input pull-down holds the output low at reset.',
     package: 'SOT-23-6',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -579,7 +586,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Pellinor Analog',
     mpn: 'PLR1NT06-S5',
-    description: 'Compact 0.6 A gate driver for 3 V to 5 V rails, lifting a 3.3 V pin to a full 5 V gate swing; an internal input pull-down keeps the output low while the input is open.',
+    description:
+      'Compact 0.6 A gate driver for 3 V to 5 V rails, lifting a 3.3 V pin to a full 5 V gate swing; an internal input pull-down keeps the output low while the input is open.',
     package: 'SOT-23-5',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -623,7 +631,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Pellinor Analog',
     mpn: 'PLR1NC05-S5',
-    description: 'Small buffer-style gate driver for 3 V to 5 V rails with supply-referenced thresholds and an internal input pull-down; fine from 3.3 V logic only on a 3.3 V supply.',
+    description:
+      'Small buffer-style gate driver for 3 V to 5 V rails with supply-referenced thresholds and an internal input pull-down; fine from 3.3 V logic only on a 3.3 V supply.',
     package: 'SC-70-5',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -667,7 +676,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Pellinor Analog',
     mpn: 'PLR1NL40-DF6',
-    description: '4 A gate driver for 10 V to 20 V supplies whose input accepts 1.8 V logic, letting low-voltage controllers drive standard-level switches; an internal input pull-down holds the output low at reset.',
+    description:
+      '4 A gate driver for 10 V to 20 V supplies whose input accepts 1.8 V logic, letting low-voltage controllers drive standard-level switches; an internal input pull-down holds the output low at reset.',
     package: 'DFN2020-6',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -710,7 +720,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Marrowfield Microelectronics',
     mpn: 'MQL1A-S6',
-    description: 'One-bit dual-supply translator: input thresholds follow the logic-side rail (1.65 V to 5.5 V), output swings to the second rail; the input has no internal pull and must not be left open.',
+    description:
+      'One-bit dual-supply translator: input thresholds follow the logic-side rail (1.65 V to 5.5 V), output swings to the second rail; the input has no internal pull and must not be left open.',
     package: 'SOT-23-6',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -783,7 +794,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Marrowfield Microelectronics',
     mpn: 'MQL2A-S8',
-    description: 'Two-bit dual-supply translator for lifting low-voltage logic to a 5 V gate-drive rail; no internal input pulls, so an open input floats.',
+    description:
+      'Two-bit dual-supply translator for lifting low-voltage logic to a 5 V gate-drive rail; no internal input pulls, so an open input floats.',
     package: 'SOT-23-8',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -857,7 +869,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Marrowfield Microelectronics',
     mpn: 'MQL1H-S6',
-    description: 'High-voltage translator that takes logic referenced to a 1.2 V to 5.5 V rail and drives an output rail of 4.5 V to 18 V; a weak internal input pull-down holds the output low at reset, and modest drive current suits small gates.',
+    description:
+      'High-voltage translator that takes logic referenced to a 1.2 V to 5.5 V rail and drives an output rail of 4.5 V to 18 V; a weak internal input pull-down holds the output low at reset, and modest drive current suits small gates.',
     package: 'SOT-23-6',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -930,7 +943,8 @@ export const demoDrivers: DemoPart<'driver'>[] = [
     category: 'driver',
     manufacturer: 'Marrowfield Microelectronics',
     mpn: 'MQL1V-S5',
-    description: 'Simple inverting level shifter with an internal input pull-down and a weak pull-up output stage; slow, and its output is high whenever the input is low or open.',
+    description:
+      'Simple inverting level shifter with an internal input pull-down and a weak pull-up output stage; slow, and its output is high whenever the input is low or open.',
     package: 'SOT-23-5',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,

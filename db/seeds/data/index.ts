@@ -68,7 +68,8 @@ export const demoManufacturers: DemoManufacturer[] = [
     code: 'HVM',
     website: 'https://haverleigh-motion.example',
     categories: ['motor'],
-    mpnPattern: 'HVM- + frame size (3 digits) + P (pump) / F (fan) + "-" + rated voltage ×10 (3 digits) + winding letter, e.g. HVM-260P-060A',
+    mpnPattern:
+      'HVM- + frame size (3 digits) + P (pump) / F (fan) + "-" + rated voltage ×10 (3 digits) + winding letter, e.g. HVM-260P-060A',
     mpnRegex: /^HVM-\d{3}[PF]-\d{3}[A-Z]$/,
   },
   {

@@ -26,7 +26,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Marrowfield Microelectronics',
     mpn: 'MQN12T01-S32',
-    description: 'Low-threshold N-channel MOSFET, 12 V, SOT-323, on-resistance specified from 1.8 V gate drive, for switching small loads straight from 1.8 V logic.',
+    description:
+      'Low-threshold N-channel MOSFET, 12 V, SOT-323, on-resistance specified from 1.8 V gate drive, for switching small loads straight from 1.8 V logic.',
     package: 'SOT-323',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -83,7 +84,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Marrowfield Microelectronics',
     mpn: 'MQN20T02-S32',
-    description: 'Low-threshold N-channel MOSFET, 20 V, SOT-323, on-resistance specified from 1.8 V gate drive, with a modest pulsed rating that only just covers a small motor at stall.',
+    description:
+      'Low-threshold N-channel MOSFET, 20 V, SOT-323, on-resistance specified from 1.8 V gate drive, with a modest pulsed rating that only just covers a small motor at stall.',
     package: 'SOT-323',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -163,7 +165,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Marrowfield Microelectronics',
     mpn: 'MQN20T03-C6',
-    description: 'Low-threshold N-channel MOSFET, 20 V, SC-70-6, on-resistance specified from 1.8 V gate drive, using four drain pins of the six-lead package for better heat spreading.',
+    description:
+      'Low-threshold N-channel MOSFET, 20 V, SC-70-6, on-resistance specified from 1.8 V gate drive, using four drain pins of the six-lead package for better heat spreading.',
     package: 'SC-70-6',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -236,7 +239,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Marrowfield Microelectronics',
     mpn: 'MQN12T04-DF6',
-    description: 'Low-threshold N-channel MOSFET, 12 V, DFN2020-6, on-resistance specified from 1.8 V gate drive, with an exposed pad, suited to battery-powered pumps running from a single cell.',
+    description:
+      'Low-threshold N-channel MOSFET, 12 V, DFN2020-6, on-resistance specified from 1.8 V gate drive, with an exposed pad, suited to battery-powered pumps running from a single cell.',
     package: 'DFN2020-6',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -322,7 +326,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Marrowfield Microelectronics',
     mpn: 'MQN20T05-DF6',
-    description: 'Low-threshold N-channel MOSFET, 20 V, DFN2020-6, on-resistance specified from 1.8 V gate drive, with an exposed pad and enough voltage headroom for 9 V to 12 V motors.',
+    description:
+      'Low-threshold N-channel MOSFET, 20 V, DFN2020-6, on-resistance specified from 1.8 V gate drive, with an exposed pad and enough voltage headroom for 9 V to 12 V motors.',
     package: 'DFN2020-6',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -373,7 +378,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Marrowfield Microelectronics',
     mpn: 'MQN20T06-S3',
-    description: 'Low-threshold N-channel MOSFET, 20 V, SOT-23, on-resistance specified from 1.8 V gate drive, and the usual first choice for small motor switches driven directly from a controller pin.',
+    description:
+      'Low-threshold N-channel MOSFET, 20 V, SOT-23, on-resistance specified from 1.8 V gate drive, and the usual first choice for small motor switches driven directly from a controller pin.',
     package: 'SOT-23',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -438,7 +444,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Marrowfield Microelectronics',
     mpn: 'MQN12T07-S3',
-    description: 'Low-threshold N-channel MOSFET, 12 V, SOT-23, on-resistance specified from 1.8 V gate drive, with very low on-resistance but little voltage margin above 7.2 V supplies.',
+    description:
+      'Low-threshold N-channel MOSFET, 12 V, SOT-23, on-resistance specified from 1.8 V gate drive, with very low on-resistance but little voltage margin above 7.2 V supplies.',
     package: 'SOT-23',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -517,7 +524,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Marrowfield Microelectronics',
     mpn: 'MQN30T08-S3',
-    description: 'Low-threshold N-channel MOSFET, 30 V, SOT-23, on-resistance specified from 1.8 V gate drive, offering 1.8 V drive together with a 30 V drain rating.',
+    description:
+      'Low-threshold N-channel MOSFET, 30 V, SOT-23, on-resistance specified from 1.8 V gate drive, offering 1.8 V drive together with a 30 V drain rating.',
     package: 'SOT-23',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -582,7 +590,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Marrowfield Microelectronics',
     mpn: 'MQN20T09-S32',
-    description: 'Low-threshold N-channel MOSFET, 20 V, SOT-323, on-resistance specified from 1.8 V gate drive, intended for signal switching; discontinued, with MQN20T02-S32 as the suggested successor.',
+    description:
+      'Low-threshold N-channel MOSFET, 20 V, SOT-323, on-resistance specified from 1.8 V gate drive, intended for signal switching; discontinued, with MQN20T02-S32 as the suggested successor.',
     package: 'SOT-323',
     lifecycle: 'obsolete',
     lifecycleEffectiveDate: '2024-06-30',
@@ -633,7 +642,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Marrowfield Microelectronics',
     mpn: 'MQN12T10-S3',
-    description: 'Low-threshold N-channel MOSFET, 12 V, SOT-23, on-resistance specified from 2.5 V gate drive, whose on-resistance is characterised only from 2.5 V gate drive upward.',
+    description:
+      'Low-threshold N-channel MOSFET, 12 V, SOT-23, on-resistance specified from 2.5 V gate drive, whose on-resistance is characterised only from 2.5 V gate drive upward.',
     package: 'SOT-23',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -712,7 +722,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Marrowfield Microelectronics',
     mpn: 'MQP12T11-S3',
-    description: 'Low-threshold P-channel MOSFET, 12 V, SOT-23, on-resistance specified from 1.8 V gate drive, for battery reverse-polarity protection and load switching on low rails.',
+    description:
+      'Low-threshold P-channel MOSFET, 12 V, SOT-23, on-resistance specified from 1.8 V gate drive, for battery reverse-polarity protection and load switching on low rails.',
     package: 'SOT-23',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -791,7 +802,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Marrowfield Microelectronics',
     mpn: 'MQP20T12-S32',
-    description: 'Low-threshold P-channel MOSFET, 20 V, SOT-323, on-resistance specified from 1.8 V gate drive, for switching sensor and indicator supplies.',
+    description:
+      'Low-threshold P-channel MOSFET, 20 V, SOT-323, on-resistance specified from 1.8 V gate drive, for switching sensor and indicator supplies.',
     package: 'SOT-323',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -869,7 +881,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Marrowfield Microelectronics',
     mpn: 'MQP20T13-DF6',
-    description: 'Low-threshold P-channel MOSFET, 20 V, DFN2020-6, on-resistance specified from 1.8 V gate drive, with an exposed pad, for high-side switching of a pump supply rail.',
+    description:
+      'Low-threshold P-channel MOSFET, 20 V, DFN2020-6, on-resistance specified from 1.8 V gate drive, with an exposed pad, for high-side switching of a pump supply rail.',
     package: 'DFN2020-6',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -935,7 +948,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Calderwick Semiconductor',
     mpn: 'CWN30L01-S3',
-    description: 'Logic-level N-channel MOSFET, 30 V, SOT-23, on-resistance specified from 4.5 V gate drive, as a general-purpose low-side switch behind a 5 V or 12 V gate driver.',
+    description:
+      'Logic-level N-channel MOSFET, 30 V, SOT-23, on-resistance specified from 4.5 V gate drive, as a general-purpose low-side switch behind a 5 V or 12 V gate driver.',
     package: 'SOT-23',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -1021,7 +1035,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Calderwick Semiconductor',
     mpn: 'CWN30L02-S3',
-    description: 'Logic-level N-channel MOSFET, 30 V, SOT-23, on-resistance specified from 2.5 V gate drive, with an extra on-resistance rating at 2.5 V gate drive.',
+    description:
+      'Logic-level N-channel MOSFET, 30 V, SOT-23, on-resistance specified from 2.5 V gate drive, with an extra on-resistance rating at 2.5 V gate drive.',
     package: 'SOT-23',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -1101,7 +1116,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Calderwick Semiconductor',
     mpn: 'CWN20L03-S3',
-    description: 'Logic-level N-channel MOSFET, 20 V, SOT-23, on-resistance specified from 3.3 V gate drive, rated at 3.3 V gate drive, so it works from a 3.3 V pin only while the pin reaches its full high level.',
+    description:
+      'Logic-level N-channel MOSFET, 20 V, SOT-23, on-resistance specified from 3.3 V gate drive, rated at 3.3 V gate drive, so it works from a 3.3 V pin only while the pin reaches its full high level.',
     package: 'SOT-23',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -1152,7 +1168,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Calderwick Semiconductor',
     mpn: 'CWN60L04-S3',
-    description: 'Logic-level N-channel MOSFET, 60 V, SOT-23, on-resistance specified from 4.5 V gate drive, for 24 V fan and relay loads of a few hundred milliamps.',
+    description:
+      'Logic-level N-channel MOSFET, 60 V, SOT-23, on-resistance specified from 4.5 V gate drive, for 24 V fan and relay loads of a few hundred milliamps.',
     package: 'SOT-23',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -1215,7 +1232,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Calderwick Semiconductor',
     mpn: 'CWN100L05-S3',
-    description: 'Logic-level N-channel MOSFET, 100 V, SOT-23, on-resistance specified from 4.5 V gate drive, for light loads on higher-voltage rails.',
+    description:
+      'Logic-level N-channel MOSFET, 100 V, SOT-23, on-resistance specified from 4.5 V gate drive, for light loads on higher-voltage rails.',
     package: 'SOT-23',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -1265,7 +1283,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Calderwick Semiconductor',
     mpn: 'CWN40L06-S89',
-    description: 'Logic-level N-channel MOSFET, 40 V, SOT-89, on-resistance specified from 4.5 V gate drive, whose tab spreads heat better than the three-lead small-outline parts.',
+    description:
+      'Logic-level N-channel MOSFET, 40 V, SOT-89, on-resistance specified from 4.5 V gate drive, whose tab spreads heat better than the three-lead small-outline parts.',
     package: 'SOT-89',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -1335,7 +1354,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Calderwick Semiconductor',
     mpn: 'CWN30L07-SO8',
-    description: 'Logic-level N-channel MOSFET, 30 V, SOIC-8, on-resistance specified from 4.5 V gate drive, for the larger 12 V fan and pump motors.',
+    description:
+      'Logic-level N-channel MOSFET, 30 V, SOIC-8, on-resistance specified from 4.5 V gate drive, for the larger 12 V fan and pump motors.',
     package: 'SOIC-8',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -1392,7 +1412,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Calderwick Semiconductor',
     mpn: 'CWN20L08-S32',
-    description: 'Logic-level N-channel MOSFET, 20 V, SOT-323, on-resistance specified from 4.5 V gate drive, for small signal and indicator loads.',
+    description:
+      'Logic-level N-channel MOSFET, 20 V, SOT-323, on-resistance specified from 4.5 V gate drive, for small signal and indicator loads.',
     package: 'SOT-323',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -1442,7 +1463,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Calderwick Semiconductor',
     mpn: 'CWN30L09-C6',
-    description: 'Logic-level N-channel MOSFET, 30 V, SC-70-6, on-resistance specified from 4.5 V gate drive, in a six-lead package with four drain pins.',
+    description:
+      'Logic-level N-channel MOSFET, 30 V, SC-70-6, on-resistance specified from 4.5 V gate drive, in a six-lead package with four drain pins.',
     package: 'SC-70-6',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -1520,7 +1542,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Calderwick Semiconductor',
     mpn: 'CWN30L10-S3',
-    description: 'Logic-level N-channel MOSFET, 30 V, SOT-23, on-resistance specified from 4.5 V gate drive, from an older process generation, not recommended for new designs.',
+    description:
+      'Logic-level N-channel MOSFET, 30 V, SOT-23, on-resistance specified from 4.5 V gate drive, from an older process generation, not recommended for new designs.',
     package: 'SOT-23',
     lifecycle: 'nrnd',
     lifecycleEffectiveDate: '2025-03-01',
@@ -1585,7 +1608,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Thornbury Power Devices',
     mpn: 'TBV30N012-Q',
-    description: 'Logic-level N-channel MOSFET, 30 V, DFN3333-8, on-resistance specified from 4.5 V gate drive, in a compact power package for stall currents of several amps.',
+    description:
+      'Logic-level N-channel MOSFET, 30 V, DFN3333-8, on-resistance specified from 4.5 V gate drive, in a compact power package for stall currents of several amps.',
     package: 'DFN3333-8',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -1670,7 +1694,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Thornbury Power Devices',
     mpn: 'TBV20N010-Q',
-    description: 'Logic-level N-channel MOSFET, 20 V, DFN3333-8, on-resistance specified from 2.5 V gate drive, with an on-resistance rating down to 2.5 V gate drive.',
+    description:
+      'Logic-level N-channel MOSFET, 20 V, DFN3333-8, on-resistance specified from 2.5 V gate drive, with an on-resistance rating down to 2.5 V gate drive.',
     package: 'DFN3333-8',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -1721,7 +1746,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Thornbury Power Devices',
     mpn: 'TBV60N028-K',
-    description: 'Logic-level N-channel MOSFET, 60 V, DPAK, on-resistance specified from 4.5 V gate drive, for 24 V motors with high start-up current.',
+    description:
+      'Logic-level N-channel MOSFET, 60 V, DPAK, on-resistance specified from 4.5 V gate drive, for 24 V motors with high start-up current.',
     package: 'DPAK (TO-252)',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -1770,7 +1796,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Thornbury Power Devices',
     mpn: 'TBV40N015-K',
-    description: 'Logic-level N-channel MOSFET, 40 V, DPAK, on-resistance specified from 4.5 V gate drive, for 12 V to 24 V motors switched by a gate driver.',
+    description:
+      'Logic-level N-channel MOSFET, 40 V, DPAK, on-resistance specified from 4.5 V gate drive, for 12 V to 24 V motors switched by a gate driver.',
     package: 'DPAK (TO-252)',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -1840,7 +1867,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Thornbury Power Devices',
     mpn: 'TBV100N045-T',
-    description: 'Logic-level N-channel MOSFET, 100 V, TO-220, on-resistance specified from 4.5 V gate drive, for bench prototypes where a through-hole part on a heatsink is convenient.',
+    description:
+      'Logic-level N-channel MOSFET, 100 V, TO-220, on-resistance specified from 4.5 V gate drive, for bench prototypes where a through-hole part on a heatsink is convenient.',
     package: 'TO-220',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -1904,7 +1932,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Calderwick Semiconductor',
     mpn: 'CWP30L11-S3',
-    description: 'Logic-level P-channel MOSFET, 30 V, SOT-23, on-resistance specified from 4.5 V gate drive, for high-side switching of 12 V auxiliary rails.',
+    description:
+      'Logic-level P-channel MOSFET, 30 V, SOT-23, on-resistance specified from 4.5 V gate drive, for high-side switching of 12 V auxiliary rails.',
     package: 'SOT-23',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -1953,7 +1982,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Calderwick Semiconductor',
     mpn: 'CWP20L12-S3',
-    description: 'Logic-level P-channel MOSFET, 20 V, SOT-23, on-resistance specified from 4.5 V gate drive, for load switching on 5 V rails.',
+    description:
+      'Logic-level P-channel MOSFET, 20 V, SOT-23, on-resistance specified from 4.5 V gate drive, for load switching on 5 V rails.',
     package: 'SOT-23',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -2015,7 +2045,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Calderwick Semiconductor',
     mpn: 'CWP60L13-S3',
-    description: 'Logic-level P-channel MOSFET, 60 V, SOT-23, on-resistance specified from 4.5 V gate drive, for switching small 24 V loads from the high side.',
+    description:
+      'Logic-level P-channel MOSFET, 60 V, SOT-23, on-resistance specified from 4.5 V gate drive, for switching small 24 V loads from the high side.',
     package: 'SOT-23',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -2064,7 +2095,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Thornbury Power Devices',
     mpn: 'TBV40P035-K',
-    description: 'Logic-level P-channel MOSFET, 40 V, DPAK, on-resistance specified from 4.5 V gate drive, for high-side motor supply switching and reverse-battery protection.',
+    description:
+      'Logic-level P-channel MOSFET, 40 V, DPAK, on-resistance specified from 4.5 V gate drive, for high-side motor supply switching and reverse-battery protection.',
     package: 'DPAK (TO-252)',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -2114,7 +2146,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Calderwick Semiconductor',
     mpn: 'CWP30L14-SO8',
-    description: 'Logic-level P-channel MOSFET, 30 V, SOIC-8, on-resistance specified from 4.5 V gate drive, for switching the supply of a whole pump module.',
+    description:
+      'Logic-level P-channel MOSFET, 30 V, SOIC-8, on-resistance specified from 4.5 V gate drive, for switching the supply of a whole pump module.',
     package: 'SOIC-8',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -2177,7 +2210,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Calderwick Semiconductor',
     mpn: 'CWN60S01-S3',
-    description: 'Standard-level N-channel MOSFET, 60 V, SOT-23, on-resistance specified from 10 V gate drive, that needs a full 10 V gate drive.',
+    description:
+      'Standard-level N-channel MOSFET, 60 V, SOT-23, on-resistance specified from 10 V gate drive, that needs a full 10 V gate drive.',
     package: 'SOT-23',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -2224,7 +2258,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Calderwick Semiconductor',
     mpn: 'CWN100S02-S3',
-    description: 'Standard-level N-channel MOSFET, 100 V, SOT-23, on-resistance specified from 10 V gate drive, for light loads on high-voltage rails, driven from 10 V or more.',
+    description:
+      'Standard-level N-channel MOSFET, 100 V, SOT-23, on-resistance specified from 10 V gate drive, for light loads on high-voltage rails, driven from 10 V or more.',
     package: 'SOT-23',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -2285,7 +2320,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Calderwick Semiconductor',
     mpn: 'CWN30S03-S3',
-    description: 'Standard-level N-channel MOSFET, 30 V, SOT-23, on-resistance specified from 10 V gate drive, which looks attractive on price but is only characterised at 10 V gate drive.',
+    description:
+      'Standard-level N-channel MOSFET, 30 V, SOT-23, on-resistance specified from 10 V gate drive, which looks attractive on price but is only characterised at 10 V gate drive.',
     package: 'SOT-23',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -2422,7 +2458,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Thornbury Power Devices',
     mpn: 'TBV60N040-K',
-    description: 'Standard-level N-channel MOSFET, 60 V, DPAK, on-resistance specified from 10 V gate drive, for 24 V motors behind a 10 V to 15 V gate driver.',
+    description:
+      'Standard-level N-channel MOSFET, 60 V, DPAK, on-resistance specified from 10 V gate drive, for 24 V motors behind a 10 V to 15 V gate driver.',
     package: 'DPAK (TO-252)',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -2467,7 +2504,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Thornbury Power Devices',
     mpn: 'TBV100N060-K',
-    description: 'Standard-level N-channel MOSFET, 100 V, DPAK, on-resistance specified from 10 V gate drive, for rails up to 48 V with generous derating.',
+    description:
+      'Standard-level N-channel MOSFET, 100 V, DPAK, on-resistance specified from 10 V gate drive, for rails up to 48 V with generous derating.',
     package: 'DPAK (TO-252)',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -2543,7 +2581,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Thornbury Power Devices',
     mpn: 'TBV55N018-T',
-    description: 'Standard-level N-channel MOSFET, 55 V, TO-220, on-resistance specified from 10 V gate drive, a classic through-hole workhorse that needs a 10 V gate.',
+    description:
+      'Standard-level N-channel MOSFET, 55 V, TO-220, on-resistance specified from 10 V gate drive, a classic through-hole workhorse that needs a 10 V gate.',
     package: 'TO-220',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -2610,7 +2649,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Thornbury Power Devices',
     mpn: 'TBV100N030-T',
-    description: 'Standard-level N-channel MOSFET, 100 V, TO-220, on-resistance specified from 10 V gate drive, for high-current loads with a gate driver and heatsink.',
+    description:
+      'Standard-level N-channel MOSFET, 100 V, TO-220, on-resistance specified from 10 V gate drive, for high-current loads with a gate driver and heatsink.',
     package: 'TO-220',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -2656,7 +2696,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Thornbury Power Devices',
     mpn: 'TBV80N025-T',
-    description: 'Standard-level N-channel MOSFET, 80 V, TO-220, on-resistance specified from 10 V gate drive, for 36 V to 48 V motor rails.',
+    description:
+      'Standard-level N-channel MOSFET, 80 V, TO-220, on-resistance specified from 10 V gate drive, for 36 V to 48 V motor rails.',
     package: 'TO-220',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -2701,7 +2742,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Thornbury Power Devices',
     mpn: 'TBV40N022-S',
-    description: 'Standard-level N-channel MOSFET, 40 V, SOIC-8, on-resistance specified from 10 V gate drive, for 12 V to 24 V loads with a 12 V gate driver.',
+    description:
+      'Standard-level N-channel MOSFET, 40 V, SOIC-8, on-resistance specified from 10 V gate drive, for 12 V to 24 V loads with a 12 V gate driver.',
     package: 'SOIC-8',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -2776,7 +2818,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Thornbury Power Devices',
     mpn: 'TBV60P080-K',
-    description: 'Standard-level P-channel MOSFET, 60 V, DPAK, on-resistance specified from 10 V gate drive, for high-side switching of 24 V rails.',
+    description:
+      'Standard-level P-channel MOSFET, 60 V, DPAK, on-resistance specified from 10 V gate drive, for high-side switching of 24 V rails.',
     package: 'DPAK (TO-252)',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,
@@ -2837,7 +2880,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Thornbury Power Devices',
     mpn: 'TBV100P200-T',
-    description: 'Standard-level P-channel MOSFET, 100 V, TO-220, on-resistance specified from 10 V gate drive, in through-hole form; final orders are being taken before discontinuation.',
+    description:
+      'Standard-level P-channel MOSFET, 100 V, TO-220, on-resistance specified from 10 V gate drive, in through-hole form; final orders are being taken before discontinuation.',
     package: 'TO-220',
     lifecycle: 'last-buy',
     lifecycleEffectiveDate: '2025-12-31',
@@ -2898,7 +2942,8 @@ export const demoMosfets: DemoPart<'mosfet'>[] = [
     category: 'mosfet',
     manufacturer: 'Calderwick Semiconductor',
     mpn: 'CWP60S15-S3',
-    description: 'Standard-level P-channel MOSFET, 60 V, SOT-23, on-resistance specified from 10 V gate drive, for small high-side loads with a 10 V gate swing.',
+    description:
+      'Standard-level P-channel MOSFET, 60 V, SOT-23, on-resistance specified from 10 V gate drive, for small high-side loads with a 10 V gate swing.',
     package: 'SOT-23',
     lifecycle: 'active',
     lifecycleEffectiveDate: null,

@@ -37,13 +37,36 @@ function ChangePassword({ minChars, maxChars }: Props): ReactNode {
 
   return (
     <form onSubmit={submit} noValidate method="post" className="card p-4 flex flex-col gap-3" aria-labelledby="h-password">
-      <h2 id="h-password" className="text-lg">Change password</h2>
-      <Field readOnly={!hydrated} id="currentPassword" label="Current password" type="password" value={current} onChange={setCurrent}
-        autoComplete="current-password" error={issueFor(issues, 'currentPassword')} />
-      <Field readOnly={!hydrated} id="newPassword" label="New password" type="password" value={next} onChange={setNext} autoComplete="new-password"
-        hint={`${minChars} to ${maxChars} characters; very common passwords are refused.`} error={issueFor(issues, 'newPassword')} />
+      <h2 id="h-password" className="text-lg">
+        Change password
+      </h2>
+      <Field
+        readOnly={!hydrated}
+        id="currentPassword"
+        label="Current password"
+        type="password"
+        value={current}
+        onChange={setCurrent}
+        autoComplete="current-password"
+        error={issueFor(issues, 'currentPassword')}
+      />
+      <Field
+        readOnly={!hydrated}
+        id="newPassword"
+        label="New password"
+        type="password"
+        value={next}
+        onChange={setNext}
+        autoComplete="new-password"
+        hint={`${minChars} to ${maxChars} characters; very common passwords are refused.`}
+        error={issueFor(issues, 'newPassword')}
+      />
       {status && <StatusLine tone={status.tone}>{status.text}</StatusLine>}
-      <div><button type="submit" className="btn" disabled={status?.tone === 'busy' || !hydrated}>Change password</button></div>
+      <div>
+        <button type="submit" className="btn" disabled={status?.tone === 'busy' || !hydrated}>
+          Change password
+        </button>
+      </div>
     </form>
   );
 }
@@ -63,10 +86,16 @@ function SignOutEverywhere(): ReactNode {
   }
   return (
     <section className="card p-4 flex flex-col gap-3" aria-labelledby="h-everywhere">
-      <h2 id="h-everywhere" className="text-lg">Sign out everywhere</h2>
+      <h2 id="h-everywhere" className="text-lg">
+        Sign out everywhere
+      </h2>
       <p className="text-sm text-ink-soft">Ends every session of yours, on this and every other device. You will sign in again here.</p>
       {error && <StatusLine tone="bad">{error}</StatusLine>}
-      <div><button type="button" className="btn btn-quiet" onClick={run} disabled={busy || !hydrated}>{busy ? 'Signing out…' : 'Sign out everywhere'}</button></div>
+      <div>
+        <button type="button" className="btn btn-quiet" onClick={run} disabled={busy || !hydrated}>
+          {busy ? 'Signing out…' : 'Sign out everywhere'}
+        </button>
+      </div>
     </section>
   );
 }

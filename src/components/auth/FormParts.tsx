@@ -34,8 +34,17 @@ export function Field(props: FieldProps): ReactNode {
         aria-invalid={props.error ? true : undefined}
         aria-describedby={describedBy}
       />
-      {props.hint && <span id={hintId} className="text-ink-faint text-xs">{props.hint}</span>}
-      {props.error && <span id={errorId} className="field-error" data-testid={`${props.id}-error`}><span aria-hidden="true">✕ </span>{props.error}</span>}
+      {props.hint && (
+        <span id={hintId} className="text-ink-faint text-xs">
+          {props.hint}
+        </span>
+      )}
+      {props.error && (
+        <span id={errorId} className="field-error" data-testid={`${props.id}-error`}>
+          <span aria-hidden="true">✕ </span>
+          {props.error}
+        </span>
+      )}
     </div>
   );
 }
@@ -51,7 +60,8 @@ const CLASS: Record<Tone, string> = {
 export function StatusLine({ tone, children }: { tone: Tone; children: ReactNode }): ReactNode {
   return (
     <p role={tone === 'bad' ? 'alert' : 'status'} className={`border rounded px-3 py-2 text-sm ${CLASS[tone]}`} data-testid="form-status">
-      <span aria-hidden="true">{ICON[tone]} </span>{children}
+      <span aria-hidden="true">{ICON[tone]} </span>
+      {children}
     </p>
   );
 }

@@ -33,11 +33,24 @@ export default function ResetRequestForm(): ReactNode {
   if (done) return <StatusLine tone="ok">{done}</StatusLine>;
   return (
     <form onSubmit={submit} noValidate method="post" className="flex flex-col gap-3" aria-label="Ask for a reset link">
-      <Field readOnly={!hydrated} id="email" label="E-mail address" type="email" value={email} onChange={setEmail} autoComplete="username" autoFocus
-        error={issueFor(issues, 'email')} />
+      <Field
+        readOnly={!hydrated}
+        id="email"
+        label="E-mail address"
+        type="email"
+        value={email}
+        onChange={setEmail}
+        autoComplete="username"
+        autoFocus
+        error={issueFor(issues, 'email')}
+      />
       {error && <StatusLine tone="bad">{error}</StatusLine>}
       {busy && <StatusLine tone="busy">Sending…</StatusLine>}
-      <div><button type="submit" className="btn" disabled={busy || !hydrated}>Send me a reset link</button></div>
+      <div>
+        <button type="submit" className="btn" disabled={busy || !hydrated}>
+          Send me a reset link
+        </button>
+      </div>
     </form>
   );
 }

@@ -49,19 +49,44 @@ export default function SetPasswordForm({ mode, token, email, minChars, maxChars
   }
 
   if (done) {
-    return <StatusLine tone="ok">Your password is changed and every earlier session has ended. <a href="/signin">Sign in</a> with the new one.</StatusLine>;
+    return (
+      <StatusLine tone="ok">
+        Your password is changed and every earlier session has ended. <a href="/signin">Sign in</a> with the new one.
+      </StatusLine>
+    );
   }
   return (
     <form onSubmit={submit} noValidate method="post" className="flex flex-col gap-3" aria-label="Choose a password">
       <input type="email" name="username" value={email} autoComplete="username" readOnly hidden />
-      <Field readOnly={!hydrated} id="password" label="New password" type="password" value={password} onChange={setPassword} autoComplete="new-password" autoFocus
+      <Field
+        readOnly={!hydrated}
+        id="password"
+        label="New password"
+        type="password"
+        value={password}
+        onChange={setPassword}
+        autoComplete="new-password"
+        autoFocus
         hint={`${minChars} to ${maxChars} characters; a phrase of several words works well. Very common passwords are refused.`}
-        error={issueFor(issues, 'password')} />
-      <Field readOnly={!hydrated} id="repeat" label="The same password again" type="password" value={repeat} onChange={setRepeat} autoComplete="new-password"
-        error={issueFor(issues, 'repeat')} />
+        error={issueFor(issues, 'password')}
+      />
+      <Field
+        readOnly={!hydrated}
+        id="repeat"
+        label="The same password again"
+        type="password"
+        value={repeat}
+        onChange={setRepeat}
+        autoComplete="new-password"
+        error={issueFor(issues, 'repeat')}
+      />
       {error && <StatusLine tone="bad">{error}</StatusLine>}
       {busy && <StatusLine tone="busy">Saving…</StatusLine>}
-      <div><button type="submit" className="btn" disabled={busy || !hydrated}>{mode === 'invite' ? 'Set password and sign in' : 'Set new password'}</button></div>
+      <div>
+        <button type="submit" className="btn" disabled={busy || !hydrated}>
+          {mode === 'invite' ? 'Set password and sign in' : 'Set new password'}
+        </button>
+      </div>
     </form>
   );
 }

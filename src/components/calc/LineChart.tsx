@@ -52,24 +52,43 @@ export default function LineChart({ title, xLabel, yLabel, series, markers = [],
         {yt.ticks.map((t) => (
           <g key={`y${t}`}>
             <line x1={M.left} x2={W - M.right} y1={y(t)} y2={y(t)} stroke="#e6dccb" strokeWidth="1" />
-            <text x={M.left - 5} y={y(t) + 3.5} textAnchor="end" fontSize="10" fill="#55595e">{tickLabel(t)}</text>
+            <text x={M.left - 5} y={y(t) + 3.5} textAnchor="end" fontSize="10" fill="#55595e">
+              {tickLabel(t)}
+            </text>
           </g>
         ))}
         {xt.ticks.map((t) => (
           <g key={`x${t}`}>
             <line x1={x(t)} x2={x(t)} y1={H - M.bottom} y2={H - M.bottom + 4} stroke="#7b7f84" />
-            <text x={x(t)} y={H - M.bottom + 15} textAnchor="middle" fontSize="10" fill="#55595e">{tickLabel(t)}</text>
+            <text x={x(t)} y={H - M.bottom + 15} textAnchor="middle" fontSize="10" fill="#55595e">
+              {tickLabel(t)}
+            </text>
           </g>
         ))}
         <line x1={M.left} x2={W - M.right} y1={H - M.bottom} y2={H - M.bottom} stroke="#7b7f84" />
         <line x1={M.left} x2={M.left} y1={M.top} y2={H - M.bottom} stroke="#7b7f84" />
-        <text x={(M.left + W - M.right) / 2} y={H - 4} textAnchor="middle" fontSize="10.5" fill="#2a2c2e">{xLabel}</text>
-        <text x={11} y={(M.top + H - M.bottom) / 2} textAnchor="middle" fontSize="10.5" fill="#2a2c2e"
-          transform={`rotate(-90 11 ${(M.top + H - M.bottom) / 2})`}>{yLabel}</text>
+        <text x={(M.left + W - M.right) / 2} y={H - 4} textAnchor="middle" fontSize="10.5" fill="#2a2c2e">
+          {xLabel}
+        </text>
+        <text
+          x={11}
+          y={(M.top + H - M.bottom) / 2}
+          textAnchor="middle"
+          fontSize="10.5"
+          fill="#2a2c2e"
+          transform={`rotate(-90 11 ${(M.top + H - M.bottom) / 2})`}
+        >
+          {yLabel}
+        </text>
         {series.map((s) => (
-          <polyline key={s.label} fill="none" stroke={STROKE[s.tone]} strokeWidth="1.8"
+          <polyline
+            key={s.label}
+            fill="none"
+            stroke={STROKE[s.tone]}
+            strokeWidth="1.8"
             strokeDasharray={s.dashed ? '5 4' : undefined}
-            points={s.points.map((p) => `${x(p.x).toFixed(1)},${y(p.y).toFixed(1)}`).join(' ')} />
+            points={s.points.map((p) => `${x(p.x).toFixed(1)},${y(p.y).toFixed(1)}`).join(' ')}
+          />
         ))}
         {markers.map((m) => (
           <g key={`${m.label}${m.x}`}>
@@ -82,13 +101,17 @@ export default function LineChart({ title, xLabel, yLabel, series, markers = [],
       <ul className="flex flex-wrap gap-x-3 text-xs text-ink-soft px-1">
         {series.map((s) => (
           <li key={s.label} className="flex items-center gap-1">
-            <svg width="22" height="6" aria-hidden="true"><line x1="0" x2="22" y1="3" y2="3" stroke={STROKE[s.tone]} strokeWidth="2" strokeDasharray={s.dashed ? '5 4' : undefined} /></svg>
+            <svg width="22" height="6" aria-hidden="true">
+              <line x1="0" x2="22" y1="3" y2="3" stroke={STROKE[s.tone]} strokeWidth="2" strokeDasharray={s.dashed ? '5 4' : undefined} />
+            </svg>
             {s.label}
           </li>
         ))}
         {markers.map((m) => (
           <li key={`l${m.label}${m.x}`} className="flex items-center gap-1">
-            <svg width="12" height="12" viewBox="0 0 12 12" aria-hidden="true"><path d={markerPath(m.shape, 6, 6)} fill="#fffcf6" stroke={STROKE[m.tone]} strokeWidth="1.4" /></svg>
+            <svg width="12" height="12" viewBox="0 0 12 12" aria-hidden="true">
+              <path d={markerPath(m.shape, 6, 6)} fill="#fffcf6" stroke={STROKE[m.tone]} strokeWidth="1.4" />
+            </svg>
             {m.label}
           </li>
         ))}

@@ -6,8 +6,14 @@ import NumberField from './NumberField.tsx';
 import LineChart, { type ChartMarker, type ChartSeries } from './LineChart.tsx';
 import MotorSummary from './MotorSummary.tsx';
 import {
-  CURRENT_UNITS, DEFAULT_MOTOR_FORM, PATH_TO_FIELD, SPEED_UNITS, TORQUE_UNITS, toRequests,
-  type FieldErrors, type MotorForm,
+  CURRENT_UNITS,
+  DEFAULT_MOTOR_FORM,
+  PATH_TO_FIELD,
+  SPEED_UNITS,
+  TORQUE_UNITS,
+  toRequests,
+  type FieldErrors,
+  type MotorForm,
 } from './motor-form.ts';
 
 type Results = { min: CalcMotorResponse; max: CalcMotorResponse };
@@ -81,42 +87,137 @@ export default function MotorCalculator() {
     if (!results) return null;
     const t = (nm: number) => torqueFromNm(nm, unit);
     const mp = (r: CalcMotorResponse, tone: ChartMarker['tone']): ChartMarker => ({
-      x: t(r.atSupply.maxPower.torqueNm), y: r.atSupply.maxPower.powerW, shape: 'circle', tone,
+      x: t(r.atSupply.maxPower.torqueNm),
+      y: r.atSupply.maxPower.powerW,
+      shape: 'circle',
+      tone,
       label: `max power ${r.atSupply.maxPower.powerW.toFixed(2)} W @ ${r.atSupply.supplyV} V`,
     });
     const me = (r: CalcMotorResponse, tone: ChartMarker['tone']): ChartMarker => ({
-      x: t(r.atSupply.maxEfficiency.torqueNm), y: r.atSupply.maxEfficiency.efficiency * 100, shape: 'diamond', tone,
+      x: t(r.atSupply.maxEfficiency.torqueNm),
+      y: r.atSupply.maxEfficiency.efficiency * 100,
+      shape: 'diamond',
+      tone,
       label: `max efficiency ${(r.atSupply.maxEfficiency.efficiency * 100).toFixed(1)} % @ ${r.atSupply.supplyV} V`,
     });
     const stall = (r: CalcMotorResponse, tone: ChartMarker['tone']): ChartMarker => ({
-      x: t(r.atSupply.stallTorqueNm), y: r.atSupply.stallCurrentA, shape: 'square', tone,
+      x: t(r.atSupply.stallTorqueNm),
+      y: r.atSupply.stallCurrentA,
+      shape: 'square',
+      tone,
       label: `stall ${r.atSupply.stallCurrentA.toFixed(2)} A @ ${r.atSupply.supplyV} V`,
     });
     return [
-      <LineChart key="speed" testId="chart-speed" title="Speed" xLabel={`torque (${unit})`} yLabel="speed (rpm)" series={curveSeries(results, unit, (p) => p.speedRpm)} />,
-      <LineChart key="current" testId="chart-current" title="Current" xLabel={`torque (${unit})`} yLabel="current (A)" series={curveSeries(results, unit, (p) => p.currentA)} markers={[stall(results.max, 'copper'), stall(results.min, 'graphite')]} />,
-      <LineChart key="power" testId="chart-power" title="Output power" xLabel={`torque (${unit})`} yLabel="power (W)" series={curveSeries(results, unit, (p) => p.powerW)} markers={[mp(results.max, 'copper'), mp(results.min, 'graphite')]} />,
-      <LineChart key="eff" testId="chart-efficiency" title="Efficiency" xLabel={`torque (${unit})`} yLabel="efficiency (%)" series={curveSeries(results, unit, (p) => p.efficiency * 100)} markers={[me(results.max, 'copper'), me(results.min, 'graphite')]} />,
+      <LineChart
+        key="speed"
+        testId="chart-speed"
+        title="Speed"
+        xLabel={`torque (${unit})`}
+        yLabel="speed (rpm)"
+        series={curveSeries(results, unit, (p) => p.speedRpm)}
+      />,
+      <LineChart
+        key="current"
+        testId="chart-current"
+        title="Current"
+        xLabel={`torque (${unit})`}
+        yLabel="current (A)"
+        series={curveSeries(results, unit, (p) => p.currentA)}
+        markers={[stall(results.max, 'copper'), stall(results.min, 'graphite')]}
+      />,
+      <LineChart
+        key="power"
+        testId="chart-power"
+        title="Output power"
+        xLabel={`torque (${unit})`}
+        yLabel="power (W)"
+        series={curveSeries(results, unit, (p) => p.powerW)}
+        markers={[mp(results.max, 'copper'), mp(results.min, 'graphite')]}
+      />,
+      <LineChart
+        key="eff"
+        testId="chart-efficiency"
+        title="Efficiency"
+        xLabel={`torque (${unit})`}
+        yLabel="efficiency (%)"
+        series={curveSeries(results, unit, (p) => p.efficiency * 100)}
+        markers={[me(results.max, 'copper'), me(results.min, 'graphite')]}
+      />,
     ];
   }, [results, unit]);
 
   return (
     <section aria-labelledby="motor-calc-title" className="mb-8" data-testid="motor-calculator">
-      <h2 id="motor-calc-title" className="text-xl mb-2">Motor from datasheet points</h2>
+      <h2 id="motor-calc-title" className="text-xl mb-2">
+        Motor from datasheet points
+      </h2>
       <form className="card p-3 grid gap-3 grid-cols-2 md:grid-cols-4 lg:grid-cols-6" onSubmit={(e) => e.preventDefault()} noValidate>
         <NumberField name="ratedV" label="Rated voltage" unit="V" value={form.ratedV} onChange={set('ratedV')} error={errors.ratedV} />
-        <NumberField name="noLoadSpeed" label="No-load speed" value={form.noLoadSpeed} onChange={set('noLoadSpeed')} error={errors.noLoadSpeed}
-          units={SPEED_UNITS} unit={form.speedUnit} onUnitChange={set('speedUnit')} />
-        <NumberField name="noLoadCurrent" label="No-load current" value={form.noLoadCurrent} onChange={set('noLoadCurrent')} error={errors.noLoadCurrent}
-          units={CURRENT_UNITS} unit={form.currentUnit} onUnitChange={set('currentUnit')} />
-        <NumberField name="stallCurrent" label="Stall current" value={form.stallCurrent} onChange={set('stallCurrent')} error={errors.stallCurrent}
-          unit={form.currentUnit} />
-        <NumberField name="stallTorque" label="Stall torque" value={form.stallTorque} onChange={set('stallTorque')} error={errors.stallTorque}
-          units={TORQUE_UNITS} unit={form.torqueUnit} onUnitChange={set('torqueUnit')} />
-        <NumberField name="seriesOhm" label="Series resistance" unit="Ω" value={form.seriesOhm} onChange={set('seriesOhm')} error={errors.seriesOhm}
-          hint="switch, wiring, shunt" />
-        <NumberField name="supplyMinV" label="Supply minimum" unit="V" value={form.supplyMinV} onChange={set('supplyMinV')} error={errors.supplyMinV} hint="sagged battery" />
-        <NumberField name="supplyMaxV" label="Supply maximum" unit="V" value={form.supplyMaxV} onChange={set('supplyMaxV')} error={errors.supplyMaxV} hint="fresh battery, charger" />
+        <NumberField
+          name="noLoadSpeed"
+          label="No-load speed"
+          value={form.noLoadSpeed}
+          onChange={set('noLoadSpeed')}
+          error={errors.noLoadSpeed}
+          units={SPEED_UNITS}
+          unit={form.speedUnit}
+          onUnitChange={set('speedUnit')}
+        />
+        <NumberField
+          name="noLoadCurrent"
+          label="No-load current"
+          value={form.noLoadCurrent}
+          onChange={set('noLoadCurrent')}
+          error={errors.noLoadCurrent}
+          units={CURRENT_UNITS}
+          unit={form.currentUnit}
+          onUnitChange={set('currentUnit')}
+        />
+        <NumberField
+          name="stallCurrent"
+          label="Stall current"
+          value={form.stallCurrent}
+          onChange={set('stallCurrent')}
+          error={errors.stallCurrent}
+          unit={form.currentUnit}
+        />
+        <NumberField
+          name="stallTorque"
+          label="Stall torque"
+          value={form.stallTorque}
+          onChange={set('stallTorque')}
+          error={errors.stallTorque}
+          units={TORQUE_UNITS}
+          unit={form.torqueUnit}
+          onUnitChange={set('torqueUnit')}
+        />
+        <NumberField
+          name="seriesOhm"
+          label="Series resistance"
+          unit="Ω"
+          value={form.seriesOhm}
+          onChange={set('seriesOhm')}
+          error={errors.seriesOhm}
+          hint="switch, wiring, shunt"
+        />
+        <NumberField
+          name="supplyMinV"
+          label="Supply minimum"
+          unit="V"
+          value={form.supplyMinV}
+          onChange={set('supplyMinV')}
+          error={errors.supplyMinV}
+          hint="sagged battery"
+        />
+        <NumberField
+          name="supplyMaxV"
+          label="Supply maximum"
+          unit="V"
+          value={form.supplyMaxV}
+          onChange={set('supplyMaxV')}
+          error={errors.supplyMaxV}
+          hint="fresh battery, charger"
+        />
         <p className="col-span-2 md:col-span-4 self-end text-sm text-ink-soft" aria-live="polite" data-testid="motor-status">
           {status === 'loading' ? '… computing' : status === 'error' ? `⚠ ${message}` : status === 'ready' ? '✓ up to date' : ''}
         </p>

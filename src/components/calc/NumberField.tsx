@@ -19,17 +19,34 @@ export default function NumberField({ label, value, onChange, error, unit, units
     <div className="field">
       <label htmlFor={id}>{label}</label>
       <div className="flex gap-1">
-        <input id={id} name={name} inputMode="decimal" value={value} onChange={(e) => onChange(e.target.value)}
-          aria-invalid={error ? true : undefined} aria-describedby={error ? `${id}-err` : undefined}
-          className="w-full min-w-0" />
+        <input
+          id={id}
+          name={name}
+          inputMode="decimal"
+          value={value}
+          onChange={(e) => onChange(e.target.value)}
+          aria-invalid={error ? true : undefined}
+          aria-describedby={error ? `${id}-err` : undefined}
+          className="w-full min-w-0"
+        />
         {units && onUnitChange ? (
           <select aria-label={`${label} unit`} value={unit} onChange={(e) => onUnitChange(e.target.value)}>
-            {units.map((u) => <option key={u} value={u}>{u}</option>)}
+            {units.map((u) => (
+              <option key={u} value={u}>
+                {u}
+              </option>
+            ))}
           </select>
-        ) : unit ? <span className="self-center text-ink-soft text-sm w-10">{unit}</span> : null}
+        ) : unit ? (
+          <span className="self-center text-ink-soft text-sm w-10">{unit}</span>
+        ) : null}
       </div>
       {hint && !error ? <span className="text-xs text-ink-faint">{hint}</span> : null}
-      {error ? <span id={`${id}-err`} className="field-error" role="alert">⚠ {error}</span> : null}
+      {error ? (
+        <span id={`${id}-err`} className="field-error" role="alert">
+          ⚠ {error}
+        </span>
+      ) : null}
     </div>
   );
 }

@@ -5,7 +5,14 @@ import type { SupplyReport } from '../../lib/supply.ts';
 import Verdict from '../workspace/Verdict.tsx';
 import { SupplyChecks, SupplyFigures, SupplyNotes } from '../workspace/SupplyPanel.tsx';
 import NumberField from './NumberField.tsx';
-import { DEFAULT_SUPPLY_FORM, SUPPLY_PATH_TO_FIELD, formFromPreset, toSupplyRequest, type SupplyFieldErrors, type SupplyForm } from './supply-form.ts';
+import {
+  DEFAULT_SUPPLY_FORM,
+  SUPPLY_PATH_TO_FIELD,
+  formFromPreset,
+  toSupplyRequest,
+  type SupplyFieldErrors,
+  type SupplyForm,
+} from './supply-form.ts';
 
 type Status = 'idle' | 'loading' | 'ready' | 'error';
 
@@ -71,7 +78,9 @@ export default function SupplyCalculator() {
   const chosen = SUPPLY_PRESETS.find((p) => p.id === preset);
   return (
     <section aria-labelledby="supply-calc-title" className="mb-8" data-testid="supply-calculator">
-      <h2 id="supply-calc-title" className="text-xl mb-2">Supply: can it start the motor?</h2>
+      <h2 id="supply-calc-title" className="text-xl mb-2">
+        Supply: can it start the motor?
+      </h2>
       <form className="card p-3 grid gap-3 grid-cols-2 md:grid-cols-4 lg:grid-cols-6" onSubmit={(e) => e.preventDefault()} noValidate>
         {field('ratedV', 'Motor rated voltage', 'V')}
         {field('noLoadSpeedRpm', 'Motor no-load speed', 'rpm')}
@@ -79,16 +88,29 @@ export default function SupplyCalculator() {
         {field('stallCurrentA', 'Motor stall current', 'A')}
         {field('rotorInertiaGcm2', 'Rotor inertia', 'g·cm²', 'empty: no capacitor figure')}
         {field('loadTorqueMNm', 'Load torque', 'mN·m', 'at start')}
-        <label className="field col-span-2">Source preset
-          <select value={preset} data-testid="calc-supply-preset" onChange={(ev) => {
-            const p = SUPPLY_PRESETS.find((x) => x.id === ev.target.value);
-            setPreset(p?.id ?? '');
-            if (p) setForm((f) => formFromPreset(f, p));
-          }}>
+        <label className="field col-span-2">
+          Source preset
+          <select
+            value={preset}
+            data-testid="calc-supply-preset"
+            onChange={(ev) => {
+              const p = SUPPLY_PRESETS.find((x) => x.id === ev.target.value);
+              setPreset(p?.id ?? '');
+              if (p) setForm((f) => formFromPreset(f, p));
+            }}
+          >
             <option value="">custom</option>
-            {SUPPLY_PRESETS.map((p) => <option key={p.id} value={p.id}>{p.label}</option>)}
+            {SUPPLY_PRESETS.map((p) => (
+              <option key={p.id} value={p.id}>
+                {p.label}
+              </option>
+            ))}
           </select>
-          {chosen ? <span className="text-xs text-ink-faint">Limit: {chosen.source.currentLimit}. Internal resistance: {chosen.source.internalResistance}.</span> : null}
+          {chosen ? (
+            <span className="text-xs text-ink-faint">
+              Limit: {chosen.source.currentLimit}. Internal resistance: {chosen.source.internalResistance}.
+            </span>
+          ) : null}
         </label>
         {field('supplyV', 'Source voltage', 'V', 'open circuit')}
         {field('internalOhm', 'Internal resistance', 'Ω', 'pack: per cell × cells')}
@@ -97,7 +119,12 @@ export default function SupplyCalculator() {
         {field('seriesOhm', 'Series resistance', 'Ω', 'wiring, shunt')}
         {field('windingC', 'Winding temperature', '°C', 'coldest start draws most')}
         <label className="col-span-2 text-sm flex items-center gap-2 self-end">
-          <input type="checkbox" checked={form.logicShared} data-testid="calc-logic-shared" onChange={(ev) => setForm((f) => ({ ...f, logicShared: ev.target.checked }))} />
+          <input
+            type="checkbox"
+            checked={form.logicShared}
+            data-testid="calc-logic-shared"
+            onChange={(ev) => setForm((f) => ({ ...f, logicShared: ev.target.checked }))}
+          />
           Controller fed from the same source
         </label>
         {form.logicShared ? field('logicMinV', 'Controller minimum', 'V', 'its brown-out level') : null}

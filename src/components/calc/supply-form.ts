@@ -31,10 +31,22 @@ export type SupplyFieldErrors = Partial<Record<TextField, string>>;
 
 /** The contract's example [docs/engineering.md §3.5]: the invented M1 on 3.0 V behind 0.3 Ω, a 0.5 A limit, a controller on the same source. */
 export const DEFAULT_SUPPLY_FORM: SupplyForm = {
-  ratedV: '3', noLoadSpeedRpm: '12000', noLoadCurrentA: '0.2', stallCurrentA: '1.8', rotorInertiaGcm2: '1.5',
-  supplyV: '3.0', internalOhm: '0.3', continuousA: '1.0', limitA: '0.5',
-  seriesOhm: '0', windingC: '20', loadTorqueMNm: '0.3',
-  logicShared: true, logicMinV: '2.7', dropoutV: '0', allowedDipV: '0.2',
+  ratedV: '3',
+  noLoadSpeedRpm: '12000',
+  noLoadCurrentA: '0.2',
+  stallCurrentA: '1.8',
+  rotorInertiaGcm2: '1.5',
+  supplyV: '3.0',
+  internalOhm: '0.3',
+  continuousA: '1.0',
+  limitA: '0.5',
+  seriesOhm: '0',
+  windingC: '20',
+  loadTorqueMNm: '0.3',
+  logicShared: true,
+  logicMinV: '2.7',
+  dropoutV: '0',
+  allowedDipV: '0.2',
 };
 
 /** Maps an API issue path back to the form field that caused it. */
@@ -61,7 +73,13 @@ const G_CM2_IN_KG_M2 = 1e-7; // 1 g·cm² = 1e-3 kg × 1e-4 m² [SI]
 /** The figures a supply preset carries, as form text (an empty limit: the preset does not limit). */
 export function formFromPreset(form: SupplyForm, p: SupplyPreset): SupplyForm {
   const text = (v: number | null) => (v == null ? '' : String(v));
-  return { ...form, supplyV: String(p.nomV), internalOhm: String(p.internalResistanceOhm), continuousA: text(p.continuousCurrentA), limitA: text(p.currentLimitA) };
+  return {
+    ...form,
+    supplyV: String(p.nomV),
+    internalOhm: String(p.internalResistanceOhm),
+    continuousA: text(p.continuousCurrentA),
+    limitA: text(p.currentLimitA),
+  };
 }
 
 export function toSupplyRequest(f: SupplyForm): { ok: true; body: Record<string, unknown> } | { ok: false; errors: SupplyFieldErrors } {
@@ -78,20 +96,28 @@ export function toSupplyRequest(f: SupplyForm): { ok: true; body: Record<string,
     return v * scale;
   };
   const motor = {
-    ratedVoltageV: read('ratedV', true), noLoadSpeedRpm: read('noLoadSpeedRpm', true),
-    noLoadCurrentA: read('noLoadCurrentA', true), stallCurrentA: read('stallCurrentA', true),
+    ratedVoltageV: read('ratedV', true),
+    noLoadSpeedRpm: read('noLoadSpeedRpm', true),
+    noLoadCurrentA: read('noLoadCurrentA', true),
+    stallCurrentA: read('stallCurrentA', true),
     rotorInertiaKgM2: read('rotorInertiaGcm2', false, G_CM2_IN_KG_M2),
   };
   const supply = {
-    voltageV: read('supplyV', true), internalResistanceOhm: read('internalOhm', false),
-    continuousCurrentA: read('continuousA', false), currentLimitA: read('limitA', false),
+    voltageV: read('supplyV', true),
+    internalResistanceOhm: read('internalOhm', false),
+    continuousCurrentA: read('continuousA', false),
+    currentLimitA: read('limitA', false),
   };
   const body: Record<string, unknown> = {
-    motor, supply,
-    seriesResistanceOhm: read('seriesOhm', false), windingC: read('windingC', false),
-    loadTorqueNm: read('loadTorqueMNm', false, 1e-3), allowedDipV: read('allowedDipV', false),
+    motor,
+    supply,
+    seriesResistanceOhm: read('seriesOhm', false),
+    windingC: read('windingC', false),
+    loadTorqueNm: read('loadTorqueMNm', false, 1e-3),
+    allowedDipV: read('allowedDipV', false),
   };
-  if (f.logicShared) body.logic = { sharedWithMotor: true, minSupplyV: read('logicMinV', true), regulatorDropoutV: read('dropoutV', false) };
+  if (f.logicShared)
+    body.logic = { sharedWithMotor: true, minSupplyV: read('logicMinV', true), regulatorDropoutV: read('dropoutV', false) };
   if (Object.keys(errors).length) return { ok: false, errors };
   return { ok: true, body: JSON.parse(JSON.stringify(body)) as Record<string, unknown> };
 }

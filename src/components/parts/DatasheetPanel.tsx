@@ -10,19 +10,30 @@ interface Props {
   canManage: boolean;
 }
 
-type Upload = { state: 'idle' } | { state: 'sending'; name: string; percent: number } | { state: 'done'; name: string } | { state: 'error'; message: string };
+type Upload =
+  | { state: 'idle' }
+  | { state: 'sending'; name: string; percent: number }
+  | { state: 'done'; name: string }
+  | { state: 'error'; message: string };
 
 const MAX_BYTES = 20 * 1024 * 1024;
 const size = (b: number): string => (b >= 1024 * 1024 ? `${(b / 1024 / 1024).toFixed(1)} MB` : `${Math.max(1, Math.round(b / 1024))} kB`);
 
-function uploadWithProgress(url: string, form: FormData, onProgress: (percent: number) => void): Promise<{ status: number; body: any }> {
+/** A datasheet record, or the error shape. */
+type UploadAnswer = (Partial<DatasheetView> & { error?: string; issues?: { path: string; message: string }[] }) | null;
+
+function uploadWithProgress(
+  url: string,
+  form: FormData,
+  onProgress: (percent: number) => void,
+): Promise<{ status: number; body: UploadAnswer }> {
   return new Promise((resolve) => {
     const xhr = new XMLHttpRequest();
     xhr.open('POST', url);
     xhr.setRequestHeader('Accept', 'application/json');
     xhr.upload.onprogress = (e) => e.lengthComputable && onProgress(Math.round((e.loaded / e.total) * 100));
     xhr.onload = () => {
-      let body: any = null;
+      let body: UploadAnswer = null;
       try {
         body = JSON.parse(xhr.responseText);
       } catch {
@@ -41,30 +52,39 @@ export default function DatasheetPanel({ partId, initial, canManage }: Props) {
   const [revision, setRevision] = useState('');
   const [removeError, setRemoveError] = useState('');
 
-  const onDrop = useCallback(async (accepted: File[], rejected: { file: File; errors: readonly { message: string }[] }[]) => {
-    if (rejected.length > 0) {
-      setUpload({ state: 'error', message: `${rejected[0].file.name}: ${rejected[0].errors.map((e) => e.message).join('; ')}` });
-      return;
-    }
-    const file = accepted[0];
-    if (!file) return;
-    const form = new FormData();
-    form.append('revision', revision);
-    form.append('file', file, file.name);
-    setUpload({ state: 'sending', name: file.name, percent: 0 });
-    const res = await uploadWithProgress(`/api/parts/${partId}/datasheets`, form, (percent) => setUpload({ state: 'sending', name: file.name, percent }));
-    if (res.status === 201) {
-      setSheets((list) => [res.body as DatasheetView, ...list]);
-      setUpload({ state: 'done', name: file.name });
-      setRevision('');
-    } else {
-      const detail = res.body?.issues?.[0]?.message;
-      setUpload({ state: 'error', message: `${res.body?.error ?? `The server answered ${res.status}.`}${detail ? ` (${detail})` : ''}` });
-    }
-  }, [partId, revision]);
+  const onDrop = useCallback(
+    async (accepted: File[], rejected: { file: File; errors: readonly { message: string }[] }[]) => {
+      if (rejected.length > 0) {
+        setUpload({ state: 'error', message: `${rejected[0].file.name}: ${rejected[0].errors.map((e) => e.message).join('; ')}` });
+        return;
+      }
+      const file = accepted[0];
+      if (!file) return;
+      const form = new FormData();
+      form.append('revision', revision);
+      form.append('file', file, file.name);
+      setUpload({ state: 'sending', name: file.name, percent: 0 });
+      const res = await uploadWithProgress(`/api/parts/${partId}/datasheets`, form, (percent) =>
+        setUpload({ state: 'sending', name: file.name, percent }),
+      );
+      if (res.status === 201) {
+        setSheets((list) => [res.body as DatasheetView, ...list]);
+        setUpload({ state: 'done', name: file.name });
+        setRevision('');
+      } else {
+        const detail = res.body?.issues?.[0]?.message;
+        setUpload({ state: 'error', message: `${res.body?.error ?? `The server answered ${res.status}.`}${detail ? ` (${detail})` : ''}` });
+      }
+    },
+    [partId, revision],
+  );
 
   const { getRootProps, getInputProps, isDragActive } = useDropzone({
-    onDrop, multiple: false, maxSize: MAX_BYTES, accept: { 'application/pdf': ['.pdf'] }, disabled: upload.state === 'sending',
+    onDrop,
+    multiple: false,
+    maxSize: MAX_BYTES,
+    accept: { 'application/pdf': ['.pdf'] },
+    disabled: upload.state === 'sending',
   });
 
   // react-dropzone hides its input with an inline style, which the Content-Security-Policy refuses; a class does it instead.
@@ -85,23 +105,51 @@ export default function DatasheetPanel({ partId, initial, canManage }: Props) {
         <ul className="grid gap-1 mb-2 text-sm">
           {sheets.map((s) => (
             <li key={s.id} className="flex flex-wrap items-baseline gap-x-3" data-testid="datasheet-row">
-              <a href={`/api/datasheets/${s.id}`} download={s.originalName} className="font-semibold"><span aria-hidden="true">⤓ </span>{s.originalName}</a>
-              <span className="text-ink-soft">{s.revision ? `rev. ${s.revision} · ` : ''}{s.pages} page{s.pages === 1 ? '' : 's'} · {size(s.bytes)}</span>
-              <span className="text-ink-faint text-xs" title={`SHA-256 ${s.sha256}`}>added {s.uploadedAt.slice(0, 10)}{s.uploadedBy ? ` by ${s.uploadedBy}` : ''}</span>
-              {canManage && <button type="button" className="text-bad text-xs underline cursor-pointer" onClick={() => remove(s)}>Remove</button>}
+              <a href={`/api/datasheets/${s.id}`} download={s.originalName} className="font-semibold">
+                <span aria-hidden="true">⤓ </span>
+                {s.originalName}
+              </a>
+              <span className="text-ink-soft">
+                {s.revision ? `rev. ${s.revision} · ` : ''}
+                {s.pages} page{s.pages === 1 ? '' : 's'} · {size(s.bytes)}
+              </span>
+              <span className="text-ink-faint text-xs" title={`SHA-256 ${s.sha256}`}>
+                added {s.uploadedAt.slice(0, 10)}
+                {s.uploadedBy ? ` by ${s.uploadedBy}` : ''}
+              </span>
+              {canManage && (
+                <button type="button" className="text-bad text-xs underline cursor-pointer" onClick={() => remove(s)}>
+                  Remove
+                </button>
+              )}
             </li>
           ))}
         </ul>
       )}
-      {removeError && <p role="alert" className="field-error"><span aria-hidden="true">✕ </span>{removeError}</p>}
+      {removeError && (
+        <p role="alert" className="field-error">
+          <span aria-hidden="true">✕ </span>
+          {removeError}
+        </p>
+      )}
       {canManage && (
         <div className="grid gap-2">
           <label className="field max-w-xs">
             Revision label (optional)
-            <input value={revision} onChange={(e) => setRevision(e.target.value)} maxLength={40} placeholder="e.g. Rev. C, 2026-03" name="revision" />
+            <input
+              value={revision}
+              onChange={(e) => setRevision(e.target.value)}
+              maxLength={40}
+              placeholder="e.g. Rev. C, 2026-03"
+              name="revision"
+            />
           </label>
-          <div {...getRootProps({ className: `border-2 border-dashed rounded p-4 text-sm text-center cursor-pointer ${isDragActive ? 'border-copper bg-copper-wash' : 'border-rule'}` })}
-            data-testid="datasheet-drop">
+          <div
+            {...getRootProps({
+              className: `border-2 border-dashed rounded p-4 text-sm text-center cursor-pointer ${isDragActive ? 'border-copper bg-copper-wash' : 'border-rule'}`,
+            })}
+            data-testid="datasheet-drop"
+          >
             <input {...inputProps} className="hidden" data-testid="datasheet-input" />
             <span aria-hidden="true">⇪ </span>Drop a PDF datasheet here, or press to choose one (at most 20 MB).
           </div>
@@ -111,8 +159,18 @@ export default function DatasheetPanel({ partId, initial, canManage }: Props) {
                 <progress max={100} value={upload.percent} aria-label={`Uploading ${upload.name}`} /> {upload.percent} % of {upload.name}
               </span>
             )}
-            {upload.state === 'done' && <span className="text-ok" data-testid="upload-done"><span aria-hidden="true">✓ </span>{upload.name} attached.</span>}
-            {upload.state === 'error' && <span className="text-bad" role="alert" data-testid="upload-error"><span aria-hidden="true">✕ </span>{upload.message}</span>}
+            {upload.state === 'done' && (
+              <span className="text-ok" data-testid="upload-done">
+                <span aria-hidden="true">✓ </span>
+                {upload.name} attached.
+              </span>
+            )}
+            {upload.state === 'error' && (
+              <span className="text-bad" role="alert" data-testid="upload-error">
+                <span aria-hidden="true">✕ </span>
+                {upload.message}
+              </span>
+            )}
           </div>
         </div>
       )}

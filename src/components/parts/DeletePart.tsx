@@ -12,8 +12,15 @@ export default function DeletePart({ partId, version, mpn }: { partId: number; v
   }
   return (
     <span>
-      <button type="button" className="btn btn-quiet" onClick={remove}><span aria-hidden="true">✕</span> Delete</button>
-      {error && <span role="alert" className="field-error block"><span aria-hidden="true">✕ </span>{error}</span>}
+      <button type="button" className="btn btn-quiet" onClick={remove}>
+        <span aria-hidden="true">✕</span> Delete
+      </button>
+      {error && (
+        <span role="alert" className="field-error block">
+          <span aria-hidden="true">✕ </span>
+          {error}
+        </span>
+      )}
     </span>
   );
 }

@@ -4,8 +4,10 @@ import type { Lifecycle } from '../../lib/domain/parts.ts';
 import { sendJson, type ApiIssue } from './api.ts';
 
 const OPTIONS: { value: Lifecycle; label: string }[] = [
-  { value: 'active', label: 'Active' }, { value: 'nrnd', label: 'Not recommended for new designs (NRND)' },
-  { value: 'last-buy', label: 'Last-time buy' }, { value: 'obsolete', label: 'Obsolete' },
+  { value: 'active', label: 'Active' },
+  { value: 'nrnd', label: 'Not recommended for new designs (NRND)' },
+  { value: 'last-buy', label: 'Last-time buy' },
+  { value: 'obsolete', label: 'Obsolete' },
 ];
 
 export default function LifecyclePanel({ partId, version, current }: { partId: number; version: number; current: Lifecycle }) {
@@ -26,21 +28,53 @@ export default function LifecyclePanel({ partId, version, current }: { partId: n
 
   return (
     <form onSubmit={submit} className="grid gap-2 text-sm" data-testid="lifecycle-form">
-      <label className="field">Move to
+      <label className="field">
+        Move to
         <select value={lifecycle} onChange={(e) => setLifecycle(e.target.value as Lifecycle)} name="lifecycle">
-          {OPTIONS.map((o) => <option key={o.value} value={o.value}>{o.label}</option>)}
+          {OPTIONS.map((o) => (
+            <option key={o.value} value={o.value}>
+              {o.label}
+            </option>
+          ))}
         </select>
       </label>
-      <label className="field">Effective from
-        <input type="date" value={effectiveDate} onChange={(e) => setEffectiveDate(e.target.value)} name="effectiveDate" aria-invalid={!!issue('effectiveDate')} />
-        {issue('effectiveDate') && <span className="field-error"><span aria-hidden="true">✕ </span>{issue('effectiveDate')}</span>}
+      <label className="field">
+        Effective from
+        <input
+          type="date"
+          value={effectiveDate}
+          onChange={(e) => setEffectiveDate(e.target.value)}
+          name="effectiveDate"
+          aria-invalid={!!issue('effectiveDate')}
+        />
+        {issue('effectiveDate') && (
+          <span className="field-error">
+            <span aria-hidden="true">✕ </span>
+            {issue('effectiveDate')}
+          </span>
+        )}
       </label>
-      <label className="field">Note (notice number, reason, replacement)
+      <label className="field">
+        Note (notice number, reason, replacement)
         <input value={note} onChange={(e) => setNote(e.target.value)} name="note" maxLength={500} aria-invalid={!!issue('note')} />
-        {issue('note') && <span className="field-error"><span aria-hidden="true">✕ </span>{issue('note')}</span>}
+        {issue('note') && (
+          <span className="field-error">
+            <span aria-hidden="true">✕ </span>
+            {issue('note')}
+          </span>
+        )}
       </label>
-      <div><button type="submit" className="btn">Record lifecycle change</button></div>
-      {error && <p role="alert" className="field-error"><span aria-hidden="true">✕ </span>{error}</p>}
+      <div>
+        <button type="submit" className="btn">
+          Record lifecycle change
+        </button>
+      </div>
+      {error && (
+        <p role="alert" className="field-error">
+          <span aria-hidden="true">✕ </span>
+          {error}
+        </p>
+      )}
     </form>
   );
 }

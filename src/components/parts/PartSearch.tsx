@@ -24,7 +24,10 @@ interface PageData {
   pageSize: number;
 }
 
-type Load = { state: 'loading' } | { state: 'ready'; data: PageData } | { state: 'error'; message: string; issues: { path: string; message: string }[] };
+type Load =
+  | { state: 'loading' }
+  | { state: 'ready'; data: PageData }
+  | { state: 'error'; message: string; issues: { path: string; message: string }[] };
 
 const CATEGORIES: (PartCategory | '')[] = ['', 'mosfet', 'driver', 'diode', 'motor'];
 const PAGE_SIZES = [25, 50, 100];
@@ -106,7 +109,11 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
         if (!res.ok) setLoad({ state: 'error', message: body.error ?? `The server answered ${res.status}.`, issues: body.issues ?? [] });
         else setLoad({ state: 'ready', data: body as PageData });
       })
-      .catch(() => mine === seq.current && setLoad({ state: 'error', message: 'The server could not be reached. Check the connection and try again.', issues: [] }))
+      .catch(
+        () =>
+          mine === seq.current &&
+          setLoad({ state: 'error', message: 'The server could not be reached. Check the connection and try again.', issues: [] }),
+      )
       .finally(() => mine === seq.current && setLoading(false));
   }, [queryString]);
 
@@ -123,8 +130,15 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
   const columns = useMemo<ColumnDef<Part>[]>(
     () => [
       {
-        id: 'mpn', header: 'Part number', enableHiding: false, meta: { sortKey: 'mpn' },
-        cell: ({ row }) => <a href={`/parts/${row.original.id}`} className="font-semibold whitespace-nowrap" data-testid="part-link">{row.original.mpn}</a>,
+        id: 'mpn',
+        header: 'Part number',
+        enableHiding: false,
+        meta: { sortKey: 'mpn' },
+        cell: ({ row }) => (
+          <a href={`/parts/${row.original.id}`} className="font-semibold whitespace-nowrap" data-testid="part-link">
+            {row.original.mpn}
+          </a>
+        ),
       },
       ...searchColumns.map<ColumnDef<Part>>((c: SearchColumn) => ({
         id: c.id,
@@ -166,7 +180,8 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
   }
 
   const fields: FilterField[] = category ? CATEGORY_FIELDS[category] : [];
-  const fieldError = (key: string): string | undefined => (load.state === 'error' ? load.issues.find((i) => i.path === key)?.message : undefined);
+  const fieldError = (key: string): string | undefined =>
+    load.state === 'error' ? load.issues.find((i) => i.path === key)?.message : undefined;
   const page = data?.page ?? Number(params.get('page') ?? 1);
   const pages = data ? Math.max(1, Math.ceil(data.total / data.pageSize)) : 1;
 
@@ -187,13 +202,25 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
         {fields.length > 0 && (
           <fieldset className="grid gap-2 mb-3" data-testid="parameter-filters">
             <legend className="text-sm font-semibold text-ink mb-1">Parameters</legend>
-            {fields.map((f) => <FilterInput key={`${category}-${f.key}`} field={f} value={params.get(f.key)} error={fieldError(f.key)} onChange={(v) => update({ [f.key]: v })} />)}
+            {fields.map((f) => (
+              <FilterInput
+                key={`${category}-${f.key}`}
+                field={f}
+                value={params.get(f.key)}
+                error={fieldError(f.key)}
+                onChange={(v) => update({ [f.key]: v })}
+              />
+            ))}
             {category && (packages[category]?.length ?? 0) > 0 && (
               <label className="field">
                 Package
                 <select value={params.get('package') ?? ''} onChange={(e) => update({ package: e.target.value })}>
                   <option value="">Any</option>
-                  {packages[category].map((p) => <option key={p} value={p}>{p}</option>)}
+                  {packages[category].map((p) => (
+                    <option key={p} value={p}>
+                      {p}
+                    </option>
+                  ))}
                 </select>
               </label>
             )}
@@ -201,10 +228,27 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
         )}
         <fieldset className="grid gap-2">
           <legend className="text-sm font-semibold text-ink mb-1">Status</legend>
-          {STATUS_FIELDS.map((f) => <FilterInput key={f.key} field={f} value={params.get(f.key)} error={fieldError(f.key)} onChange={(v) => update({ [f.key]: v })} />)}
+          {STATUS_FIELDS.map((f) => (
+            <FilterInput
+              key={f.key}
+              field={f}
+              value={params.get(f.key)}
+              error={fieldError(f.key)}
+              onChange={(v) => update({ [f.key]: v })}
+            />
+          ))}
         </fieldset>
         {queryString && (
-          <button type="button" className="btn btn-quiet mt-3 text-sm" onClick={() => { setText(''); setParams(new URLSearchParams()); }}>Clear every filter</button>
+          <button
+            type="button"
+            className="btn btn-quiet mt-3 text-sm"
+            onClick={() => {
+              setText('');
+              setParams(new URLSearchParams());
+            }}
+          >
+            Clear every filter
+          </button>
         )}
       </aside>
 
@@ -212,40 +256,74 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
         <div className="flex flex-wrap items-end gap-3 mb-2">
           <label className="field grow max-w-md">
             Maker, part number or description (typos are forgiven)
-            <input type="search" value={text} onChange={(e) => setText(e.target.value)} placeholder="e.g. CWN30L01 or schottky 40 V" data-testid="search-text" />
+            <input
+              type="search"
+              value={text}
+              onChange={(e) => setText(e.target.value)}
+              placeholder="e.g. CWN30L01 or schottky 40 V"
+              data-testid="search-text"
+            />
           </label>
           <details className="relative text-sm">
             <summary className="btn btn-quiet cursor-pointer">Columns</summary>
             <div className="card absolute right-0 z-10 mt-1 p-2 grid gap-1 w-56 shadow" role="group" aria-label="Visible columns">
-              {table.getAllLeafColumns().filter((c) => c.getCanHide()).map((c) => (
-                <label key={c.id} className="flex items-center gap-2">
-                  <input type="checkbox" checked={c.getIsVisible()} onChange={c.getToggleVisibilityHandler()} />
-                  {String(c.columnDef.header)}
-                </label>
-              ))}
+              {table
+                .getAllLeafColumns()
+                .filter((c) => c.getCanHide())
+                .map((c) => (
+                  <label key={c.id} className="flex items-center gap-2">
+                    <input type="checkbox" checked={c.getIsVisible()} onChange={c.getToggleVisibilityHandler()} />
+                    {String(c.columnDef.header)}
+                  </label>
+                ))}
             </div>
           </details>
-          <a className="btn btn-quiet text-sm" href={`/api/parts.csv?${new URLSearchParams([...params].filter(([k]) => k !== 'page' && k !== 'pageSize'))}`} download>
+          <a
+            className="btn btn-quiet text-sm"
+            href={`/api/parts.csv?${new URLSearchParams([...params].filter(([k]) => k !== 'page' && k !== 'pageSize'))}`}
+            download
+          >
             <span aria-hidden="true">⤓</span> Export CSV
           </a>
-          {canCreate && <a className="btn text-sm" href={category ? `/parts/new?category=${category}` : '/parts/new'}><span aria-hidden="true">+</span> New part</a>}
+          {canCreate && (
+            <a className="btn text-sm" href={category ? `/parts/new?category=${category}` : '/parts/new'}>
+              <span aria-hidden="true">+</span> New part
+            </a>
+          )}
         </div>
 
         <p className="text-sm text-ink-soft mb-1" aria-live="polite" data-testid="result-count">
-          {loading && <span><span aria-hidden="true">⟳ </span>Searching…</span>}
+          {loading && (
+            <span>
+              <span aria-hidden="true">⟳ </span>Searching…
+            </span>
+          )}
           {!loading && data && `${data.total} part${data.total === 1 ? '' : 's'} match${data.total === 1 ? 'es' : ''}`}
         </p>
 
         {load.state === 'error' && (
           <div role="alert" className="card p-3 border-bad text-bad mb-2" data-testid="search-error">
-            <strong><span aria-hidden="true">✕ </span>{load.message}</strong>
-            {load.issues.length > 0 && <ul className="list-disc ml-5 text-sm">{load.issues.map((i) => <li key={i.path}>{i.path}: {i.message}</li>)}</ul>}
+            <strong>
+              <span aria-hidden="true">✕ </span>
+              {load.message}
+            </strong>
+            {load.issues.length > 0 && (
+              <ul className="list-disc ml-5 text-sm">
+                {load.issues.map((i) => (
+                  <li key={i.path}>
+                    {i.path}: {i.message}
+                  </li>
+                ))}
+              </ul>
+            )}
           </div>
         )}
 
         {data && data.total === 0 && !loading && (
           <div className="card p-4 text-ink-soft" data-testid="search-empty">
-            <p className="text-ink font-semibold"><span aria-hidden="true">∅ </span>No part meets every bound.</p>
+            <p className="text-ink font-semibold">
+              <span aria-hidden="true">∅ </span>No part meets every bound.
+            </p>
             <p>Loosen a bound, clear the text, or pick another category. A part you expect may still be waiting in review.</p>
           </div>
         )}
@@ -268,11 +346,18 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
                       return (
                         <th key={h.id} className={meta.numeric ? 'num' : undefined} aria-sort={meta.sortKey ? (dir ?? 'none') : undefined}>
                           {meta.sortKey ? (
-                            <button type="button" className="uppercase tracking-wide font-semibold cursor-pointer" onClick={() => toggleSort(meta.sortKey)}
-                              title="Sort by this column">
-                              {label}<span aria-hidden="true">{dir === 'ascending' ? ' ▲' : dir === 'descending' ? ' ▼' : ' ⇅'}</span>
+                            <button
+                              type="button"
+                              className="uppercase tracking-wide font-semibold cursor-pointer"
+                              onClick={() => toggleSort(meta.sortKey)}
+                              title="Sort by this column"
+                            >
+                              {label}
+                              <span aria-hidden="true">{dir === 'ascending' ? ' ▲' : dir === 'descending' ? ' ▼' : ' ⇅'}</span>
                             </button>
-                          ) : label}
+                          ) : (
+                            label
+                          )}
                         </th>
                       );
                     })}
@@ -284,7 +369,11 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
                   <tr key={row.id} data-mpn={row.original.mpn}>
                     {row.getVisibleCells().map((cell) => {
                       const meta = (cell.column.columnDef.meta ?? {}) as { numeric?: boolean };
-                      return <td key={cell.id} className={meta.numeric ? 'num whitespace-nowrap' : undefined}>{flexRender(cell.column.columnDef.cell, cell.getContext())}</td>;
+                      return (
+                        <td key={cell.id} className={meta.numeric ? 'num whitespace-nowrap' : undefined}>
+                          {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                        </td>
+                      );
                     })}
                   </tr>
                 ))}
@@ -295,13 +384,32 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
 
         {data && data.total > 0 && (
           <nav className="flex items-center gap-3 mt-2 text-sm" aria-label="Pages">
-            <button type="button" className="btn btn-quiet" disabled={page <= 1} onClick={() => update({ page: String(page - 1) }, false)}>‹ Previous</button>
-            <span>Page {page} of {pages}</span>
-            <button type="button" className="btn btn-quiet" disabled={page >= pages} onClick={() => update({ page: String(page + 1) }, false)}>Next ›</button>
+            <button type="button" className="btn btn-quiet" disabled={page <= 1} onClick={() => update({ page: String(page - 1) }, false)}>
+              ‹ Previous
+            </button>
+            <span>
+              Page {page} of {pages}
+            </span>
+            <button
+              type="button"
+              className="btn btn-quiet"
+              disabled={page >= pages}
+              onClick={() => update({ page: String(page + 1) }, false)}
+            >
+              Next ›
+            </button>
             <label className="ml-auto flex items-center gap-1">
               Rows per page
-              <select value={pageSize} onChange={(e) => update({ pageSize: e.target.value === '25' ? '' : e.target.value })} className="border border-rule rounded px-1">
-                {PAGE_SIZES.map((s) => <option key={s} value={s}>{s}</option>)}
+              <select
+                value={pageSize}
+                onChange={(e) => update({ pageSize: e.target.value === '25' ? '' : e.target.value })}
+                className="border border-rule rounded px-1"
+              >
+                {PAGE_SIZES.map((s) => (
+                  <option key={s} value={s}>
+                    {s}
+                  </option>
+                ))}
               </select>
             </label>
           </nav>
@@ -311,9 +419,19 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
   );
 }
 
-function FilterInput({ field, value, error, onChange }: { field: FilterField; value: string | null; error?: string; onChange: (v: string) => void }) {
+function FilterInput({
+  field,
+  value,
+  error,
+  onChange,
+}: {
+  field: FilterField;
+  value: string | null;
+  error?: string;
+  onChange: (v: string) => void;
+}) {
   const id = `filter-${field.key}`;
-  const [typed, setTyped] = useState(field.type === 'number' ? toDisplay(field, value) : value ?? '');
+  const [typed, setTyped] = useState(field.type === 'number' ? toDisplay(field, value) : (value ?? ''));
   useEffect(() => {
     if (field.type !== 'number') return;
     const handle = setTimeout(() => {
@@ -327,22 +445,50 @@ function FilterInput({ field, value, error, onChange }: { field: FilterField; va
         {field.label}
         <select id={id} name={field.key} value={value ?? ''} onChange={(e) => onChange(e.target.value)}>
           <option value="">Any</option>
-          {field.options.map((o) => <option key={o.value} value={o.value}>{o.label}</option>)}
+          {field.options.map((o) => (
+            <option key={o.value} value={o.value}>
+              {o.label}
+            </option>
+          ))}
         </select>
-        {error && <span className="field-error" role="alert"><span aria-hidden="true">✕ </span>{error}</span>}
+        {error && (
+          <span className="field-error" role="alert">
+            <span aria-hidden="true">✕ </span>
+            {error}
+          </span>
+        )}
       </label>
     );
   }
   return (
     <label className="field" htmlFor={id}>
-      <span>{field.label} <span className="text-ink-faint">({field.unit})</span></span>
+      <span>
+        {field.label} <span className="text-ink-faint">({field.unit})</span>
+      </span>
       <span className="flex items-center gap-1">
-        <input id={id} name={field.key} inputMode="decimal" className="w-full" value={typed} onChange={(e) => setTyped(e.target.value)}
-          aria-invalid={!!error} aria-describedby={field.hint ? `${id}-hint` : undefined} />
+        <input
+          id={id}
+          name={field.key}
+          inputMode="decimal"
+          className="w-full"
+          value={typed}
+          onChange={(e) => setTyped(e.target.value)}
+          aria-invalid={!!error}
+          aria-describedby={field.hint ? `${id}-hint` : undefined}
+        />
         <span className="text-ink-soft w-10">{field.unit}</span>
       </span>
-      {field.hint && <span id={`${id}-hint`} className="text-xs text-ink-faint">{field.hint}</span>}
-      {error && <span className="field-error" role="alert"><span aria-hidden="true">✕ </span>{error}</span>}
+      {field.hint && (
+        <span id={`${id}-hint`} className="text-xs text-ink-faint">
+          {field.hint}
+        </span>
+      )}
+      {error && (
+        <span className="field-error" role="alert">
+          <span aria-hidden="true">✕ </span>
+          {error}
+        </span>
+      )}
     </label>
   );
 }

@@ -35,17 +35,44 @@ export default function ReviewPanel({ partId, version, mpn, canReject, after }: 
       {canReject && (
         <label className="field">
           Reason, if you reject (the proposer reads it)
-          <textarea className="border border-rule rounded p-1 bg-white text-ink" rows={2} value={reason} onChange={(e) => setReason(e.target.value)}
-            aria-invalid={error?.field === 'reason'} name="reason" />
-          {error?.field === 'reason' && <span className="field-error" role="alert"><span aria-hidden="true">✕ </span>{error.message}</span>}
+          <textarea
+            className="border border-rule rounded p-1 bg-white text-ink"
+            rows={2}
+            value={reason}
+            onChange={(e) => setReason(e.target.value)}
+            aria-invalid={error?.field === 'reason'}
+            name="reason"
+          />
+          {error?.field === 'reason' && (
+            <span className="field-error" role="alert">
+              <span aria-hidden="true">✕ </span>
+              {error.message}
+            </span>
+          )}
         </label>
       )}
       <div className="flex gap-2">
-        <button type="button" className="btn" disabled={busy} onClick={() => decide('approve')}><span aria-hidden="true">✓</span> Approve</button>
-        {canReject && <button type="button" className="btn btn-quiet" disabled={busy} onClick={() => decide('reject')}><span aria-hidden="true">✕</span> Reject</button>}
+        <button type="button" className="btn" disabled={busy} onClick={() => decide('approve')}>
+          <span aria-hidden="true">✓</span> Approve
+        </button>
+        {canReject && (
+          <button type="button" className="btn btn-quiet" disabled={busy} onClick={() => decide('reject')}>
+            <span aria-hidden="true">✕</span> Reject
+          </button>
+        )}
       </div>
-      {error && error.field !== 'reason' && <p role="alert" className="field-error"><span aria-hidden="true">✕ </span>{error.message}</p>}
-      {done && <p className="text-ok" aria-live="polite"><span aria-hidden="true">✓ </span>{done}</p>}
+      {error && error.field !== 'reason' && (
+        <p role="alert" className="field-error">
+          <span aria-hidden="true">✕ </span>
+          {error.message}
+        </p>
+      )}
+      {done && (
+        <p className="text-ok" aria-live="polite">
+          <span aria-hidden="true">✓ </span>
+          {done}
+        </p>
+      )}
     </div>
   );
 }

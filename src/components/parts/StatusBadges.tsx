@@ -18,10 +18,16 @@ export function StatusBadges({ review, lifecycle }: { review?: ReviewStatus; lif
   return (
     <span className="inline-flex flex-wrap gap-1">
       {lifecycle && (
-        <span className={`tag ${lifecycle === 'active' ? '' : 'border-warn text-warn'}`}><span aria-hidden="true">{LIFE[lifecycle].icon}</span>{LIFE[lifecycle].text}</span>
+        <span className={`tag ${lifecycle === 'active' ? '' : 'border-warn text-warn'}`}>
+          <span aria-hidden="true">{LIFE[lifecycle].icon}</span>
+          {LIFE[lifecycle].text}
+        </span>
       )}
       {review && (
-        <span className={`tag ${REVIEW[review].cls}`} data-review={review}><span aria-hidden="true">{REVIEW[review].icon}</span>{REVIEW[review].text}</span>
+        <span className={`tag ${REVIEW[review].cls}`} data-review={review}>
+          <span aria-hidden="true">{REVIEW[review].icon}</span>
+          {REVIEW[review].text}
+        </span>
       )}
     </span>
   );

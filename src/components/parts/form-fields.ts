@@ -13,11 +13,25 @@ export interface FormField {
   hint?: string;
 }
 
-const num = (key: string, label: string, unit: string, extra: Partial<FormField> = {}): FormField => ({ key, label, unit, kind: 'number', ...extra });
+const num = (key: string, label: string, unit: string, extra: Partial<FormField> = {}): FormField => ({
+  key,
+  label,
+  unit,
+  kind: 'number',
+  ...extra,
+});
 
 export const PARAM_FIELDS: Record<PartCategory, FormField[]> = {
   mosfet: [
-    { key: 'channel', label: 'Channel', kind: 'select', options: [{ value: 'n', label: 'N-channel' }, { value: 'p', label: 'P-channel' }] },
+    {
+      key: 'channel',
+      label: 'Channel',
+      kind: 'select',
+      options: [
+        { value: 'n', label: 'N-channel' },
+        { value: 'p', label: 'P-channel' },
+      ],
+    },
     num('vdsMaxV', 'V(BR)DSS', 'V'),
     num('vgsMaxV', 'VGS(max)', 'V', { hint: 'absolute maximum, magnitude' }),
     num('vgsThMinV', 'VGS(th) min', 'V'),
@@ -35,14 +49,29 @@ export const PARAM_FIELDS: Record<PartCategory, FormField[]> = {
     num('bodyDiodeVfV', 'Body-diode VF', 'V', { optional: true }),
   ],
   driver: [
-    { key: 'kind', label: 'Kind', kind: 'select', options: [{ value: 'gate-driver', label: 'Gate driver' }, { value: 'level-shifter', label: 'Level shifter' }] },
+    {
+      key: 'kind',
+      label: 'Kind',
+      kind: 'select',
+      options: [
+        { value: 'gate-driver', label: 'Gate driver' },
+        { value: 'level-shifter', label: 'Level shifter' },
+      ],
+    },
     { key: 'channels', label: 'Channels', kind: 'integer' },
     { key: 'inverting', label: 'Inverting output', kind: 'boolean' },
     num('supplyMinV', 'Supply min', 'V'),
     num('supplyMaxV', 'Supply max', 'V'),
-    { key: 'inputLogic', label: 'Input thresholds', kind: 'select', options: [
-      { value: 'fixed', label: 'Fixed volts (TTL-style)' }, { value: 'ratio', label: 'Fraction of own supply (CMOS)' }, { value: 'input-rail', label: 'Fraction of the input rail' },
-    ] },
+    {
+      key: 'inputLogic',
+      label: 'Input thresholds',
+      kind: 'select',
+      options: [
+        { value: 'fixed', label: 'Fixed volts (TTL-style)' },
+        { value: 'ratio', label: 'Fraction of own supply (CMOS)' },
+        { value: 'input-rail', label: 'Fraction of the input rail' },
+      ],
+    },
     num('inputHighMin', 'VIH min', 'V or fraction', { hint: 'volts for fixed; 0–1 otherwise' }),
     num('inputLowMax', 'VIL max', 'V or fraction'),
     num('outputHighDropV', 'Output high drop below supply', 'V'),
@@ -52,15 +81,35 @@ export const PARAM_FIELDS: Record<PartCategory, FormField[]> = {
     num('propagationDelayNs', 'Propagation delay', 'ns'),
     // The INPUT pin's own pull as the datasheet draws it, never the output state: the output with an
     // open input is derived from this and "Inverting output" (the form shows it as a hint).
-    { key: 'inputPull', label: 'Internal input pull (on the input pin)', kind: 'select', hint: 'as the datasheet states the input structure, not what the output does', options: [
-      { value: 'down', label: 'Pull-down on the input (to ground)' }, { value: 'up', label: 'Pull-up on the input (to its supply)' }, { value: 'none', label: 'None: an open input floats' },
-    ] },
-    num('inputPullOhms', 'Input pull resistance', 'kΩ', { scale: 1e3, optional: true, hint: 'typical value; leave empty when the datasheet does not state it' }),
+    {
+      key: 'inputPull',
+      label: 'Internal input pull (on the input pin)',
+      kind: 'select',
+      hint: 'as the datasheet states the input structure, not what the output does',
+      options: [
+        { value: 'down', label: 'Pull-down on the input (to ground)' },
+        { value: 'up', label: 'Pull-up on the input (to its supply)' },
+        { value: 'none', label: 'None: an open input floats' },
+      ],
+    },
+    num('inputPullOhms', 'Input pull resistance', 'kΩ', {
+      scale: 1e3,
+      optional: true,
+      hint: 'typical value; leave empty when the datasheet does not state it',
+    }),
   ],
   diode: [
-    { key: 'kind', label: 'Kind', kind: 'select', options: [
-      { value: 'schottky', label: 'Schottky' }, { value: 'ultrafast', label: 'Ultrafast' }, { value: 'fast', label: 'Fast' }, { value: 'general', label: 'General purpose' },
-    ] },
+    {
+      key: 'kind',
+      label: 'Kind',
+      kind: 'select',
+      options: [
+        { value: 'schottky', label: 'Schottky' },
+        { value: 'ultrafast', label: 'Ultrafast' },
+        { value: 'fast', label: 'Fast' },
+        { value: 'general', label: 'General purpose' },
+      ],
+    },
     num('vrrmV', 'VRRM', 'V'),
     num('ifAvA', 'IF(AV)', 'A'),
     num('ifsmA', 'IFSM', 'A'),

@@ -9,7 +9,8 @@ export interface ParameterRow {
   condition: string;
 }
 
-const v = (x: number | null | undefined, digits = 4): string => (x === null || x === undefined ? '—' : String(Number(x.toPrecision(digits))));
+const v = (x: number | null | undefined, digits = 4): string =>
+  x === null || x === undefined ? '—' : String(Number(x.toPrecision(digits)));
 const row = (label: string, value: string, unit = '', condition = ''): ParameterRow => ({ label, value, unit, condition });
 
 /** A pulse length as datasheet curves label it: ms below a second, s above. */
@@ -17,7 +18,9 @@ const pulse = (s: number): string => (s < 1 ? `${v(s * 1000)} ms` : `${v(s)} s`)
 const zthRows = (points: ZthPoint[]): ParameterRow[] =>
   points.length === 0
     ? [row('Transient thermal impedance Zth(j-a)', '— (no curve points)', '', 'a timed stall cut-off is judged at steady state')]
-    : points.map((z) => row('Transient thermal impedance Zth(j-a)', v(z.zthCPerW), 'K/W', `single pulse, tp = ${pulse(z.pulseS)}, datasheet test board`));
+    : points.map((z) =>
+        row('Transient thermal impedance Zth(j-a)', v(z.zthCPerW), 'K/W', `single pulse, tp = ${pulse(z.pulseS)}, datasheet test board`),
+      );
 
 export function parameterRows(part: Part): ParameterRow[] {
   switch (part.category) {
@@ -48,7 +51,14 @@ export function parameterRows(part: Part): ParameterRow[] {
         row('Channels', String(p.channels)),
         row('Polarity', p.inverting ? 'Inverting' : 'Non-inverting'),
         row('Supply range', `${v(p.supplyMinV)} – ${v(p.supplyMaxV)}`, 'V', 'output side'),
-        row('Input thresholds', p.inputLogic === 'fixed' ? 'fixed (TTL-style)' : p.inputLogic === 'ratio' ? 'ratio of own supply (CMOS)' : 'ratio of the input rail'),
+        row(
+          'Input thresholds',
+          p.inputLogic === 'fixed'
+            ? 'fixed (TTL-style)'
+            : p.inputLogic === 'ratio'
+              ? 'ratio of own supply (CMOS)'
+              : 'ratio of the input rail',
+        ),
         row('Input high VIH min', v(p.inputHighMin), ref),
         row('Input low VIL max', v(p.inputLowMax), ref),
         row('Output high drop', v(p.outputHighDropV), 'V', 'below supply, at rated source current'),
@@ -56,8 +66,20 @@ export function parameterRows(part: Part): ParameterRow[] {
         row('Peak source current', v(p.sourceCurrentA), 'A'),
         row('Peak sink current', v(p.sinkCurrentA), 'A'),
         row('Propagation delay', v(p.propagationDelayNs), 'ns', 'worst case'),
-        row('Internal input pull', p.inputPull === 'none' ? 'none (an open input floats)' : `pull-${p.inputPull}${p.inputPullOhms != null ? `, ${v(p.inputPullOhms / 1000)} kΩ typ.` : ', value not stated'}`, '', 'on the input pin, datasheet input structure'),
-        row('Output with the input open', { low: 'LOW', high: 'HIGH', undefined: 'undefined' }[openInputOutput(p.inputPull, p.inverting)], '', `derived: input pull ${p.inputPull}, ${p.inverting ? 'inverting' : 'non-inverting'}`),
+        row(
+          'Internal input pull',
+          p.inputPull === 'none'
+            ? 'none (an open input floats)'
+            : `pull-${p.inputPull}${p.inputPullOhms != null ? `, ${v(p.inputPullOhms / 1000)} kΩ typ.` : ', value not stated'}`,
+          '',
+          'on the input pin, datasheet input structure',
+        ),
+        row(
+          'Output with the input open',
+          { low: 'LOW', high: 'HIGH', undefined: 'undefined' }[openInputOutput(p.inputPull, p.inverting)],
+          '',
+          `derived: input pull ${p.inputPull}, ${p.inverting ? 'inverting' : 'non-inverting'}`,
+        ),
       ];
     }
     case 'diode': {
@@ -69,7 +91,12 @@ export function parameterRows(part: Part): ParameterRow[] {
         row('Surge current IFSM', v(p.ifsmA), 'A', 'non-repetitive'),
         row('Forward voltage VF max', v(p.vfV), 'V', `IF = ${v(p.vfAtIfA)} A`),
         row('Reverse recovery trr', p.trrNs === null ? 'none (no stored charge)' : v(p.trrNs), p.trrNs === null ? '' : 'ns'),
-        row('Repetitive peak forward current IFRM', p.ifrmA === null ? '— (not stated)' : v(p.ifrmA), p.ifrmA === null ? '' : 'A', 'repetitive'),
+        row(
+          'Repetitive peak forward current IFRM',
+          p.ifrmA === null ? '— (not stated)' : v(p.ifrmA),
+          p.ifrmA === null ? '' : 'A',
+          'repetitive',
+        ),
         row('Thermal resistance RθJA', v(p.rthJaCPerW), 'K/W', 'datasheet test board'),
         row('Maximum junction temperature', v(p.tjMaxC), '°C'),
       ];
@@ -79,7 +106,12 @@ export function parameterRows(part: Part): ParameterRow[] {
       const at = `at ${v(p.ratedVoltageV)} V`;
       return [
         row('Rated voltage', v(p.ratedVoltageV), 'V'),
-        row('Operating range', p.voltageMinV !== null && p.voltageMaxV !== null ? `${v(p.voltageMinV)} – ${v(p.voltageMaxV)}` : '—', 'V', 'recommended'),
+        row(
+          'Operating range',
+          p.voltageMinV !== null && p.voltageMaxV !== null ? `${v(p.voltageMinV)} – ${v(p.voltageMaxV)}` : '—',
+          'V',
+          'recommended',
+        ),
         row('No-load speed', v(p.noLoadSpeedRpm, 5), 'rpm', at),
         row('No-load current', v(p.noLoadCurrentA), 'A', at),
         row('Stall torque', v(p.stallTorqueNm * 1000), 'mN·m', at),

@@ -14,7 +14,8 @@ export interface SearchColumn {
   cell: (part: Part) => string;
 }
 
-const sig = (v: number | null | undefined, digits = 3): string => (v === null || v === undefined ? '—' : String(Number(v.toPrecision(digits))));
+const sig = (v: number | null | undefined, digits = 3): string =>
+  v === null || v === undefined ? '—' : String(Number(v.toPrecision(digits)));
 const LIFE: Record<string, string> = { active: 'Active', nrnd: 'NRND', 'last-buy': 'Last buy', obsolete: 'Obsolete' };
 
 const COMMON_HEAD: SearchColumn[] = [
@@ -23,10 +24,16 @@ const COMMON_HEAD: SearchColumn[] = [
 ];
 
 const COMMON_TAIL: SearchColumn[] = [
-  { id: 'price1k', label: 'Best price @1k', numeric: true, defaultVisible: true, cell: (p) => {
-    const best = bestUnitPrice(p, 1000);
-    return best ? `${best.price.toFixed(3)} ${best.currency}` : '—';
-  } },
+  {
+    id: 'price1k',
+    label: 'Best price @1k',
+    numeric: true,
+    defaultVisible: true,
+    cell: (p) => {
+      const best = bestUnitPrice(p, 1000);
+      return best ? `${best.price.toFixed(3)} ${best.currency}` : '—';
+    },
+  },
   { id: 'stock', label: 'Stock', unit: 'pcs', numeric: true, cell: (p) => String(p.sources.reduce((s, x) => s + x.stockQty, 0)) },
   { id: 'lifecycle', label: 'Lifecycle', sortKey: 'lifecycle', defaultVisible: true, cell: (p) => LIFE[p.lifecycle] },
   { id: 'description', label: 'Description', cell: (p) => p.description },
@@ -39,54 +46,228 @@ function mosfet(p: Part) {
 const CATEGORY_COLUMNS: Record<PartCategory, SearchColumn[]> = {
   mosfet: [
     { id: 'channel', label: 'Ch.', defaultVisible: true, cell: (p) => mosfet(p)?.channel.toUpperCase() ?? '' },
-    { id: 'vds', label: 'VDS max', unit: 'V', sortKey: 'vdsMaxV', numeric: true, defaultVisible: true, cell: (p) => sig(mosfet(p)?.vdsMaxV) },
+    {
+      id: 'vds',
+      label: 'VDS max',
+      unit: 'V',
+      sortKey: 'vdsMaxV',
+      numeric: true,
+      defaultVisible: true,
+      cell: (p) => sig(mosfet(p)?.vdsMaxV),
+    },
     { id: 'vgsMax', label: 'VGS max', unit: 'V', numeric: true, cell: (p) => sig(mosfet(p)?.vgsMaxV) },
-    { id: 'vgsTh', label: 'VGS(th) max', unit: 'V', sortKey: 'vgsThMaxV', numeric: true, defaultVisible: true, cell: (p) => sig(mosfet(p)?.vgsThMaxV) },
-    { id: 'lowestVgs', label: 'Lowest spec VGS', unit: 'V', sortKey: 'minRdsOnVgsV', numeric: true, cell: (p) => sig(Math.min(...(mosfet(p)?.rdsOn.map((r) => r.vgsV) ?? [NaN]))) },
-    { id: 'rdsOn', label: 'RDS(on) max at VGS', unit: 'mΩ @ V', defaultVisible: true, cell: (p) =>
-      (mosfet(p)?.rdsOn ?? []).filter((r) => Math.abs(r.tjC - 25) <= 1).map((r) => `${sig(r.maxOhm * 1000)} @ ${sig(r.vgsV)}`).join(' · ') },
-    { id: 'id', label: 'ID (25 °C)', unit: 'A', sortKey: 'idContinuousA', numeric: true, defaultVisible: true, cell: (p) => sig(mosfet(p)?.idContinuousA) },
+    {
+      id: 'vgsTh',
+      label: 'VGS(th) max',
+      unit: 'V',
+      sortKey: 'vgsThMaxV',
+      numeric: true,
+      defaultVisible: true,
+      cell: (p) => sig(mosfet(p)?.vgsThMaxV),
+    },
+    {
+      id: 'lowestVgs',
+      label: 'Lowest spec VGS',
+      unit: 'V',
+      sortKey: 'minRdsOnVgsV',
+      numeric: true,
+      cell: (p) => sig(Math.min(...(mosfet(p)?.rdsOn.map((r) => r.vgsV) ?? [NaN]))),
+    },
+    {
+      id: 'rdsOn',
+      label: 'RDS(on) max at VGS',
+      unit: 'mΩ @ V',
+      defaultVisible: true,
+      cell: (p) =>
+        (mosfet(p)?.rdsOn ?? [])
+          .filter((r) => Math.abs(r.tjC - 25) <= 1)
+          .map((r) => `${sig(r.maxOhm * 1000)} @ ${sig(r.vgsV)}`)
+          .join(' · '),
+    },
+    {
+      id: 'id',
+      label: 'ID (25 °C)',
+      unit: 'A',
+      sortKey: 'idContinuousA',
+      numeric: true,
+      defaultVisible: true,
+      cell: (p) => sig(mosfet(p)?.idContinuousA),
+    },
     { id: 'idm', label: 'IDM', unit: 'A', numeric: true, cell: (p) => sig(mosfet(p)?.idPulsedA) },
-    { id: 'qg', label: 'Qg', unit: 'nC', sortKey: 'qgTotalNc', numeric: true, defaultVisible: true, cell: (p) => sig(mosfet(p)?.qgTotalNc) },
+    {
+      id: 'qg',
+      label: 'Qg',
+      unit: 'nC',
+      sortKey: 'qgTotalNc',
+      numeric: true,
+      defaultVisible: true,
+      cell: (p) => sig(mosfet(p)?.qgTotalNc),
+    },
     { id: 'rth', label: 'RθJA', unit: 'K/W', sortKey: 'rthJaCPerW', numeric: true, cell: (p) => sig(mosfet(p)?.rthJaCPerW) },
   ],
   driver: [
-    { id: 'kind', label: 'Kind', defaultVisible: true, cell: (p) => (p.category === 'driver' ? (p.params.kind === 'gate-driver' ? 'Gate driver' : 'Level shifter') : '') },
-    { id: 'polarity', label: 'Polarity', defaultVisible: true, cell: (p) => (p.category === 'driver' ? (p.params.inverting ? 'Inverting' : 'Non-inverting') : '') },
-    { id: 'supplyMin', label: 'Supply min', unit: 'V', sortKey: 'supplyMinV', numeric: true, defaultVisible: true, cell: (p) => (p.category === 'driver' ? sig(p.params.supplyMinV) : '') },
-    { id: 'supplyMax', label: 'Supply max', unit: 'V', sortKey: 'supplyMaxV', numeric: true, defaultVisible: true, cell: (p) => (p.category === 'driver' ? sig(p.params.supplyMaxV) : '') },
-    { id: 'vih', label: 'VIH min', defaultVisible: true, cell: (p) => {
-      if (p.category !== 'driver') return '';
-      const d = p.params;
-      return d.inputLogic === 'fixed' ? `${sig(d.inputHighMin)} V` : `${Math.round(d.inputHighMin * 100)} % of ${d.inputLogic === 'ratio' ? 'supply' : 'input rail'}`;
-    } },
-    { id: 'source', label: 'Source', unit: 'A', sortKey: 'sourceCurrentA', numeric: true, defaultVisible: true, cell: (p) => (p.category === 'driver' ? sig(p.params.sourceCurrentA) : '') },
+    {
+      id: 'kind',
+      label: 'Kind',
+      defaultVisible: true,
+      cell: (p) => (p.category === 'driver' ? (p.params.kind === 'gate-driver' ? 'Gate driver' : 'Level shifter') : ''),
+    },
+    {
+      id: 'polarity',
+      label: 'Polarity',
+      defaultVisible: true,
+      cell: (p) => (p.category === 'driver' ? (p.params.inverting ? 'Inverting' : 'Non-inverting') : ''),
+    },
+    {
+      id: 'supplyMin',
+      label: 'Supply min',
+      unit: 'V',
+      sortKey: 'supplyMinV',
+      numeric: true,
+      defaultVisible: true,
+      cell: (p) => (p.category === 'driver' ? sig(p.params.supplyMinV) : ''),
+    },
+    {
+      id: 'supplyMax',
+      label: 'Supply max',
+      unit: 'V',
+      sortKey: 'supplyMaxV',
+      numeric: true,
+      defaultVisible: true,
+      cell: (p) => (p.category === 'driver' ? sig(p.params.supplyMaxV) : ''),
+    },
+    {
+      id: 'vih',
+      label: 'VIH min',
+      defaultVisible: true,
+      cell: (p) => {
+        if (p.category !== 'driver') return '';
+        const d = p.params;
+        return d.inputLogic === 'fixed'
+          ? `${sig(d.inputHighMin)} V`
+          : `${Math.round(d.inputHighMin * 100)} % of ${d.inputLogic === 'ratio' ? 'supply' : 'input rail'}`;
+      },
+    },
+    {
+      id: 'source',
+      label: 'Source',
+      unit: 'A',
+      sortKey: 'sourceCurrentA',
+      numeric: true,
+      defaultVisible: true,
+      cell: (p) => (p.category === 'driver' ? sig(p.params.sourceCurrentA) : ''),
+    },
     { id: 'sink', label: 'Sink', unit: 'A', numeric: true, cell: (p) => (p.category === 'driver' ? sig(p.params.sinkCurrentA) : '') },
-    { id: 'tpd', label: 'Delay', unit: 'ns', sortKey: 'propagationDelayNs', numeric: true, cell: (p) => (p.category === 'driver' ? sig(p.params.propagationDelayNs) : '') },
-    { id: 'inputPull', label: 'Input pull', cell: (p) => {
-      if (p.category !== 'driver') return '';
-      const d = p.params;
-      return d.inputPull === 'none' ? 'none' : `${d.inputPull}${d.inputPullOhms != null ? ` ${sig(d.inputPullOhms / 1000)} kΩ` : ''}`;
-    } },
-    { id: 'openInput', label: 'Output, input open', cell: (p) => (p.category === 'driver' ? openInputOutput(p.params.inputPull, p.params.inverting) : '') },
+    {
+      id: 'tpd',
+      label: 'Delay',
+      unit: 'ns',
+      sortKey: 'propagationDelayNs',
+      numeric: true,
+      cell: (p) => (p.category === 'driver' ? sig(p.params.propagationDelayNs) : ''),
+    },
+    {
+      id: 'inputPull',
+      label: 'Input pull',
+      cell: (p) => {
+        if (p.category !== 'driver') return '';
+        const d = p.params;
+        return d.inputPull === 'none' ? 'none' : `${d.inputPull}${d.inputPullOhms != null ? ` ${sig(d.inputPullOhms / 1000)} kΩ` : ''}`;
+      },
+    },
+    {
+      id: 'openInput',
+      label: 'Output, input open',
+      cell: (p) => (p.category === 'driver' ? openInputOutput(p.params.inputPull, p.params.inverting) : ''),
+    },
   ],
   diode: [
     { id: 'kind', label: 'Kind', defaultVisible: true, cell: (p) => (p.category === 'diode' ? p.params.kind : '') },
-    { id: 'vrrm', label: 'VRRM', unit: 'V', sortKey: 'vrrmV', numeric: true, defaultVisible: true, cell: (p) => (p.category === 'diode' ? sig(p.params.vrrmV) : '') },
-    { id: 'ifav', label: 'IF(AV)', unit: 'A', sortKey: 'ifAvA', numeric: true, defaultVisible: true, cell: (p) => (p.category === 'diode' ? sig(p.params.ifAvA) : '') },
-    { id: 'vf', label: 'VF max', unit: 'V', sortKey: 'vfV', numeric: true, defaultVisible: true, cell: (p) => (p.category === 'diode' ? `${sig(p.params.vfV)} @ ${sig(p.params.vfAtIfA)} A` : '') },
-    { id: 'trr', label: 'trr', unit: 'ns', sortKey: 'trrNs', numeric: true, defaultVisible: true, cell: (p) => (p.category === 'diode' ? (p.params.trrNs === null ? 'none' : sig(p.params.trrNs)) : '') },
+    {
+      id: 'vrrm',
+      label: 'VRRM',
+      unit: 'V',
+      sortKey: 'vrrmV',
+      numeric: true,
+      defaultVisible: true,
+      cell: (p) => (p.category === 'diode' ? sig(p.params.vrrmV) : ''),
+    },
+    {
+      id: 'ifav',
+      label: 'IF(AV)',
+      unit: 'A',
+      sortKey: 'ifAvA',
+      numeric: true,
+      defaultVisible: true,
+      cell: (p) => (p.category === 'diode' ? sig(p.params.ifAvA) : ''),
+    },
+    {
+      id: 'vf',
+      label: 'VF max',
+      unit: 'V',
+      sortKey: 'vfV',
+      numeric: true,
+      defaultVisible: true,
+      cell: (p) => (p.category === 'diode' ? `${sig(p.params.vfV)} @ ${sig(p.params.vfAtIfA)} A` : ''),
+    },
+    {
+      id: 'trr',
+      label: 'trr',
+      unit: 'ns',
+      sortKey: 'trrNs',
+      numeric: true,
+      defaultVisible: true,
+      cell: (p) => (p.category === 'diode' ? (p.params.trrNs === null ? 'none' : sig(p.params.trrNs)) : ''),
+    },
     { id: 'ifsm', label: 'IFSM', unit: 'A', numeric: true, cell: (p) => (p.category === 'diode' ? sig(p.params.ifsmA) : '') },
     { id: 'ifrm', label: 'IFRM', unit: 'A', numeric: true, cell: (p) => (p.category === 'diode' ? sig(p.params.ifrmA) : '') },
     { id: 'rthD', label: 'RθJA', unit: 'K/W', numeric: true, cell: (p) => (p.category === 'diode' ? sig(p.params.rthJaCPerW) : '') },
     { id: 'tjD', label: 'Tj max', unit: '°C', numeric: true, cell: (p) => (p.category === 'diode' ? sig(p.params.tjMaxC) : '') },
   ],
   motor: [
-    { id: 'rated', label: 'Rated', unit: 'V', sortKey: 'ratedVoltageV', numeric: true, defaultVisible: true, cell: (p) => (p.category === 'motor' ? sig(p.params.ratedVoltageV) : '') },
-    { id: 'speed', label: 'No-load speed', unit: 'rpm', sortKey: 'noLoadSpeedRpm', numeric: true, defaultVisible: true, cell: (p) => (p.category === 'motor' ? sig(p.params.noLoadSpeedRpm, 5) : '') },
-    { id: 'torque', label: 'Stall torque', unit: 'mN·m', sortKey: 'stallTorqueNm', numeric: true, defaultVisible: true, cell: (p) => (p.category === 'motor' ? sig(p.params.stallTorqueNm * 1000) : '') },
-    { id: 'stallI', label: 'Stall current', unit: 'A', sortKey: 'stallCurrentA', numeric: true, defaultVisible: true, cell: (p) => (p.category === 'motor' ? sig(p.params.stallCurrentA) : '') },
-    { id: 'noLoadI', label: 'No-load current', unit: 'A', numeric: true, cell: (p) => (p.category === 'motor' ? sig(p.params.noLoadCurrentA) : '') },
+    {
+      id: 'rated',
+      label: 'Rated',
+      unit: 'V',
+      sortKey: 'ratedVoltageV',
+      numeric: true,
+      defaultVisible: true,
+      cell: (p) => (p.category === 'motor' ? sig(p.params.ratedVoltageV) : ''),
+    },
+    {
+      id: 'speed',
+      label: 'No-load speed',
+      unit: 'rpm',
+      sortKey: 'noLoadSpeedRpm',
+      numeric: true,
+      defaultVisible: true,
+      cell: (p) => (p.category === 'motor' ? sig(p.params.noLoadSpeedRpm, 5) : ''),
+    },
+    {
+      id: 'torque',
+      label: 'Stall torque',
+      unit: 'mN·m',
+      sortKey: 'stallTorqueNm',
+      numeric: true,
+      defaultVisible: true,
+      cell: (p) => (p.category === 'motor' ? sig(p.params.stallTorqueNm * 1000) : ''),
+    },
+    {
+      id: 'stallI',
+      label: 'Stall current',
+      unit: 'A',
+      sortKey: 'stallCurrentA',
+      numeric: true,
+      defaultVisible: true,
+      cell: (p) => (p.category === 'motor' ? sig(p.params.stallCurrentA) : ''),
+    },
+    {
+      id: 'noLoadI',
+      label: 'No-load current',
+      unit: 'A',
+      numeric: true,
+      cell: (p) => (p.category === 'motor' ? sig(p.params.noLoadCurrentA) : ''),
+    },
   ],
 };
 

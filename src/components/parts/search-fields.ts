@@ -23,11 +23,26 @@ export interface ChoiceField {
 
 export type FilterField = NumberField | ChoiceField;
 
-const n = (key: string, label: string, unit: string, scale = 1, hint?: string): NumberField => ({ type: 'number', key, label, unit, scale, hint });
+const n = (key: string, label: string, unit: string, scale = 1, hint?: string): NumberField => ({
+  type: 'number',
+  key,
+  label,
+  unit,
+  scale,
+  hint,
+});
 
 export const CATEGORY_FIELDS: Record<PartCategory, FilterField[]> = {
   mosfet: [
-    { type: 'choice', key: 'channel', label: 'Channel', options: [{ value: 'n', label: 'N-channel' }, { value: 'p', label: 'P-channel' }] },
+    {
+      type: 'choice',
+      key: 'channel',
+      label: 'Channel',
+      options: [
+        { value: 'n', label: 'N-channel' },
+        { value: 'p', label: 'P-channel' },
+      ],
+    },
     n('vdsMinV', 'VDS max at least', 'V'),
     n('vgsThMaxV', 'VGS(th) max at most', 'V'),
     n('rdsOnAtVgsV', 'Gate drive VGS', 'V', 1, 'Keeps parts whose RDS(on) is specified at or below this drive'),
@@ -39,12 +54,28 @@ export const CATEGORY_FIELDS: Record<PartCategory, FilterField[]> = {
     n('logicRailV', 'Input accepts logic at', 'V', 1, 'Logic high taken as this rail'),
     n('supplyV', 'Driver supply', 'V', 1, 'Must lie in the rated supply range'),
     n('outputHighMinV', 'Output high at least', 'V'),
-    { type: 'choice', key: 'inverting', label: 'Polarity', options: [{ value: 'false', label: 'Non-inverting' }, { value: 'true', label: 'Inverting' }] },
+    {
+      type: 'choice',
+      key: 'inverting',
+      label: 'Polarity',
+      options: [
+        { value: 'false', label: 'Non-inverting' },
+        { value: 'true', label: 'Inverting' },
+      ],
+    },
   ],
   diode: [
-    { type: 'choice', key: 'kind', label: 'Kind', options: [
-      { value: 'schottky', label: 'Schottky' }, { value: 'ultrafast', label: 'Ultrafast' }, { value: 'fast', label: 'Fast' }, { value: 'general', label: 'General purpose' },
-    ] },
+    {
+      type: 'choice',
+      key: 'kind',
+      label: 'Kind',
+      options: [
+        { value: 'schottky', label: 'Schottky' },
+        { value: 'ultrafast', label: 'Ultrafast' },
+        { value: 'fast', label: 'Fast' },
+        { value: 'general', label: 'General purpose' },
+      ],
+    },
     n('vrrmMinV', 'VRRM at least', 'V'),
     n('ifAvMinA', 'IF(AV) at least', 'A'),
     n('trrMaxNs', 'trr at most', 'ns', 1, 'Schottky parts (no recovery) pass'),
@@ -58,12 +89,28 @@ export const CATEGORY_FIELDS: Record<PartCategory, FilterField[]> = {
 };
 
 export const STATUS_FIELDS: ChoiceField[] = [
-  { type: 'choice', key: 'lifecycle', label: 'Lifecycle', options: [
-    { value: 'active', label: 'Active' }, { value: 'nrnd', label: 'NRND' }, { value: 'last-buy', label: 'Last buy' }, { value: 'obsolete', label: 'Obsolete' },
-  ] },
-  { type: 'choice', key: 'reviewStatus', label: 'Review', options: [
-    { value: 'approved', label: 'Approved' }, { value: 'pending', label: 'Pending review' }, { value: 'draft', label: 'Draft' }, { value: 'rejected', label: 'Rejected' },
-  ] },
+  {
+    type: 'choice',
+    key: 'lifecycle',
+    label: 'Lifecycle',
+    options: [
+      { value: 'active', label: 'Active' },
+      { value: 'nrnd', label: 'NRND' },
+      { value: 'last-buy', label: 'Last buy' },
+      { value: 'obsolete', label: 'Obsolete' },
+    ],
+  },
+  {
+    type: 'choice',
+    key: 'reviewStatus',
+    label: 'Review',
+    options: [
+      { value: 'approved', label: 'Approved' },
+      { value: 'pending', label: 'Pending review' },
+      { value: 'draft', label: 'Draft' },
+      { value: 'rejected', label: 'Rejected' },
+    ],
+  },
 ];
 
 /** API value (string in the URL) → what the input shows. */

@@ -35,31 +35,68 @@ export default function InviteForm({ onInvited }: { onInvited(person: PersonView
     onInvited(res.data.person);
     setEmail('');
     setName('');
-    setStatus(res.data.mailSent
-      ? { tone: 'ok', text: `Invitation sent to ${res.data.person.email}.` }
-      : { tone: 'bad', text: `${res.data.person.email} is on the list, but the mail server refused the message. Use “Resend invite” later.` });
+    setStatus(
+      res.data.mailSent
+        ? { tone: 'ok', text: `Invitation sent to ${res.data.person.email}.` }
+        : {
+            tone: 'bad',
+            text: `${res.data.person.email} is on the list, but the mail server refused the message. Use “Resend invite” later.`,
+          },
+    );
   }
 
   const rolesError = issueFor(issues, 'roles');
   return (
-    <form onSubmit={submit} noValidate method="post" className="card p-4 flex flex-col gap-3" aria-labelledby="h-invite" data-testid="invite-form">
-      <h2 id="h-invite" className="text-lg">Invite someone</h2>
+    <form
+      onSubmit={submit}
+      noValidate
+      method="post"
+      className="card p-4 flex flex-col gap-3"
+      aria-labelledby="h-invite"
+      data-testid="invite-form"
+    >
+      <h2 id="h-invite" className="text-lg">
+        Invite someone
+      </h2>
       <div className="grid gap-3 md:grid-cols-2">
-        <Field readOnly={!hydrated} id="invite-email" label="E-mail address" type="email" value={email} onChange={setEmail} error={issueFor(issues, 'email')} />
+        <Field
+          readOnly={!hydrated}
+          id="invite-email"
+          label="E-mail address"
+          type="email"
+          value={email}
+          onChange={setEmail}
+          error={issueFor(issues, 'email')}
+        />
         <Field readOnly={!hydrated} id="invite-name" label="Name" value={name} onChange={setName} error={issueFor(issues, 'name')} />
       </div>
       <fieldset className="flex flex-wrap gap-4 text-sm" aria-describedby={rolesError ? 'invite-roles-error' : undefined}>
         <legend className="text-ink-soft mb-1">Roles</legend>
         {ROLE_NAMES.map((role) => (
           <label key={role} className="inline-flex items-center gap-1">
-            <input type="checkbox" checked={roles.includes(role)} onChange={() => toggle(role)} name={`invite-role-${role}`} disabled={!hydrated} />
+            <input
+              type="checkbox"
+              checked={roles.includes(role)}
+              onChange={() => toggle(role)}
+              name={`invite-role-${role}`}
+              disabled={!hydrated}
+            />
             {role}
           </label>
         ))}
-        {rolesError && <span id="invite-roles-error" className="field-error w-full"><span aria-hidden="true">✕ </span>{rolesError}</span>}
+        {rolesError && (
+          <span id="invite-roles-error" className="field-error w-full">
+            <span aria-hidden="true">✕ </span>
+            {rolesError}
+          </span>
+        )}
       </fieldset>
       {status && <StatusLine tone={status.tone}>{status.text}</StatusLine>}
-      <div><button type="submit" className="btn" disabled={status?.tone === 'busy' || !hydrated}>Send invitation</button></div>
+      <div>
+        <button type="submit" className="btn" disabled={status?.tone === 'busy' || !hydrated}>
+          Send invitation
+        </button>
+      </div>
     </form>
   );
 }

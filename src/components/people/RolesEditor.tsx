@@ -18,8 +18,13 @@ export function RolesEditor({ person, isSelf, onSave }: Props): ReactNode {
     <span className="flex flex-wrap items-center gap-2" role="group" aria-label={`Roles of ${person.name}`}>
       {ROLE_NAMES.map((r) => (
         <label key={r} className="inline-flex items-center gap-1 whitespace-nowrap">
-          <input type="checkbox" checked={roles.includes(r)} onChange={() => toggle(r)} disabled={!hydrated || (isSelf && r === 'admin')}
-            aria-label={`${r} (${person.name})`} />
+          <input
+            type="checkbox"
+            checked={roles.includes(r)}
+            onChange={() => toggle(r)}
+            disabled={!hydrated || (isSelf && r === 'admin')}
+            aria-label={`${r} (${person.name})`}
+          />
           {r}
         </label>
       ))}
@@ -28,7 +33,11 @@ export function RolesEditor({ person, isSelf, onSave }: Props): ReactNode {
           Save roles
         </button>
       )}
-      {changed && !roles.length && <span className="field-error"><span aria-hidden="true">✕ </span>at least one role</span>}
+      {changed && !roles.length && (
+        <span className="field-error">
+          <span aria-hidden="true">✕ </span>at least one role
+        </span>
+      )}
     </span>
   );
 }

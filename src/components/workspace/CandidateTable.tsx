@@ -26,18 +26,40 @@ const LIFE: Record<string, string> = { active: 'Active', nrnd: 'NRND', 'last-buy
 
 /** Marks a part in another package than the chosen one (words and icon). */
 export function FootprintChange() {
-  return <span className="tag ml-1 text-warn border-warn" data-testid="footprint-change" title="Another package than the chosen part: the board needs a different footprint to take it.">⇄ footprint change</span>;
+  return (
+    <span
+      className="tag ml-1 text-warn border-warn"
+      data-testid="footprint-change"
+      title="Another package than the chosen part: the board needs a different footprint to take it."
+    >
+      ⇄ footprint change
+    </span>
+  );
 }
 
 function Reasons({ checks }: { checks: CandidateResult['checks'] }) {
   return (
     <table className="w-full text-xs my-1">
-      <thead><tr className="text-ink-soft"><th className="text-left font-semibold w-6"></th><th className="text-left font-semibold">Check</th><th className="text-right font-semibold">Value</th><th className="text-right font-semibold">Limit</th><th className="text-right font-semibold">Margin</th><th className="text-left font-semibold pl-3">Why</th></tr></thead>
+      <thead>
+        <tr className="text-ink-soft">
+          <th className="text-left font-semibold w-6"></th>
+          <th className="text-left font-semibold">Check</th>
+          <th className="text-right font-semibold">Value</th>
+          <th className="text-right font-semibold">Limit</th>
+          <th className="text-right font-semibold">Margin</th>
+          <th className="text-left font-semibold pl-3">Why</th>
+        </tr>
+      </thead>
       <tbody>
         {checks.map((c) => (
           <tr key={c.id} data-check={c.id}>
-            <td><CheckMark ok={c.ok} severity={c.severity} /></td>
-            <td className="pr-2 min-w-36">{checkLabel(c.id)}<span className="block text-ink-faint">{c.id}</span></td>
+            <td>
+              <CheckMark ok={c.ok} severity={c.severity} />
+            </td>
+            <td className="pr-2 min-w-36">
+              {checkLabel(c.id)}
+              <span className="block text-ink-faint">{c.id}</span>
+            </td>
             <td className="text-right num whitespace-nowrap">{fmt(c.value, c.unit)}</td>
             <td className="text-right num whitespace-nowrap">{fmt(c.limit, c.unit)}</td>
             <td className="text-right num">{margin(c.margin)}</td>
@@ -54,7 +76,13 @@ export default function CandidateTable<T extends MatchEntry>({ role, caption, en
   const [open, setOpen] = useState<Set<string>>(new Set());
   const [showAll, setShowAll] = useState(false);
   const rows = showAll ? entries : entries.slice(0, 10);
-  const toggle = (key: string) => setOpen((s) => { const n = new Set(s); if (n.has(key)) n.delete(key); else n.add(key); return n; });
+  const toggle = (key: string) =>
+    setOpen((s) => {
+      const n = new Set(s);
+      if (n.has(key)) n.delete(key);
+      else n.add(key);
+      return n;
+    });
   const choose = (id: number) => onSelect({ chosenPartId: id, alternatePartIds: selection.alternatePartIds.filter((a) => a !== id) });
   const toggleAlt = (id: number) => {
     const has = selection.alternatePartIds.includes(id);
@@ -68,10 +96,21 @@ export default function CandidateTable<T extends MatchEntry>({ role, caption, en
         <caption className="sr-only">{caption}</caption>
         <thead>
           <tr>
-            <th>Verdict</th><th>Part number</th><th>Maker</th><th>Package</th>
-            {extra.map((c) => <th key={c.header} className="num">{c.header}</th>)}
-            <th className="num">Score</th><th className="num">Price</th><th>Lifecycle</th>
-            {!readOnly && <th>Use</th>}{!readOnly && <th>Alt.</th>}<th></th>
+            <th>Verdict</th>
+            <th>Part number</th>
+            <th>Maker</th>
+            <th>Package</th>
+            {extra.map((c) => (
+              <th key={c.header} className="num">
+                {c.header}
+              </th>
+            ))}
+            <th className="num">Score</th>
+            <th className="num">Price</th>
+            <th>Lifecycle</th>
+            {!readOnly && <th>Use</th>}
+            {!readOnly && <th>Alt.</th>}
+            <th></th>
           </tr>
         </thead>
         <tbody>
@@ -82,22 +121,52 @@ export default function CandidateTable<T extends MatchEntry>({ role, caption, en
             return (
               <Fragment key={key}>
                 <tr data-mpn={e.mpn} data-verdict={e.verdict}>
-                  <td><Verdict verdict={e.verdict} /></td>
-                  <td className="font-semibold whitespace-nowrap">{e.mpn}{e.reviewStatus === 'pending' ? <span className="tag ml-1">pending review</span> : null}{e.footprintChange ? <FootprintChange /> : null}</td>
+                  <td>
+                    <Verdict verdict={e.verdict} />
+                  </td>
+                  <td className="font-semibold whitespace-nowrap">
+                    {e.mpn}
+                    {e.reviewStatus === 'pending' ? <span className="tag ml-1">pending review</span> : null}
+                    {e.footprintChange ? <FootprintChange /> : null}
+                  </td>
                   <td className="whitespace-nowrap">{e.manufacturer}</td>
                   <td className="whitespace-nowrap">{e.package}</td>
-                  {extra.map((c) => <td key={c.header} className="num whitespace-nowrap">{c.cell(e)}</td>)}
+                  {extra.map((c) => (
+                    <td key={c.header} className="num whitespace-nowrap">
+                      {c.cell(e)}
+                    </td>
+                  ))}
                   <td className="num">{e.score.toFixed(0)}</td>
-                  <td className="num whitespace-nowrap">{e.priceAtQty ? `${e.priceAtQty.unitPrice.toFixed(3)} ${e.priceAtQty.currency}` : '—'}</td>
+                  <td className="num whitespace-nowrap">
+                    {e.priceAtQty ? `${e.priceAtQty.unitPrice.toFixed(3)} ${e.priceAtQty.currency}` : '—'}
+                  </td>
                   <td>{LIFE[e.lifecycle]}</td>
                   {!readOnly && (
-                    <td><input type="radio" name={`use-${role}`} aria-label={`Use ${e.mpn}`} checked={selection.chosenPartId === id}
-                      disabled={e.verdict === 'fail' && selection.chosenPartId !== id} title={e.verdict === 'fail' ? 'A failing part cannot be chosen' : undefined} onChange={() => choose(id)} /></td>
+                    <td>
+                      <input
+                        type="radio"
+                        name={`use-${role}`}
+                        aria-label={`Use ${e.mpn}`}
+                        checked={selection.chosenPartId === id}
+                        disabled={e.verdict === 'fail' && selection.chosenPartId !== id}
+                        title={e.verdict === 'fail' ? 'A failing part cannot be chosen' : undefined}
+                        onChange={() => choose(id)}
+                      />
+                    </td>
                   )}
                   {!readOnly && (
-                    <td><input type="checkbox" aria-label={`Alternate ${e.mpn}`} checked={selection.alternatePartIds.includes(id)}
-                      disabled={!selection.alternatePartIds.includes(id) && (selection.alternatePartIds.length >= 3 || e.verdict !== 'pass')}
-                      title={e.verdict !== 'pass' ? 'Alternates must pass every check' : undefined} onChange={() => toggleAlt(id)} /></td>
+                    <td>
+                      <input
+                        type="checkbox"
+                        aria-label={`Alternate ${e.mpn}`}
+                        checked={selection.alternatePartIds.includes(id)}
+                        disabled={
+                          !selection.alternatePartIds.includes(id) && (selection.alternatePartIds.length >= 3 || e.verdict !== 'pass')
+                        }
+                        title={e.verdict !== 'pass' ? 'Alternates must pass every check' : undefined}
+                        onChange={() => toggleAlt(id)}
+                      />
+                    </td>
                   )}
                   <td>
                     <button type="button" className="btn-quiet text-xs px-1.5 rounded" aria-expanded={isOpen} onClick={() => toggle(key)}>
@@ -106,7 +175,11 @@ export default function CandidateTable<T extends MatchEntry>({ role, caption, en
                   </td>
                 </tr>
                 {isOpen && (
-                  <tr className="bg-paper"><td colSpan={99}><Reasons checks={e.checks} /></td></tr>
+                  <tr className="bg-paper">
+                    <td colSpan={99}>
+                      <Reasons checks={e.checks} />
+                    </td>
+                  </tr>
                 )}
               </Fragment>
             );

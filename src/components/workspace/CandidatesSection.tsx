@@ -19,7 +19,8 @@ type SwitchEntry = DesignMatch['switch'][number];
 type DriverEntry = DesignMatch['driver'][number];
 type DiodeEntry = DesignMatch['diode'][number];
 
-const n = (v: number | null | undefined, unit: string, scale = 1, d = 3) => (v == null ? '—' : `${Number((v * scale).toPrecision(d))} ${unit}`);
+const n = (v: number | null | undefined, unit: string, scale = 1, d = 3) =>
+  v == null ? '—' : `${Number((v * scale).toPrecision(d))} ${unit}`;
 const checkValue = (e: { checks: { id: string; value: number | null; unit: string }[] }, id: string, scale = 1) => {
   const c = e.checks.find((x) => x.id === id);
   return c ? n(c.value, c.unit === 'A' && scale !== 1 ? 'mA' : c.unit, scale) : '—';
@@ -36,7 +37,11 @@ const SWITCH_COLS: ExtraColumn<SwitchEntry>[] = [
   { header: 'RDS(on) @ drive', cell: (e) => n(e.evaluation.rdsOnAtDriveOhms, 'mΩ', 1000) },
   { header: 'Tj', cell: (e) => n(e.evaluation.junctionC, '°C') },
   { header: 'Tj jammed', cell: stallTj },
-  { header: 'Loss', cell: (e) => (e.evaluation.conductionLossW == null ? '—' : n(e.evaluation.conductionLossW + (e.evaluation.switchingLossW ?? 0), 'mW', 1000)) },
+  {
+    header: 'Loss',
+    cell: (e) =>
+      e.evaluation.conductionLossW == null ? '—' : n(e.evaluation.conductionLossW + (e.evaluation.switchingLossW ?? 0), 'mW', 1000),
+  },
 ];
 const DRIVER_COLS: ExtraColumn<DriverEntry>[] = [
   { header: 'Output high', cell: (e) => checkValue(e, 'output-high') },
@@ -50,12 +55,20 @@ const DIODE_COLS: ExtraColumn<DiodeEntry>[] = [
 ];
 
 function Line({ children, testId }: { children: ReactNode; testId: string }) {
-  return <p className="text-sm px-1 pb-1" data-testid={testId}>{children}</p>;
+  return (
+    <p className="text-sm px-1 pb-1" data-testid={testId}>
+      {children}
+    </p>
+  );
 }
 
 function Excluded({ count, what }: { count: number; what: string }) {
   if (!count) return null;
-  return <p className="text-xs text-ink-faint mt-1">{count} {what} left out before ranking: a rating can never pass (or the part is obsolete).</p>;
+  return (
+    <p className="text-xs text-ink-faint mt-1">
+      {count} {what} left out before ranking: a rating can never pass (or the part is obsolete).
+    </p>
+  );
 }
 
 /** Steps 4–6: switch, gate drive, freewheel diode. */
@@ -64,11 +77,25 @@ export default function CandidatesSection({ match, input, onSelect, readOnly, St
   const pairedSwitch = match.driver[0]?.pairing;
   return (
     <>
-      <Step n={4} title={match.driverNeeded ? 'Switch (driven through a gate driver)' : 'Switch (driven straight from the logic pin)'} testId="step-switch">
+      <Step
+        n={4}
+        title={match.driverNeeded ? 'Switch (driven through a gate driver)' : 'Switch (driven straight from the logic pin)'}
+        testId="step-switch"
+      >
         <div className="card p-2">
           <Line testId="switch-drive">{switchDriveLine(match.switchDrive, driverSupplyRangeOf(input).minV)}</Line>
-          <p className="text-xs text-ink-faint px-1 pb-1" data-testid="score-explanation">{match.scoreExplanation}</p>
-          <CandidateTable role="switch" caption="Switch candidates" entries={switches} extra={SWITCH_COLS} selection={input.selections.switch} onSelect={onSelect('switch')} readOnly={readOnly} />
+          <p className="text-xs text-ink-faint px-1 pb-1" data-testid="score-explanation">
+            {match.scoreExplanation}
+          </p>
+          <CandidateTable
+            role="switch"
+            caption="Switch candidates"
+            entries={switches}
+            extra={SWITCH_COLS}
+            selection={input.selections.switch}
+            onSelect={onSelect('switch')}
+            readOnly={readOnly}
+          />
           <Excluded count={match.excluded.switch} what="MOSFETs" />
         </div>
       </Step>
@@ -78,18 +105,44 @@ export default function CandidatesSection({ match, input, onSelect, readOnly, St
             <p className="p-2 mb-2 rounded border border-warn bg-warn-wash text-warn text-sm" role="note" data-testid="driver-needed">
               <strong>! A gate driver is needed.</strong> {match.driverNeededNote}
             </p>
-            <Line testId="driver-pairing">{driversRankedForLine(pairedSwitch?.switchMpn ?? null, pairedSwitch != null && pairedSwitch.switchPartId === input.selections.switch.chosenPartId)}</Line>
-            <CandidateTable role="driver" caption="Gate driver candidates" entries={match.driver} extra={DRIVER_COLS} selection={input.selections.driver} onSelect={onSelect('driver')} readOnly={readOnly} />
+            <Line testId="driver-pairing">
+              {driversRankedForLine(
+                pairedSwitch?.switchMpn ?? null,
+                pairedSwitch != null && pairedSwitch.switchPartId === input.selections.switch.chosenPartId,
+              )}
+            </Line>
+            <CandidateTable
+              role="driver"
+              caption="Gate driver candidates"
+              entries={match.driver}
+              extra={DRIVER_COLS}
+              selection={input.selections.driver}
+              onSelect={onSelect('driver')}
+              readOnly={readOnly}
+            />
             <Excluded count={match.excluded.driver} what="drivers" />
           </div>
         ) : (
-          <p className="card p-3 text-sm" data-testid="direct-drive">✓ Direct drive: the logic high of {match.worstCase.gateDriveMinV} V enhances the passing switches; no driver needed. Keep the gate trace short and add a gate resistor footprint.</p>
+          <p className="card p-3 text-sm" data-testid="direct-drive">
+            ✓ Direct drive: the logic high of {match.worstCase.gateDriveMinV} V enhances the passing switches; no driver needed. Keep the
+            gate trace short and add a gate resistor footprint.
+          </p>
         )}
       </Step>
       <Step n={6} title="Freewheel diode" testId="step-diode">
         <div className="card p-2">
-          <p className="text-xs text-ink-soft px-1 pb-1">⚠ Inductive spike: fit the diode across the motor, cathode to the positive supply. The MOSFET's body diode does not do this job.</p>
-          <CandidateTable role="diode" caption="Diode candidates" entries={match.diode} extra={DIODE_COLS} selection={input.selections.diode} onSelect={onSelect('diode')} readOnly={readOnly} />
+          <p className="text-xs text-ink-soft px-1 pb-1">
+            ⚠ Inductive spike: fit the diode across the motor, cathode to the positive supply. The MOSFET's body diode does not do this job.
+          </p>
+          <CandidateTable
+            role="diode"
+            caption="Diode candidates"
+            entries={match.diode}
+            extra={DIODE_COLS}
+            selection={input.selections.diode}
+            onSelect={onSelect('diode')}
+            readOnly={readOnly}
+          />
           <Excluded count={match.excluded.diode} what="diodes" />
         </div>
       </Step>

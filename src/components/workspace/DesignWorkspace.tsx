@@ -20,7 +20,10 @@ export interface WorkspaceProps {
 function Step({ n, title, children, testId }: { n: number; title: string; children: React.ReactNode; testId?: string }) {
   return (
     <section className="mb-5" aria-labelledby={`step-${n}`} data-testid={testId}>
-      <h2 id={`step-${n}`} className="text-lg mb-2 flex items-baseline gap-2"><span className="text-copper font-bold">{n}</span>{title}</h2>
+      <h2 id={`step-${n}`} className="text-lg mb-2 flex items-baseline gap-2">
+        <span className="text-copper font-bold">{n}</span>
+        {title}
+      </h2>
       {children}
     </section>
   );
@@ -47,12 +50,23 @@ export default function DesignWorkspace({ design, initialInput, motors, canEdit 
     setBusy(true);
     setSaveMsg(null);
     const res = meta
-      ? await sendJson<{ id: number; version: number; revision: number; status: DesignStatus; ownerName: string }>('PUT', `/api/designs/${meta.id}`, { version: meta.version, input })
-      : await sendJson<{ id: number; version: number; revision: number; status: DesignStatus; ownerName: string }>('POST', '/api/designs', input);
+      ? await sendJson<{ id: number; version: number; revision: number; status: DesignStatus; ownerName: string }>(
+          'PUT',
+          `/api/designs/${meta.id}`,
+          { version: meta.version, input },
+        )
+      : await sendJson<{ id: number; version: number; revision: number; status: DesignStatus; ownerName: string }>(
+          'POST',
+          '/api/designs',
+          input,
+        );
     setBusy(false);
     if (!res.ok) {
       setSaveErrors(issuesByPath(res.issues, 'input.'));
-      setSaveMsg({ tone: 'bad', text: res.status === 409 ? `${res.error} Your edits are still here; copy what you need before reloading.` : res.error });
+      setSaveMsg({
+        tone: 'bad',
+        text: res.status === 409 ? `${res.error} Your edits are still here; copy what you need before reloading.` : res.error,
+      });
       return;
     }
     setSaveErrors({});
@@ -60,59 +74,139 @@ export default function DesignWorkspace({ design, initialInput, motors, canEdit 
       window.location.assign(`/designs/${res.data.id}`);
       return;
     }
-    setMeta({ id: res.data.id, version: res.data.version, revision: res.data.revision, status: res.data.status, ownerName: res.data.ownerName });
+    setMeta({
+      id: res.data.id,
+      version: res.data.version,
+      revision: res.data.revision,
+      status: res.data.status,
+      ownerName: res.data.ownerName,
+    });
     setSaved(JSON.stringify(input));
     setSaveMsg({ tone: 'ok', text: `Saved as revision ${res.data.revision}.` });
   }
 
   async function setStatus(next: DesignStatus): Promise<void> {
     if (!meta) return;
-    const res = await sendJson<{ version: number; status: DesignStatus; revision: number }>('POST', `/api/designs/${meta.id}/status`, { status: next, version: meta.version });
+    const res = await sendJson<{ version: number; status: DesignStatus; revision: number }>('POST', `/api/designs/${meta.id}/status`, {
+      status: next,
+      version: meta.version,
+    });
     if (res.ok) {
       setMeta({ ...meta, version: res.data.version, status: res.data.status });
-      setSaveMsg({ tone: 'ok', text: next === 'ready' ? 'Marked ready: its lines and alternates are on the buyers’ shortlist.' : 'Back to draft.' });
+      setSaveMsg({
+        tone: 'ok',
+        text: next === 'ready' ? 'Marked ready: its lines and alternates are on the buyers’ shortlist.' : 'Back to draft.',
+      });
     } else setSaveMsg({ tone: 'bad', text: [res.error, ...res.issues.map((i) => `${i.message}.`)].join(' ') });
   }
 
   return (
     <div data-testid="workspace">
       <div className="card p-3 mb-4 flex flex-wrap items-end gap-3 sticky top-0 z-10">
-        <label className="field grow min-w-64">Design name
-          <input value={input.name} disabled={readOnly} onChange={(e) => setInput({ ...input, name: e.target.value })} aria-invalid={errors.name ? true : undefined} data-testid="design-name" />
+        <label className="field grow min-w-64">
+          Design name
+          <input
+            value={input.name}
+            disabled={readOnly}
+            onChange={(e) => setInput({ ...input, name: e.target.value })}
+            aria-invalid={errors.name ? true : undefined}
+            data-testid="design-name"
+          />
           {errors.name ? <span className="field-error">⚠ {errors.name}</span> : null}
         </label>
         <div className="text-sm text-ink-soft">
-          {meta ? <>Rev {meta.revision} · {meta.status === 'ready' ? '✓ ready for buying' : 'draft'} · {meta.ownerName}</> : 'new, not saved yet'}
+          {meta ? (
+            <>
+              Rev {meta.revision} · {meta.status === 'ready' ? '✓ ready for buying' : 'draft'} · {meta.ownerName}
+            </>
+          ) : (
+            'new, not saved yet'
+          )}
           {dirty && meta ? <span className="text-warn"> · ! unsaved changes</span> : null}
         </div>
-        <label className="text-sm flex items-center gap-1"><input type="checkbox" checked={includePending} onChange={(e) => setIncludePending(e.target.checked)} /> include parts pending review</label>
+        <label className="text-sm flex items-center gap-1">
+          <input type="checkbox" checked={includePending} onChange={(e) => setIncludePending(e.target.checked)} /> include parts pending
+          review
+        </label>
         <span className="text-sm text-ink-soft" aria-live="polite" data-testid="match-status">
           {status === 'loading' ? '… ranking' : status === 'error' ? `⚠ ${error}` : status === 'ready' ? '✓ ranked' : ''}
         </span>
         <div className="flex gap-2 ml-auto">
-          {canEdit && match ? <button type="button" className="btn btn-quiet" onClick={() => setInput({ ...input, selections: suggestSelections(match) })}>Suggest picks</button> : null}
-          {canEdit ? <button type="button" className="btn" disabled={busy || (!dirty && !!meta)} onClick={save} data-testid="save-design">{busy ? 'Saving…' : meta ? 'Save revision' : 'Create design'}</button> : null}
-          {canEdit && meta ? (meta.status === 'ready'
-            ? <button type="button" className="btn btn-quiet" onClick={() => setStatus('draft')}>Back to draft</button>
-            : <button type="button" className="btn btn-quiet" disabled={dirty} onClick={() => setStatus('ready')}>Mark ready</button>) : null}
-          {meta ? <a className="btn btn-quiet no-underline" href={`/api/designs/${meta.id}/report.pdf`} data-testid="report-link">Report PDF</a> : null}
-          {meta ? <a className="btn btn-quiet no-underline" href={`/api/designs/${meta.id}/bom.csv`}>BOM CSV</a> : null}
+          {canEdit && match ? (
+            <button type="button" className="btn btn-quiet" onClick={() => setInput({ ...input, selections: suggestSelections(match) })}>
+              Suggest picks
+            </button>
+          ) : null}
+          {canEdit ? (
+            <button type="button" className="btn" disabled={busy || (!dirty && !!meta)} onClick={save} data-testid="save-design">
+              {busy ? 'Saving…' : meta ? 'Save revision' : 'Create design'}
+            </button>
+          ) : null}
+          {canEdit && meta ? (
+            meta.status === 'ready' ? (
+              <button type="button" className="btn btn-quiet" onClick={() => setStatus('draft')}>
+                Back to draft
+              </button>
+            ) : (
+              <button type="button" className="btn btn-quiet" disabled={dirty} onClick={() => setStatus('ready')}>
+                Mark ready
+              </button>
+            )
+          ) : null}
+          {meta ? (
+            <a className="btn btn-quiet no-underline" href={`/api/designs/${meta.id}/report.pdf`} data-testid="report-link">
+              Report PDF
+            </a>
+          ) : null}
+          {meta ? (
+            <a className="btn btn-quiet no-underline" href={`/api/designs/${meta.id}/bom.csv`}>
+              BOM CSV
+            </a>
+          ) : null}
         </div>
-        {saveMsg ? <p role="status" className={`w-full text-sm ${saveMsg.tone === 'ok' ? 'text-ok' : 'text-bad'}`}>{saveMsg.tone === 'ok' ? '✓' : '⚠'} {saveMsg.text}</p> : null}
-        {dirty && meta ? <p className="w-full text-xs text-ink-faint">Report and BOM show the saved revision {meta.revision}; save to include your changes.</p> : null}
+        {saveMsg ? (
+          <p role="status" className={`w-full text-sm ${saveMsg.tone === 'ok' ? 'text-ok' : 'text-bad'}`}>
+            {saveMsg.tone === 'ok' ? '✓' : '⚠'} {saveMsg.text}
+          </p>
+        ) : null}
+        {dirty && meta ? (
+          <p className="w-full text-xs text-ink-faint">
+            Report and BOM show the saved revision {meta.revision}; save to include your changes.
+          </p>
+        ) : null}
       </div>
 
-      <Step n={1} title="Motor, supply and logic"><InputsPanel input={input} motors={motors} errors={errors} onChange={setInput} readOnly={readOnly} /></Step>
-      {!match ? <p className="text-ink-soft" role="status">{status === 'error' ? `⚠ ${error}` : '… ranking the catalogue for this design'}</p> : (
+      <Step n={1} title="Motor, supply and logic">
+        <InputsPanel input={input} motors={motors} errors={errors} onChange={setInput} readOnly={readOnly} />
+      </Step>
+      {!match ? (
+        <p className="text-ink-soft" role="status">
+          {status === 'error' ? `⚠ ${error}` : '… ranking the catalogue for this design'}
+        </p>
+      ) : (
         <>
-          <Step n={2} title="Motor at the supply extremes" testId="step-motor"><MotorPanel motor={match.motor} worstCase={match.worstCase} /></Step>
-          <Step n={3} title="Supply and logic at start" testId="step-supply"><SupplyPanel supply={match.supply} /></Step>
+          <Step n={2} title="Motor at the supply extremes" testId="step-motor">
+            <MotorPanel motor={match.motor} worstCase={match.worstCase} />
+          </Step>
+          <Step n={3} title="Supply and logic at start" testId="step-supply">
+            <SupplyPanel supply={match.supply} />
+          </Step>
           <CandidatesSection match={match} input={input} onSelect={select} readOnly={readOnly} Step={Step} />
-          <Step n={7} title="Power-on and reset state" testId="step-power-on"><PowerOnPanel powerOn={match.powerOn} resetStartIntent={input.resetStartIntent} /></Step>
-          <Step n={8} title="Chosen parts and alternates" testId="step-selection"><SelectionPanel input={input} match={match} /></Step>
+          <Step n={7} title="Power-on and reset state" testId="step-power-on">
+            <PowerOnPanel powerOn={match.powerOn} resetStartIntent={input.resetStartIntent} />
+          </Step>
+          <Step n={8} title="Chosen parts and alternates" testId="step-selection">
+            <SelectionPanel input={input} match={match} />
+          </Step>
           <section className="card p-3 text-sm" aria-labelledby="ws-cautions">
-            <h2 id="ws-cautions" className="font-semibold mb-1">⚠ Cautions for this design</h2>
-            <ul className="list-disc pl-5 grid gap-0.5">{match.cautions.map((c) => <li key={c}>{c}</li>)}</ul>
+            <h2 id="ws-cautions" className="font-semibold mb-1">
+              ⚠ Cautions for this design
+            </h2>
+            <ul className="list-disc pl-5 grid gap-0.5">
+              {match.cautions.map((c) => (
+                <li key={c}>{c}</li>
+              ))}
+            </ul>
           </section>
         </>
       )}

@@ -31,8 +31,14 @@ export default function NumInput({ label, value, onValue, unit, scale = 1, error
     <div className="field">
       <label htmlFor={id}>{label}</label>
       <div className="flex items-center gap-1">
-        <input id={id} inputMode="decimal" value={text} data-testid={testId} className="w-full min-w-0"
-          aria-invalid={message ? true : undefined} aria-describedby={message ? `${id}-e` : undefined}
+        <input
+          id={id}
+          inputMode="decimal"
+          value={text}
+          data-testid={testId}
+          className="w-full min-w-0"
+          aria-invalid={message ? true : undefined}
+          aria-describedby={message ? `${id}-e` : undefined}
           onChange={(e) => {
             setText(e.target.value);
             if (onEmpty && e.target.value.trim() === '') {
@@ -44,11 +50,16 @@ export default function NumInput({ label, value, onValue, unit, scale = 1, error
             const ok = e.target.value.trim() !== '' && Number.isFinite(n);
             setBad(!ok);
             if (ok) onValue(n / scale);
-          }} />
+          }}
+        />
         {unit ? <span className="text-ink-soft text-sm min-w-8">{unit}</span> : null}
       </div>
       {hint && !message ? <span className="text-xs text-ink-faint">{hint}</span> : null}
-      {message ? <span id={`${id}-e`} className="field-error" role="alert">⚠ {message}</span> : null}
+      {message ? (
+        <span id={`${id}-e`} className="field-error" role="alert">
+          ⚠ {message}
+        </span>
+      ) : null}
     </div>
   );
 }

@@ -26,14 +26,28 @@ function pairingNote(match: DesignMatch, role: PartRole, chosen: MatchEntry | un
 
 function PartRef({ entry, id }: { entry: MatchEntry | undefined; id: number }) {
   if (!entry) return <span className="text-ink-soft">part {id} (not among current candidates)</span>;
-  return <span className="inline-flex items-center gap-1.5"><span className="font-semibold">{entry.mpn}</span><span className="text-ink-soft">{entry.manufacturer}</span><Verdict verdict={entry.verdict} />{entry.footprintChange ? <FootprintChange /> : null}</span>;
+  return (
+    <span className="inline-flex items-center gap-1.5">
+      <span className="font-semibold">{entry.mpn}</span>
+      <span className="text-ink-soft">{entry.manufacturer}</span>
+      <Verdict verdict={entry.verdict} />
+      {entry.footprintChange ? <FootprintChange /> : null}
+    </span>
+  );
 }
 
 /** The chosen part per line and up to three alternates, as the bill of materials will list them. */
 export default function SelectionPanel({ input, match }: { input: DesignInput; match: DesignMatch }) {
   return (
     <table className="data-table w-full text-sm" data-testid="selection">
-      <thead><tr><th>Ref.</th><th>Line</th><th>Chosen</th><th>Alternates</th></tr></thead>
+      <thead>
+        <tr>
+          <th>Ref.</th>
+          <th>Line</th>
+          <th>Chosen</th>
+          <th>Alternates</th>
+        </tr>
+      </thead>
       <tbody>
         {LINES.filter((l) => l.role !== 'driver' || match.driverNeeded || input.selections.driver.chosenPartId != null).map((l) => {
           const list = listFor(match, l.role);
@@ -45,13 +59,31 @@ export default function SelectionPanel({ input, match }: { input: DesignInput; m
               <td>{l.refdes}</td>
               <td>{l.label}</td>
               <td>
-                {sel.chosenPartId == null ? <span className="text-warn">! nothing chosen yet</span> : <PartRef entry={chosen} id={sel.chosenPartId} />}
-                {pairingNote(match, l.role, chosen) ? <div className="text-xs text-ink-soft" data-testid={`pairing-${l.role}`}>{pairingNote(match, l.role, chosen)}</div> : null}
-                {chosen && chosen.verdict === 'fail' ? <div className="text-bad text-xs">✕ fails with the current inputs: pick another part</div> : null}
+                {sel.chosenPartId == null ? (
+                  <span className="text-warn">! nothing chosen yet</span>
+                ) : (
+                  <PartRef entry={chosen} id={sel.chosenPartId} />
+                )}
+                {pairingNote(match, l.role, chosen) ? (
+                  <div className="text-xs text-ink-soft" data-testid={`pairing-${l.role}`}>
+                    {pairingNote(match, l.role, chosen)}
+                  </div>
+                ) : null}
+                {chosen && chosen.verdict === 'fail' ? (
+                  <div className="text-bad text-xs">✕ fails with the current inputs: pick another part</div>
+                ) : null}
               </td>
               <td>
-                {sel.alternatePartIds.length === 0 ? <span className="text-ink-soft">none</span> : (
-                  <ul className="grid gap-0.5">{sel.alternatePartIds.map((id) => <li key={id}><PartRef entry={find(id)} id={id} /></li>)}</ul>
+                {sel.alternatePartIds.length === 0 ? (
+                  <span className="text-ink-soft">none</span>
+                ) : (
+                  <ul className="grid gap-0.5">
+                    {sel.alternatePartIds.map((id) => (
+                      <li key={id}>
+                        <PartRef entry={find(id)} id={id} />
+                      </li>
+                    ))}
+                  </ul>
                 )}
               </td>
             </tr>

@@ -5,7 +5,11 @@ import Verdict from './Verdict.tsx';
 /** The checks of a supply report: verdict in words and icon, value against its limit, the note. Shared with the calculators page. */
 export function SupplyChecks({ report, testId }: { report: SupplyReport; testId?: string }) {
   if (report.checks.length === 0) {
-    return <p className="text-sm text-ink-soft">No supply check applies: give the source’s continuous rating, its current limit or a shared controller to check them.</p>;
+    return (
+      <p className="text-sm text-ink-soft">
+        No supply check applies: give the source’s continuous rating, its current limit or a shared controller to check them.
+      </p>
+    );
   }
   return (
     <ul className="grid gap-2" data-testid={testId}>
@@ -14,7 +18,9 @@ export function SupplyChecks({ report, testId }: { report: SupplyReport; testId?
           <div className="flex flex-wrap items-baseline gap-2">
             <Verdict verdict={checkVerdict(c)} />
             <strong>{supplyCheckTitle(c.id)}</strong>
-            <span className="num text-ink-soft" data-testid="supply-check-values">{quantityText(c.value, c.unit)} (limit {limitRelation(c.id)} {quantityText(c.limit, c.unit)})</span>
+            <span className="num text-ink-soft" data-testid="supply-check-values">
+              {quantityText(c.value, c.unit)} (limit {limitRelation(c.id)} {quantityText(c.limit, c.unit)})
+            </span>
           </div>
           <p className="mt-1">{c.note}</p>
         </li>
@@ -32,7 +38,10 @@ export function SupplyFigures({ report, worstCases }: { report: SupplyReport; wo
       <dt className="text-ink-soft">Start current the motor asks for{worstCases ? ' (highest supply, coldest winding)' : ''}</dt>
       <dd className="font-semibold">{quantityText(report.startCurrentA, 'A')}</dd>
       <dt className="text-ink-soft">Start current the source delivers</dt>
-      <dd>{quantityText(report.startActualCurrentA, 'A')}{limited ? ' (held at the limit)' : ''}</dd>
+      <dd>
+        {quantityText(report.startActualCurrentA, 'A')}
+        {limited ? ' (held at the limit)' : ''}
+      </dd>
       <dt className="text-ink-soft">Source terminals at start{worstCases ? ' (lowest supply)' : ''}</dt>
       <dd>{quantityText(report.sourceVoltageAtStartV, 'V')}</dd>
       <dt className="text-ink-soft">Start torque{worstCases ? ' (lowest supply, warmest winding)' : ''}</dt>
@@ -43,7 +52,14 @@ export function SupplyFigures({ report, worstCases }: { report: SupplyReport; wo
         <>
           <dt className="text-ink-soft">Bulk capacitance to ride through the start</dt>
           <dd data-testid="supply-bulk" className={bulk.practical ? '' : 'text-bad font-semibold'}>
-            {bulk.practical ? bulk.text : <><span aria-hidden="true">✕ </span>{bulk.text}: impractical</>}
+            {bulk.practical ? (
+              bulk.text
+            ) : (
+              <>
+                <span aria-hidden="true">✕ </span>
+                {bulk.text}: impractical
+              </>
+            )}
           </dd>
         </>
       ) : null}
@@ -53,13 +69,23 @@ export function SupplyFigures({ report, worstCases }: { report: SupplyReport; wo
 
 export function SupplyNotes({ notes }: { notes: string[] }) {
   if (notes.length === 0) return null;
-  return <ul className="list-disc pl-5 grid gap-0.5 text-sm" data-testid="supply-notes">{notes.map((n) => <li key={n}>{n}</li>)}</ul>;
+  return (
+    <ul className="list-disc pl-5 grid gap-0.5 text-sm" data-testid="supply-notes">
+      {notes.map((n) => (
+        <li key={n}>{n}</li>
+      ))}
+    </ul>
+  );
 }
 
 /** Workspace step: can the source start the motor, and does a controller on the same source survive the start? */
 export default function SupplyPanel({ supply }: { supply: SupplyReport | null }) {
   if (!supply) {
-    return <p className="card p-3 text-sm text-ink-soft" data-testid="supply-empty">No supply figures yet: the motor and supply inputs are needed to judge the start.</p>;
+    return (
+      <p className="card p-3 text-sm text-ink-soft" data-testid="supply-empty">
+        No supply figures yet: the motor and supply inputs are needed to judge the start.
+      </p>
+    );
   }
   return (
     <div className="grid gap-3 lg:grid-cols-[1.4fr_1fr]" data-testid="supply-panel">

@@ -11,14 +11,26 @@ export default function Verdict({ verdict }: { verdict: V }) {
   const l = LOOK[verdict];
   return (
     <span className={`inline-flex items-center gap-1 px-1.5 rounded border text-xs font-semibold ${l.cls}`} data-verdict={verdict}>
-      <span aria-hidden="true">{l.icon}</span>{l.word}
+      <span aria-hidden="true">{l.icon}</span>
+      {l.word}
     </span>
   );
 }
 
 export function CheckMark({ ok, severity }: { ok: boolean; severity?: 'hard' | 'margin' }) {
-  if (ok) return <span className="text-ok" title="holds">✓<span className="sr-only"> holds</span></span>;
-  return severity === 'margin'
-    ? <span className="text-warn" title="inside the margin">!<span className="sr-only"> inside the margin</span></span>
-    : <span className="text-bad" title="fails">✕<span className="sr-only"> fails</span></span>;
+  if (ok)
+    return (
+      <span className="text-ok" title="holds">
+        ✓<span className="sr-only"> holds</span>
+      </span>
+    );
+  return severity === 'margin' ? (
+    <span className="text-warn" title="inside the margin">
+      !<span className="sr-only"> inside the margin</span>
+    </span>
+  ) : (
+    <span className="text-bad" title="fails">
+      ✕<span className="sr-only"> fails</span>
+    </span>
+  );
 }

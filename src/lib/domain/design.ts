@@ -7,9 +7,7 @@ import type { MotorParams } from './parts.ts';
 export const PART_ROLES = ['switch', 'driver', 'diode'] as const;
 export type PartRole = (typeof PART_ROLES)[number];
 
-export type DesignMotor =
-  | { source: 'catalogue'; partId: number }
-  | { source: 'manual'; label: string; params: MotorParams };
+export type DesignMotor = { source: 'catalogue'; partId: number } | { source: 'manual'; label: string; params: MotorParams };
 
 export interface DesignSupply {
   minV: number;
@@ -26,10 +24,7 @@ export interface DesignSupply {
 }
 
 /** What happens to the drive when the shaft jams with the switch on. */
-export type StallProtection =
-  | { kind: 'none' }
-  | { kind: 'current-limit'; limitA: number }
-  | { kind: 'cut-off'; afterS: number };
+export type StallProtection = { kind: 'none' } | { kind: 'current-limit'; limitA: number } | { kind: 'cut-off'; afterS: number };
 
 /** The controller fed from the motor's own source (directly or through a regulator). */
 export interface SharedLogicSupply {
@@ -136,34 +131,178 @@ export interface SupplyPreset {
 export const CELL_INTERNAL_RESISTANCE_OHM = { alkaline: 0.2, nimh: 0.03, liion: 0.075 } as const;
 
 const CELLS = 'nominal cell voltages [practice]';
-const rCells = (kind: keyof typeof CELL_INTERNAL_RESISTANCE_OHM, cells: number): number => Number((CELL_INTERNAL_RESISTANCE_OHM[kind] * cells).toPrecision(3));
-const memCell = (kind: string, perCell: string, cells: number): string => `[mem] ${kind} ~${perCell} Ω per cell × ${cells}; use the pack's own data when you have it`;
+const rCells = (kind: keyof typeof CELL_INTERNAL_RESISTANCE_OHM, cells: number): number =>
+  Number((CELL_INTERNAL_RESISTANCE_OHM[kind] * cells).toPrecision(3));
+const memCell = (kind: string, perCell: string, cells: number): string =>
+  `[mem] ${kind} ~${perCell} Ω per cell × ${cells}; use the pack's own data when you have it`;
 const NO_LIMIT = "no current limit; the cells' own limits apply";
 
 /** Supply presets for common battery packs, USB ports and bench supplies, each figure with its source tag. */
 export const SUPPLY_PRESETS: readonly SupplyPreset[] = [
-  { id: '2xAA-alkaline', label: '2 × AA alkaline', minV: 2.0, nomV: 3.0, maxV: 3.2, internalResistanceOhm: rCells('alkaline', 2), cells: 2, continuousCurrentA: null, currentLimitA: null,
-    source: { voltage: CELLS, internalResistance: memCell('AA alkaline', '0.15–0.3', 2), currentLimit: NO_LIMIT } },
-  { id: '4xAA-alkaline', label: '4 × AA alkaline', minV: 4.0, nomV: 6.0, maxV: 6.4, internalResistanceOhm: rCells('alkaline', 4), cells: 4, continuousCurrentA: null, currentLimitA: null,
-    source: { voltage: CELLS, internalResistance: memCell('AA alkaline', '0.15–0.3', 4), currentLimit: NO_LIMIT } },
-  { id: '4xAA-nimh', label: '4 × AA NiMH', minV: 4.0, nomV: 4.8, maxV: 5.8, internalResistanceOhm: rCells('nimh', 4), cells: 4, continuousCurrentA: null, currentLimitA: null,
-    source: { voltage: CELLS, internalResistance: memCell('AA NiMH', '0.03', 4), currentLimit: NO_LIMIT } },
-  { id: '1s-liion', label: '1S Li-ion', minV: 3.0, nomV: 3.7, maxV: 4.2, internalResistanceOhm: rCells('liion', 1), cells: 1, continuousCurrentA: null, currentLimitA: null,
-    source: { voltage: CELLS, internalResistance: memCell('small Li-ion', '0.05–0.1', 1), currentLimit: 'the protection circuit trips; no current limit assumed' } },
-  { id: '2s-liion', label: '2S Li-ion', minV: 6.0, nomV: 7.4, maxV: 8.4, internalResistanceOhm: rCells('liion', 2), cells: 2, continuousCurrentA: null, currentLimitA: null,
-    source: { voltage: CELLS, internalResistance: memCell('small Li-ion', '0.05–0.1', 2), currentLimit: 'the protection circuit trips; no current limit assumed' } },
-  { id: '3s-liion', label: '3S Li-ion', minV: 9.0, nomV: 11.1, maxV: 12.6, internalResistanceOhm: rCells('liion', 3), cells: 3, continuousCurrentA: null, currentLimitA: null,
-    source: { voltage: CELLS, internalResistance: memCell('small Li-ion', '0.05–0.1', 3), currentLimit: 'the protection circuit trips; no current limit assumed' } },
-  { id: 'usb-5v', label: 'USB 5 V adapter', minV: 4.5, nomV: 5.0, maxV: 5.5, internalResistanceOhm: 0, cells: null, continuousCurrentA: null, currentLimitA: null,
-    source: { voltage: 'USB 5 V ±10 % [practice]', internalResistance: 'regulated: ~0 Ω [practice]; enter the cable as wiring', currentLimit: "enter the adapter's rated current" } },
-  { id: 'usb2-port', label: 'USB 2.0 port (bench prototype)', minV: 4.75, nomV: 5.0, maxV: 5.25, internalResistanceOhm: 0, cells: null, continuousCurrentA: 0.5, currentLimitA: 0.5,
-    source: { voltage: '[std: USB 2.0 specification] 4.75–5.25 V at a port (from memory)', internalResistance: 'regulated: ~0 Ω [practice]; enter the cable as wiring', currentLimit: '[std: USB 2.0 specification] 500 mA per port' } },
-  { id: 'usb3-port', label: 'USB 3.x port', minV: 4.45, nomV: 5.0, maxV: 5.25, internalResistanceOhm: 0, cells: null, continuousCurrentA: 0.9, currentLimitA: 0.9,
-    source: { voltage: '[std: USB 3.x specification] 4.45–5.25 V at a port (from memory)', internalResistance: 'regulated: ~0 Ω [practice]; enter the cable as wiring', currentLimit: '[std: USB 3.x specification] 900 mA per port' } },
-  { id: 'bench-12v', label: '12 V bench / adapter ±5 %', minV: 11.4, nomV: 12.0, maxV: 12.6, internalResistanceOhm: 0, cells: null, continuousCurrentA: null, currentLimitA: null,
-    source: { voltage: '±5 % [practice]', internalResistance: 'regulated: ~0 Ω [practice]', currentLimit: "a bench supply's limit is settable: enter the value you set" } },
-  { id: 'bench-24v', label: '24 V bench / adapter ±5 %', minV: 22.8, nomV: 24.0, maxV: 25.2, internalResistanceOhm: 0, cells: null, continuousCurrentA: null, currentLimitA: null,
-    source: { voltage: '±5 % [practice]', internalResistance: 'regulated: ~0 Ω [practice]', currentLimit: "a bench supply's limit is settable: enter the value you set" } },
+  {
+    id: '2xAA-alkaline',
+    label: '2 × AA alkaline',
+    minV: 2.0,
+    nomV: 3.0,
+    maxV: 3.2,
+    internalResistanceOhm: rCells('alkaline', 2),
+    cells: 2,
+    continuousCurrentA: null,
+    currentLimitA: null,
+    source: { voltage: CELLS, internalResistance: memCell('AA alkaline', '0.15–0.3', 2), currentLimit: NO_LIMIT },
+  },
+  {
+    id: '4xAA-alkaline',
+    label: '4 × AA alkaline',
+    minV: 4.0,
+    nomV: 6.0,
+    maxV: 6.4,
+    internalResistanceOhm: rCells('alkaline', 4),
+    cells: 4,
+    continuousCurrentA: null,
+    currentLimitA: null,
+    source: { voltage: CELLS, internalResistance: memCell('AA alkaline', '0.15–0.3', 4), currentLimit: NO_LIMIT },
+  },
+  {
+    id: '4xAA-nimh',
+    label: '4 × AA NiMH',
+    minV: 4.0,
+    nomV: 4.8,
+    maxV: 5.8,
+    internalResistanceOhm: rCells('nimh', 4),
+    cells: 4,
+    continuousCurrentA: null,
+    currentLimitA: null,
+    source: { voltage: CELLS, internalResistance: memCell('AA NiMH', '0.03', 4), currentLimit: NO_LIMIT },
+  },
+  {
+    id: '1s-liion',
+    label: '1S Li-ion',
+    minV: 3.0,
+    nomV: 3.7,
+    maxV: 4.2,
+    internalResistanceOhm: rCells('liion', 1),
+    cells: 1,
+    continuousCurrentA: null,
+    currentLimitA: null,
+    source: {
+      voltage: CELLS,
+      internalResistance: memCell('small Li-ion', '0.05–0.1', 1),
+      currentLimit: 'the protection circuit trips; no current limit assumed',
+    },
+  },
+  {
+    id: '2s-liion',
+    label: '2S Li-ion',
+    minV: 6.0,
+    nomV: 7.4,
+    maxV: 8.4,
+    internalResistanceOhm: rCells('liion', 2),
+    cells: 2,
+    continuousCurrentA: null,
+    currentLimitA: null,
+    source: {
+      voltage: CELLS,
+      internalResistance: memCell('small Li-ion', '0.05–0.1', 2),
+      currentLimit: 'the protection circuit trips; no current limit assumed',
+    },
+  },
+  {
+    id: '3s-liion',
+    label: '3S Li-ion',
+    minV: 9.0,
+    nomV: 11.1,
+    maxV: 12.6,
+    internalResistanceOhm: rCells('liion', 3),
+    cells: 3,
+    continuousCurrentA: null,
+    currentLimitA: null,
+    source: {
+      voltage: CELLS,
+      internalResistance: memCell('small Li-ion', '0.05–0.1', 3),
+      currentLimit: 'the protection circuit trips; no current limit assumed',
+    },
+  },
+  {
+    id: 'usb-5v',
+    label: 'USB 5 V adapter',
+    minV: 4.5,
+    nomV: 5.0,
+    maxV: 5.5,
+    internalResistanceOhm: 0,
+    cells: null,
+    continuousCurrentA: null,
+    currentLimitA: null,
+    source: {
+      voltage: 'USB 5 V ±10 % [practice]',
+      internalResistance: 'regulated: ~0 Ω [practice]; enter the cable as wiring',
+      currentLimit: "enter the adapter's rated current",
+    },
+  },
+  {
+    id: 'usb2-port',
+    label: 'USB 2.0 port (bench prototype)',
+    minV: 4.75,
+    nomV: 5.0,
+    maxV: 5.25,
+    internalResistanceOhm: 0,
+    cells: null,
+    continuousCurrentA: 0.5,
+    currentLimitA: 0.5,
+    source: {
+      voltage: '[std: USB 2.0 specification] 4.75–5.25 V at a port (from memory)',
+      internalResistance: 'regulated: ~0 Ω [practice]; enter the cable as wiring',
+      currentLimit: '[std: USB 2.0 specification] 500 mA per port',
+    },
+  },
+  {
+    id: 'usb3-port',
+    label: 'USB 3.x port',
+    minV: 4.45,
+    nomV: 5.0,
+    maxV: 5.25,
+    internalResistanceOhm: 0,
+    cells: null,
+    continuousCurrentA: 0.9,
+    currentLimitA: 0.9,
+    source: {
+      voltage: '[std: USB 3.x specification] 4.45–5.25 V at a port (from memory)',
+      internalResistance: 'regulated: ~0 Ω [practice]; enter the cable as wiring',
+      currentLimit: '[std: USB 3.x specification] 900 mA per port',
+    },
+  },
+  {
+    id: 'bench-12v',
+    label: '12 V bench / adapter ±5 %',
+    minV: 11.4,
+    nomV: 12.0,
+    maxV: 12.6,
+    internalResistanceOhm: 0,
+    cells: null,
+    continuousCurrentA: null,
+    currentLimitA: null,
+    source: {
+      voltage: '±5 % [practice]',
+      internalResistance: 'regulated: ~0 Ω [practice]',
+      currentLimit: "a bench supply's limit is settable: enter the value you set",
+    },
+  },
+  {
+    id: 'bench-24v',
+    label: '24 V bench / adapter ±5 %',
+    minV: 22.8,
+    nomV: 24.0,
+    maxV: 25.2,
+    internalResistanceOhm: 0,
+    cells: null,
+    continuousCurrentA: null,
+    currentLimitA: null,
+    source: {
+      voltage: '±5 % [practice]',
+      internalResistance: 'regulated: ~0 Ω [practice]',
+      currentLimit: "a bench supply's limit is settable: enter the value you set",
+    },
+  },
 ];
 
 /** Logic rail presets: LVCMOS-style output levels at a few mA (JEDEC JESD8 family, from memory). */

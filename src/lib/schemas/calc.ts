@@ -25,7 +25,11 @@ export const motorPointsSchema = z
     }
     const resistanceOhm = m.terminalResistanceOhm ?? m.ratedVoltageV / m.stallCurrentA;
     if (m.terminalResistanceOhm != null && m.noLoadCurrentA * resistanceOhm >= m.ratedVoltageV) {
-      ctx.addIssue({ code: 'custom', path: ['terminalResistanceOhm'], message: 'With this resistance the no-load current would drop the whole rated voltage.' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['terminalResistanceOhm'],
+        message: 'With this resistance the no-load current would drop the whole rated voltage.',
+      });
     }
   });
 
@@ -123,9 +127,7 @@ export const calcSwitchRequestSchema = z.object({
     stallProtection: stallProtectionSchema.optional(),
     stallDuty: z.number().min(0).max(1).optional(),
   }),
-  margins: z
-    .object({ voltageDerating: z.number().gt(0).max(1).optional(), thermalMarginC: nonNegative().optional() })
-    .optional(),
+  margins: z.object({ voltageDerating: z.number().gt(0).max(1).optional(), thermalMarginC: nonNegative().optional() }).optional(),
 });
 export type CalcSwitchRequest = z.infer<typeof calcSwitchRequestSchema>;
 
@@ -143,45 +145,62 @@ export function parseCalcBody<S extends z.ZodType>(schema: S, body: unknown): Pa
 const numberOf = (what: string): z.ZodNumber =>
   z.number({ error: (issue) => (issue.input === undefined ? `${what} is required` : `${what} must be a number`) });
 const gtZero = (what: string, max: number, unit: string): z.ZodNumber =>
-  numberOf(what).gt(0, { error: `${what} must be above zero` }).max(max, { error: `${what} must be at most ${max} ${unit}` });
+  numberOf(what)
+    .gt(0, { error: `${what} must be above zero` })
+    .max(max, { error: `${what} must be at most ${max} ${unit}` });
 const atLeastZero = (what: string, max: number, unit: string): z.ZodNumber =>
-  numberOf(what).min(0, { error: `${what} cannot be negative` }).max(max, { error: `${what} must be at most ${max} ${unit}` });
+  numberOf(what)
+    .min(0, { error: `${what} cannot be negative` })
+    .max(max, { error: `${what} must be at most ${max} ${unit}` });
 
 export const supplyMotorSchema = z
-  .object({
-    ratedVoltageV: gtZero('Rated voltage', 1000, 'V'),
-    noLoadSpeedRpm: gtZero('No-load speed', 1_000_000, 'rpm'),
-    noLoadCurrentA: gtZero('No-load current', 1000, 'A'),
-    stallCurrentA: gtZero('Stall current', 10_000, 'A'),
-    /** Not used by the supply formulas; checked when given. */
-    stallTorqueNm: gtZero('Stall torque', 1000, 'N·m').nullish(),
-    rotorInertiaKgM2: gtZero('Rotor inertia', 1, 'kg·m²').nullish(),
-  }, { error: 'motor is required: the datasheet points ratedVoltageV, noLoadSpeedRpm, noLoadCurrentA, stallCurrentA' })
+  .object(
+    {
+      ratedVoltageV: gtZero('Rated voltage', 1000, 'V'),
+      noLoadSpeedRpm: gtZero('No-load speed', 1_000_000, 'rpm'),
+      noLoadCurrentA: gtZero('No-load current', 1000, 'A'),
+      stallCurrentA: gtZero('Stall current', 10_000, 'A'),
+      /** Not used by the supply formulas; checked when given. */
+      stallTorqueNm: gtZero('Stall torque', 1000, 'N·m').nullish(),
+      rotorInertiaKgM2: gtZero('Rotor inertia', 1, 'kg·m²').nullish(),
+    },
+    { error: 'motor is required: the datasheet points ratedVoltageV, noLoadSpeedRpm, noLoadCurrentA, stallCurrentA' },
+  )
   .superRefine((m, ctx) => {
-    if (m.noLoadCurrentA >= m.stallCurrentA) ctx.addIssue({ code: 'custom', path: ['noLoadCurrentA'], message: 'No-load current must be below the stall current.' });
+    if (m.noLoadCurrentA >= m.stallCurrentA)
+      ctx.addIssue({ code: 'custom', path: ['noLoadCurrentA'], message: 'No-load current must be below the stall current.' });
   });
 
 const calcSupplyBodySchema = z
-  .object({
-    motor: supplyMotorSchema,
-    supply: z.object({
-      voltageV: gtZero('Supply voltage', 1000, 'V'),
-      internalResistanceOhm: atLeastZero('Internal resistance', 1_000_000, 'Ω').nullish(),
-      continuousCurrentA: gtZero('Continuous current rating', 10_000, 'A').nullish(),
-      currentLimitA: gtZero('Current limit', 10_000, 'A').nullish(),
-    }, { error: 'supply is required: at least { voltageV }' }),
-    seriesResistanceOhm: atLeastZero('Series resistance', 1_000_000, 'Ω').nullish(),
-    windingC: numberOf('Winding temperature').min(-60, { error: 'Winding temperature must be at least −60 °C' }).max(200, { error: 'Winding temperature must be at most 200 °C' }).nullish(),
-    loadTorqueNm: atLeastZero('Load torque', 1000, 'N·m').nullish(),
-    logic: z
-      .object({
-        sharedWithMotor: z.boolean({ error: 'sharedWithMotor is true or false' }).nullish(),
-        minSupplyV: gtZero('Controller minimum supply', 1000, 'V').nullish(),
-        regulatorDropoutV: atLeastZero('Regulator dropout', 100, 'V').nullish(),
-      })
-      .nullish(),
-    allowedDipV: gtZero('Allowed dip', 1000, 'V').nullish(),
-  }, { error: 'The body is a JSON object with motor and supply' })
+  .object(
+    {
+      motor: supplyMotorSchema,
+      supply: z.object(
+        {
+          voltageV: gtZero('Supply voltage', 1000, 'V'),
+          internalResistanceOhm: atLeastZero('Internal resistance', 1_000_000, 'Ω').nullish(),
+          continuousCurrentA: gtZero('Continuous current rating', 10_000, 'A').nullish(),
+          currentLimitA: gtZero('Current limit', 10_000, 'A').nullish(),
+        },
+        { error: 'supply is required: at least { voltageV }' },
+      ),
+      seriesResistanceOhm: atLeastZero('Series resistance', 1_000_000, 'Ω').nullish(),
+      windingC: numberOf('Winding temperature')
+        .min(-60, { error: 'Winding temperature must be at least −60 °C' })
+        .max(200, { error: 'Winding temperature must be at most 200 °C' })
+        .nullish(),
+      loadTorqueNm: atLeastZero('Load torque', 1000, 'N·m').nullish(),
+      logic: z
+        .object({
+          sharedWithMotor: z.boolean({ error: 'sharedWithMotor is true or false' }).nullish(),
+          minSupplyV: gtZero('Controller minimum supply', 1000, 'V').nullish(),
+          regulatorDropoutV: atLeastZero('Regulator dropout', 100, 'V').nullish(),
+        })
+        .nullish(),
+      allowedDipV: gtZero('Allowed dip', 1000, 'V').nullish(),
+    },
+    { error: 'The body is a JSON object with motor and supply' },
+  )
   .superRefine((b, ctx) => {
     if (typeof b.allowedDipV === 'number' && typeof b.supply?.voltageV === 'number' && b.allowedDipV >= b.supply.voltageV) {
       ctx.addIssue({ code: 'custom', path: ['allowedDipV'], message: 'The allowed dip must be below the supply voltage.' });
@@ -199,7 +218,14 @@ export const calcSupplyRequestSchema = calcSupplyBodySchema.refine((b) => models
 function modelsFinitely(body: CalcSupplyRequest): boolean {
   try {
     const r = calcSupply(body);
-    const numbers = [r.startCurrentA, r.startActualCurrentA, r.sourceVoltageAtStartV, r.startTorqueNm, r.runningCurrentA, r.bulkCapacitanceF ?? 0];
+    const numbers = [
+      r.startCurrentA,
+      r.startActualCurrentA,
+      r.sourceVoltageAtStartV,
+      r.startTorqueNm,
+      r.runningCurrentA,
+      r.bulkCapacitanceF ?? 0,
+    ];
     return numbers.every(Number.isFinite) && r.checks.every((c) => c.value == null || Number.isFinite(c.value));
   } catch {
     return false;

@@ -18,12 +18,24 @@ const motorParams = z
     inductanceH: pos().nullable().default(null),
     rotorInertiaKgM2: pos().nullable().default(null),
   })
-  .refine((m) => m.stallCurrentA > m.noLoadCurrentA, { path: ['stallCurrentA'], message: 'Stall current must be above the no-load current.' });
+  .refine((m) => m.stallCurrentA > m.noLoadCurrentA, {
+    path: ['stallCurrentA'],
+    message: 'Stall current must be above the no-load current.',
+  });
 
 const selection = z
-  .object({ chosenPartId: id().nullable().default(null), alternatePartIds: z.array(id()).max(3, { error: 'At most three alternates.' }).default([]) })
-  .refine((s) => new Set(s.alternatePartIds).size === s.alternatePartIds.length, { path: ['alternatePartIds'], message: 'An alternate is listed twice.' })
-  .refine((s) => s.chosenPartId == null || !s.alternatePartIds.includes(s.chosenPartId), { path: ['alternatePartIds'], message: 'The chosen part cannot also be an alternate.' });
+  .object({
+    chosenPartId: id().nullable().default(null),
+    alternatePartIds: z.array(id()).max(3, { error: 'At most three alternates.' }).default([]),
+  })
+  .refine((s) => new Set(s.alternatePartIds).size === s.alternatePartIds.length, {
+    path: ['alternatePartIds'],
+    message: 'An alternate is listed twice.',
+  })
+  .refine((s) => s.chosenPartId == null || !s.alternatePartIds.includes(s.chosenPartId), {
+    path: ['alternatePartIds'],
+    message: 'The chosen part cannot also be an alternate.',
+  });
 
 const emptySelection = { chosenPartId: null, alternatePartIds: [] };
 
@@ -61,7 +73,12 @@ export const designInputSchema = z
     }),
     drive: z.discriminatedUnion('mode', [
       z.object({ mode: z.literal('onoff') }),
-      z.object({ mode: z.literal('pwm'), frequencyHz: pos().max(2_000_000), dutyMin: z.number().gt(0).max(1), dutyMax: z.number().gt(0).max(1) }),
+      z.object({
+        mode: z.literal('pwm'),
+        frequencyHz: pos().max(2_000_000),
+        dutyMin: z.number().gt(0).max(1),
+        dutyMax: z.number().gt(0).max(1),
+      }),
     ]),
     ambientMinC: z.number().min(-60).max(150),
     ambientMaxC: z.number().min(-60).max(150),
@@ -85,16 +102,23 @@ export const designInputSchema = z
       .nullable()
       .default(null),
     selections: z
-      .object({ switch: selection.default(emptySelection), driver: selection.default(emptySelection), diode: selection.default(emptySelection) })
+      .object({
+        switch: selection.default(emptySelection),
+        driver: selection.default(emptySelection),
+        diode: selection.default(emptySelection),
+      })
       .default({ switch: emptySelection, driver: emptySelection, diode: emptySelection }),
   })
   .superRefine((d, ctx) => {
     if (!(d.supply.minV <= d.supply.nomV && d.supply.nomV <= d.supply.maxV)) {
       ctx.addIssue({ code: 'custom', path: ['supply', 'nomV'], message: 'Supply must satisfy minimum ≤ nominal ≤ maximum.' });
     }
-    if (d.ambientMinC > d.ambientMaxC) ctx.addIssue({ code: 'custom', path: ['ambientMinC'], message: 'Minimum ambient is above the maximum.' });
-    if (d.logic.highV > d.logic.railV) ctx.addIssue({ code: 'custom', path: ['logic', 'highV'], message: 'Output high cannot exceed the logic rail.' });
-    if (d.logic.lowV >= d.logic.highV) ctx.addIssue({ code: 'custom', path: ['logic', 'lowV'], message: 'Output low must be below output high.' });
+    if (d.ambientMinC > d.ambientMaxC)
+      ctx.addIssue({ code: 'custom', path: ['ambientMinC'], message: 'Minimum ambient is above the maximum.' });
+    if (d.logic.highV > d.logic.railV)
+      ctx.addIssue({ code: 'custom', path: ['logic', 'highV'], message: 'Output high cannot exceed the logic rail.' });
+    if (d.logic.lowV >= d.logic.highV)
+      ctx.addIssue({ code: 'custom', path: ['logic', 'lowV'], message: 'Output low must be below output high.' });
     if (d.logic.resetPull !== 'none' && d.logic.resetPullOhms <= 0) {
       ctx.addIssue({ code: 'custom', path: ['logic', 'resetPullOhms'], message: 'An internal pull needs a resistance above zero.' });
     }

@@ -18,7 +18,11 @@ export const isoDateSchema = z
   });
 
 const text = (label: string, max: number) =>
-  z.string({ error: `${label} is required` }).trim().min(1, { error: `${label} is required` }).max(max, { error: `${label}: at most ${max} characters` });
+  z
+    .string({ error: `${label} is required` })
+    .trim()
+    .min(1, { error: `${label} is required` })
+    .max(max, { error: `${label}: at most ${max} characters` });
 
 /** Part numbers: letters, digits and the separators makers print. */
 export const mpnSchema = text('Part number', 80).regex(/^[A-Za-z0-9][A-Za-z0-9._\-/+#]*$/, {
@@ -62,29 +66,39 @@ export const mosfetParamsSchema = z
   .superRefine((p, ctx) => {
     if (p.vgsThMinV > p.vgsThMaxV) ctx.addIssue({ code: 'custom', path: ['vgsThMinV'], message: 'VGS(th) min is above VGS(th) max' });
     if (p.vgsThMaxV >= p.vgsMaxV) ctx.addIssue({ code: 'custom', path: ['vgsThMaxV'], message: 'VGS(th) max must be below VGS max' });
-    if (p.idPulsedA < p.idContinuousA) ctx.addIssue({ code: 'custom', path: ['idPulsedA'], message: 'Pulsed current is below the continuous current' });
+    if (p.idPulsedA < p.idContinuousA)
+      ctx.addIssue({ code: 'custom', path: ['idPulsedA'], message: 'Pulsed current is below the continuous current' });
     const seen = new Set<string>();
     p.rdsOn.forEach((r, i) => {
       const key = `${r.vgsV}@${r.tjC}`;
       if (seen.has(key)) ctx.addIssue({ code: 'custom', path: ['rdsOn', i, 'vgsV'], message: 'Two RDS(on) lines at the same VGS and Tj' });
       seen.add(key);
       if (r.vgsV > p.vgsMaxV) ctx.addIssue({ code: 'custom', path: ['rdsOn', i, 'vgsV'], message: 'RDS(on) line above VGS max' });
-      if (r.typOhm !== null && r.typOhm > r.maxOhm) ctx.addIssue({ code: 'custom', path: ['rdsOn', i, 'typOhm'], message: 'Typical above maximum' });
+      if (r.typOhm !== null && r.typOhm > r.maxOhm)
+        ctx.addIssue({ code: 'custom', path: ['rdsOn', i, 'typOhm'], message: 'Typical above maximum' });
     });
-    zthPointIssues(p.zthPoints, p.rthJaCPerW).forEach((issue) => ctx.addIssue({ code: 'custom', ...issue, path: ['zthPoints', ...issue.path] }));
+    zthPointIssues(p.zthPoints, p.rthJaCPerW).forEach((issue) =>
+      ctx.addIssue({ code: 'custom', ...issue, path: ['zthPoints', ...issue.path] }),
+    );
   });
 
 /**
  * A single-pulse Zth curve read off a datasheet: pulses in ascending order (each length once), the
  * impedance never falling as the pulse lengthens, and never above the steady-state RθJA it tends to.
  */
-export function zthPointIssues(points: { pulseS: number; zthCPerW: number }[], rthJaCPerW: number): { path: (string | number)[]; message: string }[] {
+export function zthPointIssues(
+  points: { pulseS: number; zthCPerW: number }[],
+  rthJaCPerW: number,
+): { path: (string | number)[]; message: string }[] {
   const issues: { path: (string | number)[]; message: string }[] = [];
   points.forEach((z, i) => {
     const prev = points[i - 1];
-    if (prev && z.pulseS <= prev.pulseS) issues.push({ path: [i, 'pulseS'], message: 'List the pulses in ascending order, each length once' });
-    else if (prev && z.zthCPerW < prev.zthCPerW) issues.push({ path: [i, 'zthCPerW'], message: 'Zth is below the shorter pulse before it: a single-pulse curve only rises' });
-    if (Number.isFinite(rthJaCPerW) && z.zthCPerW > rthJaCPerW) issues.push({ path: [i, 'zthCPerW'], message: `Zth is above RθJA (${rthJaCPerW} K/W), the value it tends to for long pulses` });
+    if (prev && z.pulseS <= prev.pulseS)
+      issues.push({ path: [i, 'pulseS'], message: 'List the pulses in ascending order, each length once' });
+    else if (prev && z.zthCPerW < prev.zthCPerW)
+      issues.push({ path: [i, 'zthCPerW'], message: 'Zth is below the shorter pulse before it: a single-pulse curve only rises' });
+    if (Number.isFinite(rthJaCPerW) && z.zthCPerW > rthJaCPerW)
+      issues.push({ path: [i, 'zthCPerW'], message: `Zth is above RθJA (${rthJaCPerW} K/W), the value it tends to for long pulses` });
   });
   return issues;
 }
@@ -142,9 +156,12 @@ export const motorParamsSchema = z
     rotorInertiaKgM2: optPos('Rotor inertia'),
   })
   .superRefine((p, ctx) => {
-    if (p.noLoadCurrentA >= p.stallCurrentA) ctx.addIssue({ code: 'custom', path: ['noLoadCurrentA'], message: 'No-load current must be below the stall current' });
-    if (p.voltageMinV !== null && p.voltageMinV > p.ratedVoltageV) ctx.addIssue({ code: 'custom', path: ['voltageMinV'], message: 'Voltage min is above the rated voltage' });
-    if (p.voltageMaxV !== null && p.voltageMaxV < p.ratedVoltageV) ctx.addIssue({ code: 'custom', path: ['voltageMaxV'], message: 'Voltage max is below the rated voltage' });
+    if (p.noLoadCurrentA >= p.stallCurrentA)
+      ctx.addIssue({ code: 'custom', path: ['noLoadCurrentA'], message: 'No-load current must be below the stall current' });
+    if (p.voltageMinV !== null && p.voltageMinV > p.ratedVoltageV)
+      ctx.addIssue({ code: 'custom', path: ['voltageMinV'], message: 'Voltage min is above the rated voltage' });
+    if (p.voltageMaxV !== null && p.voltageMaxV < p.ratedVoltageV)
+      ctx.addIssue({ code: 'custom', path: ['voltageMaxV'], message: 'Voltage max is below the rated voltage' });
   });
 
 export const priceBreakSchema = z.object({
@@ -159,20 +176,27 @@ export const partSourceSchema = z
     moq: z.number({ error: 'MOQ must be a number' }).int().min(1).default(1),
     leadTimeDays: z.number({ error: 'Lead time must be a number' }).int().min(0).max(1000).default(0),
     stockQty: z.number({ error: 'Stock must be a number' }).int().min(0).default(0),
-    currency: z.string().regex(/^[A-Z]{3}$/, { error: 'Currency is a three-letter ISO 4217 code' }).default('USD'),
+    currency: z
+      .string()
+      .regex(/^[A-Z]{3}$/, { error: 'Currency is a three-letter ISO 4217 code' })
+      .default('USD'),
     priceBreaks: z.array(priceBreakSchema).max(12).default([]),
   })
   .superRefine((s, ctx) => {
     const qtys = s.priceBreaks.map((b) => b.qty);
-    if (new Set(qtys).size !== qtys.length) ctx.addIssue({ code: 'custom', path: ['priceBreaks'], message: 'Two price breaks at the same quantity' });
+    if (new Set(qtys).size !== qtys.length)
+      ctx.addIssue({ code: 'custom', path: ['priceBreaks'], message: 'Two price breaks at the same quantity' });
   });
 
-export const sourcesSchema = z.array(partSourceSchema).max(20).superRefine((list, ctx) => {
-  const keys = list.map((s) => `${s.distributor}|${s.sku}`);
-  keys.forEach((k, i) => {
-    if (keys.indexOf(k) !== i) ctx.addIssue({ code: 'custom', path: [i, 'sku'], message: 'The same distributor and SKU twice' });
+export const sourcesSchema = z
+  .array(partSourceSchema)
+  .max(20)
+  .superRefine((list, ctx) => {
+    const keys = list.map((s) => `${s.distributor}|${s.sku}`);
+    keys.forEach((k, i) => {
+      if (keys.indexOf(k) !== i) ctx.addIssue({ code: 'custom', path: [i, 'sku'], message: 'The same distributor and SKU twice' });
+    });
   });
-});
 
 /** Review status a creator may ask for; the service decides what a role actually gets. */
 export const REQUESTABLE_REVIEW_STATUSES = ['draft', 'pending', 'approved'] as const;
@@ -280,8 +304,11 @@ const blankToUndefined = (v: unknown): unknown => (typeof v === 'string' && v.tr
 const qNum = (label: string, min = 0) =>
   z.preprocess(
     blankToUndefined,
-    z.coerce.number({ error: `${label} must be a number` }).refine(Number.isFinite, { error: `${label} must be a number` })
-      .refine((n) => n >= min, { error: `${label} cannot be below ${min}` }).optional(),
+    z.coerce
+      .number({ error: `${label} must be a number` })
+      .refine(Number.isFinite, { error: `${label} must be a number` })
+      .refine((n) => n >= min, { error: `${label} cannot be below ${min}` })
+      .optional(),
   );
 const qList = <T extends readonly [string, ...string[]]>(values: T, label: string) =>
   z.preprocess(
@@ -294,9 +321,31 @@ export const partListQuerySchema = z
     {
       category: z.preprocess(blankToUndefined, z.enum(PART_CATEGORIES, { error: 'Category is motor, mosfet, driver or diode' }).optional()),
       q: z.preprocess(blankToUndefined, z.string().trim().max(100, { error: 'Search text: at most 100 characters' }).optional()),
-      page: z.preprocess(blankToUndefined, z.coerce.number({ error: 'page must be a whole number' }).int({ error: 'page must be a whole number' }).min(1).max(100000).default(1)),
-      pageSize: z.preprocess(blankToUndefined, z.coerce.number({ error: 'pageSize must be a whole number' }).int({ error: 'pageSize must be a whole number' }).min(1).max(MAX_PAGE_SIZE).default(25)),
-      sort: z.preprocess(blankToUndefined, z.string().regex(/^-?[A-Za-z]+$/, { error: 'sort is a field name, "-" in front for descending' }).optional()),
+      page: z.preprocess(
+        blankToUndefined,
+        z.coerce
+          .number({ error: 'page must be a whole number' })
+          .int({ error: 'page must be a whole number' })
+          .min(1)
+          .max(100000)
+          .default(1),
+      ),
+      pageSize: z.preprocess(
+        blankToUndefined,
+        z.coerce
+          .number({ error: 'pageSize must be a whole number' })
+          .int({ error: 'pageSize must be a whole number' })
+          .min(1)
+          .max(MAX_PAGE_SIZE)
+          .default(25),
+      ),
+      sort: z.preprocess(
+        blankToUndefined,
+        z
+          .string()
+          .regex(/^-?[A-Za-z]+$/, { error: 'sort is a field name, "-" in front for descending' })
+          .optional(),
+      ),
       format: z.preprocess(blankToUndefined, z.enum(['json', 'csv'], { error: 'format is json or csv' }).optional()),
       lifecycle: qList(LIFECYCLES, 'lifecycle'),
       reviewStatus: qList(REVIEW_STATUSES, 'reviewStatus'),
@@ -311,8 +360,17 @@ export const partListQuerySchema = z
       logicRailV: qNum('logicRailV'),
       outputHighMinV: qNum('outputHighMinV'),
       supplyV: qNum('supplyV'),
-      inverting: z.preprocess(blankToUndefined, z.enum(['true', 'false'], { error: 'inverting is true or false' }).transform((s) => s === 'true').optional()),
-      kind: z.preprocess(blankToUndefined, z.enum(['schottky', 'ultrafast', 'fast', 'general'], { error: 'kind is schottky, ultrafast, fast or general' }).optional()),
+      inverting: z.preprocess(
+        blankToUndefined,
+        z
+          .enum(['true', 'false'], { error: 'inverting is true or false' })
+          .transform((s) => s === 'true')
+          .optional(),
+      ),
+      kind: z.preprocess(
+        blankToUndefined,
+        z.enum(['schottky', 'ultrafast', 'fast', 'general'], { error: 'kind is schottky, ultrafast, fast or general' }).optional(),
+      ),
       vrrmMinV: qNum('vrrmMinV'),
       ifAvMinA: qNum('ifAvMinA'),
       trrMaxNs: qNum('trrMaxNs'),
@@ -337,7 +395,8 @@ export const partListQuerySchema = z
       const key = query.sort.replace(/^-/, '');
       const category = query.category ?? inferCategory(query);
       const allowed: readonly string[] = [...COMMON_SORT_KEYS, ...(category ? CATEGORY_SORT_KEYS[category] : [])];
-      if (!allowed.includes(key)) ctx.addIssue({ code: 'custom', path: ['sort'], message: `Cannot sort by ${key}; choose one of ${allowed.join(', ')}` });
+      if (!allowed.includes(key))
+        ctx.addIssue({ code: 'custom', path: ['sort'], message: `Cannot sort by ${key}; choose one of ${allowed.join(', ')}` });
     }
   })
   .transform((query) => ({ ...query, category: query.category ?? inferCategory(query) }));
@@ -403,7 +462,5 @@ export function diffStates(before: unknown, after: unknown, ignore: readonly str
   const a = flat(before, '', new Map());
   const b = flat(after, '', new Map());
   const fields = [...new Set([...a.keys(), ...b.keys()])];
-  return fields
-    .filter((f) => a.get(f) !== b.get(f))
-    .map((f) => ({ field: f, before: a.get(f) ?? '—', after: b.get(f) ?? '—' }));
+  return fields.filter((f) => a.get(f) !== b.get(f)).map((f) => ({ field: f, before: a.get(f) ?? '—', after: b.get(f) ?? '—' }));
 }

@@ -32,8 +32,13 @@ export async function issueToken(db: Db, input: IssueInput, now: Date = new Date
   const token = encodeBase32LowerCaseNoPadding(bytes);
   await withdrawTokens(db, input.userId, input.purpose, now);
   await db('account_tokens').insert({
-    token_hash: tokenHash(token), purpose: input.purpose, user_id: input.userId, created_by: input.createdBy,
-    created_at: now, expires_at: new Date(now.getTime() + TOKEN_TTL_MS[input.purpose]), used_at: null,
+    token_hash: tokenHash(token),
+    purpose: input.purpose,
+    user_id: input.userId,
+    created_by: input.createdBy,
+    created_at: now,
+    expires_at: new Date(now.getTime() + TOKEN_TTL_MS[input.purpose]),
+    used_at: null,
   });
   return token;
 }
@@ -44,7 +49,10 @@ export async function withdrawTokens(db: Db, userId: number, purpose: TokenPurpo
 }
 
 function openToken(db: Db, token: string, purpose: TokenPurpose, now: Date) {
-  return db('account_tokens').where({ token_hash: tokenHash(token), purpose }).whereNull('used_at').where('expires_at', '>', now);
+  return db('account_tokens')
+    .where({ token_hash: tokenHash(token), purpose })
+    .whereNull('used_at')
+    .where('expires_at', '>', now);
 }
 
 /** The person an open token belongs to, without using it up (to show the accept page). */

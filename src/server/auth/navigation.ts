@@ -31,7 +31,10 @@ const NAV: readonly NavEntry[] = [
 const PAGE_FILES = Object.keys(import.meta.glob('../../pages/**/*.astro'));
 
 export function routeOfPageFile(file: string): string {
-  const route = file.replace(/^.*\/pages/, '').replace(/\.astro$/, '').replace(/\/index$/, '');
+  const route = file
+    .replace(/^.*\/pages/, '')
+    .replace(/\.astro$/, '')
+    .replace(/\/index$/, '');
   return route === '' ? '/' : route;
 }
 

@@ -10,7 +10,10 @@ export const PASSWORD_MIN_CHARS = 12;
 export const PASSWORD_MAX_CHARS = 128;
 
 const COMMON_PASSWORDS: ReadonlySet<string> = new Set(
-  commonPasswordsText.split(/\r?\n/).map((l) => l.trim()).filter((l) => l && !l.startsWith('#')),
+  commonPasswordsText
+    .split(/\r?\n/)
+    .map((l) => l.trim())
+    .filter((l) => l && !l.startsWith('#')),
 );
 
 export function commonPasswordCount(): number {

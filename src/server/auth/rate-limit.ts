@@ -88,5 +88,7 @@ export async function reset(db: Db, bucketKey: string): Promise<void> {
 
 /** Deletes buckets whose window ended long ago; call now and then to keep the table small. */
 export async function pruneBuckets(db: Db, olderThanSeconds: number, now: Date = new Date()): Promise<number> {
-  return db('rate_limit_buckets').where('window_started_at', '<', new Date(now.getTime() - olderThanSeconds * 1000)).delete();
+  return db('rate_limit_buckets')
+    .where('window_started_at', '<', new Date(now.getTime() - olderThanSeconds * 1000))
+    .delete();
 }

@@ -3,9 +3,17 @@ import { z } from 'zod';
 import { ROLES } from './types.ts';
 import { PASSWORD_MAX_CHARS } from './password-rules.ts';
 
-const email = z.string().trim().toLowerCase().max(254, { error: 'at most 254 characters' }).pipe(z.email({ error: 'not an e-mail address' }));
+const email = z
+  .string()
+  .trim()
+  .toLowerCase()
+  .max(254, { error: 'at most 254 characters' })
+  .pipe(z.email({ error: 'not an e-mail address' }));
 /** Long enough for any allowed password, short enough that hashing cannot be used to tie up the server. */
-const anyPassword = z.string().min(1, { error: 'required' }).max(PASSWORD_MAX_CHARS * 4, { error: 'too long' });
+const anyPassword = z
+  .string()
+  .min(1, { error: 'required' })
+  .max(PASSWORD_MAX_CHARS * 4, { error: 'too long' });
 const token = z.string().min(1, { error: 'required' }).max(200);
 
 export const signInBody = z.object({ email, password: anyPassword });
@@ -21,4 +29,3 @@ export const inviteBody = z.object({
 });
 export const rolesBody = z.object({ roles });
 export const emptyBody = z.object({}).strict();
-

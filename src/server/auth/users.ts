@@ -17,7 +17,11 @@ export function normalizeEmail(email: string): string {
 }
 
 export async function findUserByEmail(db: Db, email: string): Promise<UserRow | null> {
-  return (await db<UserRow>('users').where({ email: normalizeEmail(email) }).first()) ?? null;
+  return (
+    (await db<UserRow>('users')
+      .where({ email: normalizeEmail(email) })
+      .first()) ?? null
+  );
 }
 
 export async function findUserById(db: Db, id: number): Promise<UserRow | null> {
@@ -53,8 +57,12 @@ export async function setActive(db: Db, userId: number, active: boolean, now: Da
 
 export async function insertUser(db: Db, person: { email: string; name: string }, now: Date): Promise<number> {
   const [id] = await db('users').insert({
-    email: normalizeEmail(person.email), name: person.name.trim(), password_hash: null, active: true,
-    created_at: now, updated_at: now,
+    email: normalizeEmail(person.email),
+    name: person.name.trim(),
+    password_hash: null,
+    active: true,
+    created_at: now,
+    updated_at: now,
   });
   return Number(id);
 }
@@ -62,10 +70,22 @@ export async function insertUser(db: Db, person: { email: string; name: string }
 export async function listPeopleRows(db: Db): Promise<Person[]> {
   const rows: UserRow[] = await db<UserRow>('users').select('*').orderBy('name');
   const roleRows: { user_id: number; role: Role }[] = await db('user_roles').select('user_id', 'role');
-  return rows.map((row) => toPerson(row, roleRows.filter((r) => r.user_id === row.id).map((r) => r.role)));
+  return rows.map((row) =>
+    toPerson(
+      row,
+      roleRows.filter((r) => r.user_id === row.id).map((r) => r.role),
+    ),
+  );
 }
 
 export function toPerson(row: UserRow, roles: Role[]): Person {
   const status = !row.active ? 'deactivated' : row.password_hash === null ? 'invited' : 'active';
-  return { id: row.id, email: row.email, name: row.name, roles: sortRoles(roles), status, createdAt: new Date(row.created_at).toISOString() };
+  return {
+    id: row.id,
+    email: row.email,
+    name: row.name,
+    roles: sortRoles(roles),
+    status,
+    createdAt: new Date(row.created_at).toISOString(),
+  };
 }

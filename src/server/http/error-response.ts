@@ -6,7 +6,15 @@
 import { jsonError } from './responses.ts';
 import { ServiceError } from '../services/errors.ts';
 
-const DB_DOWN_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', 'PROTOCOL_CONNECTION_LOST', 'ER_CON_COUNT_ERROR', 'ENOTFOUND']);
+const DB_DOWN_CODES = new Set([
+  'ECONNREFUSED',
+  'ECONNRESET',
+  'ETIMEDOUT',
+  'EPIPE',
+  'PROTOCOL_CONNECTION_LOST',
+  'ER_CON_COUNT_ERROR',
+  'ENOTFOUND',
+]);
 
 /** True for errors that mean the database cannot be reached (not a bad query). */
 export function isDatabaseUnavailable(err: unknown): boolean {
@@ -18,7 +26,11 @@ export function isDatabaseUnavailable(err: unknown): boolean {
 
 export function errorResponse(err: unknown, api: boolean): Response {
   if (err instanceof ServiceError) {
-    if (!api) return new Response(err.message, { status: err.status, headers: { 'Content-Type': 'text/plain; charset=utf-8', 'Cache-Control': 'no-store', ...err.headers } });
+    if (!api)
+      return new Response(err.message, {
+        status: err.status,
+        headers: { 'Content-Type': 'text/plain; charset=utf-8', 'Cache-Control': 'no-store', ...err.headers },
+      });
     const res = jsonError(err.status, err.message, err.issues, err.headers);
     if (Object.keys(err.details).length === 0) return res;
     return Response.json({ error: err.message, issues: err.issues, ...err.details }, { status: err.status, headers: res.headers });
@@ -26,10 +38,14 @@ export function errorResponse(err: unknown, api: boolean): Response {
   if (isDatabaseUnavailable(err)) {
     if (api) return jsonError(503, 'The database is not answering; try again in a moment.', [], { 'Retry-After': '5' });
     return new Response('Stallpoint cannot reach its database right now. Try again in a moment.', {
-      status: 503, headers: { 'Content-Type': 'text/plain; charset=utf-8', 'Cache-Control': 'no-store', 'Retry-After': '5' },
+      status: 503,
+      headers: { 'Content-Type': 'text/plain; charset=utf-8', 'Cache-Control': 'no-store', 'Retry-After': '5' },
     });
   }
   console.error('[stallpoint] unhandled error:', err);
   if (api) return jsonError(500, 'Something went wrong on the server; it has been logged.');
-  return new Response('Something went wrong on the server; it has been logged.', { status: 500, headers: { 'Content-Type': 'text/plain; charset=utf-8', 'Cache-Control': 'no-store' } });
+  return new Response('Something went wrong on the server; it has been logged.', {
+    status: 500,
+    headers: { 'Content-Type': 'text/plain; charset=utf-8', 'Cache-Control': 'no-store' },
+  });
 }

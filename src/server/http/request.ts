@@ -30,7 +30,14 @@ export function readQuery<S extends z.ZodType>(url: URL, schema: S): z.infer<S> 
   const parsed = schema.safeParse(raw);
   if (!parsed.success) {
     const issues = issuesOf(parsed.error, '(query)');
-    throw new ServiceError(400, `Some search parameters are not valid: ${issues.map((i) => i.path).slice(0, 3).join(', ')}.`, issues);
+    throw new ServiceError(
+      400,
+      `Some search parameters are not valid: ${issues
+        .map((i) => i.path)
+        .slice(0, 3)
+        .join(', ')}.`,
+      issues,
+    );
   }
   return parsed.data;
 }
@@ -88,7 +95,10 @@ function utf8(bytes: Uint8Array, what: string): string {
 export async function readJson<S extends z.ZodType>(request: Request, schema: S): Promise<z.infer<S>> {
   const type = contentType(request);
   if (!/^application\/json\b/i.test(type)) throw wrongType('Send the body as JSON with Content-Type: application/json.', type);
-  const tooLarge = () => new ServiceError(413, `The body is larger than ${MAX_JSON_BYTES / 1024} KiB.`, [{ path: '(body)', message: `at most ${MAX_JSON_BYTES} bytes` }]);
+  const tooLarge = () =>
+    new ServiceError(413, `The body is larger than ${MAX_JSON_BYTES / 1024} KiB.`, [
+      { path: '(body)', message: `at most ${MAX_JSON_BYTES} bytes` },
+    ]);
   const text = utf8(await readCappedBody(request, MAX_JSON_BYTES, tooLarge), 'body');
   let raw: unknown;
   try {
@@ -99,7 +109,14 @@ export async function readJson<S extends z.ZodType>(request: Request, schema: S)
   const parsed = schema.safeParse(raw);
   if (!parsed.success) {
     const issues = issuesOf(parsed.error);
-    throw new ServiceError(400, `Some fields are not valid: ${issues.map((i) => i.path).slice(0, 3).join(', ')}.`, issues);
+    throw new ServiceError(
+      400,
+      `Some fields are not valid: ${issues
+        .map((i) => i.path)
+        .slice(0, 3)
+        .join(', ')}.`,
+      issues,
+    );
   }
   return parsed.data;
 }
@@ -109,7 +126,9 @@ export async function readCsvBody(request: Request, limitBytes: number): Promise
   const type = contentType(request);
   if (!/^text\/(csv|plain)\b/i.test(type)) throw wrongType('Send the CSV file as the body with Content-Type: text/csv.', type);
   const tooLarge = () =>
-    new ServiceError(413, `The CSV file is larger than ${Math.round(limitBytes / 1024 / 1024)} MB.`, [{ path: '(body)', message: `at most ${limitBytes} bytes` }]);
+    new ServiceError(413, `The CSV file is larger than ${Math.round(limitBytes / 1024 / 1024)} MB.`, [
+      { path: '(body)', message: `at most ${limitBytes} bytes` },
+    ]);
   return utf8(await readCappedBody(request, limitBytes, tooLarge), 'CSV file');
 }
 
@@ -130,7 +149,9 @@ export async function readMultipartFile(request: Request, field: string, fileLim
   const type = contentType(request);
   if (!/^multipart\/form-data\b/i.test(type)) throw wrongType('Send the file as multipart/form-data.', type);
   const tooLarge = () =>
-    new ServiceError(413, `The file is larger than ${Math.round(fileLimitBytes / 1024 / 1024)} MB.`, [{ path: field, message: `at most ${fileLimitBytes} bytes` }]);
+    new ServiceError(413, `The file is larger than ${Math.round(fileLimitBytes / 1024 / 1024)} MB.`, [
+      { path: field, message: `at most ${fileLimitBytes} bytes` },
+    ]);
   const body = await readCappedBody(request, fileLimitBytes + MULTIPART_OVERHEAD_BYTES, tooLarge);
   let form: FormData;
   try {
@@ -139,7 +160,8 @@ export async function readMultipartFile(request: Request, field: string, fileLim
     throw new ServiceError(400, 'The upload is not valid multipart form data.', [{ path: '(body)', message: 'could not parse the form' }]);
   }
   const file = form.get(field);
-  if (!file || typeof file === 'string') throw new ServiceError(400, `Attach the file in the form field "${field}".`, [{ path: field, message: 'no file' }]);
+  if (!file || typeof file === 'string')
+    throw new ServiceError(400, `Attach the file in the form field "${field}".`, [{ path: field, message: 'no file' }]);
   const fields: Record<string, string> = {};
   for (const [k, v] of form.entries()) if (typeof v === 'string') fields[k] = v;
   return { name: file.name, bytes: new Uint8Array(await file.arrayBuffer()), fields };

@@ -46,8 +46,13 @@ function drawTitleBlock(layout: ReportLayout, data: DesignReportData): void {
   layout.textAt(d.name, layout.left, layout.y, { sizePt: 18, bold: true });
   layout.y -= 8;
   const status = d.status === 'ready' ? 'marked ready' : 'draft';
-  layout.paragraph(`Design ${d.id}, revision ${d.revision} (${status}), owned by ${d.ownerName}. Generated ${isoMinute(d.generatedAt)}.`, { color: MUTED });
-  layout.paragraph(`Motor ${data.match.motor.label} on a ${sig(data.input.supply.nomV)} V supply, switched low-side from ${sig(data.input.logic.railV)} V logic.`, { color: MUTED });
+  layout.paragraph(`Design ${d.id}, revision ${d.revision} (${status}), owned by ${d.ownerName}. Generated ${isoMinute(d.generatedAt)}.`, {
+    color: MUTED,
+  });
+  layout.paragraph(
+    `Motor ${data.match.motor.label} on a ${sig(data.input.supply.nomV)} V supply, switched low-side from ${sig(data.input.logic.railV)} V logic.`,
+    { color: MUTED },
+  );
 }
 
 /** Sign-off check: whether the revision holds at the current catalogue, and every reason it does not. */
@@ -55,12 +60,22 @@ function drawSignOff(layout: ReportLayout, data: DesignReportData): void {
   const r = data.readiness;
   if (!r) return;
   layout.heading('Sign-off check at the current catalogue');
-  if (r.issues.length === 0) layout.paragraph('✓ Holds: every chosen part and alternate passes (or is marginal only on margins), all approved, and the motor stays off at reset.', { bold: true });
+  if (r.issues.length === 0)
+    layout.paragraph(
+      '✓ Holds: every chosen part and alternate passes (or is marginal only on margins), all approved, and the motor stays off at reset.',
+      { bold: true },
+    );
   else {
-    layout.paragraph(`✕ Does not hold: ${r.issues.length} reason${r.issues.length === 1 ? '' : 's'}. ${data.design.status === 'ready' ? 'It is marked ready but will go back to draft on its next check.' : 'It cannot be marked ready until each is resolved.'}`, { bold: true });
+    layout.paragraph(
+      `✕ Does not hold: ${r.issues.length} reason${r.issues.length === 1 ? '' : 's'}. ${data.design.status === 'ready' ? 'It is marked ready but will go back to draft on its next check.' : 'It cannot be marked ready until each is resolved.'}`,
+      { bold: true },
+    );
     r.issues.forEach((i) => layout.bullet(`${i.path}: ${i.message}`));
   }
-  if (r.acceptedResetStart) layout.paragraph(`The motor may run at power-up or reset; the designer recorded that this is intended: “${r.acceptedResetStart}”`, { bold: true });
+  if (r.acceptedResetStart)
+    layout.paragraph(`The motor may run at power-up or reset; the designer recorded that this is intended: “${r.acceptedResetStart}”`, {
+      bold: true,
+    });
 }
 
 function setMetadata(pdf: PDFDocument, design: DesignReportData['design']): void {

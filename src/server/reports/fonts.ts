@@ -86,10 +86,39 @@ export async function loadSourceSans(pdf: PDFDocument, options: LoadFontsOptions
 
 /** Stand-ins for characters a face lacks (the shipped subsets have no ≤, ≥, arrows or check marks). */
 const SPELLED: Readonly<Record<string, string>> = {
-  'Ω': 'Ohm', 'θ': 'th', 'µ': 'u', 'μ': 'u', 'τ': 'tau', 'η': 'eta', 'Δ': 'delta', 'α': 'alpha',
-  '−': '-', '–': '-', '—': '-', '≤': '<=', '≥': '>=', '≈': '~', '·': '*', '×': 'x', '±': '+/-', '°': ' deg',
-  '→': '->', '√': 'sqrt', '✓': 'v', '✕': 'x', '½': '1/2', '²': '^2', '…': '...', '•': '-', '⚠': 'Caution:', '⇄': '<->',
-  '✗': 'x', '‘': "'", '’': "'", '“': '"', '”': '"',
+  Ω: 'Ohm',
+  θ: 'th',
+  µ: 'u',
+  μ: 'u',
+  τ: 'tau',
+  η: 'eta',
+  Δ: 'delta',
+  α: 'alpha',
+  '−': '-',
+  '–': '-',
+  '—': '-',
+  '≤': '<=',
+  '≥': '>=',
+  '≈': '~',
+  '·': '*',
+  '×': 'x',
+  '±': '+/-',
+  '°': ' deg',
+  '→': '->',
+  '√': 'sqrt',
+  '✓': 'v',
+  '✕': 'x',
+  '½': '1/2',
+  '²': '^2',
+  '…': '...',
+  '•': '-',
+  '⚠': 'Caution:',
+  '⇄': '<->',
+  '✗': 'x',
+  '‘': "'",
+  '’': "'",
+  '“': '"',
+  '”': '"',
 };
 
 /** True when the face draws every character of `chars` without a stand-in. */
@@ -122,7 +151,12 @@ export function measureText(face: FontFace, text: string, sizePt: number): numbe
 }
 
 /** Draws one line of text starting at (x, y), switching fonts between runs. */
-export function drawTextRuns(page: PDFPage, face: FontFace, text: string, at: { x: number; y: number; sizePt: number; color: Color }): void {
+export function drawTextRuns(
+  page: PDFPage,
+  face: FontFace,
+  text: string,
+  at: { x: number; y: number; sizePt: number; color: Color },
+): void {
   let x = at.x;
   for (const run of textRuns(face, text)) {
     page.drawText(run.text, { x, y: at.y, size: at.sizePt, font: run.font, color: at.color });

@@ -98,13 +98,15 @@ function specsOf(motor: MotorView): [ChartSpec, ChartSpec] {
   ];
   const ops = ends.flatMap((e) => (e.op ? [e.op] : []));
   const speed: ChartSpec = {
-    title: 'Speed (rpm) against torque', xTitle: 'Torque (mN·m)',
+    title: 'Speed (rpm) against torque',
+    xTitle: 'Torque (mN·m)',
     series: ends.map((e) => ({ points: e.at.curve.map((p) => ({ x: mNm(p.torqueNm), y: p.speedRpm })), color: e.color, dash: e.dash })),
     operating: ops.map((o) => ({ x: mNm(o.torqueNm), y: o.speedRpm })),
     stall: ends.map((e) => ({ x: mNm(e.at.atSupply.stallTorqueNm), y: 0 })),
   };
   const current: ChartSpec = {
-    title: 'Current (A) against torque', xTitle: 'Torque (mN·m)',
+    title: 'Current (A) against torque',
+    xTitle: 'Torque (mN·m)',
     series: ends.map((e) => ({ points: e.at.curve.map((p) => ({ x: mNm(p.torqueNm), y: p.currentA })), color: e.color, dash: e.dash })),
     operating: ops.map((o) => ({ x: mNm(o.torqueNm), y: o.currentA })),
     stall: ends.map((e) => ({ x: mNm(e.at.atSupply.stallTorqueNm), y: e.at.atSupply.stallCurrentA })),

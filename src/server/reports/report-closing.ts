@@ -35,7 +35,11 @@ const BOM_TABLE_COLUMNS: readonly (TableColumn & { key: keyof BomLine })[] = [
 ];
 
 const STAGE_NAMES: Readonly<Record<PowerOnStep['stage'], string>> = {
-  pin: 'Controller pin', 'pull-network': 'Pull network', driver: 'Driver', gate: 'Gate', motor: 'Motor',
+  pin: 'Controller pin',
+  'pull-network': 'Pull network',
+  driver: 'Driver',
+  gate: 'Gate',
+  motor: 'Motor',
 };
 
 function stepVoltage(step: PowerOnStep): string {
@@ -47,30 +51,61 @@ function stepVoltage(step: PowerOnStep): string {
  * `acceptedResetStart`: the recorded reason when the motor may run at reset (readiness accepts it);
  * `recordedIntent`: the reason as recorded in the design, printed even when the motor stays off.
  */
-export function drawPowerOn(layout: ReportLayout, match: DesignMatch, acceptedResetStart: string | null = null, recordedIntent: string | null = null): void {
+export function drawPowerOn(
+  layout: ReportLayout,
+  match: DesignMatch,
+  acceptedResetStart: string | null = null,
+  recordedIntent: string | null = null,
+): void {
   layout.heading('Power-on state');
   const p = match.powerOn;
   if (p == null) {
     layout.paragraph('Not walked: no switch could be chosen, so the reset state of the gate is unknown.', { bold: true });
     return;
   }
-  drawTable(layout, POWER_ON_COLUMNS, p.steps.map((s) => [STAGE_NAMES[s.stage], s.state, stepVoltage(s), s.note]));
-  layout.paragraph(p.motorCanStart ? `The motor CAN start at power-on or reset. ${p.note}` : `The motor stays off through power-on and reset. ${p.note}`, { bold: true });
+  drawTable(
+    layout,
+    POWER_ON_COLUMNS,
+    p.steps.map((s) => [STAGE_NAMES[s.stage], s.state, stepVoltage(s), s.note]),
+  );
+  layout.paragraph(
+    p.motorCanStart ? `The motor CAN start at power-on or reset. ${p.note}` : `The motor stays off through power-on and reset. ${p.note}`,
+    { bold: true },
+  );
   const pull = p.recommendedPull;
   layout.gap(3);
-  if (pull == null) layout.paragraph(p.motorCanStart ? 'Recommended pull resistor: none keeps the motor off; see the note above for what to change.' : 'Recommended pull resistor: none needed.', { bold: p.motorCanStart });
+  if (pull == null)
+    layout.paragraph(
+      p.motorCanStart
+        ? 'Recommended pull resistor: none keeps the motor off; see the note above for what to change.'
+        : 'Recommended pull resistor: none needed.',
+      { bold: p.motorCanStart },
+    );
   else if (pull.ok && pull.chosenOhms != null) {
     const node = pull.nodeV == null ? '' : `; the node then sits at ${quantity(pull.nodeV, 'V')}`;
-    const current = pull.activeCurrentA == null ? '' : `, and the pin carries ${quantity(pull.activeCurrentA, 'A')} when it drives the other level`;
+    const current =
+      pull.activeCurrentA == null ? '' : `, and the pin carries ${quantity(pull.activeCurrentA, 'A')} when it drives the other level`;
     const to = pull.to === 'down' ? 'pull-down to ground' : `pull-up to ${sig(pull.railV)} V`;
-    layout.paragraph(`Recommended pull resistor: ${quantity(pull.chosenOhms, 'Ω')} ${to} (allowed ${quantity(pull.minOhms, 'Ω')} to ${quantity(pull.maxOhms, 'Ω')})${node}${current}.`);
+    layout.paragraph(
+      `Recommended pull resistor: ${quantity(pull.chosenOhms, 'Ω')} ${to} (allowed ${quantity(pull.minOhms, 'Ω')} to ${quantity(pull.maxOhms, 'Ω')})${node}${current}.`,
+    );
   } else layout.paragraph('Recommended pull resistor: no standard value fits; see the notes below.', { bold: true });
   pull?.notes.forEach((n) => layout.paragraph(n, { sizePt: 8.5, color: MUTED, indentPt: 10 }));
   const state = motorStateAtReset(p);
   const fitted = pull != null && pull.ok && pull.chosenOhms != null && p.withRecommendedPull != null;
-  if (state) layout.paragraph(`Motor at reset as built${fitted ? ' (with the recommended pull fitted)' : ''}: ${motorStateText(state)}.`, { bold: true });
-  if (acceptedResetStart) layout.paragraph(`Start at reset recorded as intended by the designer: “${acceptedResetStart}”. Guard the moving parts and verify on the real board.`, { bold: true });
-  else if (recordedIntent) layout.paragraph(`The designer recorded a start at reset as intended (“${recordedIntent}”); not needed now, since the motor stays off at reset.`);
+  if (state)
+    layout.paragraph(`Motor at reset as built${fitted ? ' (with the recommended pull fitted)' : ''}: ${motorStateText(state)}.`, {
+      bold: true,
+    });
+  if (acceptedResetStart)
+    layout.paragraph(
+      `Start at reset recorded as intended by the designer: “${acceptedResetStart}”. Guard the moving parts and verify on the real board.`,
+      { bold: true },
+    );
+  else if (recordedIntent)
+    layout.paragraph(
+      `The designer recorded a start at reset as intended (“${recordedIntent}”); not needed now, since the motor stays off at reset.`,
+    );
 }
 
 export function drawBom(layout: ReportLayout, bom: readonly BomLine[]): void {
@@ -79,7 +114,12 @@ export function drawBom(layout: ReportLayout, bom: readonly BomLine[]): void {
     layout.paragraph('No parts chosen yet: the bill of materials is empty.');
     return;
   }
-  drawTable(layout, BOM_TABLE_COLUMNS, bom.map((line) => BOM_TABLE_COLUMNS.map((c) => String(line[c.key]))), { sizePt: 7.5 });
+  drawTable(
+    layout,
+    BOM_TABLE_COLUMNS,
+    bom.map((line) => BOM_TABLE_COLUMNS.map((c) => String(line[c.key]))),
+    { sizePt: 7.5 },
+  );
 }
 
 const ASSUMPTIONS: readonly string[] = [

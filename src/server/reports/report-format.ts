@@ -64,7 +64,14 @@ export function checkOkText(check: Check): string {
 
 /** One table row per check: check, value, limit, margin, ok, note. */
 export function checkRow(check: Check): string[] {
-  return [checkTitle(check.id), quantity(check.value, check.unit), quantity(check.limit, check.unit), percent(check.margin), checkOkText(check), check.note];
+  return [
+    checkTitle(check.id),
+    quantity(check.value, check.unit),
+    quantity(check.limit, check.unit),
+    percent(check.margin),
+    checkOkText(check),
+    check.note,
+  ];
 }
 
 /** One line for an alternate: what falls short, or else the tightest margin. */

@@ -6,12 +6,14 @@ import { drawMotorCurves } from './report-chart.ts';
 import { percent, quantity, sig } from './report-format.ts';
 import { MUTED, type ReportLayout } from './report-layout.ts';
 
-const torqueText = (torqueNm: number): string => `${sig(torqueFromNm(torqueNm, 'mN·m'))} mN·m (${sig(torqueFromNm(torqueNm, 'g·cm'))} g·cm)`;
+const torqueText = (torqueNm: number): string =>
+  `${sig(torqueFromNm(torqueNm, 'mN·m'))} mN·m (${sig(torqueFromNm(torqueNm, 'g·cm'))} g·cm)`;
 
 function motorPointsText(motor: MotorView): string {
   const p = motor.params;
   const parts = [
-    `rated ${sig(p.ratedVoltageV)} V`, `no-load ${sig(p.noLoadSpeedRpm, 4)} rpm at ${quantity(p.noLoadCurrentA, 'A')}`,
+    `rated ${sig(p.ratedVoltageV)} V`,
+    `no-load ${sig(p.noLoadSpeedRpm, 4)} rpm at ${quantity(p.noLoadCurrentA, 'A')}`,
     `stall ${quantity(p.stallCurrentA, 'A')} and ${torqueText(p.stallTorqueNm)}`,
   ];
   if (p.terminalResistanceOhm != null) parts.push(`terminal resistance ${quantity(p.terminalResistanceOhm, 'Ω')}`);
@@ -20,7 +22,10 @@ function motorPointsText(motor: MotorView): string {
 }
 
 function logicText(logic: DesignInput['logic']): [string, string][] {
-  const pull = logic.resetPull === 'none' ? 'no internal pull (pin floats)' : `internal pull-${logic.resetPull} ${quantity(logic.resetPullOhms, 'Ω')} ±${percent(logic.resetPullTolerance)}`;
+  const pull =
+    logic.resetPull === 'none'
+      ? 'no internal pull (pin floats)'
+      : `internal pull-${logic.resetPull} ${quantity(logic.resetPullOhms, 'Ω')} ±${percent(logic.resetPullTolerance)}`;
   return [
     ['Logic rail', `${sig(logic.railV)} V; output high at least ${sig(logic.highV)} V, output low at most ${sig(logic.lowV)} V`],
     ['Pin current', `source ${quantity(logic.pinSourceCurrentA, 'A')}, sink ${quantity(logic.pinSinkCurrentA, 'A')}`],
@@ -46,13 +51,19 @@ export function drawInputs(layout: ReportLayout, input: DesignInput, motor: Moto
   layout.keyValues([
     ['Motor', `${motor.label}: ${motorPointsText(motor)}`],
     ['Supply', `minimum ${sig(s.minV)} V, nominal ${sig(s.nomV)} V, maximum ${sig(s.maxV)} V${s.preset ? ` (preset ${s.preset})` : ''}`],
-    ['Series resistance', `wiring ${quantity(input.wiringResistanceOhm, 'Ω')} + shunt ${quantity(input.shuntResistanceOhm, 'Ω')} = ${quantity(seriesOhm, 'Ω')}`],
+    [
+      'Series resistance',
+      `wiring ${quantity(input.wiringResistanceOhm, 'Ω')} + shunt ${quantity(input.shuntResistanceOhm, 'Ω')} = ${quantity(seriesOhm, 'Ω')}`,
+    ],
     ...logicText(input.logic),
     ['Drive', driveText(input.drive)],
     ['Driver supply', input.driverSupplyV == null ? 'the motor supply (if a driver is needed)' : `${sig(input.driverSupplyV)} V`],
     ['Ambient', `${sig(input.ambientMinC)} °C to ${sig(input.ambientMaxC)} °C`],
     ['Load', loadText(input.load)],
-    ['Margins', `voltage derating ${sig(input.margins.voltageDerating)}, thermal margin ${sig(input.margins.thermalMarginC)} K below Tj,max`],
+    [
+      'Margins',
+      `voltage derating ${sig(input.margins.voltageDerating)}, thermal margin ${sig(input.margins.thermalMarginC)} K below Tj,max`,
+    ],
     ['Board quantity', String(input.boardQuantity)],
   ]);
 }
@@ -77,9 +88,15 @@ export function drawMotorModel(layout: ReportLayout, motor: MotorView): void {
   drawMotorCurves(layout, motor);
   layout.paragraph(operatingText('minimum', m.atSupply.supplyV, motor.operatingMin), { sizePt: 8.5, color: MUTED });
   layout.paragraph(operatingText('maximum', motor.atMax.atSupply.supplyV, motor.operatingMax), { sizePt: 8.5, color: MUTED });
-  for (const [name, at] of [['minimum', motor.atMin], ['maximum', motor.atMax]] as const) {
+  for (const [name, at] of [
+    ['minimum', motor.atMin],
+    ['maximum', motor.atMax],
+  ] as const) {
     const a = at.atSupply;
-    layout.paragraph(`Stall at ${name} supply ${sig(a.supplyV)} V: ${quantity(a.stallCurrentA, 'A')} and ${torqueText(a.stallTorqueNm)}; no-load ${sig(a.noLoadSpeedRpm, 4)} rpm.`, { sizePt: 8.5, color: MUTED });
+    layout.paragraph(
+      `Stall at ${name} supply ${sig(a.supplyV)} V: ${quantity(a.stallCurrentA, 'A')} and ${torqueText(a.stallTorqueNm)}; no-load ${sig(a.noLoadSpeedRpm, 4)} rpm.`,
+      { sizePt: 8.5, color: MUTED },
+    );
   }
 }
 
@@ -87,7 +104,10 @@ export function drawWorstCase(layout: ReportLayout, match: DesignMatch): void {
   const w = match.worstCase;
   layout.heading('Worst case');
   layout.keyValues([
-    ['Stall current (maximum)', `${quantity(w.stallCurrentMaxA, 'A')}: stall at ${sig(w.supplyMaxV)} V with the winding cold at ${sig(w.windingColdC)} °C`],
+    [
+      'Stall current (maximum)',
+      `${quantity(w.stallCurrentMaxA, 'A')}: stall at ${sig(w.supplyMaxV)} V with the winding cold at ${sig(w.windingColdC)} °C`,
+    ],
     ['Running current', `${quantity(w.runningCurrentA, 'A')} while the switch conducts`],
     ['Switch duty', w.pwmHz == null ? `${percent(w.switchDuty)} (on/off)` : `${percent(w.switchDuty)} at ${formatSi(w.pwmHz, 'Hz', 3)}`],
     ['Diode mean current', quantity(w.diodeMeanCurrentA, 'A')],

@@ -48,7 +48,10 @@ function extraFacts(entry: RoleEntry): [string, string][] {
   const facts: [string, string][] = [];
   if ('evaluation' in entry) {
     const e = entry.evaluation;
-    facts.push(['At this drive', `RDS(on) ${quantity(e.rdsOnAtDriveOhms, 'Ω')} at 25 °C, junction ${quantity(e.junctionC, '°C')}, conduction ${quantity(e.conductionLossW, 'W')}, switching ${quantity(e.switchingLossW, 'W')}`]);
+    facts.push([
+      'At this drive',
+      `RDS(on) ${quantity(e.rdsOnAtDriveOhms, 'Ω')} at 25 °C, junction ${quantity(e.junctionC, '°C')}, conduction ${quantity(e.conductionLossW, 'W')}, switching ${quantity(e.switchingLossW, 'W')}`,
+    ]);
   }
   if ('pairing' in entry) {
     const p = entry.pairing;
@@ -88,7 +91,8 @@ function drawAlternates(layout: ReportLayout, ctx: RoleContext, list: readonly R
     const entry = findEntry(list, id);
     const part = ctx.partsById.get(id);
     if (!entry) return [part?.mpn ?? `part ${id}`, part?.manufacturer ?? '—', '—', '—', 'Not among the ranked candidates for this design.'];
-    const verdict = verdictText(entry.verdict, ctx.verdictMarks) + (entry.reviewStatus === 'approved' ? '' : ` (${reviewWords(entry.reviewStatus)})`);
+    const verdict =
+      verdictText(entry.verdict, ctx.verdictMarks) + (entry.reviewStatus === 'approved' ? '' : ` (${reviewWords(entry.reviewStatus)})`);
     return [entry.mpn, entry.manufacturer, verdict, money(entry.priceAtQty, true), summaryOf(entry.checks)];
   });
   layout.subheading('Alternates', 40);
@@ -101,7 +105,10 @@ function drawRole(layout: ReportLayout, ctx: RoleContext, role: PartRole, label:
   if (selection.chosenPartId == null) layout.paragraph(`No ${label.toLowerCase()} has been chosen for this design.`, { bold: true });
   else if (!entry) {
     const part = ctx.partsById.get(selection.chosenPartId);
-    layout.paragraph(`The chosen ${label.toLowerCase()} (${part?.mpn ?? `part ${selection.chosenPartId}`}) is not among the ranked candidates for these inputs: choose again.`, { bold: true });
+    layout.paragraph(
+      `The chosen ${label.toLowerCase()} (${part?.mpn ?? `part ${selection.chosenPartId}`}) is not among the ranked candidates for these inputs: choose again.`,
+      { bold: true },
+    );
   } else drawChosen(layout, ctx, label, entry);
   drawAlternates(layout, ctx, list, selection);
 }
@@ -110,9 +117,11 @@ export function drawSwitchRole(layout: ReportLayout, ctx: RoleContext): void {
   const { match } = ctx;
   const list = match.driverNeeded ? match.switchWithDriver : match.switch;
   layout.heading('Switch', 40 + keepWithPt(layout, findEntry(list, ctx.selections.switch.chosenPartId)));
-  layout.paragraph(match.driverNeeded
-    ? 'Low-side N-channel MOSFET, driven through a gate driver.'
-    : 'Low-side N-channel MOSFET, with its gate driven straight from the logic pin.');
+  layout.paragraph(
+    match.driverNeeded
+      ? 'Low-side N-channel MOSFET, driven through a gate driver.'
+      : 'Low-side N-channel MOSFET, with its gate driven straight from the logic pin.',
+  );
   layout.paragraph(switchDriveLine(match.switchDrive, ctx.driverSupplyMinV));
   layout.paragraph(`Jammed shaft judged with stall protection ${stallProtectionText(match.worstCase.stall.protection)}.`);
   drawRole(layout, ctx, 'switch', 'Switch', list);
@@ -123,18 +132,24 @@ export function drawGateDriveRole(layout: ReportLayout, ctx: RoleContext): void 
   const driver = match.driverNeeded ? findEntry(match.driver, ctx.selections.driver.chosenPartId) : undefined;
   layout.heading('Gate drive', match.driverNeeded ? 60 + keepWithPt(layout, driver) : 40);
   if (!match.driverNeeded) {
-    layout.paragraph('Direct drive from the logic pin: the logic high level reaches a specified RDS(on) point of the chosen switch, so no gate driver is needed.');
+    layout.paragraph(
+      'Direct drive from the logic pin: the logic high level reaches a specified RDS(on) point of the chosen switch, so no gate driver is needed.',
+    );
     return;
   }
   layout.paragraph(match.driverNeededNote ?? 'A gate driver is needed.');
   if (match.requiredGateDriveV != null) layout.paragraph(`Required gate drive: at least ${sig(match.requiredGateDriveV)} V at the gate.`);
   const paired = match.driver[0]?.pairing;
-  layout.paragraph(driversRankedForLine(paired?.switchMpn ?? null, paired != null && paired.switchPartId === ctx.selections.switch.chosenPartId));
+  layout.paragraph(
+    driversRankedForLine(paired?.switchMpn ?? null, paired != null && paired.switchPartId === ctx.selections.switch.chosenPartId),
+  );
   drawRole(layout, ctx, 'driver', 'Gate driver', match.driver);
 }
 
 export function drawDiodeRole(layout: ReportLayout, ctx: RoleContext): void {
   layout.heading('Freewheel diode', 40 + keepWithPt(layout, findEntry(ctx.match.diode, ctx.selections.diode.chosenPartId)));
-  layout.paragraph(`Across the motor, cathode to the positive supply; worst-case mean current ${quantity(ctx.match.worstCase.diodeMeanCurrentA, 'A')}.`);
+  layout.paragraph(
+    `Across the motor, cathode to the positive supply; worst-case mean current ${quantity(ctx.match.worstCase.diodeMeanCurrentA, 'A')}.`,
+  );
   drawRole(layout, ctx, 'diode', 'Freewheel diode', ctx.match.diode);
 }

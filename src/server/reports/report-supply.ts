@@ -33,7 +33,8 @@ function sourceText(s: DesignInput['supply']): string {
 function controllerText(logic: DesignInput['logic']): string {
   const shared = logic.sharedSupply;
   if (!shared) return 'on a supply of its own (no brown-out check)';
-  const regulator = shared.regulatorDropoutV > 0 ? ` behind a regulator with ${quantity(shared.regulatorDropoutV, 'V')} dropout` : ', fed directly';
+  const regulator =
+    shared.regulatorDropoutV > 0 ? ` behind a regulator with ${quantity(shared.regulatorDropoutV, 'V')} dropout` : ', fed directly';
   return `on the motor's source${regulator}; keeps running down to ${quantity(shared.minSupplyV, 'V')}`;
 }
 
@@ -49,14 +50,25 @@ export function drawSupply(layout: ReportLayout, input: DesignInput, supply: Sup
     ['Verdict', verdictText(supply.verdict, verdictMarks)],
   ]);
   layout.gap(4);
-  drawTable(layout, SUPPLY_CHECK_COLUMNS, supply.checks.map((c) => [
-    supplyCheckTitle(c.id), quantity(c.value, c.unit), `${limitRelation(c.id)} ${quantity(c.limit, c.unit)}`, verdictText(checkVerdict(c), verdictMarks), printable(c.note),
-  ]));
+  drawTable(
+    layout,
+    SUPPLY_CHECK_COLUMNS,
+    supply.checks.map((c) => [
+      supplyCheckTitle(c.id),
+      quantity(c.value, c.unit),
+      `${limitRelation(c.id)} ${quantity(c.limit, c.unit)}`,
+      verdictText(checkVerdict(c), verdictMarks),
+      printable(c.note),
+    ]),
+  );
   layout.gap(4);
   const bulk = bulkCapacitanceView(supply.bulkCapacitanceF);
   const limited = supply.startActualCurrentA < supply.startCurrentA;
   layout.keyValues([
-    ['Start current', `${quantity(supply.startCurrentA, 'A')} asked for at the highest supply, winding at ${sig(input.ambientMinC)} °C; the source delivers ${quantity(supply.startActualCurrentA, 'A')}${limited ? ' (held at its limit)' : ''}`],
+    [
+      'Start current',
+      `${quantity(supply.startCurrentA, 'A')} asked for at the highest supply, winding at ${sig(input.ambientMinC)} °C; the source delivers ${quantity(supply.startActualCurrentA, 'A')}${limited ? ' (held at its limit)' : ''}`,
+    ],
     ['Source at start', `${quantity(supply.sourceVoltageAtStartV, 'V')} at the terminals at the lowest supply`],
     ['Start torque', `${torqueText(supply.startTorqueNm)} at the lowest supply, winding at ${sig(input.ambientMaxC)} °C`],
     ['Running current', quantity(supply.runningCurrentA, 'A')],

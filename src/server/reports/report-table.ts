@@ -29,11 +29,18 @@ function gridOf(layout: ReportLayout, columns: readonly TableColumn[]): CellGrid
   return { xs, widths };
 }
 
-function drawRow(layout: ReportLayout, grid: CellGrid, columns: readonly TableColumn[], cells: string[][], style: { sizePt: number; bold: boolean; shaded: boolean }): void {
+function drawRow(
+  layout: ReportLayout,
+  grid: CellGrid,
+  columns: readonly TableColumn[],
+  cells: string[][],
+  style: { sizePt: number; bold: boolean; shaded: boolean },
+): void {
   const lineHeight = style.sizePt * 1.25;
   const rowHeight = rowHeightOf(cells, style.sizePt);
   const top = layout.y;
-  if (style.shaded) layout.page.drawRectangle({ x: layout.left, y: top - rowHeight, width: layout.widthPt, height: rowHeight, color: SHADE });
+  if (style.shaded)
+    layout.page.drawRectangle({ x: layout.left, y: top - rowHeight, width: layout.widthPt, height: rowHeight, color: SHADE });
   cells.forEach((lines, i) => {
     lines.forEach((line, j) => {
       const baseline = top - PAD_Y_PT - style.sizePt - j * lineHeight + 1;
@@ -43,7 +50,12 @@ function drawRow(layout: ReportLayout, grid: CellGrid, columns: readonly TableCo
     });
   });
   layout.y = top - rowHeight;
-  layout.page.drawLine({ start: { x: layout.left, y: layout.y }, end: { x: layout.left + layout.widthPt, y: layout.y }, thickness: 0.5, color: HAIRLINE });
+  layout.page.drawLine({
+    start: { x: layout.left, y: layout.y },
+    end: { x: layout.left + layout.widthPt, y: layout.y },
+    thickness: 0.5,
+    color: HAIRLINE,
+  });
 }
 
 function wrapCells(layout: ReportLayout, grid: CellGrid, row: readonly string[], sizePt: number, bold: boolean): string[][] {
@@ -55,16 +67,35 @@ function rowHeightOf(cells: string[][], sizePt: number): number {
 }
 
 /** Height the table would take if drawn on one page. */
-export function tableHeightPt(layout: ReportLayout, columns: readonly TableColumn[], rows: readonly (readonly string[])[], options: TableOptions = {}): number {
+export function tableHeightPt(
+  layout: ReportLayout,
+  columns: readonly TableColumn[],
+  rows: readonly (readonly string[])[],
+  options: TableOptions = {},
+): number {
   const sizePt = options.sizePt ?? 8;
   const grid = gridOf(layout, columns);
-  return [columns.map((c) => c.title), ...rows].reduce((h, row, i) => h + rowHeightOf(wrapCells(layout, grid, row, sizePt, i === 0), sizePt), 0);
+  return [columns.map((c) => c.title), ...rows].reduce(
+    (h, row, i) => h + rowHeightOf(wrapCells(layout, grid, row, sizePt, i === 0), sizePt),
+    0,
+  );
 }
 
-export function drawTable(layout: ReportLayout, columns: readonly TableColumn[], rows: readonly (readonly string[])[], options: TableOptions = {}): void {
+export function drawTable(
+  layout: ReportLayout,
+  columns: readonly TableColumn[],
+  rows: readonly (readonly string[])[],
+  options: TableOptions = {},
+): void {
   const sizePt = options.sizePt ?? 8;
   const grid = gridOf(layout, columns);
-  const header = wrapCells(layout, grid, columns.map((c) => c.title), sizePt, true);
+  const header = wrapCells(
+    layout,
+    grid,
+    columns.map((c) => c.title),
+    sizePt,
+    true,
+  );
   const headerHeight = rowHeightOf(header, sizePt);
   const drawHeader = (): void => drawRow(layout, grid, columns, header, { sizePt, bold: true, shaded: true });
   const wrapped = rows.map((r, i) => wrapCells(layout, grid, r, sizePt, options.boldRows?.has(i) ?? false));

@@ -53,7 +53,10 @@ export async function listAuditEvents(db: Db, entityType: string, entityId: numb
     .leftJoin('users as u', 'u.id', 'a.actor_user_id')
     .select('a.*', 'u.name as actor_name')
     .where({ 'a.entity_type': entityType, 'a.entity_id': entityId })
-    .orderBy([{ column: 'a.occurred_at', order: 'desc' }, { column: 'a.id', order: 'desc' }])
+    .orderBy([
+      { column: 'a.occurred_at', order: 'desc' },
+      { column: 'a.id', order: 'desc' },
+    ])
     .limit(limit);
   return rows.map((r) => ({
     id: Number(r.id),

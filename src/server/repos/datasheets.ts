@@ -44,7 +44,8 @@ function fromRow(r: DbDatasheetRow & { uploader_name?: string | null }): Datashe
   };
 }
 
-const withUploader = (db: Db) => db('datasheets as s').leftJoin('users as u', 'u.id', 's.uploaded_by').select('s.*', 'u.name as uploader_name');
+const withUploader = (db: Db) =>
+  db('datasheets as s').leftJoin('users as u', 'u.id', 's.uploaded_by').select('s.*', 'u.name as uploader_name');
 
 export async function insertDatasheet(db: Db, d: NewDatasheet): Promise<number> {
   const [id] = await db('datasheets').insert({
@@ -71,7 +72,12 @@ export async function findDatasheetBySha(db: Db, partId: number, sha256: string)
 }
 
 export async function listDatasheets(db: Db, partId: number): Promise<DatasheetRecord[]> {
-  const rows = await withUploader(db).where('s.part_id', partId).orderBy([{ column: 's.uploaded_at', order: 'desc' }, { column: 's.id', order: 'desc' }]);
+  const rows = await withUploader(db)
+    .where('s.part_id', partId)
+    .orderBy([
+      { column: 's.uploaded_at', order: 'desc' },
+      { column: 's.id', order: 'desc' },
+    ]);
   return rows.map(fromRow);
 }
 

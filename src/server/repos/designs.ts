@@ -37,7 +37,11 @@ export interface DbDesignRevisionRow {
 export function parseStoredInput(json: string, designId: number, revision: number): DesignInput {
   const parsed = designInputSchema.safeParse(JSON.parse(json));
   if (parsed.success) return parsed.data as DesignInput;
-  throw new ServiceError(409, `Revision ${revision} of design ${designId} no longer validates; open it and save it again.`, issuesOf(parsed.error));
+  throw new ServiceError(
+    409,
+    `Revision ${revision} of design ${designId} no longer validates; open it and save it again.`,
+    issuesOf(parsed.error),
+  );
 }
 
 const iso = (d: Date | string): string => (d instanceof Date ? d.toISOString() : new Date(d).toISOString());
@@ -126,7 +130,10 @@ export async function replaceDesignParts(db: Db, designId: number, input: Design
 }
 
 /** Designs that use a part (for the part page's where-used list). */
-export async function designsUsingPart(db: Db, partId: number): Promise<{ id: number; name: string; role: string; position: number; status: DesignStatus }[]> {
+export async function designsUsingPart(
+  db: Db,
+  partId: number,
+): Promise<{ id: number; name: string; role: string; position: number; status: DesignStatus }[]> {
   return db('design_parts')
     .join('designs', 'designs.id', 'design_parts.design_id')
     .select('designs.id', 'designs.name', 'design_parts.role', 'design_parts.position', 'designs.status')

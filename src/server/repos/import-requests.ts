@@ -20,7 +20,11 @@ export interface StoredImport {
 export async function findImportRequest(db: Db, key: string): Promise<StoredImport | null> {
   const row = await db<DbImportRequestRow>('import_requests').where({ idempotency_key: key }).first();
   if (!row) return null;
-  return { requestSha256: row.request_sha256, rowsImported: row.rows_imported, result: row.result_json ? JSON.parse(row.result_json) : null };
+  return {
+    requestSha256: row.request_sha256,
+    rowsImported: row.rows_imported,
+    result: row.result_json ? JSON.parse(row.result_json) : null,
+  };
 }
 
 /** Claims the key inside the caller's transaction; a concurrent claim of the same key waits, then fails as a duplicate. */
@@ -29,5 +33,7 @@ export async function claimImportKey(db: Db, key: string, userId: number, sha256
 }
 
 export async function completeImportRequest(db: Db, key: string, rowsImported: number, result: unknown): Promise<void> {
-  await db('import_requests').where({ idempotency_key: key }).update({ rows_imported: rowsImported, result_json: JSON.stringify(result) });
+  await db('import_requests')
+    .where({ idempotency_key: key })
+    .update({ rows_imported: rowsImported, result_json: JSON.stringify(result) });
 }

@@ -202,9 +202,7 @@ export function sourceFromRows(row: DbSourceRow, breaks: DbPriceBreakRow[]): Par
     leadTimeDays: row.lead_time_days,
     stockQty: row.stock_qty,
     currency: row.currency,
-    priceBreaks: breaks
-      .map((b) => ({ qty: b.qty, unitPrice: Number(b.unit_price) }))
-      .sort((a, b) => a.qty - b.qty),
+    priceBreaks: breaks.map((b) => ({ qty: b.qty, unitPrice: Number(b.unit_price) })).sort((a, b) => a.qty - b.qty),
   };
 }
 

@@ -4,7 +4,14 @@ import type { Lifecycle, Part, PartSource, ReviewStatus } from '../../lib/domain
 import type { DbPartRow } from './part-rows.ts';
 import { hydrateParts, insertParams, insertSources, type NewPart } from './parts.ts';
 
-const PARAM_TABLES = ['mosfet_rds_on_points', 'mosfet_zth_points', 'mosfet_params', 'driver_params', 'diode_params', 'motor_params'] as const;
+const PARAM_TABLES = [
+  'mosfet_rds_on_points',
+  'mosfet_zth_points',
+  'mosfet_params',
+  'driver_params',
+  'diode_params',
+  'motor_params',
+] as const;
 
 /** The part row, locked against concurrent writers until the transaction ends. */
 export async function lockPartRow(trx: Db, id: number): Promise<DbPartRow | null> {
@@ -39,7 +46,9 @@ export interface PartHeadUpdate {
 }
 
 async function bump(db: Db, id: number, fields: Record<string, unknown>): Promise<void> {
-  await db('parts').where({ id }).update({ ...fields, version: db.raw('version + 1'), updated_at: db.fn.now(3) });
+  await db('parts')
+    .where({ id })
+    .update({ ...fields, version: db.raw('version + 1'), updated_at: db.fn.now(3) });
 }
 
 export async function updatePartHead(db: Db, id: number, head: PartHeadUpdate): Promise<void> {
@@ -87,7 +96,10 @@ export async function findPartIdByMakerMpn(db: Db, manufacturer: string, mpn: st
 
 /** Distinct packages in use, per category (for the search page's package picker). */
 export async function packagesByCategory(db: Db): Promise<Record<string, string[]>> {
-  const rows: { category: string; package: string }[] = await db('parts').distinct('category', 'package').where('package', '<>', '').orderBy('package');
+  const rows: { category: string; package: string }[] = await db('parts')
+    .distinct('category', 'package')
+    .where('package', '<>', '')
+    .orderBy('package');
   const out: Record<string, string[]> = {};
   for (const r of rows) (out[r.category] ??= []).push(r.package);
   return out;

@@ -53,9 +53,7 @@ export async function insertSources(db: Db, partId: number, sources: PartSource[
       currency: s.currency,
     });
     if (s.priceBreaks.length > 0) {
-      await db('part_price_breaks').insert(
-        s.priceBreaks.map((b) => ({ source_id: sourceId, qty: b.qty, unit_price: b.unitPrice })),
-      );
+      await db('part_price_breaks').insert(s.priceBreaks.map((b) => ({ source_id: sourceId, qty: b.qty, unit_price: b.unitPrice })));
     }
   }
 }
@@ -106,7 +104,10 @@ export async function findPartId(db: Db, manufacturer: string, mpn: string): Pro
 async function loadSources(db: Db, partIds: number[]): Promise<Map<number, PartSource[]>> {
   const sourceRows: DbSourceRow[] = await db('part_sources').whereIn('part_id', partIds).orderBy('id');
   const breakRows: DbPriceBreakRow[] = sourceRows.length
-    ? await db('part_price_breaks').whereIn('source_id', sourceRows.map((s) => s.id))
+    ? await db('part_price_breaks').whereIn(
+        'source_id',
+        sourceRows.map((s) => s.id),
+      )
     : [];
   const breaksBySource = groupBy(breakRows, (b) => b.source_id);
   const result = new Map<number, PartSource[]>();
@@ -142,7 +143,11 @@ export async function hydrateParts(db: Db, rows: DbPartRow[]): Promise<Part[]> {
   for (const row of rows) {
     const head = partHeadFromRow(row, sources.get(row.id) ?? []);
     if (row.category === 'mosfet' && mosfetById.has(row.id)) {
-      parts.push({ ...head, category: 'mosfet', params: mosfetFromRows(mosfetById.get(row.id)!, pointsById.get(row.id) ?? [], zthById.get(row.id) ?? []) });
+      parts.push({
+        ...head,
+        category: 'mosfet',
+        params: mosfetFromRows(mosfetById.get(row.id)!, pointsById.get(row.id) ?? [], zthById.get(row.id) ?? []),
+      });
     } else if (row.category === 'driver' && driverById.has(row.id)) {
       parts.push({ ...head, category: 'driver', params: driverFromRow(driverById.get(row.id)!) });
     } else if (row.category === 'diode' && diodeById.has(row.id)) {
@@ -161,7 +166,9 @@ export interface CatalogueQuery {
 
 /** Parts ordered by category, maker and number, fully hydrated. */
 export async function listParts(db: Db, query: CatalogueQuery = {}): Promise<Part[]> {
-  const q = db<DbPartRow>('parts').select('*').orderBy([{ column: 'category' }, { column: 'manufacturer' }, { column: 'mpn' }]);
+  const q = db<DbPartRow>('parts')
+    .select('*')
+    .orderBy([{ column: 'category' }, { column: 'manufacturer' }, { column: 'mpn' }]);
   if (query.category) q.where('category', query.category);
   if (query.reviewStatuses) q.whereIn('review_status', query.reviewStatuses);
   return hydrateParts(db, await q);

@@ -19,7 +19,11 @@ const PDF_MAGIC = [0x25, 0x50, 0x44, 0x46, 0x2d]; // "%PDF-"
 /** The original name reduced to a harmless base name ending in .pdf (never used as a storage path). */
 export function safePdfName(name: string): string {
   const base = (name.split(/[\\/]/).pop() ?? '').normalize('NFKC');
-  let s = base.replace(/[\u0000-\u001f\u007f"<>:|?*;]/g, '').replace(/\s+/g, ' ').trim().replace(/^[.\s]+/, '');
+  let s = base
+    .replace(/[\p{Cc}\p{Cf}"<>:|?*;]/gu, '')
+    .replace(/\s+/g, ' ')
+    .trim()
+    .replace(/^[.\s]+/, '');
   s = s.replace(/\.pdf$/i, '').replace(/[.\s]+$/, '');
   if (s === '') s = 'datasheet';
   return `${s.slice(0, 110)}.pdf`;
@@ -32,14 +36,19 @@ function view(r: DatasheetRecord): DatasheetView {
 
 async function pageCount(bytes: Uint8Array): Promise<number> {
   const isPdf = PDF_MAGIC.every((b, i) => bytes[i] === b);
-  if (!isPdf) throw new ServiceError(415, 'Only PDF datasheets are accepted; this file is not a PDF.', [{ path: 'file', message: 'does not start with %PDF-' }]);
+  if (!isPdf)
+    throw new ServiceError(415, 'Only PDF datasheets are accepted; this file is not a PDF.', [
+      { path: 'file', message: 'does not start with %PDF-' },
+    ]);
   try {
     const doc = await PDFDocument.load(bytes, { ignoreEncryption: true, updateMetadata: false });
     const pages = doc.getPageCount();
     if (pages < 1) throw new Error('no pages');
     return pages;
   } catch {
-    throw new ServiceError(415, 'The file starts like a PDF but could not be read as one.', [{ path: 'file', message: 'not a readable PDF' }]);
+    throw new ServiceError(415, 'The file starts like a PDF but could not be read as one.', [
+      { path: 'file', message: 'not a readable PDF' },
+    ]);
   }
 }
 
@@ -52,25 +61,47 @@ export interface DatasheetUpload {
 export async function addDatasheet(user: SessionUser, partId: number, upload: DatasheetUpload): Promise<DatasheetView> {
   if (!(await findPartRow(db(), partId))) throw notFound('The part');
   const revision = datasheetRevisionSchema.safeParse(upload.revision);
-  if (!revision.success) throw new ServiceError(400, 'The revision label is not valid.', [{ path: 'revision', message: revision.error.issues[0].message }]);
+  if (!revision.success)
+    throw new ServiceError(400, 'The revision label is not valid.', [{ path: 'revision', message: revision.error.issues[0].message }]);
   if (upload.bytes.byteLength === 0) throw new ServiceError(400, 'The file is empty.', [{ path: 'file', message: '0 bytes' }]);
-  if (upload.bytes.byteLength > MAX_DATASHEET_BYTES) throw new ServiceError(413, 'The file is larger than 20 MB.', [{ path: 'file', message: `at most ${MAX_DATASHEET_BYTES} bytes` }]);
+  if (upload.bytes.byteLength > MAX_DATASHEET_BYTES)
+    throw new ServiceError(413, 'The file is larger than 20 MB.', [{ path: 'file', message: `at most ${MAX_DATASHEET_BYTES} bytes` }]);
   const pages = await pageCount(upload.bytes);
   const sha256 = createHash('sha256').update(upload.bytes).digest('hex');
   const duplicate = await findDatasheetBySha(db(), partId, sha256);
-  if (duplicate) throw new ServiceError(409, 'This exact file is already attached to the part.', [{ path: 'file', message: `same SHA-256 as datasheet ${duplicate.id}` }]);
+  if (duplicate)
+    throw new ServiceError(409, 'This exact file is already attached to the part.', [
+      { path: 'file', message: `same SHA-256 as datasheet ${duplicate.id}` },
+    ]);
   const storageKey = `${randomUUID()}.pdf`;
   await datasheetStore().put(storageKey, upload.bytes);
   try {
     const id = await db().transaction(async (trx) => {
-      const newId = await insertDatasheet(trx, { partId, originalName: safePdfName(upload.name), storageKey, sha256, bytes: upload.bytes.byteLength, pages, revision: revision.data || null, uploadedByUserId: user.id });
-      await insertAuditEvent(trx, { actorUserId: user.id, action: 'datasheet.add', entityType: 'part', entityId: partId, before: null, after: { datasheet: { id: newId, name: safePdfName(upload.name), revision: revision.data || null, pages, sha256 } } });
+      const newId = await insertDatasheet(trx, {
+        partId,
+        originalName: safePdfName(upload.name),
+        storageKey,
+        sha256,
+        bytes: upload.bytes.byteLength,
+        pages,
+        revision: revision.data || null,
+        uploadedByUserId: user.id,
+      });
+      await insertAuditEvent(trx, {
+        actorUserId: user.id,
+        action: 'datasheet.add',
+        entityType: 'part',
+        entityId: partId,
+        before: null,
+        after: { datasheet: { id: newId, name: safePdfName(upload.name), revision: revision.data || null, pages, sha256 } },
+      });
       return newId;
     });
     return view((await findDatasheet(db(), id))!);
   } catch (err) {
     await datasheetStore().delete(storageKey);
-    if ((err as { code?: string }).code === 'ER_DUP_ENTRY') throw new ServiceError(409, 'This exact file is already attached to the part.', [{ path: 'file', message: 'same SHA-256' }]);
+    if ((err as { code?: string }).code === 'ER_DUP_ENTRY')
+      throw new ServiceError(409, 'This exact file is already attached to the part.', [{ path: 'file', message: 'same SHA-256' }]);
     throw err;
   }
 }
@@ -80,7 +111,14 @@ export async function removeDatasheet(user: SessionUser, id: number): Promise<vo
   if (!sheet) throw notFound('The datasheet');
   await db().transaction(async (trx) => {
     await deleteDatasheetRow(trx, id);
-    await insertAuditEvent(trx, { actorUserId: user.id, action: 'datasheet.remove', entityType: 'part', entityId: sheet.partId, before: { datasheet: { id, name: sheet.originalName, revision: sheet.revision, sha256: sheet.sha256 } }, after: null });
+    await insertAuditEvent(trx, {
+      actorUserId: user.id,
+      action: 'datasheet.remove',
+      entityType: 'part',
+      entityId: sheet.partId,
+      before: { datasheet: { id, name: sheet.originalName, revision: sheet.revision, sha256: sheet.sha256 } },
+      after: null,
+    });
   });
   await datasheetStore().delete(sheet.storageKey);
 }

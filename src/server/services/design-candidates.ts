@@ -31,23 +31,34 @@ export async function loadCandidates(db: Db, input: DesignInput, motor: MotorPar
   const driverSupply = driverSupplyOf(c);
 
   const mosfetAll = eligible(db, 'mosfet', includePending);
-  const mosfetQ = mosfetAll.clone().join('mosfet_params', 'mosfet_params.part_id', 'parts.id')
+  const mosfetQ = mosfetAll
+    .clone()
+    .join('mosfet_params', 'mosfet_params.part_id', 'parts.id')
     .where('mosfet_params.channel', 'n')
     .where('mosfet_params.vds_max_v', '>=', wc.supplyMaxV)
     .where('mosfet_params.id_pulsed_a', '>=', wc.stallCurrentMaxA)
     .select('parts.*');
   const driverAll = eligible(db, 'driver', includePending);
-  const driverQ = driverAll.clone().join('driver_params', 'driver_params.part_id', 'parts.id')
+  const driverQ = driverAll
+    .clone()
+    .join('driver_params', 'driver_params.part_id', 'parts.id')
     .where('driver_params.supply_min_v', '<=', driverSupply.minV)
     .where('driver_params.supply_max_v', '>=', driverSupply.maxV)
     .select('parts.*');
   const diodeAll = eligible(db, 'diode', includePending);
-  const diodeQ = diodeAll.clone().join('diode_params', 'diode_params.part_id', 'parts.id')
+  const diodeQ = diodeAll
+    .clone()
+    .join('diode_params', 'diode_params.part_id', 'parts.id')
     .where('diode_params.vrrm_v', '>=', wc.supplyMaxV)
     .select('parts.*');
 
   const [mosfetRows, driverRows, diodeRows, mosfetTotal, driverTotal, diodeTotal] = await Promise.all([
-    mosfetQ, driverQ, diodeQ, countOf(mosfetAll), countOf(driverAll), countOf(diodeAll),
+    mosfetQ,
+    driverQ,
+    diodeQ,
+    countOf(mosfetAll),
+    countOf(driverAll),
+    countOf(diodeAll),
   ]);
   // One hydration for all three lists: its six queries run once, not once per category.
   const parts = await hydrateParts(db, [...mosfetRows, ...driverRows, ...diodeRows] as DbPartRow[]);

@@ -51,7 +51,10 @@ export async function designOutputs(id: number, revision?: number): Promise<Desi
     ? `${motorPart.lifecycle !== 'obsolete' && motorPart.reviewStatus === 'approved' ? '✓' : '✕'} ${reviewWords(motorPart.reviewStatus)} · ${motorPart.lifecycle}`
     : 'entered by hand';
   const bom = buildBom({
-    input, motor: motorLine, partsById, pull: match.powerOn?.recommendedPull ?? null,
+    input,
+    motor: motorLine,
+    partsById,
+    pull: match.powerOn?.recommendedPull ?? null,
     statusOf: (role, partId) => pickStatus(match, role, partId, parts.get(partId)).text,
     motorStatus,
     pairing: bomPairingNotes(match, input.selections.driver.chosenPartId),
@@ -61,7 +64,12 @@ export async function designOutputs(id: number, revision?: number): Promise<Desi
 }
 
 export function bomFileName(design: Design, ext: string): string {
-  const slug = design.name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'design';
+  const slug =
+    design.name
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, '-')
+      .replace(/^-|-$/g, '')
+      .slice(0, 60) || 'design';
   return `${slug}-rev${design.revision}.${ext}`;
 }
 

@@ -21,14 +21,40 @@ export function newDesignInput(firstMotorId: number | null): DesignInput {
   const logic = LOGIC_PRESETS.find((p) => p.id === '3v3')!;
   return {
     name: 'New drive design',
-    motor: firstMotorId != null
-      ? { source: 'catalogue', partId: firstMotorId }
-      : { source: 'manual', label: 'Motor entered by hand', params: { ratedVoltageV: 3.7, voltageMinV: null, voltageMaxV: null, noLoadSpeedRpm: 14000, noLoadCurrentA: 0.22, stallTorqueNm: 0.0047, stallCurrentA: 2.4, terminalResistanceOhm: null, inductanceH: null, rotorInertiaKgM2: null } },
+    motor:
+      firstMotorId != null
+        ? { source: 'catalogue', partId: firstMotorId }
+        : {
+            source: 'manual',
+            label: 'Motor entered by hand',
+            params: {
+              ratedVoltageV: 3.7,
+              voltageMinV: null,
+              voltageMaxV: null,
+              noLoadSpeedRpm: 14000,
+              noLoadCurrentA: 0.22,
+              stallTorqueNm: 0.0047,
+              stallCurrentA: 2.4,
+              terminalResistanceOhm: null,
+              inductanceH: null,
+              rotorInertiaKgM2: null,
+            },
+          },
     // The pack's own figures, R_int included (1S Li-ion: ~0.075 Ω, from memory): a new design judges its start from the first look.
     supply: supplyFromPreset(supply),
     wiringResistanceOhm: 0.05,
     shuntResistanceOhm: 0,
-    logic: { railV: logic.railV, highV: logic.highV, lowV: logic.lowV, pinSourceCurrentA: 0.004, pinSinkCurrentA: 0.004, resetPull: 'none', resetPullOhms: 0, resetPullTolerance: 0, sharedSupply: null },
+    logic: {
+      railV: logic.railV,
+      highV: logic.highV,
+      lowV: logic.lowV,
+      pinSourceCurrentA: 0.004,
+      pinSinkCurrentA: 0.004,
+      resetPull: 'none',
+      resetPullOhms: 0,
+      resetPullTolerance: 0,
+      sharedSupply: null,
+    },
     drive: { mode: 'onoff' },
     ambientMinC: 0,
     ambientMaxC: 40,
@@ -38,6 +64,10 @@ export function newDesignInput(firstMotorId: number | null): DesignInput {
     boardQuantity: 100,
     stallProtection: { kind: 'none' },
     resetStartIntent: null,
-    selections: { switch: { chosenPartId: null, alternatePartIds: [] }, driver: { chosenPartId: null, alternatePartIds: [] }, diode: { chosenPartId: null, alternatePartIds: [] } },
+    selections: {
+      switch: { chosenPartId: null, alternatePartIds: [] },
+      driver: { chosenPartId: null, alternatePartIds: [] },
+      diode: { chosenPartId: null, alternatePartIds: [] },
+    },
   };
 }

@@ -36,13 +36,19 @@ const pickIds = (input: DesignInput): number[] =>
 export async function verifyInput(input: DesignInput, includePending: boolean, k: Db = db()): Promise<Verification> {
   const motor = await resolveMotor(input, k);
   const [match, byId] = await Promise.all([matchInput(input, includePending, motor, k), partsByIds(pickIds(input), k)]);
-  const parts = new Map<number, PartFacts>([...byId].map(([id, p]) => [id, { mpn: p.mpn, lifecycle: p.lifecycle, reviewStatus: p.reviewStatus }]));
+  const parts = new Map<number, PartFacts>(
+    [...byId].map(([id, p]) => [id, { mpn: p.mpn, lifecycle: p.lifecycle, reviewStatus: p.reviewStatus }]),
+  );
   const motorFacts = motor.part ? { mpn: motor.part.mpn, lifecycle: motor.part.lifecycle, reviewStatus: motor.part.reviewStatus } : null;
   return { match, issues: readinessIssues(input, match, { parts, motor: motorFacts }), parts };
 }
 
 /** Verification that cannot even run (a revision that no longer validates, a motor gone) counts as not holding. */
-async function verifyAt(k: Db, designId: number, revision: number): Promise<{ issues: ReadinessIssue[]; verification: Verification | null }> {
+async function verifyAt(
+  k: Db,
+  designId: number,
+  revision: number,
+): Promise<{ issues: ReadinessIssue[]; verification: Verification | null }> {
   try {
     const row = await k('design_revisions').where({ design_id: designId, revision }).first('input_json');
     if (!row) return { issues: [{ path: 'revision', message: `revision ${revision} is missing` }], verification: null };
@@ -71,13 +77,31 @@ export async function setDesignStatus(user: SessionUser, id: number, status: Des
     if (status === 'ready') {
       // Checked under the row lock: a part change committing meanwhile re-verifies after this commits.
       const { issues } = await verifyAt(trx, id, row.current_revision);
-      if (issues.length) throw new ServiceError(409, 'This design cannot go on the shortlist yet: some picks do not hold with its inputs at the current catalogue.', issues);
+      if (issues.length)
+        throw new ServiceError(
+          409,
+          'This design cannot go on the shortlist yet: some picks do not hold with its inputs at the current catalogue.',
+          issues,
+        );
     }
-    await trx('designs').where({ id }).update({
-      status, ready_at: status === 'ready' ? trx.fn.now(3) : null, status_reason: null, status_changed_at: trx.fn.now(3),
-      version: row.version + 1, updated_at: trx.fn.now(3),
+    await trx('designs')
+      .where({ id })
+      .update({
+        status,
+        ready_at: status === 'ready' ? trx.fn.now(3) : null,
+        status_reason: null,
+        status_changed_at: trx.fn.now(3),
+        version: row.version + 1,
+        updated_at: trx.fn.now(3),
+      });
+    await insertAuditEvent(trx, {
+      actorUserId: user.id,
+      action: `design.${status}`,
+      entityType: 'design',
+      entityId: id,
+      before: { status: row.status },
+      after: { status, revision: row.current_revision },
     });
-    await insertAuditEvent(trx, { actorUserId: user.id, action: `design.${status}`, entityType: 'design', entityId: id, before: { status: row.status }, after: { status, revision: row.current_revision } });
   });
   return getDesign(id);
 }
@@ -100,7 +124,11 @@ export interface ReverifyOutcome {
  * Re-verifies one design if it is ready; one that no longer holds goes back to draft with the reason.
  * `trigger` says what changed ("QX12 (part 17): lifecycle active → obsolete").
  */
-export async function reverifyDesign(designId: number, actor: SessionUser | null, trigger: { partIds: number[]; reason: string }): Promise<ReverifyOutcome> {
+export async function reverifyDesign(
+  designId: number,
+  actor: SessionUser | null,
+  trigger: { partIds: number[]; reason: string },
+): Promise<ReverifyOutcome> {
   return db().transaction(async (trx) => {
     const row = await lockDesign(trx, designId);
     const base = { designId, name: row.name, reason: null };
@@ -108,11 +136,21 @@ export async function reverifyDesign(designId: number, actor: SessionUser | null
     const { issues, verification } = await verifyAt(trx, designId, row.current_revision);
     if (issues.length === 0) return { ...base, wasReady: true, holds: true, issues, verification };
     const reason = clip(`${trigger.reason}: ${issues.map((i) => i.message).join('; ')}`);
-    await trx('designs').where({ id: designId }).update({
-      status: 'draft', ready_at: null, status_reason: reason, status_changed_at: trx.fn.now(3), version: row.version + 1, updated_at: trx.fn.now(3),
-    });
+    await trx('designs')
+      .where({ id: designId })
+      .update({
+        status: 'draft',
+        ready_at: null,
+        status_reason: reason,
+        status_changed_at: trx.fn.now(3),
+        version: row.version + 1,
+        updated_at: trx.fn.now(3),
+      });
     await insertAuditEvent(trx, {
-      actorUserId: actor?.id ?? null, action: 'design.unready', entityType: 'design', entityId: designId,
+      actorUserId: actor?.id ?? null,
+      action: 'design.unready',
+      entityType: 'design',
+      entityId: designId,
       before: { status: 'ready', revision: row.current_revision },
       after: { status: 'draft', revision: row.current_revision, reasons: issues, trigger },
       note: clip(reason, AUDIT_NOTE_MAX_CHARS),
@@ -149,15 +187,28 @@ export async function reverifyDesignsUsingParts(partIds: number[], actor: Sessio
  * Re-verification that cannot leave a design marked ready unverified: when the check itself fails (a bug,
  * a record the engine cannot read), the design goes back to draft saying so, and the error is logged.
  */
-async function reverifyOrWithdraw(designId: number, actor: SessionUser | null, trigger: { partIds: number[]; reason: string }): Promise<ReverifyOutcome> {
+async function reverifyOrWithdraw(
+  designId: number,
+  actor: SessionUser | null,
+  trigger: { partIds: number[]; reason: string },
+): Promise<ReverifyOutcome> {
   try {
     return await reverifyDesign(designId, actor, trigger);
   } catch (err) {
     console.error(`[stallpoint] re-verifying design ${designId} failed; withdrawing its ready status:`, err);
-    const reason = clip(`${trigger.reason}: the design could not be re-verified (${(err as Error).message}); check it and mark it ready again`);
-    await db()('designs').where({ id: designId, status: 'ready' }).update({
-      status: 'draft', ready_at: null, status_reason: reason, status_changed_at: db().fn.now(3), version: db().raw('version + 1'), updated_at: db().fn.now(3),
-    });
+    const reason = clip(
+      `${trigger.reason}: the design could not be re-verified (${(err as Error).message}); check it and mark it ready again`,
+    );
+    await db()('designs')
+      .where({ id: designId, status: 'ready' })
+      .update({
+        status: 'draft',
+        ready_at: null,
+        status_reason: reason,
+        status_changed_at: db().fn.now(3),
+        version: db().raw('version + 1'),
+        updated_at: db().fn.now(3),
+      });
     return { designId, name: '', reason, wasReady: true, holds: false, issues: [], verification: null };
   }
 }

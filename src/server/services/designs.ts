@@ -14,7 +14,9 @@ import { loadCandidates } from './design-candidates.ts';
 
 export const canEditDesign = (user: SessionUser, ownerId: number): boolean => user.roles.includes('admin') || user.id === ownerId;
 
-export async function listDesigns(query: DesignListQuery): Promise<{ items: DesignSummary[]; total: number; page: number; pageSize: number }> {
+export async function listDesigns(
+  query: DesignListQuery,
+): Promise<{ items: DesignSummary[]; total: number; page: number; pageSize: number }> {
   const { items, total } = await listDesignRows(db(), query);
   return { items, total, page: query.page, pageSize: query.pageSize };
 }
@@ -43,7 +45,12 @@ async function assertReferencesExist(k: Knex | Knex.Transaction, input: DesignIn
     sel.alternatePartIds.forEach((id, i) => wanted.push({ path: `selections.${role}.alternatePartIds.${i}`, id, category }));
   }
   if (!wanted.length) return;
-  const rows: { id: number; category: string }[] = await k('parts').select('id', 'category').whereIn('id', wanted.map((w) => w.id));
+  const rows: { id: number; category: string }[] = await k('parts')
+    .select('id', 'category')
+    .whereIn(
+      'id',
+      wanted.map((w) => w.id),
+    );
   const found = new Map(rows.map((r) => [r.id, r.category]));
   const issues = wanted
     .filter((w) => found.get(w.id) !== w.category)
@@ -57,7 +64,14 @@ export async function createDesign(user: SessionUser, input: DesignInput): Promi
     const [designId] = await trx('designs').insert({ owner_id: user.id, name: input.name, current_revision: 1 });
     await insertRevision(trx, designId, 1, input, user.id);
     await replaceDesignParts(trx, designId, input);
-    await insertAuditEvent(trx, { actorUserId: user.id, action: 'design.create', entityType: 'design', entityId: designId, before: null, after: { name: input.name, revision: 1 } });
+    await insertAuditEvent(trx, {
+      actorUserId: user.id,
+      action: 'design.create',
+      entityType: 'design',
+      entityId: designId,
+      before: null,
+      after: { name: input.name, revision: 1 },
+    });
     return designId as number;
   });
   return getDesign(id);
@@ -81,18 +95,32 @@ export async function updateDesign(user: SessionUser, id: number, input: DesignI
     const revision = row.current_revision + 1;
     await insertRevision(trx, id, revision, input, user.id);
     await replaceDesignParts(trx, id, input);
-    await trx('designs').where({ id }).update({ name: input.name, current_revision: revision, version: row.version + 1, updated_at: trx.fn.now(3) });
-    await insertAuditEvent(trx, { actorUserId: user.id, action: 'design.revise', entityType: 'design', entityId: id, before: { revision: row.current_revision }, after: { revision } });
+    await trx('designs')
+      .where({ id })
+      .update({ name: input.name, current_revision: revision, version: row.version + 1, updated_at: trx.fn.now(3) });
+    await insertAuditEvent(trx, {
+      actorUserId: user.id,
+      action: 'design.revise',
+      entityType: 'design',
+      entityId: id,
+      before: { revision: row.current_revision },
+      after: { revision },
+    });
   });
   return getDesign(id);
 }
 
 /** The motor a design uses: the catalogue part's datasheet points, or the ones entered by hand. */
-export async function resolveMotor(input: DesignInput, k: Knex | Knex.Transaction = db()): Promise<{ label: string; params: MotorParams; part: Part | null }> {
+export async function resolveMotor(
+  input: DesignInput,
+  k: Knex | Knex.Transaction = db(),
+): Promise<{ label: string; params: MotorParams; part: Part | null }> {
   if (input.motor.source === 'manual') return { label: input.motor.label, params: input.motor.params, part: null };
   const part = (await partsByIds([input.motor.partId], k)).get(input.motor.partId);
   if (!part || part.category !== 'motor') {
-    throw new ServiceError(400, 'The design refers to a motor that is not in the catalogue.', [{ path: 'motor.partId', message: `no motor with id ${input.motor.partId}` }]);
+    throw new ServiceError(400, 'The design refers to a motor that is not in the catalogue.', [
+      { path: 'motor.partId', message: `no motor with id ${input.motor.partId}` },
+    ]);
   }
   return { label: `${part.mpn} (${part.manufacturer})`, params: part.params, part };
 }
@@ -103,7 +131,12 @@ export type ResolvedMotor = Awaited<ReturnType<typeof resolveMotor>>;
  * Ranks the catalogue for a design; pass the motor when the caller has already resolved it, and a
  * transaction when the answer decides a status flip made in it.
  */
-export async function matchInput(input: DesignInput, includePending: boolean, resolved?: ResolvedMotor, k: Knex | Knex.Transaction = db()): Promise<DesignMatch> {
+export async function matchInput(
+  input: DesignInput,
+  includePending: boolean,
+  resolved?: ResolvedMotor,
+  k: Knex | Knex.Transaction = db(),
+): Promise<DesignMatch> {
   const motor = resolved ?? (await resolveMotor(input, k));
   const catalogue = await loadCandidates(k, input, motor.params, includePending);
   return matchDesign(input, motor.label, motor.params, catalogue);

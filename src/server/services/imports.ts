@@ -85,7 +85,13 @@ function headerErrors(header: string[]): ImportError[] {
 
 function parseRow(header: string[], record: CsvRecord, errors: ImportError[]): ParsedRow {
   const cells = Object.fromEntries(header.map((h, i) => [h, record.cells[i] ?? '']));
-  const result: ImportRowResult = { line: record.line, outcome: 'ready', category: cells.category ?? '', manufacturer: (cells.manufacturer ?? '').trim(), mpn: (cells.mpn ?? '').trim() };
+  const result: ImportRowResult = {
+    line: record.line,
+    outcome: 'ready',
+    category: cells.category ?? '',
+    manufacturer: (cells.manufacturer ?? '').trim(),
+    mpn: (cells.mpn ?? '').trim(),
+  };
   const rowErrors: ImportError[] = [];
   if (record.cells.length !== header.length) {
     rowErrors.push({ line: record.line, column: '(row)', message: `has ${record.cells.length} fields, the header has ${header.length}` });
@@ -110,7 +116,9 @@ async function markDuplicates(k: Db, rows: ParsedRow[], errors: ImportError[]): 
   const mpns = rows.filter((r) => r.input).map((r) => r.input!.mpn);
   const existing = new Map<string, number>();
   for (let i = 0; i < mpns.length; i += 500) {
-    const found: { id: number; manufacturer: string; mpn: string }[] = await k('parts').select('id', 'manufacturer', 'mpn').whereIn('mpn', mpns.slice(i, i + 500));
+    const found: { id: number; manufacturer: string; mpn: string }[] = await k('parts')
+      .select('id', 'manufacturer', 'mpn')
+      .whereIn('mpn', mpns.slice(i, i + 500));
     for (const f of found) existing.set(key(f.manufacturer, f.mpn), f.id);
   }
   const seen = new Map<string, number>();
@@ -119,7 +127,9 @@ async function markDuplicates(k: Db, rows: ParsedRow[], errors: ImportError[]): 
     const k2 = key(row.input.manufacturer, row.input.mpn);
     const message = existing.has(k2)
       ? `already in the catalogue as part ${existing.get(k2)}`
-      : seen.has(k2) ? `the same maker and part number as line ${seen.get(k2)}` : null;
+      : seen.has(k2)
+        ? `the same maker and part number as line ${seen.get(k2)}`
+        : null;
     seen.set(k2, seen.get(k2) ?? row.line);
     if (message) {
       errors.push({ line: row.line, column: 'mpn', message });
@@ -137,7 +147,11 @@ async function analyse(k: Db, text: string): Promise<{ rows: ParsedRow[]; errors
   if (errors.length > 0) return { rows: [], errors };
   const data = records.slice(1);
   if (data.length === 0) return { rows: [], errors: [{ line: 2, column: '(file)', message: 'no part rows under the header' }] };
-  if (data.length > MAX_IMPORT_ROWS) return { rows: [], errors: [{ line: data[MAX_IMPORT_ROWS].line, column: '(file)', message: `more than ${MAX_IMPORT_ROWS} rows; split the file` }] };
+  if (data.length > MAX_IMPORT_ROWS)
+    return {
+      rows: [],
+      errors: [{ line: data[MAX_IMPORT_ROWS].line, column: '(file)', message: `more than ${MAX_IMPORT_ROWS} rows; split the file` }],
+    };
   const rows = data.map((r) => parseRow(header, r, errors));
   await markDuplicates(k, rows, errors);
   errors.sort((a, b) => a.line - b.line);
@@ -147,7 +161,12 @@ async function analyse(k: Db, text: string): Promise<{ rows: ParsedRow[]; errors
 function report(mode: ImportReport['mode'], rows: ParsedRow[], errors: ImportError[]): ImportReport {
   const results = rows.map((r) => r.result);
   const count = (o: ImportRowResult['outcome']) => results.filter((r) => r.outcome === o).length;
-  return { mode, rows: results, errors, counts: { rows: results.length, ready: count('ready'), invalid: count('invalid'), created: count('created') } };
+  return {
+    mode,
+    rows: results,
+    errors,
+    counts: { rows: results.length, ready: count('ready'), invalid: count('invalid'), created: count('created') },
+  };
 }
 
 /** Every row's outcome and errors; nothing is written. */
@@ -173,7 +192,9 @@ const sha256 = (text: string): string => createHash('sha256').update(text).diges
 
 function replay(stored: { requestSha256: string; result: unknown }, digest: string): ImportReport {
   if (stored.requestSha256 !== digest) {
-    throw new ServiceError(409, 'This Idempotency-Key was already used for a different file.', [{ path: '(headers).idempotency-key', message: 'use a new key for a new file' }]);
+    throw new ServiceError(409, 'This Idempotency-Key was already used for a different file.', [
+      { path: '(headers).idempotency-key', message: 'use a new key for a new file' },
+    ]);
   }
   return { ...(stored.result as ImportReport), replayed: true };
 }
@@ -191,7 +212,15 @@ export async function commitImport(user: SessionUser, text: string, key: string)
       for (const row of rows) {
         const part = toNewPart(row.input!, row.input!.reviewStatus ?? 'pending');
         const id = await insertPart(trx, part, user.id);
-        await insertAuditEvent(trx, { actorUserId: user.id, action: 'part.import', entityType: 'part', entityId: id, before: null, after: await loadPart(trx, id), note: `CSV import ${key}, line ${row.line}` });
+        await insertAuditEvent(trx, {
+          actorUserId: user.id,
+          action: 'part.import',
+          entityType: 'part',
+          entityId: id,
+          before: null,
+          after: await loadPart(trx, id),
+          note: `CSV import ${key}, line ${row.line}`,
+        });
         row.result = { ...row.result, outcome: 'created', partId: id };
       }
       const done = report('commit', rows, []);

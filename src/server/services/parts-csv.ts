@@ -16,26 +16,95 @@ export const ZTH_POINTS_IN_CSV = 6;
 const ZTH_FIELDS = ['PulseS', 'CPerW'] as const;
 const ZTH_KEYS: Record<(typeof ZTH_FIELDS)[number], string> = { PulseS: 'pulseS', CPerW: 'zthCPerW' };
 
-export const HEAD_COLUMNS = ['category', 'manufacturer', 'mpn', 'description', 'package', 'lifecycle', 'lifecycleEffectiveDate', 'reviewStatus'] as const;
+export const HEAD_COLUMNS = [
+  'category',
+  'manufacturer',
+  'mpn',
+  'description',
+  'package',
+  'lifecycle',
+  'lifecycleEffectiveDate',
+  'reviewStatus',
+] as const;
 const rdsColumns = Array.from({ length: RDS_ON_POINTS_IN_CSV }, (_, i) => RDS_FIELDS.map((f) => `rdsOn${i + 1}${f}`)).flat();
 const zthColumns = Array.from({ length: ZTH_POINTS_IN_CSV }, (_, i) => ZTH_FIELDS.map((f) => `zth${i + 1}${f}`)).flat();
 
 export const CATEGORY_COLUMNS: Record<PartCategory, readonly string[]> = {
-  mosfet: ['channel', 'vdsMaxV', 'vgsMaxV', 'vgsThMinV', 'vgsThMaxV', 'vgsThTestCurrentA', 'idContinuousA', 'idPulsedA', 'qgTotalNc',
-    'qgTestVgsV', 'qgsNc', 'qgdNc', 'vPlateauV', 'rthJaCPerW', 'tjMaxC', 'bodyDiodeVfV', ...rdsColumns, ...zthColumns],
-  driver: ['kind', 'channels', 'inverting', 'supplyMinV', 'supplyMaxV', 'inputLogic', 'inputHighMin', 'inputLowMax', 'outputHighDropV',
-    'outputLowMaxV', 'sourceCurrentA', 'sinkCurrentA', 'propagationDelayNs', 'inputPull', 'inputPullOhms'],
+  mosfet: [
+    'channel',
+    'vdsMaxV',
+    'vgsMaxV',
+    'vgsThMinV',
+    'vgsThMaxV',
+    'vgsThTestCurrentA',
+    'idContinuousA',
+    'idPulsedA',
+    'qgTotalNc',
+    'qgTestVgsV',
+    'qgsNc',
+    'qgdNc',
+    'vPlateauV',
+    'rthJaCPerW',
+    'tjMaxC',
+    'bodyDiodeVfV',
+    ...rdsColumns,
+    ...zthColumns,
+  ],
+  driver: [
+    'kind',
+    'channels',
+    'inverting',
+    'supplyMinV',
+    'supplyMaxV',
+    'inputLogic',
+    'inputHighMin',
+    'inputLowMax',
+    'outputHighDropV',
+    'outputLowMaxV',
+    'sourceCurrentA',
+    'sinkCurrentA',
+    'propagationDelayNs',
+    'inputPull',
+    'inputPullOhms',
+  ],
   diode: ['kind', 'vrrmV', 'ifAvA', 'ifsmA', 'vfV', 'vfAtIfA', 'trrNs', 'ifrmA', 'rthJaCPerW', 'tjMaxC'],
-  motor: ['ratedVoltageV', 'voltageMinV', 'voltageMaxV', 'noLoadSpeedRpm', 'noLoadCurrentA', 'stallTorqueNm', 'stallCurrentA',
-    'terminalResistanceOhm', 'inductanceH', 'rotorInertiaKgM2'],
+  motor: [
+    'ratedVoltageV',
+    'voltageMinV',
+    'voltageMaxV',
+    'noLoadSpeedRpm',
+    'noLoadCurrentA',
+    'stallTorqueNm',
+    'stallCurrentA',
+    'terminalResistanceOhm',
+    'inductanceH',
+    'rotorInertiaKgM2',
+  ],
 };
 export const SOURCE_COLUMNS = ['distributor', 'sku', 'moq', 'leadTimeDays', 'stockQty', 'currency', 'priceBreaks'] as const;
 
 /** Every column, in file order (a column shared by categories, such as kind, appears once). */
 export const CSV_COLUMNS: string[] = [...new Set([...HEAD_COLUMNS, ...Object.values(CATEGORY_COLUMNS).flat(), ...SOURCE_COLUMNS])];
 
-const TEXT_COLUMNS = new Set(['category', 'manufacturer', 'mpn', 'description', 'package', 'lifecycle', 'lifecycleEffectiveDate', 'reviewStatus',
-  'channel', 'kind', 'inputLogic', 'inputPull', 'distributor', 'sku', 'currency', 'priceBreaks', 'inverting']);
+const TEXT_COLUMNS = new Set([
+  'category',
+  'manufacturer',
+  'mpn',
+  'description',
+  'package',
+  'lifecycle',
+  'lifecycleEffectiveDate',
+  'reviewStatus',
+  'channel',
+  'kind',
+  'inputLogic',
+  'inputPull',
+  'distributor',
+  'sku',
+  'currency',
+  'priceBreaks',
+  'inverting',
+]);
 
 const cell = (v: unknown): string => (v === null || v === undefined ? '' : String(v));
 
@@ -88,7 +157,10 @@ function readValue(column: string, raw: string, errors: CellError[]): unknown {
 
 function readPriceBreaks(raw: string, errors: CellError[]): { qty: number; unitPrice: number }[] | undefined {
   const out: { qty: number; unitPrice: number }[] = [];
-  for (const entry of raw.split(';').map((s) => s.trim()).filter(Boolean)) {
+  for (const entry of raw
+    .split(';')
+    .map((s) => s.trim())
+    .filter(Boolean)) {
     const m = /^(\d+)\s*:\s*(\d+\.?\d*|\.\d+)$/.exec(entry);
     if (!m) {
       errors.push({ column: 'priceBreaks', message: `"${entry}" is not quantity:unit price (e.g. 100:0.25)` });
@@ -130,7 +202,8 @@ export function csvRowToInput(record: Record<string, string>): { input: Record<s
   if (!(category in CATEGORY_COLUMNS)) return { input, errors };
   const own = new Set(CATEGORY_COLUMNS[category]);
   for (const column of CSV_COLUMNS) {
-    if (own.has(column) || (HEAD_COLUMNS as readonly string[]).includes(column) || (SOURCE_COLUMNS as readonly string[]).includes(column)) continue;
+    if (own.has(column) || (HEAD_COLUMNS as readonly string[]).includes(column) || (SOURCE_COLUMNS as readonly string[]).includes(column))
+      continue;
     if (get(column) !== '') errors.push({ column, message: `does not apply to a ${category}; leave it empty` });
   }
   const params: Record<string, unknown> = {};
@@ -142,7 +215,8 @@ export function csvRowToInput(record: Record<string, string>): { input: Record<s
     const points: Record<string, unknown>[] = [];
     for (let i = 1; i <= RDS_ON_POINTS_IN_CSV; i++) {
       const point: Record<string, unknown> = {};
-      for (const f of RDS_FIELDS) if (get(`rdsOn${i}${f}`) !== '') point[RDS_KEYS[f]] = readValue(`rdsOn${i}${f}`, get(`rdsOn${i}${f}`), errors);
+      for (const f of RDS_FIELDS)
+        if (get(`rdsOn${i}${f}`) !== '') point[RDS_KEYS[f]] = readValue(`rdsOn${i}${f}`, get(`rdsOn${i}${f}`), errors);
       if (Object.keys(point).length > 0) points.push(point);
     }
     params.rdsOn = points;

@@ -15,7 +15,10 @@ export async function exportPartsCsv(query: PartListQuery): Promise<{ csv: strin
     for (const part of await loadPartsByIds(db(), ids.slice(i, i + 200))) rows.push(partToCsvRow(part));
   }
   // escapeFormulae: a cell starting with = + - @ gets a leading ' so spreadsheets do not run it; import drops it again.
-  const csv = Papa.unparse({ fields: CSV_COLUMNS, data: rows.map((r) => CSV_COLUMNS.map((c) => r[c])) }, { escapeFormulae: true, newline: '\r\n' });
+  const csv = Papa.unparse(
+    { fields: CSV_COLUMNS, data: rows.map((r) => CSV_COLUMNS.map((c) => r[c])) },
+    { escapeFormulae: true, newline: '\r\n' },
+  );
   const fileName = `stallpoint-parts${query.category ? `-${query.category}` : ''}-${new Date().toISOString().slice(0, 10)}.csv`;
   return { csv: `${csv}\r\n`, fileName, rows: rows.length };
 }

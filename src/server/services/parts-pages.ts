@@ -5,7 +5,9 @@ import type { Part } from '../../lib/domain/parts.ts';
 import { packagesByCategory } from '../repos/part-writes.ts';
 import { canCurate, canManageSupply, canPropose } from './parts-access.ts';
 
-export async function searchPageData(user: SessionUser | null): Promise<{ packages: Record<string, string[]>; canCreate: boolean; canImport: boolean }> {
+export async function searchPageData(
+  user: SessionUser | null,
+): Promise<{ packages: Record<string, string[]>; canCreate: boolean; canImport: boolean }> {
   return { packages: await packagesByCategory(db()), canCreate: canPropose(user), canImport: canCurate(user) };
 }
 
@@ -32,14 +34,43 @@ export function partPermissions(user: SessionUser | null, part: Part, proposerId
 }
 
 /** Parts waiting for review, oldest first, with who proposed them. */
-export async function reviewQueue(): Promise<{ id: number; category: string; manufacturer: string; mpn: string; description: string; status: string; proposer: string | null; createdAt: string; version: number }[]> {
+export async function reviewQueue(): Promise<
+  {
+    id: number;
+    category: string;
+    manufacturer: string;
+    mpn: string;
+    description: string;
+    status: string;
+    proposer: string | null;
+    createdAt: string;
+    version: number;
+  }[]
+> {
   const rows = await db()('parts as p')
     .leftJoin('users as u', 'u.id', 'p.created_by')
-    .select('p.id', 'p.category', 'p.manufacturer', 'p.mpn', 'p.description', 'p.review_status', 'p.created_at', 'p.version', 'u.name as proposer')
+    .select(
+      'p.id',
+      'p.category',
+      'p.manufacturer',
+      'p.mpn',
+      'p.description',
+      'p.review_status',
+      'p.created_at',
+      'p.version',
+      'u.name as proposer',
+    )
     .whereIn('p.review_status', ['pending'])
     .orderBy([{ column: 'p.created_at' }, { column: 'p.id' }]);
   return rows.map((r) => ({
-    id: r.id, category: r.category, manufacturer: r.manufacturer, mpn: r.mpn, description: r.description,
-    status: r.review_status, proposer: r.proposer, createdAt: new Date(r.created_at).toISOString(), version: r.version,
+    id: r.id,
+    category: r.category,
+    manufacturer: r.manufacturer,
+    mpn: r.mpn,
+    description: r.description,
+    status: r.review_status,
+    proposer: r.proposer,
+    createdAt: new Date(r.created_at).toISOString(),
+    version: r.version,
   }));
 }

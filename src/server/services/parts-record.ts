@@ -51,4 +51,3 @@ export async function partRecord(id: number): Promise<PartRecordView | null> {
     })),
   };
 }
-

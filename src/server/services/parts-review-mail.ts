@@ -36,6 +36,8 @@ export async function sendRejectionNotice(n: RejectionNotice): Promise<void> {
   try {
     await sendMail(n.to.email, rejectionMessage(n));
   } catch (err) {
-    console.error(`[stallpoint] could not send the rejection notice for part ${n.part.id}: ${err instanceof Error ? err.message : String(err)}`);
+    console.error(
+      `[stallpoint] could not send the rejection notice for part ${n.part.id}: ${err instanceof Error ? err.message : String(err)}`,
+    );
   }
 }

@@ -22,9 +22,11 @@ export async function reviewPart(user: SessionUser, id: number, decision: Review
     async apply(trx, locked) {
       const allowedFrom = decision.decision === 'approve' ? ['pending', 'draft'] : ['pending'];
       if (!allowedFrom.includes(locked.review_status)) {
-        throw new ServiceError(409, `The part is ${locked.review_status}; only ${allowedFrom.join(' or ')} parts can be ${decision.decision === 'approve' ? 'approved' : 'rejected'}.`, [
-          { path: 'decision', message: `review status is ${locked.review_status}` },
-        ]);
+        throw new ServiceError(
+          409,
+          `The part is ${locked.review_status}; only ${allowedFrom.join(' or ')} parts can be ${decision.decision === 'approve' ? 'approved' : 'rejected'}.`,
+          [{ path: 'decision', message: `review status is ${locked.review_status}` }],
+        );
       }
       await setReview(trx, id, decision.decision === 'approve' ? 'approved' : 'rejected', decision.reason || null);
     },
@@ -33,7 +35,8 @@ export async function reviewPart(user: SessionUser, id: number, decision: Review
   await reverifyDesignsUsingParts([id], user, `${part.mpn} (part ${id}) review ${row.review_status} → ${part.reviewStatus}`);
   if (decision.decision === 'reject') {
     const proposer = await findPerson(db(), row.created_by);
-    if (proposer) await sendRejectionNotice({ to: proposer, part, reason: decision.reason, reviewer: user, link: `${baseUrl}/parts/${id}` });
+    if (proposer)
+      await sendRejectionNotice({ to: proposer, part, reason: decision.reason, reviewer: user, link: `${baseUrl}/parts/${id}` });
   }
   return part;
 }

@@ -4,14 +4,7 @@ import type { SessionUser } from '../auth/types.ts';
 import type { Part, ReviewStatus } from '../../lib/domain/parts.ts';
 import type { PartInput, PartUpdate } from '../../lib/schemas/parts.ts';
 import { insertPart, type NewPart } from '../repos/parts.ts';
-import {
-  deletePartRow,
-  findPartIdByMakerMpn,
-  loadPart,
-  replaceParams,
-  replaceSources,
-  updatePartHead,
-} from '../repos/part-writes.ts';
+import { deletePartRow, findPartIdByMakerMpn, loadPart, replaceParams, replaceSources, updatePartHead } from '../repos/part-writes.ts';
 import { insertAuditEvent } from '../repos/audit.ts';
 import { withLockedVersion } from '../repos/versioned.ts';
 import { PART_ENTITY } from './part-entity.ts';
@@ -45,7 +38,14 @@ export async function createPart(user: SessionUser, input: PartInput): Promise<P
     if (existing !== null) throw duplicate(part.manufacturer, part.mpn, existing);
     const id = await insertPart(trx, part, user.id);
     const created = (await loadPart(trx, id))!;
-    await insertAuditEvent(trx, { actorUserId: user.id, action: canCurate(user) ? 'part.create' : 'part.propose', entityType: 'part', entityId: id, before: null, after: created });
+    await insertAuditEvent(trx, {
+      actorUserId: user.id,
+      action: canCurate(user) ? 'part.create' : 'part.propose',
+      entityType: 'part',
+      entityId: id,
+      before: null,
+      after: created,
+    });
     return created;
   });
 }
@@ -66,9 +66,12 @@ export async function updatePart(user: SessionUser, id: number, input: PartUpdat
       if (!canCurate(user) && !ownProposal) throw new ServiceError(403, 'Your role may not edit this part.');
     },
     async apply(trx, row) {
-      if (row.category !== input.category) throw new ServiceError(400, 'A part cannot change category.', [{ path: 'category', message: `the part is a ${row.category}` }]);
+      if (row.category !== input.category)
+        throw new ServiceError(400, 'A part cannot change category.', [{ path: 'category', message: `the part is a ${row.category}` }]);
       if (row.lifecycle !== input.lifecycle) {
-        throw new ServiceError(400, 'Change the lifecycle with its own action, which records the effective date and a note.', [{ path: 'lifecycle', message: `the part is ${row.lifecycle}` }]);
+        throw new ServiceError(400, 'Change the lifecycle with its own action, which records the effective date and a note.', [
+          { path: 'lifecycle', message: `the part is ${row.lifecycle}` },
+        ]);
       }
       const other = await findPartIdByMakerMpn(trx, input.manufacturer, input.mpn);
       if (other !== null && other !== id) throw duplicate(input.manufacturer, input.mpn, other);
@@ -100,8 +103,11 @@ export async function deletePart(user: SessionUser, id: number, version: number 
       const uses = await designsUsingPart(trx, id);
       if (uses.length > 0) {
         const designs = [...new Map(uses.map((u) => [u.id, u])).values()];
-        throw new ServiceError(409, `The part is used by ${designs.length} design(s); take it out of those designs or mark it obsolete instead.`,
-          designs.slice(0, 20).map((d) => ({ path: 'id', message: `used by design ${d.id} “${d.name}” (${d.status})` })));
+        throw new ServiceError(
+          409,
+          `The part is used by ${designs.length} design(s); take it out of those designs or mark it obsolete instead.`,
+          designs.slice(0, 20).map((d) => ({ path: 'id', message: `used by design ${d.id} “${d.name}” (${d.status})` })),
+        );
       }
       const sheets = await listDatasheets(trx, id);
       await deletePartRow(trx, id);

@@ -45,7 +45,10 @@ async function setPasswordWithToken(db: Knex, token: string, password: string, p
   return db.transaction(async (trx) => {
     const userId = await consumeToken(trx, token, purpose, now);
     const row = userId === null ? null : await findUserById(trx, userId);
-    if (!row || !row.active) throw new ServiceError(400, 'This link has expired or was already used. Ask for a new one.', [{ path: 'token', message: 'expired or used' }]);
+    if (!row || !row.active)
+      throw new ServiceError(400, 'This link has expired or was already used. Ask for a new one.', [
+        { path: 'token', message: 'expired or used' },
+      ]);
     await setPasswordHash(trx, row.id, passwordHash, now);
     await invalidateUserSessions(trx, row.id);
     await auditPerson(trx, row.id, purpose === 'invite' ? 'person.invite-accept' : 'person.password-reset', row.id, undefined, now);
@@ -66,7 +69,10 @@ export async function requestPasswordReset(db: Knex, email: string, baseUrl: str
   const row = await findUserByEmail(db, email);
   if (!allowed || !row || !row.active) return;
   const token = await issueToken(db, { userId: row.id, purpose: 'reset', createdBy: null }, now);
-  sendMailInBackground(row.email, resetMessage({ name: row.name, link: `${baseUrl}/reset?token=${token}`, validMinutes: RESET_VALID_MINUTES }));
+  sendMailInBackground(
+    row.email,
+    resetMessage({ name: row.name, link: `${baseUrl}/reset?token=${token}`, validMinutes: RESET_VALID_MINUTES }),
+  );
 }
 
 export async function resetPassword(db: Knex, token: string, password: string, now = new Date()): Promise<void> {
@@ -83,7 +89,10 @@ export interface PasswordChange {
 /** Ends every session of the person, then opens a fresh one for the browser that asked. */
 export async function changePassword(db: Knex, user: SessionUser, change: PasswordChange, now = new Date()): Promise<NewSession> {
   const limited = !(await consume(db, accountBucket(user.email), SIGNIN_ACCOUNT_LIMIT, now)).allowed;
-  if (limited) throw new ServiceError(429, 'Too many wrong passwords; wait a few minutes and try again.', [{ path: 'currentPassword', message: 'too many attempts' }]);
+  if (limited)
+    throw new ServiceError(429, 'Too many wrong passwords; wait a few minutes and try again.', [
+      { path: 'currentPassword', message: 'too many attempts' },
+    ]);
   const row = await findUserById(db, user.id);
   if (!row?.password_hash || !(await verifyPassword(row.password_hash, change.currentPassword))) {
     throw new ServiceError(400, 'The current password is not right.', [{ path: 'currentPassword', message: 'not right' }]);

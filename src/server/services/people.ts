@@ -46,7 +46,13 @@ async function mailInvite(person: Person, actor: SessionUser, token: string, bas
   }
 }
 
-export async function invitePerson(db: Knex, input: InviteInput, actor: SessionUser, baseUrl: string, now = new Date()): Promise<InviteOutcome> {
+export async function invitePerson(
+  db: Knex,
+  input: InviteInput,
+  actor: SessionUser,
+  baseUrl: string,
+  now = new Date(),
+): Promise<InviteOutcome> {
   if (await findUserByEmail(db, input.email)) {
     throw new ServiceError(409, 'Someone with this e-mail address is already on the list.', [{ path: 'email', message: 'already in use' }]);
   }
@@ -71,7 +77,9 @@ export async function resendInvite(db: Knex, id: number, actor: SessionUser, bas
 export async function setRoles(db: Knex, id: number, roles: Role[], actor: SessionUser, now = new Date()): Promise<Person> {
   await personById(db, id);
   if (id === actor.id && !roles.includes('admin')) {
-    throw new ServiceError(409, 'You cannot take the admin role from yourself; ask another admin.', [{ path: 'roles', message: 'must keep admin' }]);
+    throw new ServiceError(409, 'You cannot take the admin role from yourself; ask another admin.', [
+      { path: 'roles', message: 'must keep admin' },
+    ]);
   }
   await db.transaction(async (trx) => {
     await replaceRoles(trx, id, roles);

@@ -13,7 +13,9 @@ export const POST: APIRoute = async (context) => {
   const result = await signIn(db(), { ...body, clientAddress: context.clientAddress });
   if (result.kind === 'limited') {
     const minutes = Math.ceil(result.retryAfterSeconds / 60);
-    return jsonError(429, `Too many sign-in attempts. Try again in ${minutes} minute${minutes === 1 ? '' : 's'}.`, [], { 'Retry-After': String(result.retryAfterSeconds) });
+    return jsonError(429, `Too many sign-in attempts. Try again in ${minutes} minute${minutes === 1 ? '' : 's'}.`, [], {
+      'Retry-After': String(result.retryAfterSeconds),
+    });
   }
   if (result.kind === 'invalid') return jsonError(401, 'The e-mail address or the password is not right.');
   // A new session on every sign-in; the one this browser had before ends (ASVS 5.0 V7.2.4).

@@ -7,7 +7,7 @@ import { readJson, signedInUser } from '../../../server/http/request.ts';
 
 /** Ends every session of the signed-in person, on every device (ASVS 5.0 V7.4.3). */
 export const POST: APIRoute = async (context) => {
-  const body = await readJson(context.request, emptyBody);
+  await readJson(context.request, emptyBody);
   const ended = await invalidateUserSessions(db(), signedInUser(context.locals).id);
   deleteSessionCookie(context.cookies, context.url);
   return Response.json({ signedOut: true, sessionsEnded: ended }, { headers: { 'Cache-Control': 'no-store' } });

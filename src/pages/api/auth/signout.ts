@@ -14,7 +14,7 @@ const FORM = /^(application\/x-www-form-urlencoded|multipart\/form-data)\b/i;
 export const POST: APIRoute = async (context) => {
   const isForm = FORM.test(context.request.headers.get('content-type') ?? '');
   if (!isForm) {
-    const body = await readJson(context.request, emptyBody);
+    await readJson(context.request, emptyBody);
   }
   if (context.locals.session) await invalidateSession(db(), context.locals.session.id);
   deleteSessionCookie(context.cookies, context.url);

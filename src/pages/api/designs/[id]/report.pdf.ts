@@ -12,7 +12,14 @@ export const GET: APIRoute = async ({ params, url }) => {
   const { revision } = readQuery(url, query);
   const out = await designOutputs(id, revision);
   const pdf = await buildDesignReportPdf({
-    design: { id: out.design.id, name: out.design.name, revision: out.design.revision, ownerName: out.design.ownerName, status: out.design.status, generatedAt: new Date() },
+    design: {
+      id: out.design.id,
+      name: out.design.name,
+      revision: out.design.revision,
+      ownerName: out.design.ownerName,
+      status: out.design.status,
+      generatedAt: new Date(),
+    },
     input: out.design.input,
     match: out.match,
     bom: out.bom,

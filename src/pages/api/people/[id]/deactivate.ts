@@ -7,6 +7,6 @@ import { readJson, routeId, signedInUser } from '../../../../server/http/request
 /** POST {} → {person}: no more sign-in; every session and open link of the person ends. */
 export const POST: APIRoute = async (context) => {
   const id = routeId(context.params.id, 'The person');
-  const body = await readJson(context.request, emptyBody);
+  await readJson(context.request, emptyBody);
   return Response.json({ person: await deactivatePerson(db(), id, signedInUser(context.locals)) });
 };

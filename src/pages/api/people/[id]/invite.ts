@@ -8,6 +8,6 @@ import { readJson, routeId, signedInUser } from '../../../../server/http/request
 /** POST {} → {person, mailSent}: a fresh 72 h link; the earlier one stops working. */
 export const POST: APIRoute = async (context) => {
   const id = routeId(context.params.id, 'The person');
-  const body = await readJson(context.request, emptyBody);
+  await readJson(context.request, emptyBody);
   return Response.json(await resendInvite(db(), id, signedInUser(context.locals), publicBaseUrl(context.url.origin)));
 };

@@ -7,6 +7,6 @@ import { readJson, routeId, signedInUser } from '../../../../server/http/request
 /** POST {} → {person}: the person may sign in again with their existing password. */
 export const POST: APIRoute = async (context) => {
   const id = routeId(context.params.id, 'The person');
-  const body = await readJson(context.request, emptyBody);
+  await readJson(context.request, emptyBody);
   return Response.json({ person: await reactivatePerson(db(), id, signedInUser(context.locals)) });
 };
