@@ -6,7 +6,7 @@
 import type { Knex } from 'knex';
 import type { DesignInput } from '../../src/lib/domain/design.ts';
 import { DEFAULT_DESIGN_MARGINS } from '../../src/lib/domain/design.ts';
-import { matchDesign, suggestSelections } from '../../src/lib/design-match.ts';
+import { matchDesign, suggestSelections, prepareCase } from '../../src/lib/design-match.ts';
 import { loadCandidates } from '../../src/server/services/design-candidates.ts';
 import { hydrateParts } from '../../src/server/repos/parts.ts';
 import { insertRevision, replaceDesignParts } from '../../src/server/repos/designs.ts';
@@ -203,7 +203,7 @@ async function motorPart(knex: Knex, mpn: string) {
 /** Ranks the catalogue for one revision and takes the suggested picks, as the workspace would. */
 async function withSuggestedPicks(knex: Knex, rest: DemoInput, motor: Awaited<ReturnType<typeof motorPart>>): Promise<DesignInput> {
   const draft: DesignInput = { ...rest, motor: { source: 'catalogue', partId: motor.id as number }, selections: noSelections() };
-  const catalogue = await loadCandidates(knex, draft, motor.params, false);
+  const catalogue = await loadCandidates(knex, prepareCase(draft, motor.params), false);
   // Picks change what the others are judged at (a chosen driver sets the switch's drive), so settle them.
   let input = draft;
   for (let round = 0; round < 4; round += 1) {

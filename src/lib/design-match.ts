@@ -4,9 +4,10 @@
  * Pure: the service loads the parts and passes them in.
  */
 import type { DesignInput } from './domain/design.ts';
-import type { Lifecycle, MotorParams, Part, PartOf, ReviewStatus } from './domain/parts.ts';
+import type { Lifecycle, MotorParams, Part, ReviewStatus } from './domain/parts.ts';
 import { designCaseOf } from './design-input.ts';
-import { rankDesign, type DesignRanking } from './rank-design.ts';
+import { rankDesign, type DesignCatalogue, type DesignRanking } from './rank-design.ts';
+import { worstCaseOf, type DesignCase, type WorstCase } from './design-case.ts';
 import { SCORE_EXPLANATION, sortCandidates, type CandidateResult } from './ranking.ts';
 import { bestUnitPrice } from './part-summary.ts';
 import { calcMotor, type CalcMotorResponse } from './calc.ts';
@@ -67,10 +68,8 @@ export interface DesignMatch {
   excluded: { switch: number; driver: number; diode: number };
 }
 
-export interface MatchCatalogue {
-  mosfets: PartOf<'mosfet'>[];
-  drivers: PartOf<'driver'>[];
-  diodes: PartOf<'diode'>[];
+/** The candidates a match ranks, and how many were left out before ranking. */
+export interface MatchCatalogue extends DesignCatalogue {
   excluded: DesignMatch['excluded'];
 }
 
@@ -133,15 +132,37 @@ export function motorView(label: string, params: MotorParams, input: DesignInput
 }
 
 /** Ranks the catalogue candidates for a design and decorates each with price and lifecycle. */
-export function matchDesign(input: DesignInput, motorLabel: string, motor: MotorParams, catalogue: MatchCatalogue): DesignMatch {
+/** The design case and its worst case, worked out once per match (the catalogue narrowing uses them too). */
+export interface PreparedCase {
+  designCase: DesignCase;
+  worstCase: WorstCase;
+}
+
+export function prepareCase(input: DesignInput, motor: MotorParams): PreparedCase {
   const designCase = designCaseOf(input, motor);
+  return { designCase, worstCase: worstCaseOf(designCase) };
+}
+
+export function matchDesign(
+  input: DesignInput,
+  motorLabel: string,
+  motor: MotorParams,
+  catalogue: MatchCatalogue,
+  prepared: PreparedCase = prepareCase(input, motor),
+): DesignMatch {
+  const { designCase } = prepared;
   const sel = input.selections;
-  const ranking = rankDesign(designCase, catalogue, {
-    switchId: sel.switch.chosenPartId,
-    driverId: sel.driver.chosenPartId,
-    diodeId: sel.diode.chosenPartId,
-    resetStartIntended: input.resetStartIntent != null,
-  });
+  const ranking = rankDesign(
+    designCase,
+    catalogue,
+    {
+      switchId: sel.switch.chosenPartId,
+      driverId: sel.driver.chosenPartId,
+      diodeId: sel.diode.chosenPartId,
+      resetStartIntended: input.resetStartIntent != null,
+    },
+    prepared.worstCase,
+  );
   const qty = input.boardQuantity;
   const all = new Map<number | undefined, Part>([...catalogue.mosfets, ...catalogue.drivers, ...catalogue.diodes].map((p) => [p.id, p]));
   return {

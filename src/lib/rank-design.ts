@@ -188,10 +188,19 @@ export function powerOnFor(c: DesignCase, sw: PartOf<'mosfet'> | undefined, driv
   return sw == null ? null : powerOnForPair(c, driver ?? null, sw);
 }
 
-export function rankDesign(c0: DesignCase, catalogue: DesignCatalogue, picks: DesignPicks = {}): DesignRanking {
-  const diodeForward = diodeForwardFor(c0, catalogue, picks, worstCaseOf(c0));
-  const c: DesignCase = { ...c0, diodeForwardV: diodeForward.voltageV };
-  const wc = worstCaseOf(c);
+/**
+ * `wc0`: the worst case of `c0` when the caller already has it (the match computes it once for the SQL
+ * narrowing and the ranking). It is worked out again only when the diode's VF changes the case.
+ */
+export function rankDesign(
+  c0: DesignCase,
+  catalogue: DesignCatalogue,
+  picks: DesignPicks = {},
+  wc0: WorstCase = worstCaseOf(c0),
+): DesignRanking {
+  const diodeForward = diodeForwardFor(c0, catalogue, picks, wc0);
+  const c: DesignCase = diodeForward.voltageV === c0.diodeForwardV ? c0 : { ...c0, diodeForwardV: diodeForward.voltageV };
+  const wc = c === c0 ? wc0 : worstCaseOf(c);
   const diode = rankDiodeCandidates(c, catalogue.diodes, wc);
   const direct = directDrive(c, wc, catalogue, picks);
 

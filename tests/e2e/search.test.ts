@@ -73,7 +73,7 @@ describe('search page', () => {
 
     await page.locator('[data-testid="part-link"]').first().click();
     await page.waitForSelector('[data-testid="part-page"]');
-    const mpn = await page.locator('[data-testid="part-mpn"]').textContent();
+    const mpn = (await page.locator('[data-testid="part-mpn"]').textContent())?.trim();
     expect(expected).toContain(mpn);
     await expect(page.locator('[data-testid="rds-on"] tbody tr').count()).resolves.toBeGreaterThan(0);
     await expect(page.getByText('Parameters and test conditions').count()).resolves.toBe(1);

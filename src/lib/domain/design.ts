@@ -2,86 +2,45 @@
  * A drive design as the designer enters it (camelCase, units in names). Stored as one JSON document per
  * revision; src/lib/design-input.ts turns it into the engineering core's DesignCase.
  */
-import type { MotorParams } from './parts.ts';
+import type { z } from 'zod';
+import type { designInputSchema } from '../schemas/design.ts';
 
 export const PART_ROLES = ['switch', 'driver', 'diode'] as const;
 export type PartRole = (typeof PART_ROLES)[number];
 
-export type DesignMotor = { source: 'catalogue'; partId: number } | { source: 'manual'; label: string; params: MotorParams };
+/** The motor: a catalogue part, or datasheet points entered by hand. */
+export type DesignMotor = DesignInput['motor'];
 
-export interface DesignSupply {
-  minV: number;
-  nomV: number;
-  maxV: number;
-  /** Id of the preset the numbers came from, if any (informative). */
-  preset: string | null;
-  /** The source's own internal resistance (per cell × cells for a pack; ~0 for a regulated supply). */
-  internalResistanceOhm: number;
-  /** Current the source may deliver continuously; null when not stated (not checked). */
-  continuousCurrentA: number | null;
-  /** Current at which the source limits (USB port, bench supply setting); null when it does not limit. */
-  currentLimitA: number | null;
-}
+/**
+ * The source: minimum / nominal / maximum voltage, the preset it came from (informative), its internal
+ * resistance (per cell × cells for a pack), continuous rating and current limit (null: not stated / none).
+ */
+export type DesignSupply = DesignInput['supply'];
 
 /** What happens to the drive when the shaft jams with the switch on. */
-export type StallProtection = { kind: 'none' } | { kind: 'current-limit'; limitA: number } | { kind: 'cut-off'; afterS: number };
+export type StallProtection = DesignInput['stallProtection'];
 
-/** The controller fed from the motor's own source (directly or through a regulator). */
-export interface SharedLogicSupply {
-  /** Lowest supply at which the controller keeps running (its brown-out level). */
-  minSupplyV: number;
-  /** Dropout of the regulator between the source and the controller; 0 when fed directly. */
-  regulatorDropoutV: number;
-}
+/** The controller fed from the motor's own source: its brown-out level and any regulator dropout. */
+export type SharedLogicSupply = NonNullable<DesignInput['logic']['sharedSupply']>;
 
-export interface DesignLogic {
-  railV: number;
-  /** VOH min of the controller pin at its rated current. */
-  highV: number;
-  /** VOL max of the controller pin. */
-  lowV: number;
-  pinSourceCurrentA: number;
-  pinSinkCurrentA: number;
-  resetPull: 'up' | 'down' | 'none';
-  resetPullOhms: number;
-  /** Fractional tolerance of the internal pull, e.g. 0.3 for ±30 %. */
-  resetPullTolerance: number;
-  /** The controller shares the motor's source; null when it has a supply of its own. */
-  sharedSupply: SharedLogicSupply | null;
-}
+/**
+ * The controller pin: rail, VOH min and VOL max at its rated current, source and sink current, its pull at
+ * reset with value and fractional tolerance, and the shared supply (null when it has its own).
+ */
+export type DesignLogic = DesignInput['logic'];
 
-export type DesignDrive = { mode: 'onoff' } | { mode: 'pwm'; frequencyHz: number; dutyMin: number; dutyMax: number };
+export type DesignDrive = DesignInput['drive'];
 
-export type DesignLoad = { kind: 'torque'; torqueNm: number } | { kind: 'speed'; speedRpm: number } | { kind: 'stall-only' };
+export type DesignLoad = DesignInput['load'];
 
-export interface RoleSelection {
-  chosenPartId: number | null;
-  /** Up to three alternates, in order of preference. */
-  alternatePartIds: number[];
-}
+/** A role's chosen part and up to three alternates, in order of preference. */
+export type RoleSelection = DesignInput['selections']['switch'];
 
-export interface DesignInput {
-  name: string;
-  motor: DesignMotor;
-  supply: DesignSupply;
-  wiringResistanceOhm: number;
-  shuntResistanceOhm: number;
-  logic: DesignLogic;
-  drive: DesignDrive;
-  ambientMinC: number;
-  ambientMaxC: number;
-  load: DesignLoad;
-  margins: { voltageDerating: number; thermalMarginC: number };
-  /** Rail for a gate driver when one is needed (null: the motor supply). */
-  driverSupplyV: number | null;
-  /** Boards per build, for the bill of materials and price breaks. */
-  boardQuantity: number;
-  /** What limits a jammed motor; 'none' (the default) judges a jam as a steady state at stall current. */
-  stallProtection: StallProtection;
-  /** Set only when the designer records that the motor running at reset is intended, with the reason. */
-  resetStartIntent: { reason: string } | null;
-  selections: Record<PartRole, RoleSelection>;
-}
+/**
+ * A design as entered: exactly the output of its zod schema (src/lib/schemas/design.ts), so the type and
+ * the validation cannot drift apart. The part types above document each field; the schema is the truth.
+ */
+export type DesignInput = z.output<typeof designInputSchema>;
 
 export type DesignStatus = 'draft' | 'ready';
 

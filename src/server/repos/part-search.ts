@@ -151,3 +151,46 @@ export async function filteredIdsPage(db: Db, f: PartListQuery, offset: number, 
   const rows: { id: number }[] = await applySort(filteredParts(db, f).select('parts.id'), f.sort).offset(offset).limit(limit);
   return rows.map((r) => r.id);
 }
+
+/** A part waiting for review, with who proposed it. */
+export interface ReviewQueueItem {
+  id: number;
+  category: string;
+  manufacturer: string;
+  mpn: string;
+  description: string;
+  status: string;
+  proposer: string | null;
+  createdAt: string;
+  version: number;
+}
+
+/** Parts waiting for review, oldest first, with who proposed them. */
+export async function listReviewQueue(db: Db): Promise<ReviewQueueItem[]> {
+  const rows = await db('parts as p')
+    .leftJoin('users as u', 'u.id', 'p.created_by')
+    .select(
+      'p.id',
+      'p.category',
+      'p.manufacturer',
+      'p.mpn',
+      'p.description',
+      'p.review_status',
+      'p.created_at',
+      'p.version',
+      'u.name as proposer',
+    )
+    .whereIn('p.review_status', ['pending'])
+    .orderBy([{ column: 'p.created_at' }, { column: 'p.id' }]);
+  return rows.map((r) => ({
+    id: r.id,
+    category: r.category,
+    manufacturer: r.manufacturer,
+    mpn: r.mpn,
+    description: r.description,
+    status: r.review_status,
+    proposer: r.proposer,
+    createdAt: new Date(r.created_at).toISOString(),
+    version: r.version,
+  }));
+}

@@ -104,3 +104,16 @@ export async function packagesByCategory(db: Db): Promise<Record<string, string[
   for (const r of rows) (out[r.category] ??= []).push(r.package);
   return out;
 }
+
+/** Parts with any of the part numbers (every maker), queried in batches of 500. */
+export async function findPartsByMpns(db: Db, mpns: string[]): Promise<{ id: number; manufacturer: string; mpn: string }[]> {
+  const out: { id: number; manufacturer: string; mpn: string }[] = [];
+  for (let i = 0; i < mpns.length; i += 500) {
+    out.push(
+      ...(await db('parts')
+        .select('id', 'manufacturer', 'mpn')
+        .whereIn('mpn', mpns.slice(i, i + 500))),
+    );
+  }
+  return out;
+}

@@ -180,3 +180,20 @@ export async function countPartsByCategory(db: Db): Promise<Record<PartCategory,
   for (const r of rows) counts[r.category] = Number(r.n);
   return counts;
 }
+
+/** Parts by id (any category), fully hydrated, keyed by id. */
+export async function partsByIds(db: Db, ids: number[]): Promise<Map<number, Part>> {
+  if (ids.length === 0) return new Map();
+  const rows: DbPartRow[] = await db('parts').whereIn('id', [...new Set(ids)]);
+  const parts = await hydrateParts(db, rows);
+  return new Map(parts.map((p) => [p.id as number, p]));
+}
+
+/** The category of each id that exists. */
+export async function partCategoriesByIds(db: Db, ids: number[]): Promise<Map<number, string>> {
+  if (ids.length === 0) return new Map();
+  const rows: { id: number; category: string }[] = await db('parts')
+    .select('id', 'category')
+    .whereIn('id', [...new Set(ids)]);
+  return new Map(rows.map((r) => [r.id, r.category]));
+}

@@ -12,7 +12,9 @@ import type { DesignMatch } from '../../lib/design-match.ts';
 import { buildBom, bomToCsv, type BomLine } from '../../lib/bom.ts';
 import { bomPairingNotes } from '../../lib/design-words.ts';
 import { acceptedResetStart, pickStatus, reviewWords, type ReadinessIssue } from '../../lib/readiness.ts';
-import { getDesign, partsByIds } from './designs.ts';
+import { db } from '../db.ts';
+import { getDesign } from './designs.ts';
+import { partsByIds } from '../repos/parts.ts';
 import { verifyInput } from './design-status.ts';
 
 export interface DesignReadiness {
@@ -40,7 +42,7 @@ export async function designOutputs(id: number, revision?: number): Promise<Desi
     ...input.selections[r].alternatePartIds,
   ]);
   const motorId = input.motor.source === 'catalogue' ? [input.motor.partId] : [];
-  const partsById = await partsByIds([...ids, ...motorId]);
+  const partsById = await partsByIds(db(), [...ids, ...motorId]);
   const includesPending = ids.some((pid) => partsById.get(pid)?.reviewStatus === 'pending');
   const { match, issues, parts } = await verifyInput(input, includesPending);
   const motorPart = input.motor.source === 'catalogue' ? partsById.get(input.motor.partId) : undefined;

@@ -9,10 +9,11 @@ import type { Design, DesignInput, DesignStatus } from '../../lib/domain/design.
 import type { DesignMatch } from '../../lib/design-match.ts';
 import { readinessIssues, type PartFacts, type ReadinessIssue } from '../../lib/readiness.ts';
 import type { SessionUser } from '../auth/types.ts';
-import { parseStoredInput, type DbDesignRow } from '../repos/designs.ts';
+import { loadRevisionInput, lockDesignRow, readyDesignIdsUsingParts, writeDesignStatus, type DbDesignRow } from '../repos/designs.ts';
 import { insertAuditEvent } from '../repos/audit.ts';
 import { ServiceError, notFound } from './errors.ts';
-import { canEditDesign, getDesign, matchInput, partsByIds, resolveMotor, staleDesign } from './designs.ts';
+import { canEditDesign, getDesign, matchInput, resolveMotor, staleDesign } from './designs.ts';
+import { partsByIds } from '../repos/parts.ts';
 
 /** designs.status_reason is VARCHAR(2000). */
 const REASON_MAX_CHARS = 2000;
@@ -20,6 +21,8 @@ const REASON_MAX_CHARS = 2000;
 const AUDIT_NOTE_MAX_CHARS = 500;
 
 export interface Verification {
+  /** The input judged (the saved revision, validated). */
+  input: DesignInput;
   match: DesignMatch;
   issues: ReadinessIssue[];
   /** Catalogue facts of every picked part (the motor included), by id. */
@@ -35,12 +38,12 @@ const pickIds = (input: DesignInput): number[] =>
 /** Runs the full match for an input and applies the readiness rule to it. */
 export async function verifyInput(input: DesignInput, includePending: boolean, k: Db = db()): Promise<Verification> {
   const motor = await resolveMotor(input, k);
-  const [match, byId] = await Promise.all([matchInput(input, includePending, motor, k), partsByIds(pickIds(input), k)]);
+  const [match, byId] = await Promise.all([matchInput(input, includePending, motor, k), partsByIds(k, pickIds(input))]);
   const parts = new Map<number, PartFacts>(
     [...byId].map(([id, p]) => [id, { mpn: p.mpn, lifecycle: p.lifecycle, reviewStatus: p.reviewStatus }]),
   );
   const motorFacts = motor.part ? { mpn: motor.part.mpn, lifecycle: motor.part.lifecycle, reviewStatus: motor.part.reviewStatus } : null;
-  return { match, issues: readinessIssues(input, match, { parts, motor: motorFacts }), parts };
+  return { input, match, issues: readinessIssues(input, match, { parts, motor: motorFacts }), parts };
 }
 
 /** Verification that cannot even run (a revision that no longer validates, a motor gone) counts as not holding. */
@@ -50,9 +53,9 @@ async function verifyAt(
   revision: number,
 ): Promise<{ issues: ReadinessIssue[]; verification: Verification | null }> {
   try {
-    const row = await k('design_revisions').where({ design_id: designId, revision }).first('input_json');
-    if (!row) return { issues: [{ path: 'revision', message: `revision ${revision} is missing` }], verification: null };
-    const verification = await verifyInput(parseStoredInput(row.input_json, designId, revision), false, k);
+    const input = await loadRevisionInput(k, designId, revision);
+    if (!input) return { issues: [{ path: 'revision', message: `revision ${revision} is missing` }], verification: null };
+    const verification = await verifyInput(input, false, k);
     return { issues: verification.issues, verification };
   } catch (err) {
     if (err instanceof ServiceError) return { issues: [{ path: 'design', message: err.message }], verification: null };
@@ -63,7 +66,7 @@ async function verifyAt(
 const clip = (text: string, max = REASON_MAX_CHARS): string => (text.length <= max ? text : `${text.slice(0, max - 1)}…`);
 
 async function lockDesign(k: Db, id: number): Promise<DbDesignRow> {
-  const row: DbDesignRow | undefined = await k('designs').where({ id }).forUpdate().first();
+  const row = await lockDesignRow(k, id);
   if (!row) throw notFound('The design');
   return row;
 }
@@ -84,16 +87,7 @@ export async function setDesignStatus(user: SessionUser, id: number, status: Des
           issues,
         );
     }
-    await trx('designs')
-      .where({ id })
-      .update({
-        status,
-        ready_at: status === 'ready' ? trx.fn.now(3) : null,
-        status_reason: null,
-        status_changed_at: trx.fn.now(3),
-        version: row.version + 1,
-        updated_at: trx.fn.now(3),
-      });
+    await writeDesignStatus(trx, id, { status, reason: null, version: row.version + 1 });
     await insertAuditEvent(trx, {
       actorUserId: user.id,
       action: `design.${status}`,
@@ -136,16 +130,7 @@ export async function reverifyDesign(
     const { issues, verification } = await verifyAt(trx, designId, row.current_revision);
     if (issues.length === 0) return { ...base, wasReady: true, holds: true, issues, verification };
     const reason = clip(`${trigger.reason}: ${issues.map((i) => i.message).join('; ')}`);
-    await trx('designs')
-      .where({ id: designId })
-      .update({
-        status: 'draft',
-        ready_at: null,
-        status_reason: reason,
-        status_changed_at: trx.fn.now(3),
-        version: row.version + 1,
-        updated_at: trx.fn.now(3),
-      });
+    await writeDesignStatus(trx, designId, { status: 'draft', reason, version: row.version + 1 });
     await insertAuditEvent(trx, {
       actorUserId: actor?.id ?? null,
       action: 'design.unready',
@@ -159,25 +144,13 @@ export async function reverifyDesign(
   });
 }
 
-/** Ready designs that use any of the parts (motor, chosen or alternate), from the where-used rows. */
-async function readyDesignsUsing(k: Db, partIds: number[]): Promise<number[]> {
-  if (partIds.length === 0) return [];
-  const rows: { id: number }[] = await k('design_parts')
-    .join('designs', 'designs.id', 'design_parts.design_id')
-    .whereIn('design_parts.part_id', partIds)
-    .where('designs.status', 'ready')
-    .distinct('designs.id as id')
-    .orderBy('designs.id');
-  return rows.map((r) => r.id);
-}
-
 /**
  * Called by the part services right after a change to a part commits (same request): every ready design
  * using one of the parts is re-verified, each in its own locked transaction. Draft designs have no status
  * at stake; they are judged afresh whenever they are opened or marked ready.
  */
 export async function reverifyDesignsUsingParts(partIds: number[], actor: SessionUser | null, reason: string): Promise<ReverifyOutcome[]> {
-  const ids = await readyDesignsUsing(db(), partIds);
+  const ids = await readyDesignIdsUsingParts(db(), partIds);
   const outcomes: ReverifyOutcome[] = [];
   for (const id of ids) outcomes.push(await reverifyOrWithdraw(id, actor, { partIds, reason }));
   return outcomes;
@@ -199,16 +172,7 @@ async function reverifyOrWithdraw(
     const reason = clip(
       `${trigger.reason}: the design could not be re-verified (${(err as Error).message}); check it and mark it ready again`,
     );
-    await db()('designs')
-      .where({ id: designId, status: 'ready' })
-      .update({
-        status: 'draft',
-        ready_at: null,
-        status_reason: reason,
-        status_changed_at: db().fn.now(3),
-        version: db().raw('version + 1'),
-        updated_at: db().fn.now(3),
-      });
+    await writeDesignStatus(db(), designId, { status: 'draft', reason, onlyIfReady: true });
     return { designId, name: '', reason, wasReady: true, holds: false, issues: [], verification: null };
   }
 }

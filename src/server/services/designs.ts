@@ -4,10 +4,20 @@ import { db } from '../db.ts';
 import type { Design, DesignInput, DesignSummary } from '../../lib/domain/design.ts';
 import type { MotorParams, Part } from '../../lib/domain/parts.ts';
 import type { SessionUser } from '../auth/types.ts';
-import { matchDesign, type DesignMatch } from '../../lib/design-match.ts';
-import { findDesignRow, insertRevision, listDesignRows, loadDesign, replaceDesignParts, type DesignListQuery } from '../repos/designs.ts';
-import { hydrateParts } from '../repos/parts.ts';
-import type { DbPartRow } from '../repos/part-rows.ts';
+import { matchDesign, prepareCase, type DesignMatch } from '../../lib/design-match.ts';
+import {
+  findDesignRow,
+  insertDesignRow,
+  insertRevision,
+  listDesignRows,
+  loadDesign,
+  loadRevisionInput,
+  lockDesignRow,
+  replaceDesignParts,
+  setCurrentRevision,
+  type DesignListQuery,
+} from '../repos/designs.ts';
+import { partCategoriesByIds, partsByIds } from '../repos/parts.ts';
 import { insertAuditEvent } from '../repos/audit.ts';
 import { ServiceError, notFound } from './errors.ts';
 import { loadCandidates } from './design-candidates.ts';
@@ -27,14 +37,6 @@ export async function getDesign(id: number, revision?: number): Promise<Design> 
   return design;
 }
 
-/** Loads parts by id (any category), fully hydrated. */
-export async function partsByIds(ids: number[], k: Knex | Knex.Transaction = db()): Promise<Map<number, Part>> {
-  if (ids.length === 0) return new Map();
-  const rows: DbPartRow[] = await k('parts').whereIn('id', [...new Set(ids)]);
-  const parts = await hydrateParts(k, rows);
-  return new Map(parts.map((p) => [p.id as number, p]));
-}
-
 async function assertReferencesExist(k: Knex | Knex.Transaction, input: DesignInput): Promise<void> {
   const wanted: { path: string; id: number; category: string }[] = [];
   if (input.motor.source === 'catalogue') wanted.push({ path: 'motor.partId', id: input.motor.partId, category: 'motor' });
@@ -45,13 +47,10 @@ async function assertReferencesExist(k: Knex | Knex.Transaction, input: DesignIn
     sel.alternatePartIds.forEach((id, i) => wanted.push({ path: `selections.${role}.alternatePartIds.${i}`, id, category }));
   }
   if (!wanted.length) return;
-  const rows: { id: number; category: string }[] = await k('parts')
-    .select('id', 'category')
-    .whereIn(
-      'id',
-      wanted.map((w) => w.id),
-    );
-  const found = new Map(rows.map((r) => [r.id, r.category]));
+  const found = await partCategoriesByIds(
+    k,
+    wanted.map((w) => w.id),
+  );
   const issues = wanted
     .filter((w) => found.get(w.id) !== w.category)
     .map((w) => ({ path: w.path, message: found.has(w.id) ? `part ${w.id} is not a ${w.category}` : `part ${w.id} does not exist` }));
@@ -61,7 +60,7 @@ async function assertReferencesExist(k: Knex | Knex.Transaction, input: DesignIn
 export async function createDesign(user: SessionUser, input: DesignInput): Promise<Design> {
   const id = await db().transaction(async (trx) => {
     await assertReferencesExist(trx, input);
-    const [designId] = await trx('designs').insert({ owner_id: user.id, name: input.name, current_revision: 1 });
+    const designId = await insertDesignRow(trx, user.id, input.name);
     await insertRevision(trx, designId, 1, input, user.id);
     await replaceDesignParts(trx, designId, input);
     await insertAuditEvent(trx, {
@@ -72,7 +71,7 @@ export async function createDesign(user: SessionUser, input: DesignInput): Promi
       before: null,
       after: { name: input.name, revision: 1 },
     });
-    return designId as number;
+    return designId;
   });
   return getDesign(id);
 }
@@ -85,19 +84,17 @@ export const staleDesign = (current: number): ServiceError =>
 /** Saves a changed input as a new revision; an unchanged input leaves the revision as it is. */
 export async function updateDesign(user: SessionUser, id: number, input: DesignInput, expectedVersion: number): Promise<Design> {
   await db().transaction(async (trx) => {
-    const row = await trx('designs').where({ id }).forUpdate().first();
+    const row = await lockDesignRow(trx, id);
     if (!row) throw notFound('The design');
     if (!canEditDesign(user, row.owner_id)) throw new ServiceError(403, 'Only the owner of a design (or an admin) can change it.');
     if (row.version !== expectedVersion) throw staleDesign(row.version);
-    const current = await trx('design_revisions').where({ design_id: id, revision: row.current_revision }).first();
-    if (current && current.input_json === JSON.stringify(input)) return;
+    const current = await loadRevisionInput(trx, id, row.current_revision).catch(() => null);
+    if (current && JSON.stringify(current) === JSON.stringify(input)) return;
     await assertReferencesExist(trx, input);
     const revision = row.current_revision + 1;
     await insertRevision(trx, id, revision, input, user.id);
     await replaceDesignParts(trx, id, input);
-    await trx('designs')
-      .where({ id })
-      .update({ name: input.name, current_revision: revision, version: row.version + 1, updated_at: trx.fn.now(3) });
+    await setCurrentRevision(trx, id, input.name, revision, row.version + 1);
     await insertAuditEvent(trx, {
       actorUserId: user.id,
       action: 'design.revise',
@@ -116,7 +113,7 @@ export async function resolveMotor(
   k: Knex | Knex.Transaction = db(),
 ): Promise<{ label: string; params: MotorParams; part: Part | null }> {
   if (input.motor.source === 'manual') return { label: input.motor.label, params: input.motor.params, part: null };
-  const part = (await partsByIds([input.motor.partId], k)).get(input.motor.partId);
+  const part = (await partsByIds(k, [input.motor.partId])).get(input.motor.partId);
   if (!part || part.category !== 'motor') {
     throw new ServiceError(400, 'The design refers to a motor that is not in the catalogue.', [
       { path: 'motor.partId', message: `no motor with id ${input.motor.partId}` },
@@ -138,8 +135,9 @@ export async function matchInput(
   k: Knex | Knex.Transaction = db(),
 ): Promise<DesignMatch> {
   const motor = resolved ?? (await resolveMotor(input, k));
-  const catalogue = await loadCandidates(k, input, motor.params, includePending);
-  return matchDesign(input, motor.label, motor.params, catalogue);
+  const prepared = prepareCase(input, motor.params);
+  const catalogue = await loadCandidates(k, prepared, includePending);
+  return matchDesign(input, motor.label, motor.params, catalogue, prepared);
 }
 
 export async function designExists(id: number): Promise<boolean> {

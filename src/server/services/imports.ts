@@ -9,7 +9,7 @@ import { db, type Db } from '../db.ts';
 import type { SessionUser } from '../auth/types.ts';
 import { partInputSchema, type PartInput } from '../../lib/schemas/parts.ts';
 import { insertPart } from '../repos/parts.ts';
-import { loadPart } from '../repos/part-writes.ts';
+import { findPartsByMpns, loadPart } from '../repos/part-writes.ts';
 import { insertAuditEvent } from '../repos/audit.ts';
 import { claimImportKey, completeImportRequest, findImportRequest } from '../repos/import-requests.ts';
 import { ServiceError } from './errors.ts';
@@ -115,12 +115,7 @@ async function markDuplicates(k: Db, rows: ParsedRow[], errors: ImportError[]): 
   const key = (maker: string, mpn: string) => `${maker.toLowerCase()}\u0000${mpn.toLowerCase()}`;
   const mpns = rows.filter((r) => r.input).map((r) => r.input!.mpn);
   const existing = new Map<string, number>();
-  for (let i = 0; i < mpns.length; i += 500) {
-    const found: { id: number; manufacturer: string; mpn: string }[] = await k('parts')
-      .select('id', 'manufacturer', 'mpn')
-      .whereIn('mpn', mpns.slice(i, i + 500));
-    for (const f of found) existing.set(key(f.manufacturer, f.mpn), f.id);
-  }
+  for (const f of await findPartsByMpns(k, mpns)) existing.set(key(f.manufacturer, f.mpn), f.id);
   const seen = new Map<string, number>();
   for (const row of rows) {
     if (!row.input) continue;

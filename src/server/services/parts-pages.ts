@@ -3,6 +3,7 @@ import { db } from '../db.ts';
 import type { SessionUser } from '../auth/types.ts';
 import type { Part } from '../../lib/domain/parts.ts';
 import { packagesByCategory } from '../repos/part-writes.ts';
+import { listReviewQueue, type ReviewQueueItem } from '../repos/part-search.ts';
 import { canCurate, canManageSupply, canPropose } from './parts-access.ts';
 
 export async function searchPageData(
@@ -34,43 +35,6 @@ export function partPermissions(user: SessionUser | null, part: Part, proposerId
 }
 
 /** Parts waiting for review, oldest first, with who proposed them. */
-export async function reviewQueue(): Promise<
-  {
-    id: number;
-    category: string;
-    manufacturer: string;
-    mpn: string;
-    description: string;
-    status: string;
-    proposer: string | null;
-    createdAt: string;
-    version: number;
-  }[]
-> {
-  const rows = await db()('parts as p')
-    .leftJoin('users as u', 'u.id', 'p.created_by')
-    .select(
-      'p.id',
-      'p.category',
-      'p.manufacturer',
-      'p.mpn',
-      'p.description',
-      'p.review_status',
-      'p.created_at',
-      'p.version',
-      'u.name as proposer',
-    )
-    .whereIn('p.review_status', ['pending'])
-    .orderBy([{ column: 'p.created_at' }, { column: 'p.id' }]);
-  return rows.map((r) => ({
-    id: r.id,
-    category: r.category,
-    manufacturer: r.manufacturer,
-    mpn: r.mpn,
-    description: r.description,
-    status: r.review_status,
-    proposer: r.proposer,
-    createdAt: new Date(r.created_at).toISOString(),
-    version: r.version,
-  }));
+export async function reviewQueue(): Promise<ReviewQueueItem[]> {
+  return listReviewQueue(db());
 }

@@ -4,13 +4,13 @@
  * through the same service as a part change, and is listed apart with its reason, never as holding.
  */
 import { db } from '../db.ts';
-import type { PartRole } from '../../lib/domain/design.ts';
+import type { DesignInput, PartRole } from '../../lib/domain/design.ts';
 import type { Part } from '../../lib/domain/parts.ts';
 import { bestUnitPrice } from '../../lib/part-summary.ts';
 import { pickStatus, reviewWords } from '../../lib/readiness.ts';
 import type { SessionUser } from '../auth/types.ts';
-import { partsByIds } from './designs.ts';
-import { parseStoredInput } from '../repos/designs.ts';
+import { partsByIds } from '../repos/parts.ts';
+import { listReadyDesigns } from '../repos/designs.ts';
 import { reverifyDesigns, type Verification } from './design-status.ts';
 
 export interface ShortlistPart {
@@ -68,7 +68,7 @@ function motorStatus(part: Part): { text: string; holds: boolean } {
   return { text: `${holds ? '✓' : '✕'} ${reviewWords(part.reviewStatus)} · ${part.lifecycle}`, holds };
 }
 
-function linesOf(v: Verification, parts: Map<number, Part>, input: ReturnType<typeof parseStoredInput>): ShortlistDesign['lines'] {
+function linesOf(v: Verification, parts: Map<number, Part>, input: DesignInput): ShortlistDesign['lines'] {
   const qty = input.boardQuantity;
   const lines: ShortlistDesign['lines'] = [];
   if (input.motor.source === 'catalogue' && parts.has(input.motor.partId)) {
@@ -88,26 +88,11 @@ function linesOf(v: Verification, parts: Map<number, Part>, input: ReturnType<ty
 }
 
 export async function readyShortlist(actor: SessionUser | null): Promise<Shortlist> {
-  const rows: { id: number; name: string; current_revision: number; ready_at: Date | null; owner_name: string; input_json: string }[] =
-    await db()('designs')
-      .join('users', 'users.id', 'designs.owner_id')
-      .join('design_revisions', (j) =>
-        j.on('design_revisions.design_id', 'designs.id').andOn('design_revisions.revision', 'designs.current_revision'),
-      )
-      .where('designs.status', 'ready')
-      .select(
-        'designs.id',
-        'designs.name',
-        'designs.current_revision',
-        'designs.ready_at',
-        'users.name as owner_name',
-        'design_revisions.input_json',
-      )
-      .orderBy('designs.ready_at', 'desc');
+  const heads = await listReadyDesigns(db());
   const outcomes = new Map(
     (
       await reverifyDesigns(
-        rows.map((r) => r.id),
+        heads.map((h) => h.id),
         actor,
         'Re-verified when the shortlist was opened',
       )
@@ -116,31 +101,26 @@ export async function readyShortlist(actor: SessionUser | null): Promise<Shortli
   const withdrawn = [...outcomes.values()]
     .filter((o) => o.wasReady && !o.holds)
     .map((o) => ({ id: o.designId, name: o.name, reason: o.reason ?? '' }));
-  const held = rows.filter((r) => {
-    const o = outcomes.get(r.id);
-    return o?.wasReady && o.holds && o.verification != null;
+  const held = heads.flatMap((h) => {
+    const o = outcomes.get(h.id);
+    return o?.wasReady && o.holds && o.verification ? [{ head: h, verification: o.verification }] : [];
   });
-  const inputs = held.map((r) => parseStoredInput(r.input_json, r.id, r.current_revision));
-  const ids = inputs.flatMap((i) => [
+  const ids = held.flatMap(({ verification: { input: i } }) => [
     ...(i.motor.source === 'catalogue' ? [i.motor.partId] : []),
     ...(['switch', 'driver', 'diode'] as const).flatMap((r) => [
       ...(i.selections[r].chosenPartId != null ? [i.selections[r].chosenPartId as number] : []),
       ...i.selections[r].alternatePartIds,
     ]),
   ]);
-  const parts = await partsByIds(ids);
-  const designs = held.map((r, k) => {
-    const input = inputs[k];
-    const lines = linesOf(outcomes.get(r.id)!.verification!, parts, input);
-    return {
-      id: r.id,
-      name: r.name,
-      revision: r.current_revision,
-      ownerName: r.owner_name,
-      readyAt: r.ready_at ? new Date(r.ready_at).toISOString() : null,
-      boardQuantity: input.boardQuantity,
-      lines,
-    };
-  });
+  const parts = await partsByIds(db(), ids);
+  const designs = held.map(({ head, verification }) => ({
+    id: head.id,
+    name: head.name,
+    revision: head.revision,
+    ownerName: head.ownerName,
+    readyAt: head.readyAt,
+    boardQuantity: verification.input.boardQuantity,
+    lines: linesOf(verification, parts, verification.input),
+  }));
   return { designs, withdrawn };
 }

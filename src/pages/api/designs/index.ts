@@ -2,7 +2,6 @@ import type { APIRoute } from 'astro';
 import { z } from 'zod';
 import { designInputSchema } from '../../../lib/schemas/design.ts';
 import { createDesign, listDesigns } from '../../../server/services/designs.ts';
-import type { DesignInput } from '../../../lib/domain/design.ts';
 import { readJson, readQuery, signedInUser } from '../../../server/http/request.ts';
 
 const listQuery = z.object({
@@ -24,5 +23,5 @@ export const GET: APIRoute = async ({ url, locals }) => {
 export const POST: APIRoute = async ({ request, locals }) => {
   const user = signedInUser(locals);
   const body = await readJson(request, designInputSchema);
-  return Response.json(await createDesign(user, body as DesignInput), { status: 201 });
+  return Response.json(await createDesign(user, body), { status: 201 });
 };

@@ -2,7 +2,6 @@ import type { APIRoute } from 'astro';
 import { z } from 'zod';
 import { designInputSchema } from '../../../../lib/schemas/design.ts';
 import { getDesign, updateDesign } from '../../../../server/services/designs.ts';
-import type { DesignInput } from '../../../../lib/domain/design.ts';
 import { readJson, readQuery, routeId, signedInUser } from '../../../../server/http/request.ts';
 
 const getQuery = z.object({ revision: z.coerce.number().int().min(1).optional() });
@@ -20,5 +19,5 @@ export const PUT: APIRoute = async ({ params, request, locals }) => {
   const user = signedInUser(locals);
   const id = routeId(params.id, 'The design');
   const body = await readJson(request, putBody);
-  return Response.json(await updateDesign(user, id, body.input as DesignInput, body.version));
+  return Response.json(await updateDesign(user, id, body.input, body.version));
 };

@@ -2,7 +2,6 @@ import type { APIRoute } from 'astro';
 import { z } from 'zod';
 import { designInputSchema } from '../../../../lib/schemas/design.ts';
 import { getDesign, matchInput } from '../../../../server/services/designs.ts';
-import type { DesignInput } from '../../../../lib/domain/design.ts';
 import { readJson, routeId } from '../../../../server/http/request.ts';
 
 const body = z.object({
@@ -15,6 +14,6 @@ const body = z.object({
 export const POST: APIRoute = async ({ params, request }) => {
   const id = routeId(params.id, 'The design');
   const parsed = await readJson(request, body);
-  const input = (parsed.input as DesignInput | undefined) ?? (await getDesign(id)).input;
+  const input = parsed.input ?? (await getDesign(id)).input;
   return Response.json(await matchInput(input, parsed.includePending));
 };
