@@ -338,3 +338,33 @@ describe('marking a design ready', () => {
     expect(shortlist.text).toContain(unsafe.name);
   });
 });
+
+describe('the one match pipeline', () => {
+  it('refuses an id that names no design, also when unsaved input is sent along', async () => {
+    const id = await seededDesignId(demoDesigns[0].name);
+    const input = ((await api().get(`/api/designs/${id}`).set('Cookie', designer)).body as { input: DesignInput }).input;
+    const res = await api().post('/api/designs/999999/match').set('Cookie', designer).send({ input });
+    expect(res.status).toBe(404);
+    expect(res.body.error).toMatch(/design/i);
+  });
+
+  it('needs the input when no design is named, and takes a revision only for a saved design', async () => {
+    const bare = await api().post('/api/designs/match').set('Cookie', designer).send({});
+    expect(bare.status).toBe(400);
+    expect(bare.body.issues.map((i: { path: string }) => i.path)).toContain('input');
+    const id = await seededDesignId(demoDesigns[0].name);
+    const input = ((await api().get(`/api/designs/${id}`).set('Cookie', designer)).body as { input: DesignInput }).input;
+    const both = await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({ input, revision: 1 });
+    expect(both.status).toBe(400);
+    expect(both.body.issues.map((i: { path: string }) => i.path)).toContain('revision');
+  });
+
+  it('ranks the same whether the saved input is sent or read from the design', async () => {
+    const id = await seededDesignId(demoDesigns[0].name);
+    const input = ((await api().get(`/api/designs/${id}`).set('Cookie', designer)).body as { input: DesignInput }).input;
+    const saved = (await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({})).body as DesignMatch;
+    const sent = (await api().post('/api/designs/match').set('Cookie', designer).send({ input })).body as DesignMatch;
+    expect(sent.switch.map((e) => [e.partId, e.verdict, e.score])).toEqual(saved.switch.map((e) => [e.partId, e.verdict, e.score]));
+    expect(sent.diode.map((e) => [e.partId, e.verdict])).toEqual(saved.diode.map((e) => [e.partId, e.verdict]));
+  });
+});

@@ -129,3 +129,14 @@ export const designInputSchema = z
 
 export type DesignInputBody = z.input<typeof designInputSchema>;
 export type ParsedDesignInput = z.output<typeof designInputSchema>;
+
+/**
+ * The body of both match routes: `input` ranks that input (unsaved edits); without it, the saved
+ * revision (`revision`, default the current one) of the design named in the path is ranked.
+ */
+export const matchRequestSchema = z.object({
+  includePending: z.boolean().default(false),
+  input: designInputSchema.optional(),
+  revision: z.number().int().min(1).optional(),
+});
+export type MatchRequest = z.output<typeof matchRequestSchema>;

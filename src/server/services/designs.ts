@@ -2,6 +2,7 @@
 import type { Knex } from 'knex';
 import { db } from '../db.ts';
 import type { Design, DesignInput, DesignSummary } from '../../lib/domain/design.ts';
+import type { MatchRequest } from '../../lib/schemas/design.ts';
 import type { MotorParams, Part } from '../../lib/domain/parts.ts';
 import type { SessionUser } from '../auth/types.ts';
 import { matchDesign, prepareCase, type DesignMatch } from '../../lib/design-match.ts';
@@ -142,4 +143,23 @@ export async function matchInput(
 
 export async function designExists(id: number): Promise<boolean> {
   return (await findDesignRow(db(), id)) !== undefined;
+}
+
+/**
+ * The one match pipeline behind both match routes. With a design id, the design must exist (404
+ * otherwise, also when unsaved input is sent along); the input sent, or else its saved revision, is
+ * ranked. Without an id, the input is required.
+ */
+export async function matchRequest(designId: number | null, request: MatchRequest): Promise<DesignMatch> {
+  if (designId === null) {
+    if (!request.input) throw new ServiceError(400, 'Send the design input to rank.', [{ path: 'input', message: 'required' }]);
+    if (request.revision !== undefined)
+      throw new ServiceError(400, 'A revision needs a saved design.', [{ path: 'revision', message: 'use /api/designs/:id/match' }]);
+    return matchInput(request.input, request.includePending);
+  }
+  if (request.input && request.revision !== undefined) {
+    throw new ServiceError(400, 'Send either unsaved input or a revision, not both.', [{ path: 'revision', message: 'not with input' }]);
+  }
+  const saved = await getDesign(designId, request.revision);
+  return matchInput(request.input ?? saved.input, request.includePending);
 }
