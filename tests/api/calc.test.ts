@@ -106,7 +106,19 @@ describe('POST /api/calc/switch', () => {
   it('answers the contract example with every required check id', async () => {
     const res = await api().post('/api/calc/switch').send(SWITCH);
     expect(res.status).toBe(200);
-    expect(['pass', 'marginal', 'fail']).toContain(res.body.verdict);
+    // A jammed shaft with no protection (the default) at 3 A, full on: the steady state of
+    // Tj = Ta + I²·R25·(1 + α(Tj − 25))·RθJA, solved by hand: Tj − Ta = k(1 + α(Ta − 25)) / (1 − kα) with
+    // k = I²·R25·RθJA (docs/engineering.md §6.1; R25 the log-interpolated RDS(on) at 5 V worked out below).
+    const r25 = Math.exp(Math.log(0.05) + ((5 - 4.5) / (10 - 4.5)) * (Math.log(0.035) - Math.log(0.05)));
+    const k = 3 ** 2 * r25 * 250;
+    const tjStallC = 40 + (k * (1 + 0.005 * (40 - 25))) / (1 - k * 0.005);
+    expect(tjStallC).toBeGreaterThan(150);
+    expect(res.body.verdict).toBe('fail');
+    const failing = res.body.checks.filter((c: { ok: boolean }) => !c.ok).map((c: { id: string }) => c.id);
+    expect(failing).toEqual(['stall-thermal']);
+    const stall = res.body.checks.find((c: { id: string }) => c.id === 'stall-thermal');
+    expect(stall.value).toBeCloseTo(tjStallC, 0);
+    expect(stall.limit).toBe(150);
     const ids = res.body.checks.map((c: { id: string }) => c.id);
     for (const id of ['drain-voltage', 'gate-voltage-rating', 'gate-drive', 'stall-current', 'running-current', 'junction-temperature']) {
       expect(ids).toContain(id);

@@ -149,7 +149,9 @@ describe('POST /api/parts', () => {
       .set('Origin', appUrl())
       .type('form')
       .send('mpn=x');
-    expect([403, 415]).toContain(form.status);
+    // A form post from the app's own origin passes Astro's origin check and is refused for its type.
+    expect(form.status).toBe(415);
+    expect(form.body.issues[0].path).toBe('(headers).content-type');
     const text = await request(appUrl()).post('/api/parts').set('Cookie', cookies.librarian).set('Content-Type', 'text/csv').send('a,b');
     expect(text.status).toBe(415);
     const dup = await send('post', '/api/parts', 'librarian', newDiode({ manufacturer: 'Ostler Rectifier Works', mpn: 'ORS10-40-D123' }));
