@@ -2,6 +2,7 @@
  * Chart geometry shared by the SVG charts in the browser and the vector drawings in the report PDF:
  * "nice" axis ticks and linear scales. Pure.
  */
+import { sig, tidy } from './units.ts';
 export interface Scale {
   (value: number): number;
   domain: [number, number];
@@ -35,13 +36,13 @@ export function niceTicks(min: number, max: number, count = 5): { ticks: number[
   const lo = Math.floor(min / step + 1e-9) * step;
   const hi = Math.ceil(max / step - 1e-9) * step;
   const ticks: number[] = [];
-  for (let v = lo; v <= hi + step * 1e-6; v += step) ticks.push(Number(v.toPrecision(12)));
+  for (let v = lo; v <= hi + step * 1e-6; v += step) ticks.push(tidy(v));
   return { ticks, domain: [lo, hi] };
 }
 
 /** Short tick label: trims float noise, uses k for thousands. */
 export function tickLabel(value: number): string {
   const abs = Math.abs(value);
-  if (abs >= 10_000) return `${Number((value / 1000).toPrecision(4))}k`;
-  return String(Number(value.toPrecision(4)));
+  if (abs >= 10_000) return `${sig(value / 1000, 4)}k`;
+  return sig(value, 4);
 }

@@ -1,6 +1,7 @@
 /**
  * The shape every engineering check returns, and the verdict rule that reads them.
  */
+import { sig } from './units.ts';
 
 export type Verdict = 'pass' | 'marginal' | 'fail';
 
@@ -47,5 +48,5 @@ export function makeCheck(fields: Omit<Check, 'severity'>, failSeverity: 'hard' 
 /** A number for notes: three significant digits, no exponent for everyday magnitudes. */
 export function fmt(value: number, digits = 3): string {
   if (!Number.isFinite(value)) return String(value);
-  return String(Number(value.toPrecision(digits)));
+  return sig(value, digits);
 }

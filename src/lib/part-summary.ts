@@ -2,6 +2,7 @@
  * Key parameters of a part for lists, with units and test conditions, per category.
  * Pure: used by the catalogue page and by CSV export.
  */
+import { sig } from './units.ts';
 import type { Part, PartCategory } from './domain/parts.ts';
 
 export interface SummaryColumn {
@@ -53,7 +54,7 @@ export const SUMMARY_COLUMNS: Record<PartCategory, SummaryColumn[]> = {
   ],
 };
 
-const n = (v: number, digits = 3): string => Number(v.toPrecision(digits)).toString();
+const n = (v: number, digits = 3): string => sig(v, digits);
 
 export function describeInput(p: Extract<Part, { category: 'driver' }>['params']): string {
   if (p.inputLogic === 'fixed') return `≥ ${n(p.inputHighMin)} V (fixed)`;

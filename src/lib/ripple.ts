@@ -9,7 +9,7 @@
  */
 import type { MotorModel } from './motor.ts';
 import type { MotorLoad } from './pwm.ts';
-import { radPerSToRpm, rpmToRadPerS } from './units.ts';
+import { radPerSToRpm, rpmToRadPerS, sig } from './units.ts';
 
 export interface RippleInput {
   supplyV: number;
@@ -405,5 +405,5 @@ export function pwmFrequencyCaution(frequencyHz: number, tauS: number): string |
 
 /** Three significant digits, without exponent notation for the ranges shown here. */
 function formatNumber(value: number): string {
-  return String(Number(value.toPrecision(3)));
+  return sig(value, 3);
 }

@@ -3,11 +3,11 @@
  * design, a pack's internal resistance as per cell × cells, a starting point for a shared controller.
  * Pure, browser-safe.
  */
+import { tidy } from './units.ts';
 import type { DesignSupply, SharedLogicSupply, SupplyPreset } from './domain/design.ts';
 import { SUPPLY_PRESETS } from './domain/design.ts';
 
 /** Twelve significant digits: 0.075 × 3 is stored as 0.225, not 0.22499999999999998. */
-const tidy = (x: number): number => Number(x.toPrecision(12));
 
 export function findSupplyPreset(id: string | null): SupplyPreset | undefined {
   return id == null ? undefined : SUPPLY_PRESETS.find((p) => p.id === id);
@@ -51,5 +51,5 @@ export function cellCount(typed: number): number {
  * level]. The designer replaces both with the controller's and regulator's own figures.
  */
 export function defaultSharedSupply(logicRailV: number): SharedLogicSupply {
-  return { minSupplyV: tidy(Number((0.9 * logicRailV).toFixed(2))), regulatorDropoutV: 0 };
+  return { minSupplyV: tidy(Math.round(0.9 * logicRailV * 100) / 100), regulatorDropoutV: 0 };
 }

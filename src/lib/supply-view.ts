@@ -5,7 +5,7 @@
  */
 import type { Check, Verdict } from './checks.ts';
 import { IMPRACTICAL_BULK_CAPACITANCE_F } from './supply.ts';
-import { formatSi } from './units.ts';
+import { formatSi, quantity } from './units.ts';
 
 /** The supply checks in reading order, with the question each one answers. */
 export const SUPPLY_CHECK_TITLES: Readonly<Record<string, string>> = {
@@ -36,7 +36,7 @@ export function quantityText(value: number | null, unit: string): string {
 /** Torques in mN·m whatever their size (0.637 mN·m, not 637 µN·m): the unit the motor's figures use. */
 export function torqueText(torqueNm: number | null): string {
   if (torqueNm == null || !Number.isFinite(torqueNm)) return '—';
-  return `${Number((torqueNm * 1000).toPrecision(3))} mN·m`;
+  return quantity(torqueNm * 1000, 'mN·m');
 }
 
 /** Which way the limit binds: the running and start currents must stay at or below it, the rail at or above. */
@@ -55,5 +55,5 @@ export function bulkCapacitanceView(capacitanceF: number | null): BulkCapacitanc
   if (capacitanceF == null || !Number.isFinite(capacitanceF)) return null;
   const practical = capacitanceF < IMPRACTICAL_BULK_CAPACITANCE_F;
   if (capacitanceF === 0) return { text: 'none needed', practical };
-  return { text: practical ? quantityText(capacitanceF, 'F') : `${Number(capacitanceF.toPrecision(3))} F`, practical };
+  return { text: practical ? quantityText(capacitanceF, 'F') : quantity(capacitanceF, 'F'), practical };
 }

@@ -85,3 +85,48 @@ export function formatSi(value: number, unit: string, digits = 3): string {
 export function formatOhms(ohm: number): string {
   return ohm >= 1000 ? `${Number((ohm / 1000).toPrecision(3))} kΩ` : `${Number(ohm.toPrecision(3))} Ω`;
 }
+
+/*
+ * The number formatter family: every number a person reads goes through one of these (islands, pages,
+ * the report, the CSVs). "—" stands for a value that is missing or not finite.
+ */
+
+/** `digits` significant digits without trailing zeros: sig(0.0012345) → "0.00123", sig(1500) → "1500". */
+export function sig(value: number | null | undefined, digits = 3): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return '—';
+  return String(Number(value.toPrecision(Math.min(Math.max(Math.round(digits), 1), 15))));
+}
+
+/** A fixed number of decimals: fixed(2.345, 2) → "2.35" (also for SVG coordinates). */
+export function fixed(value: number | null | undefined, decimals: number): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return '—';
+  return value.toFixed(decimals);
+}
+
+/** A value with its unit at `digits` significant digits: quantity(0.48, 'V') → "0.48 V". */
+export function quantity(value: number | null | undefined, unit: string, digits = 3): string {
+  const text = sig(value, digits);
+  return text === '—' ? text : `${text} ${unit}`.trim();
+}
+
+/** A fraction as a percentage: percent(0.256) → "26 %", percent(0.256, 1) → "25.6 %". */
+export function percent(fraction: number | null | undefined, decimals = 0): string {
+  if (fraction === null || fraction === undefined || !Number.isFinite(fraction)) return '—';
+  return `${(fraction * 100).toFixed(decimals)} %`;
+}
+
+/** A unit price: four decimals below 1, two above ("0.0420 EUR", "1.35 EUR"). */
+export function price(amount: number | null | undefined, currency: string): string {
+  if (amount === null || amount === undefined || !Number.isFinite(amount)) return '—';
+  return `${amount < 1 ? amount.toFixed(4) : amount.toFixed(2)} ${currency}`;
+}
+
+/** A file size: "2.4 MB", "18 KB". */
+export function bytes(count: number): string {
+  return count >= 1024 * 1024 ? `${(count / 1024 / 1024).toFixed(1)} MB` : `${Math.max(1, Math.round(count / 1024))} kB`;
+}
+
+/** Removes floating-point noise from a value converted between units (for inputs): 0.1 × 3 → 0.3. */
+export function tidy(value: number): number {
+  return Number(value.toPrecision(12));
+}

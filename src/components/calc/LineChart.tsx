@@ -1,3 +1,4 @@
+import { fixed } from '../../lib/units.ts';
 import { linearScale, niceTicks, tickLabel } from '../../lib/chart.ts';
 
 export interface ChartSeries {
@@ -87,7 +88,7 @@ export default function LineChart({ title, xLabel, yLabel, series, markers = [],
             stroke={STROKE[s.tone]}
             strokeWidth="1.8"
             strokeDasharray={s.dashed ? '5 4' : undefined}
-            points={s.points.map((p) => `${x(p.x).toFixed(1)},${y(p.y).toFixed(1)}`).join(' ')}
+            points={s.points.map((p) => `${fixed(x(p.x), 1)},${fixed(y(p.y), 1)}`).join(' ')}
           />
         ))}
         {markers.map((m) => (

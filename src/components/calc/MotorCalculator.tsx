@@ -1,7 +1,7 @@
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { postJson, type ApiIssue } from '../api-client.ts';
 import type { CalcMotorResponse } from '../../lib/calc.ts';
-import { torqueFromNm, type TorqueUnit } from '../../lib/units.ts';
+import { fixed, percent, torqueFromNm, type TorqueUnit } from '../../lib/units.ts';
 import NumberField from './NumberField.tsx';
 import LineChart, { type ChartMarker, type ChartSeries } from './LineChart.tsx';
 import MotorSummary from './MotorSummary.tsx';
@@ -91,21 +91,21 @@ export default function MotorCalculator() {
       y: r.atSupply.maxPower.powerW,
       shape: 'circle',
       tone,
-      label: `max power ${r.atSupply.maxPower.powerW.toFixed(2)} W @ ${r.atSupply.supplyV} V`,
+      label: `max power ${fixed(r.atSupply.maxPower.powerW, 2)} W @ ${r.atSupply.supplyV} V`,
     });
     const me = (r: CalcMotorResponse, tone: ChartMarker['tone']): ChartMarker => ({
       x: t(r.atSupply.maxEfficiency.torqueNm),
       y: r.atSupply.maxEfficiency.efficiency * 100,
       shape: 'diamond',
       tone,
-      label: `max efficiency ${(r.atSupply.maxEfficiency.efficiency * 100).toFixed(1)} % @ ${r.atSupply.supplyV} V`,
+      label: `max efficiency ${percent(r.atSupply.maxEfficiency.efficiency, 1)} @ ${r.atSupply.supplyV} V`,
     });
     const stall = (r: CalcMotorResponse, tone: ChartMarker['tone']): ChartMarker => ({
       x: t(r.atSupply.stallTorqueNm),
       y: r.atSupply.stallCurrentA,
       shape: 'square',
       tone,
-      label: `stall ${r.atSupply.stallCurrentA.toFixed(2)} A @ ${r.atSupply.supplyV} V`,
+      label: `stall ${fixed(r.atSupply.stallCurrentA, 2)} A @ ${r.atSupply.supplyV} V`,
     });
     return [
       <LineChart

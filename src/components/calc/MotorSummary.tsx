@@ -1,5 +1,5 @@
 import type { CalcMotorResponse } from '../../lib/calc.ts';
-import { formatSi, torqueFromNm, type TorqueUnit } from '../../lib/units.ts';
+import { formatSi, sig, torqueFromNm, type TorqueUnit } from '../../lib/units.ts';
 
 interface Props {
   min: CalcMotorResponse;
@@ -7,7 +7,7 @@ interface Props {
   torqueUnit: TorqueUnit;
 }
 
-const f = (v: number, d = 3) => Number(v.toPrecision(d)).toString();
+const f = (v: number, d = 3) => sig(v, d);
 
 /** Model constants, the consistency verdict and the key points at both supply ends. */
 export default function MotorSummary({ min, max, torqueUnit }: Props) {

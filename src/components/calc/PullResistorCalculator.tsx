@@ -2,7 +2,7 @@ import { useEffect, useRef, useState } from 'react';
 import { postJson } from '../api-client.ts';
 import type { PullResistorResult } from '../../lib/pull-resistor.ts';
 import NumberField from './NumberField.tsx';
-import { formatOhms } from '../../lib/units.ts';
+import { fixed, formatOhms } from '../../lib/units.ts';
 
 interface Form {
   internalPull: 'up' | 'down' | 'none';
@@ -212,9 +212,9 @@ export default function PullResistorCalculator() {
             <dt className="text-ink-soft">Smallest value the pin can drive</dt>
             <dd>{fmtOhm(result.minOhms)}</dd>
             <dt className="text-ink-soft">Node voltage at reset</dt>
-            <dd>{result.nodeV === null ? '—' : `${result.nodeV.toFixed(3)} V`}</dd>
+            <dd>{result.nodeV === null ? '—' : `${fixed(result.nodeV, 3)} V`}</dd>
             <dt className="text-ink-soft">Pin current when driving against it</dt>
-            <dd>{result.activeCurrentA === null ? '—' : `${(result.activeCurrentA * 1000).toFixed(2)} mA`}</dd>
+            <dd>{result.activeCurrentA === null ? '—' : `${fixed(result.activeCurrentA * 1000, 2)} mA`}</dd>
           </dl>
           {result.notes.length ? (
             <ul className="mt-2 list-disc pl-5">

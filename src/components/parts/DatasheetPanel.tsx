@@ -1,5 +1,6 @@
 /** Datasheets of a part: download links for everyone; librarians drop a PDF (with upload progress) or remove one. */
 import { useCallback, useState } from 'react';
+import { bytes } from '../../lib/units.ts';
 import { useDropzone } from 'react-dropzone';
 import type { DatasheetView } from '../../lib/schemas/parts.ts';
 import { sendJson } from './api.ts';
@@ -17,7 +18,7 @@ type Upload =
   | { state: 'error'; message: string };
 
 const MAX_BYTES = 20 * 1024 * 1024;
-const size = (b: number): string => (b >= 1024 * 1024 ? `${(b / 1024 / 1024).toFixed(1)} MB` : `${Math.max(1, Math.round(b / 1024))} kB`);
+const size = (b: number): string => bytes(b);
 
 /** A datasheet record, or the error shape. */
 type UploadAnswer = (Partial<DatasheetView> & { error?: string; issues?: { path: string; message: string }[] }) | null;

@@ -1,14 +1,10 @@
 /** A librarian moves a part between active, NRND, last-buy and obsolete, with the date it takes effect and a note. */
 import { useState } from 'react';
+import { LIFECYCLE_OPTIONS } from '../../lib/labels.ts';
 import type { Lifecycle } from '../../lib/domain/parts.ts';
 import { sendJson, type ApiIssue } from './api.ts';
 
-const OPTIONS: { value: Lifecycle; label: string }[] = [
-  { value: 'active', label: 'Active' },
-  { value: 'nrnd', label: 'Not recommended for new designs (NRND)' },
-  { value: 'last-buy', label: 'Last-time buy' },
-  { value: 'obsolete', label: 'Obsolete' },
-];
+const OPTIONS = LIFECYCLE_OPTIONS;
 
 export default function LifecyclePanel({ partId, version, current }: { partId: number; version: number; current: Lifecycle }) {
   const [lifecycle, setLifecycle] = useState<Lifecycle>(current);

@@ -2,6 +2,7 @@
  * Create or edit a part. The same zod schema as the endpoint checks the form before it is sent, and the
  * server's issues land on the same fields. A stale edit (409) says so and offers a reload.
  */
+import { LIFECYCLE_OPTIONS } from '../../lib/labels.ts';
 import { useMemo, useState } from 'react';
 import type { Part, PartCategory } from '../../lib/domain/parts.ts';
 import { partInputSchema, partUpdateSchema } from '../../lib/schemas/parts.ts';
@@ -298,10 +299,11 @@ export default function PartForm({ part, initialCategory, isCurator }: Props) {
             <label className="field">
               Lifecycle
               <select name="lifecycle" value={head.lifecycle} onChange={(e) => setHead({ ...head, lifecycle: e.target.value })}>
-                <option value="active">Active</option>
-                <option value="nrnd">NRND</option>
-                <option value="last-buy">Last buy</option>
-                <option value="obsolete">Obsolete</option>
+                {LIFECYCLE_OPTIONS.map((o) => (
+                  <option key={o.value} value={o.value}>
+                    {o.label}
+                  </option>
+                ))}
               </select>
             </label>
             {headInput('lifecycleEffectiveDate', 'Lifecycle effective from', { optional: true, type: 'date' })}

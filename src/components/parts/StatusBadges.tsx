@@ -1,18 +1,20 @@
 /** Review and lifecycle states as words with icons (never colour alone). */
 import type { Lifecycle, ReviewStatus } from '../../lib/domain/parts.ts';
+import { LIFECYCLE_LABELS, REVIEW_LABELS } from '../../lib/labels.ts';
 
-const REVIEW: Record<ReviewStatus, { icon: string; text: string; cls: string }> = {
-  approved: { icon: '✓', text: 'Approved', cls: 'border-ok text-ok' },
-  pending: { icon: '…', text: 'Pending review', cls: 'border-copper text-copper-deep' },
-  draft: { icon: '✎', text: 'Draft', cls: '' },
-  rejected: { icon: '✕', text: 'Rejected', cls: 'border-bad text-bad' },
+const REVIEW_CLASS: Record<ReviewStatus, string> = {
+  approved: 'border-ok text-ok',
+  pending: 'border-copper text-copper-deep',
+  draft: '',
+  rejected: 'border-bad text-bad',
 };
-const LIFE: Record<Lifecycle, { icon: string; text: string }> = {
-  active: { icon: '●', text: 'Active' },
-  nrnd: { icon: '◒', text: 'NRND' },
-  'last-buy': { icon: '◔', text: 'Last buy' },
-  obsolete: { icon: '○', text: 'Obsolete' },
-};
+const REVIEW = Object.fromEntries(
+  Object.entries(REVIEW_LABELS).map(([k, l]) => [k, { icon: l.icon, text: l.short, cls: REVIEW_CLASS[k as ReviewStatus] }]),
+) as Record<ReviewStatus, { icon: string; text: string; cls: string }>;
+const LIFE = Object.fromEntries(Object.entries(LIFECYCLE_LABELS).map(([k, l]) => [k, { icon: l.icon, text: l.short }])) as Record<
+  Lifecycle,
+  { icon: string; text: string }
+>;
 
 export function StatusBadges({ review, lifecycle }: { review?: ReviewStatus; lifecycle?: Lifecycle }) {
   return (

@@ -1,4 +1,5 @@
 /** Fields of the part form per category: key in the schema, label, display unit and scale to SI. */
+import { tidy } from '../../lib/units.ts';
 import type { PartCategory } from '../../lib/domain/parts.ts';
 
 export interface FormField {
@@ -154,11 +155,11 @@ export function parseTyped(field: FormField, typed: string): number | null | und
   const t = typed.trim().replace(',', '.');
   if (t === '') return field.optional ? null : undefined;
   const n = Number(t);
-  return Number.isFinite(n) ? Number((n * (field.scale ?? 1)).toPrecision(12)) : Number.NaN;
+  return Number.isFinite(n) ? tidy(n * (field.scale ?? 1)) : Number.NaN;
 }
 
 export function showTyped(field: FormField, value: unknown): string {
   if (value === null || value === undefined) return '';
-  if (typeof value === 'number') return String(Number((value / (field.scale ?? 1)).toPrecision(12)));
+  if (typeof value === 'number') return String(tidy(value / (field.scale ?? 1)));
   return String(value);
 }

@@ -1,4 +1,5 @@
 /** Every parameter of a part as label, value, unit and the test condition it was stated at. */
+import { sig } from '../../lib/units.ts';
 import type { Part, ZthPoint } from '../../lib/domain/parts.ts';
 import { openInputOutput } from '../../lib/driver-input.ts';
 
@@ -9,8 +10,7 @@ export interface ParameterRow {
   condition: string;
 }
 
-const v = (x: number | null | undefined, digits = 4): string =>
-  x === null || x === undefined ? '—' : String(Number(x.toPrecision(digits)));
+const v = (x: number | null | undefined, digits = 4): string => sig(x, digits);
 const row = (label: string, value: string, unit = '', condition = ''): ParameterRow => ({ label, value, unit, condition });
 
 /** A pulse length as datasheet curves label it: ms below a second, s above. */

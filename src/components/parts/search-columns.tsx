@@ -1,5 +1,7 @@
 /** Table columns of the search page per category: label, unit, how a cell reads, and the API sort key. */
-import type { Part, PartCategory } from '../../lib/domain/parts.ts';
+import { sig, price } from '../../lib/units.ts';
+import type { Lifecycle, Part, PartCategory } from '../../lib/domain/parts.ts';
+import { LIFECYCLE_LABELS } from '../../lib/labels.ts';
 import { bestUnitPrice, CATEGORY_LABELS } from '../../lib/part-summary.ts';
 import { openInputOutput } from '../../lib/driver-input.ts';
 
@@ -14,9 +16,7 @@ export interface SearchColumn {
   cell: (part: Part) => string;
 }
 
-const sig = (v: number | null | undefined, digits = 3): string =>
-  v === null || v === undefined ? '—' : String(Number(v.toPrecision(digits)));
-const LIFE: Record<string, string> = { active: 'Active', nrnd: 'NRND', 'last-buy': 'Last buy', obsolete: 'Obsolete' };
+const LIFE = (l: Lifecycle): string => LIFECYCLE_LABELS[l].short;
 
 const COMMON_HEAD: SearchColumn[] = [
   { id: 'manufacturer', label: 'Maker', sortKey: 'manufacturer', defaultVisible: true, cell: (p) => p.manufacturer },
@@ -31,11 +31,11 @@ const COMMON_TAIL: SearchColumn[] = [
     defaultVisible: true,
     cell: (p) => {
       const best = bestUnitPrice(p, 1000);
-      return best ? `${best.price.toFixed(3)} ${best.currency}` : '—';
+      return best ? price(best.price, best.currency) : '—';
     },
   },
   { id: 'stock', label: 'Stock', unit: 'pcs', numeric: true, cell: (p) => String(p.sources.reduce((s, x) => s + x.stockQty, 0)) },
-  { id: 'lifecycle', label: 'Lifecycle', sortKey: 'lifecycle', defaultVisible: true, cell: (p) => LIFE[p.lifecycle] },
+  { id: 'lifecycle', label: 'Lifecycle', sortKey: 'lifecycle', defaultVisible: true, cell: (p) => LIFE(p.lifecycle) },
   { id: 'description', label: 'Description', cell: (p) => p.description },
 ];
 

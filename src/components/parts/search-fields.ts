@@ -2,7 +2,10 @@
  * The search page's filter fields: what a person types (in display units) and the API key it becomes
  * (SI, unit in the name). The URL carries the API keys, so a shared link is also a valid API query.
  */
+import { tidy } from '../../lib/units.ts';
 import type { PartCategory } from '../../lib/domain/parts.ts';
+import { LIFECYCLE_LABELS } from '../../lib/labels.ts';
+import { LIFECYCLES } from '../../lib/domain/parts.ts';
 
 export interface NumberField {
   type: 'number';
@@ -93,12 +96,7 @@ export const STATUS_FIELDS: ChoiceField[] = [
     type: 'choice',
     key: 'lifecycle',
     label: 'Lifecycle',
-    options: [
-      { value: 'active', label: 'Active' },
-      { value: 'nrnd', label: 'NRND' },
-      { value: 'last-buy', label: 'Last buy' },
-      { value: 'obsolete', label: 'Obsolete' },
-    ],
+    options: LIFECYCLES.map((value) => ({ value, label: LIFECYCLE_LABELS[value].short })),
   },
   {
     type: 'choice',
@@ -117,7 +115,7 @@ export const STATUS_FIELDS: ChoiceField[] = [
 export function toDisplay(field: NumberField, apiValue: string | null): string {
   if (apiValue === null || apiValue === '') return '';
   const v = Number(apiValue);
-  return Number.isFinite(v) ? String(Number((v / field.scale).toPrecision(12))) : apiValue;
+  return Number.isFinite(v) ? String(tidy(v / field.scale)) : apiValue;
 }
 
 /** What the person typed → API value for the URL ('' clears the filter). */
@@ -125,5 +123,5 @@ export function toApi(field: NumberField, typed: string): string {
   const t = typed.trim().replace(',', '.');
   if (t === '') return '';
   const v = Number(t);
-  return Number.isFinite(v) ? String(Number((v * field.scale).toPrecision(12))) : t;
+  return Number.isFinite(v) ? String(tidy(v * field.scale)) : t;
 }

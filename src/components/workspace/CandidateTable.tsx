@@ -1,4 +1,6 @@
+import type { Lifecycle } from '../../lib/domain/parts.ts';
 import { Fragment, useState } from 'react';
+import { LIFECYCLE_LABELS } from '../../lib/labels.ts';
 import type { MatchEntry } from '../../lib/design-match.ts';
 import type { CandidateResult } from '../../lib/ranking.ts';
 import type { RoleSelection } from '../../lib/domain/design.ts';
@@ -22,7 +24,7 @@ interface Props<T extends MatchEntry> {
 
 const fmt = (v: number | null, unit: string): string => (v == null ? '—' : `${Number(v.toPrecision(3))} ${unit}`.trim());
 const margin = (m: number | null): string => (m == null ? '' : `${(m * 100).toFixed(0)} %`);
-const LIFE: Record<string, string> = { active: 'Active', nrnd: 'NRND', 'last-buy': 'Last buy', obsolete: 'Obsolete' };
+const LIFE = (l: Lifecycle): string => LIFECYCLE_LABELS[l].short;
 
 /** Marks a part in another package than the chosen one (words and icon). */
 export function FootprintChange() {
@@ -140,7 +142,7 @@ export default function CandidateTable<T extends MatchEntry>({ role, caption, en
                   <td className="num whitespace-nowrap">
                     {e.priceAtQty ? `${e.priceAtQty.unitPrice.toFixed(3)} ${e.priceAtQty.currency}` : '—'}
                   </td>
-                  <td>{LIFE[e.lifecycle]}</td>
+                  <td>{LIFE(e.lifecycle)}</td>
                   {!readOnly && (
                     <td>
                       <input

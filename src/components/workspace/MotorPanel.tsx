@@ -1,3 +1,4 @@
+import { sig } from '../../lib/units.ts';
 import { Fragment } from 'react';
 import LineChart, { type ChartMarker } from '../calc/LineChart.tsx';
 import type { MotorView } from '../../lib/design-match.ts';
@@ -49,7 +50,7 @@ function RippleAndStall({ motor, worstCase }: { motor: MotorView; worstCase: Wor
   );
 }
 
-const f = (v: number, d = 3) => Number(v.toPrecision(d)).toString();
+const f = (v: number, d = 3) => sig(v, d);
 
 /** Motor curves at minimum and maximum supply with the operating point and stall marked, and worst-case currents. */
 export default function MotorPanel({ motor, worstCase }: { motor: MotorView; worstCase: WorstCase }) {

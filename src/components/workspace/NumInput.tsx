@@ -1,3 +1,4 @@
+import { sig } from '../../lib/units.ts';
 import { useEffect, useId, useState } from 'react';
 
 interface Props {
@@ -14,7 +15,7 @@ interface Props {
   onEmpty?: () => void;
 }
 
-const show = (v: number | null, scale: number): string => (v == null ? '' : String(Number((v * scale).toPrecision(6))));
+const show = (v: number | null, scale: number): string => (v == null ? '' : sig(v * scale, 6));
 
 /** A numeric field that keeps what the person types and reports the number once it parses. */
 export default function NumInput({ label, value, onValue, unit, scale = 1, error, hint, testId, onEmpty }: Props) {

@@ -2,7 +2,7 @@ import type { PowerOnResult } from '../../lib/power-on.ts';
 import type { DesignInput } from '../../lib/domain/design.ts';
 import { motorStateText } from '../../lib/design-words.ts';
 import { motorStateAtReset } from '../../lib/readiness.ts';
-import { formatOhms } from '../../lib/units.ts';
+import { fixed, formatOhms } from '../../lib/units.ts';
 
 const STAGE: Record<string, string> = {
   pin: 'Controller pin',
@@ -60,7 +60,7 @@ export default function PowerOnPanel({
               {s.minV != null ? (
                 <span className="font-normal text-ink-soft">
                   {' '}
-                  · {s.minV === s.maxV ? `${s.minV.toFixed(2)} V` : `${s.minV.toFixed(2)}–${(s.maxV ?? s.minV).toFixed(2)} V`}
+                  · {s.minV === s.maxV ? `${fixed(s.minV, 2)} V` : `${fixed(s.minV, 2)}–${fixed(s.maxV ?? s.minV, 2)} V`}
                 </span>
               ) : null}
             </div>
@@ -82,8 +82,8 @@ export default function PowerOnPanel({
           <strong>
             {formatOhms(pull.chosenOhms)} pull-{pull.to}
           </strong>
-          {pull.nodeV != null ? <> (node {pull.nodeV.toFixed(2)} V at reset</> : null}
-          {pull.activeCurrentA != null ? <>, pin current {(pull.activeCurrentA * 1000).toFixed(2)} mA when driving)</> : ')'}.
+          {pull.nodeV != null ? <> (node {fixed(pull.nodeV, 2)} V at reset</> : null}
+          {pull.activeCurrentA != null ? <>, pin current {fixed(pull.activeCurrentA * 1000, 2)} mA when driving)</> : ')'}.
         </p>
       ) : null}
       <ResetState powerOn={powerOn} intent={resetStartIntent} />

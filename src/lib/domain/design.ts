@@ -2,6 +2,7 @@
  * A drive design as the designer enters it (camelCase, units in names). Stored as one JSON document per
  * revision; src/lib/design-input.ts turns it into the engineering core's DesignCase.
  */
+import { sig } from '../units.ts';
 import type { z } from 'zod';
 import type { designInputSchema } from '../schemas/design.ts';
 
@@ -91,7 +92,7 @@ export const CELL_INTERNAL_RESISTANCE_OHM = { alkaline: 0.2, nimh: 0.03, liion: 
 
 const CELLS = 'nominal cell voltages [practice]';
 const rCells = (kind: keyof typeof CELL_INTERNAL_RESISTANCE_OHM, cells: number): number =>
-  Number((CELL_INTERNAL_RESISTANCE_OHM[kind] * cells).toPrecision(3));
+  Number(sig(CELL_INTERNAL_RESISTANCE_OHM[kind] * cells, 3));
 const memCell = (kind: string, perCell: string, cells: number): string =>
   `[mem] ${kind} ~${perCell} Ω per cell × ${cells}; use the pack's own data when you have it`;
 const NO_LIMIT = "no current limit; the cells' own limits apply";

@@ -5,7 +5,7 @@
 import type { Color } from 'pdf-lib';
 import { linearScale, niceTicks, tickLabel, type Scale } from '../../lib/chart.ts';
 import type { MotorView } from '../../lib/design-match.ts';
-import { torqueFromNm } from '../../lib/units.ts';
+import { fixed, torqueFromNm } from '../../lib/units.ts';
 import { COPPER, HAIRLINE, INK, MUTED, type ReportLayout } from './report-layout.ts';
 import { sig } from './report-format.ts';
 
@@ -41,7 +41,7 @@ const DASHED = [4, 2.5];
 
 function svgPolyline(points: Point[], sx: Scale, sy: Scale): string {
   // drawSvgPath flips the y axis about its origin; drawing at origin (0, 0) makes SVG y = −PDF y.
-  return points.map((p, i) => `${i === 0 ? 'M' : 'L'} ${sx(p.x).toFixed(2)} ${(-sy(p.y)).toFixed(2)}`).join(' ');
+  return points.map((p, i) => `${i === 0 ? 'M' : 'L'} ${fixed(sx(p.x), 2)} ${fixed(-sy(p.y), 2)}`).join(' ');
 }
 
 function drawAxes(layout: ReportLayout, sx: Scale, sy: Scale, ticks: { x: number[]; y: number[] }): void {

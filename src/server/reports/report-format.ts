@@ -1,26 +1,17 @@
 /** Text formatting for the design report: values with units, margins, verdicts, prices. */
 import type { Check, Verdict } from '../../lib/checks.ts';
 import type { PriceAtQty } from '../../lib/design-match.ts';
-import { formatSi } from '../../lib/units.ts';
+import { formatSi, percent, price as formatPrice, sig } from '../../lib/units.ts';
+
+export { percent, sig };
 
 /** Units that take SI prefixes (µs, mA, kΩ); the rest print as plain numbers with their unit. */
 const PREFIXED_UNITS = new Set(['V', 'A', 's', 'W', 'Ω', 'Hz', 'J', 'H', 'N·m']);
-
-/** Three significant digits, no exponent for everyday magnitudes. */
-export function sig(value: number, digits = 3): string {
-  if (!Number.isFinite(value)) return '—';
-  return String(Number(value.toPrecision(digits)));
-}
 
 export function quantity(value: number | null, unit: string, digits = 3): string {
   if (value == null || !Number.isFinite(value)) return '—';
   if (PREFIXED_UNITS.has(unit) && value !== 0) return formatSi(value, unit, digits);
   return unit ? `${sig(value, digits)} ${unit}` : sig(value, digits);
-}
-
-export function percent(fraction: number | null, digits = 0): string {
-  if (fraction == null || !Number.isFinite(fraction)) return '—';
-  return `${(fraction * 100).toFixed(digits)} %`;
 }
 
 export function range(min: number, max: number, unit: string): string {
@@ -30,7 +21,7 @@ export function range(min: number, max: number, unit: string): string {
 /** Unit price at the build quantity; `short` gives "EUR 0.3620 @ 25" for table cells. */
 export function money(price: PriceAtQty | null, short = false): string {
   if (price == null) return 'no price';
-  const amount = price.unitPrice < 1 ? price.unitPrice.toFixed(4) : price.unitPrice.toFixed(2);
+  const amount = formatPrice(price.unitPrice, '').trim();
   return short ? `${price.currency} ${amount} @ ${price.qty}` : `${price.currency} ${amount} each at ${price.qty}`;
 }
 

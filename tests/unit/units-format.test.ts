@@ -1,0 +1,60 @@
+/**
+ * The number formatter family of src/lib/units.ts, by a hand-written table. Prefixes per the SI Brochure
+ * (9th ed., table 7: n, µ, m, k, M); percentages and prices as people write them (common practice).
+ */
+import { describe, expect, it } from 'vitest';
+import { bytes, fixed, formatSi, percent, price, quantity, sig, tidy } from '../../src/lib/units.ts';
+
+describe('sig', () => {
+  it.each([
+    [0.0012345, 3, '0.00123'],
+    [1500, 3, '1500'],
+    [1234.5, 2, '1200'],
+    [2.5, 3, '2.5'],
+    [-0.04567, 2, '-0.046'],
+    [0, 3, '0'],
+    [null, 3, '—'],
+    [undefined, 3, '—'],
+    [Number.NaN, 3, '—'],
+    [Number.POSITIVE_INFINITY, 3, '—'],
+  ] as const)('sig(%s, %i) = %s', (v, d, out) => expect(sig(v, d)).toBe(out));
+});
+
+describe('fixed, quantity, percent, price, bytes, tidy', () => {
+  it.each([
+    [fixed(2.345, 1), '2.3'],
+    [fixed(0.5, 2), '0.50'],
+    [fixed(null, 2), '—'],
+    [quantity(0.48, 'V'), '0.48 V'],
+    [quantity(6.15, 'mN·m'), '6.15 mN·m'],
+    [quantity(0.3364, 'F'), '0.336 F'],
+    [quantity(null, 'A'), '—'],
+    [percent(0.256), '26 %'],
+    [percent(0.256, 1), '25.6 %'],
+    [percent(Number.NaN), '—'],
+    [price(0.042, 'EUR'), '0.0420 EUR'],
+    [price(1.346, 'USD'), '1.35 USD'],
+    [price(null, 'EUR'), '—'],
+    [bytes(2.4 * 1024 * 1024), '2.4 MB'],
+    [bytes(18 * 1024), '18 kB'],
+    [bytes(10), '1 kB'],
+  ])('%s', (got, want) => expect(got).toBe(want));
+
+  it('tidy removes floating-point noise of a unit conversion', () => {
+    expect(0.1 * 3).not.toBe(0.3);
+    expect(tidy(0.1 * 3)).toBe(0.3);
+    expect(tidy(4.7 * 1000)).toBe(4700);
+  });
+});
+
+describe('formatSi prefixes', () => {
+  it.each([
+    [1.54e-8, 's', '15.4 ns'],
+    [1.11e-6, 's', '1.11 µs'],
+    [0.0033953, 'N·m', '3.40 mN·m'],
+    [0.048, 'Ω', '48.0 mΩ'],
+    [6800, 'Ω', '6.80 kΩ'],
+    [2_000_000, 'Hz', '2.00 MHz'],
+    [999.96, 'V', '1.00 kV'],
+  ] as const)('%s %s → %s', (v, unit, out) => expect(formatSi(v, unit)).toBe(out));
+});
