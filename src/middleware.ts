@@ -31,6 +31,8 @@ async function guarded(context: APIContext, next: () => Promise<Response>): Prom
     // The database is down: public routes (health check, calculators) still answer, the rest say so.
     if (accessFor(context.routePattern, context.request.method) !== 'public') return unavailable(context);
   }
+  // No route matched: Astro renders the 404 page, but an API address answers in the API's own shape.
+  if (context.routePattern === '/404' && context.url.pathname.startsWith('/api/')) return jsonError(404, 'No API route at this address.');
   const decision = decide(context.routePattern, context.request.method, context.locals.user);
   if (decision !== 'allow') return refuse(context, decision);
   try {

@@ -72,6 +72,7 @@ const IDENTITIES: (Role | 'anonymous')[] = ['anonymous', 'designer', 'librarian'
 const MATRIX: Record<string, string> = {
   // Pages
   'GET /': 'saaaa',
+  'GET /404': 'aaaaa',
   'GET /account': 'saaaa',
   'GET /account/no-access': 'saaaa',
   'GET /calculators': 'aaaaa',
@@ -219,6 +220,17 @@ describe('deny by default', () => {
     expect(decide('/api/things/[id]', 'PUT', asUser('librarian'), rules)).toBe('allow');
     expect(decide('/api/things/[id]', 'DELETE', asUser('admin'), rules)).toBe('allow');
     expect(decide('/api/things/[id]', 'POST', asUser('admin'), rules)).toBe('method-not-allowed');
+  });
+
+  it('answers an unknown page with the HTML not-found page, and an unknown API address with JSON', async () => {
+    const page = await request(appUrl()).get('/no/such/page').redirects(0);
+    expect(page.status).toBe(404);
+    expect(page.headers['content-type']).toMatch(/text\/html/);
+    expect(page.text).toContain('data-testid="not-found"');
+    const api = await request(appUrl()).get('/api/no/such/route').redirects(0);
+    expect(api.status).toBe(404);
+    expect(api.headers['content-type']).toMatch(/application\/json/);
+    expect(api.body).toEqual({ error: expect.any(String), issues: [] });
   });
 
   it('answers an unknown method with 405 and the allowed ones', async () => {
