@@ -65,11 +65,20 @@ export async function createListener(distDir: string): Promise<http.RequestListe
       createReadStream(file).pipe(res);
       return;
     }
-    handler(req, res, (err) => {
+    const answerJson = (err: unknown): void => {
       if (!res.headersSent) {
         res.writeHead(err ? 500 : 404, { 'Content-Type': 'application/json', ...SECURITY_HEADERS });
       }
-      res.end(JSON.stringify({ error: err ? 'Something went wrong on the server.' : 'Not found.' }));
+      res.end(JSON.stringify({ error: err ? 'Something went wrong on the server.' : 'Not found.', issues: [] }));
+    };
+    handler(req, res, (err) => {
+      // No route matched: pages get the not-found page (rendered by Astro with status 404), the API JSON.
+      if (err || urlPath.startsWith('/api/') || urlPath === '/404' || res.headersSent || (req.method !== 'GET' && req.method !== 'HEAD')) {
+        answerJson(err);
+        return;
+      }
+      req.url = '/404';
+      handler(req, res, answerJson);
     });
   };
 }
