@@ -151,3 +151,21 @@ describe('admin invites someone', () => {
     await knex('users').where({ email: invitee }).delete();
   });
 });
+
+describe('the page an anonymous visitor lands on', () => {
+  it('says what Stallpoint does for each role, links the open calculators, and signs in', async () => {
+    const { page, errors } = await watchedPage();
+    await page.goto(appUrl() + '/');
+    await page.waitForURL(/\/signin/);
+    const landing = page.getByTestId('landing');
+    for (const role of ['Designers', 'Librarians', 'Buyers'])
+      await expect(landing.getByRole('heading', { name: role }).count()).resolves.toBe(1);
+    await page
+      .getByRole('link', { name: /calculators/ })
+      .first()
+      .click();
+    await page.waitForURL(appUrl() + '/calculators');
+    await page.screenshot({ path: screenshotPath('landing-calculators') });
+    expect(errors).toEqual([]);
+  });
+});
