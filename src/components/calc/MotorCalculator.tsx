@@ -2,7 +2,7 @@ import { useEffect, useMemo, useRef, useState } from 'react';
 import { postJson, type ApiIssue } from '../api-client.ts';
 import type { CalcMotorResponse } from '../../lib/calc.ts';
 import { fixed, percent, torqueFromNm, type TorqueUnit } from '../../lib/units.ts';
-import NumberField from './NumberField.tsx';
+import NumberField, { FieldPrefix } from './NumberField.tsx';
 import LineChart, { type ChartMarker, type ChartSeries } from './LineChart.tsx';
 import MotorSummary from './MotorSummary.tsx';
 import {
@@ -147,83 +147,85 @@ export default function MotorCalculator() {
   }, [results, unit]);
 
   return (
-    <section aria-labelledby="motor-calc-title" className="mb-8" data-testid="motor-calculator">
-      <h2 id="motor-calc-title" className="text-xl mb-2">
-        Motor from datasheet points
-      </h2>
-      <form className="card p-3 grid gap-3 grid-cols-2 md:grid-cols-4 lg:grid-cols-6" onSubmit={(e) => e.preventDefault()} noValidate>
-        <NumberField name="ratedV" label="Rated voltage" unit="V" value={form.ratedV} onChange={set('ratedV')} error={errors.ratedV} />
-        <NumberField
-          name="noLoadSpeed"
-          label="No-load speed"
-          value={form.noLoadSpeed}
-          onChange={set('noLoadSpeed')}
-          error={errors.noLoadSpeed}
-          units={SPEED_UNITS}
-          unit={form.speedUnit}
-          onUnitChange={set('speedUnit')}
-        />
-        <NumberField
-          name="noLoadCurrent"
-          label="No-load current"
-          value={form.noLoadCurrent}
-          onChange={set('noLoadCurrent')}
-          error={errors.noLoadCurrent}
-          units={CURRENT_UNITS}
-          unit={form.currentUnit}
-          onUnitChange={set('currentUnit')}
-        />
-        <NumberField
-          name="stallCurrent"
-          label="Stall current"
-          value={form.stallCurrent}
-          onChange={set('stallCurrent')}
-          error={errors.stallCurrent}
-          unit={form.currentUnit}
-        />
-        <NumberField
-          name="stallTorque"
-          label="Stall torque"
-          value={form.stallTorque}
-          onChange={set('stallTorque')}
-          error={errors.stallTorque}
-          units={TORQUE_UNITS}
-          unit={form.torqueUnit}
-          onUnitChange={set('torqueUnit')}
-        />
-        <NumberField
-          name="seriesOhm"
-          label="Series resistance"
-          unit="Ω"
-          value={form.seriesOhm}
-          onChange={set('seriesOhm')}
-          error={errors.seriesOhm}
-          hint="switch, wiring, shunt"
-        />
-        <NumberField
-          name="supplyMinV"
-          label="Supply minimum"
-          unit="V"
-          value={form.supplyMinV}
-          onChange={set('supplyMinV')}
-          error={errors.supplyMinV}
-          hint="sagged battery"
-        />
-        <NumberField
-          name="supplyMaxV"
-          label="Supply maximum"
-          unit="V"
-          value={form.supplyMaxV}
-          onChange={set('supplyMaxV')}
-          error={errors.supplyMaxV}
-          hint="fresh battery, charger"
-        />
-        <p className="col-span-2 md:col-span-4 self-end text-sm text-ink-soft" aria-live="polite" data-testid="motor-status">
-          {status === 'loading' ? '… computing' : status === 'error' ? `⚠ ${message}` : status === 'ready' ? '✓ up to date' : ''}
-        </p>
-      </form>
-      {results ? <MotorSummary min={results.min} max={results.max} torqueUnit={unit} /> : null}
-      {charts ? <div className="grid gap-3 md:grid-cols-2 mt-3">{charts}</div> : null}
-    </section>
+    <FieldPrefix.Provider value="motor-calc">
+      <section aria-labelledby="motor-calc-title" className="mb-8" data-testid="motor-calculator">
+        <h2 id="motor-calc-title" className="text-xl mb-2">
+          Motor from datasheet points
+        </h2>
+        <form className="card p-3 grid gap-3 grid-cols-2 md:grid-cols-4 lg:grid-cols-6" onSubmit={(e) => e.preventDefault()} noValidate>
+          <NumberField name="ratedV" label="Rated voltage" unit="V" value={form.ratedV} onChange={set('ratedV')} error={errors.ratedV} />
+          <NumberField
+            name="noLoadSpeed"
+            label="No-load speed"
+            value={form.noLoadSpeed}
+            onChange={set('noLoadSpeed')}
+            error={errors.noLoadSpeed}
+            units={SPEED_UNITS}
+            unit={form.speedUnit}
+            onUnitChange={set('speedUnit')}
+          />
+          <NumberField
+            name="noLoadCurrent"
+            label="No-load current"
+            value={form.noLoadCurrent}
+            onChange={set('noLoadCurrent')}
+            error={errors.noLoadCurrent}
+            units={CURRENT_UNITS}
+            unit={form.currentUnit}
+            onUnitChange={set('currentUnit')}
+          />
+          <NumberField
+            name="stallCurrent"
+            label="Stall current"
+            value={form.stallCurrent}
+            onChange={set('stallCurrent')}
+            error={errors.stallCurrent}
+            unit={form.currentUnit}
+          />
+          <NumberField
+            name="stallTorque"
+            label="Stall torque"
+            value={form.stallTorque}
+            onChange={set('stallTorque')}
+            error={errors.stallTorque}
+            units={TORQUE_UNITS}
+            unit={form.torqueUnit}
+            onUnitChange={set('torqueUnit')}
+          />
+          <NumberField
+            name="seriesOhm"
+            label="Series resistance"
+            unit="Ω"
+            value={form.seriesOhm}
+            onChange={set('seriesOhm')}
+            error={errors.seriesOhm}
+            hint="switch, wiring, shunt"
+          />
+          <NumberField
+            name="supplyMinV"
+            label="Supply minimum"
+            unit="V"
+            value={form.supplyMinV}
+            onChange={set('supplyMinV')}
+            error={errors.supplyMinV}
+            hint="sagged battery"
+          />
+          <NumberField
+            name="supplyMaxV"
+            label="Supply maximum"
+            unit="V"
+            value={form.supplyMaxV}
+            onChange={set('supplyMaxV')}
+            error={errors.supplyMaxV}
+            hint="fresh battery, charger"
+          />
+          <p className="col-span-2 md:col-span-4 self-end text-sm text-ink-soft" aria-live="polite" data-testid="motor-status">
+            {status === 'loading' ? '… computing' : status === 'error' ? `⚠ ${message}` : status === 'ready' ? '✓ up to date' : ''}
+          </p>
+        </form>
+        {results ? <MotorSummary min={results.min} max={results.max} torqueUnit={unit} /> : null}
+        {charts ? <div className="grid gap-3 md:grid-cols-2 mt-3">{charts}</div> : null}
+      </section>
+    </FieldPrefix.Provider>
   );
 }

@@ -1,4 +1,10 @@
-import { useId } from 'react';
+import { createContext, useContext } from 'react';
+
+/**
+ * The id prefix of the form a field sits in. Ids come from prefix + name rather than useId(), whose values
+ * differ between the server render and the hydration of separate islands on one page.
+ */
+export const FieldPrefix = createContext('field');
 
 interface Props {
   label: string;
@@ -14,7 +20,7 @@ interface Props {
 
 /** A labelled numeric input with an optional unit picker and a field-level error. */
 export default function NumberField({ label, value, onChange, error, unit, units, onUnitChange, hint, name }: Props) {
-  const id = useId();
+  const id = `${useContext(FieldPrefix)}-${name}`;
   return (
     <div className="field">
       <label htmlFor={id}>{label}</label>

@@ -1,7 +1,7 @@
 import { useEffect, useRef, useState } from 'react';
 import { postJson } from '../api-client.ts';
 import type { PullResistorResult } from '../../lib/pull-resistor.ts';
-import NumberField from './NumberField.tsx';
+import NumberField, { FieldPrefix } from './NumberField.tsx';
 import { fixed, formatOhms } from '../../lib/units.ts';
 
 interface Form {
@@ -111,121 +111,132 @@ export default function PullResistorCalculator() {
   }, [form]);
 
   return (
-    <section aria-labelledby="pull-title" data-testid="pull-calculator">
-      <h2 id="pull-title" className="text-xl mb-2">
-        Pull resistor for a safe reset state
-      </h2>
-      <form className="card p-3 grid gap-3 grid-cols-2 md:grid-cols-5" onSubmit={(e) => e.preventDefault()} noValidate>
-        <Select
-          label="Pin's internal pull at reset"
-          value={form.internalPull}
-          onChange={set('internalPull')}
-          options={[
-            ['up', 'pull-up'],
-            ['down', 'pull-down'],
-            ['none', 'none (floating)'],
-          ]}
-        />
-        <NumberField
-          name="internalPullKOhm"
-          label="Internal pull (min.)"
-          unit="kΩ"
-          value={form.internalPullKOhm}
-          onChange={set('internalPullKOhm')}
-          error={errors.internalPullKOhm}
-          hint="lowest value over tolerance"
-        />
-        <NumberField name="pinRailV" label="Pin supply" unit="V" value={form.pinRailV} onChange={set('pinRailV')} error={errors.pinRailV} />
-        <NumberField
-          name="pinMaxMa"
-          label="Pin current limit"
-          unit="mA"
-          value={form.pinMaxMa}
-          onChange={set('pinMaxMa')}
-          error={errors.pinMaxMa}
-        />
-        <Select
-          label="E-series"
-          value={form.series}
-          onChange={set('series')}
-          options={[
-            ['E6', 'E6'],
-            ['E12', 'E12'],
-            ['E24', 'E24'],
-            ['E48', 'E48'],
-            ['E96', 'E96'],
-          ]}
-        />
-        <Select
-          label="External resistor to"
-          value={form.externalTo}
-          onChange={set('externalTo')}
-          options={[
-            ['down', 'ground (pull-down)'],
-            ['up', 'a rail (pull-up)'],
-          ]}
-        />
-        <NumberField
-          name="externalRailV"
-          label="External rail"
-          unit="V"
-          value={form.externalRailV}
-          onChange={set('externalRailV')}
-          error={errors.externalRailV}
-        />
-        <Select
-          label="Node must stay"
-          value={form.mustBe}
-          onChange={set('mustBe')}
-          options={[
-            ['low', 'low (≤ limit)'],
-            ['high', 'high (≥ limit)'],
-          ]}
-        />
-        <NumberField
-          name="limitV"
-          label="Limit"
-          unit="V"
-          value={form.limitV}
-          onChange={set('limitV')}
-          error={errors.limitV}
-          hint="VIL max or VIH min of the input"
-        />
-      </form>
-      {message ? (
-        <p role="alert" className="mt-2 text-bad">
-          ⚠ {message}
-        </p>
-      ) : null}
-      {result ? (
-        <div className="card p-3 mt-3 text-sm" data-testid="pull-result">
-          <p className="text-base mb-1">
-            {result.ok ? (
-              <strong className="text-ok">✓ Fit {fmtOhm(result.chosenOhms)}</strong>
-            ) : (
-              <strong className="text-bad">✕ No standard value fits</strong>
-            )}
+    <FieldPrefix.Provider value="pull-calc">
+      <section aria-labelledby="pull-title" data-testid="pull-calculator">
+        <h2 id="pull-title" className="text-xl mb-2">
+          Pull resistor for a safe reset state
+        </h2>
+        <form className="card p-3 grid gap-3 grid-cols-2 md:grid-cols-5" onSubmit={(e) => e.preventDefault()} noValidate>
+          <Select
+            label="Pin's internal pull at reset"
+            value={form.internalPull}
+            onChange={set('internalPull')}
+            options={[
+              ['up', 'pull-up'],
+              ['down', 'pull-down'],
+              ['none', 'none (floating)'],
+            ]}
+          />
+          <NumberField
+            name="internalPullKOhm"
+            label="Internal pull (min.)"
+            unit="kΩ"
+            value={form.internalPullKOhm}
+            onChange={set('internalPullKOhm')}
+            error={errors.internalPullKOhm}
+            hint="lowest value over tolerance"
+          />
+          <NumberField
+            name="pinRailV"
+            label="Pin supply"
+            unit="V"
+            value={form.pinRailV}
+            onChange={set('pinRailV')}
+            error={errors.pinRailV}
+          />
+          <NumberField
+            name="pinMaxMa"
+            label="Pin current limit"
+            unit="mA"
+            value={form.pinMaxMa}
+            onChange={set('pinMaxMa')}
+            error={errors.pinMaxMa}
+          />
+          <Select
+            label="E-series"
+            value={form.series}
+            onChange={set('series')}
+            options={[
+              ['E6', 'E6'],
+              ['E12', 'E12'],
+              ['E24', 'E24'],
+              ['E48', 'E48'],
+              ['E96', 'E96'],
+            ]}
+          />
+          <Select
+            label="External resistor to"
+            value={form.externalTo}
+            onChange={set('externalTo')}
+            options={[
+              ['down', 'ground (pull-down)'],
+              ['up', 'a rail (pull-up)'],
+            ]}
+          />
+          <NumberField
+            name="externalRailV"
+            label="External rail"
+            unit="V"
+            value={form.externalRailV}
+            onChange={set('externalRailV')}
+            error={errors.externalRailV}
+          />
+          <Select
+            label="Node must stay"
+            value={form.mustBe}
+            onChange={set('mustBe')}
+            options={[
+              ['low', 'low (≤ limit)'],
+              ['high', 'high (≥ limit)'],
+            ]}
+          />
+          <NumberField
+            name="limitV"
+            label="Limit"
+            unit="V"
+            value={form.limitV}
+            onChange={set('limitV')}
+            error={errors.limitV}
+            hint="VIL max or VIH min of the input"
+          />
+        </form>
+        {message ? (
+          <p role="alert" className="mt-2 text-bad">
+            ⚠ {message}
           </p>
-          <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-0.5 num">
-            <dt className="text-ink-soft">Largest value that holds the node</dt>
-            <dd>{fmtOhm(result.maxOhms)}</dd>
-            <dt className="text-ink-soft">Smallest value the pin can drive</dt>
-            <dd>{fmtOhm(result.minOhms)}</dd>
-            <dt className="text-ink-soft">Node voltage at reset</dt>
-            <dd>{result.nodeV === null ? '—' : `${fixed(result.nodeV, 3)} V`}</dd>
-            <dt className="text-ink-soft">Pin current when driving against it</dt>
-            <dd>{result.activeCurrentA === null ? '—' : `${fixed(result.activeCurrentA * 1000, 2)} mA`}</dd>
-          </dl>
-          {result.notes.length ? (
-            <ul className="mt-2 list-disc pl-5">
-              {result.notes.map((n) => (
-                <li key={n}>{n}</li>
-              ))}
-            </ul>
-          ) : null}
-          <p className="mt-2 text-xs text-ink-faint">Verify the motor stays OFF through reset on the real board before attaching loads.</p>
-        </div>
-      ) : null}
-    </section>
+        ) : null}
+        {result ? (
+          <div className="card p-3 mt-3 text-sm" data-testid="pull-result">
+            <p className="text-base mb-1">
+              {result.ok ? (
+                <strong className="text-ok">✓ Fit {fmtOhm(result.chosenOhms)}</strong>
+              ) : (
+                <strong className="text-bad">✕ No standard value fits</strong>
+              )}
+            </p>
+            <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-0.5 num">
+              <dt className="text-ink-soft">Largest value that holds the node</dt>
+              <dd>{fmtOhm(result.maxOhms)}</dd>
+              <dt className="text-ink-soft">Smallest value the pin can drive</dt>
+              <dd>{fmtOhm(result.minOhms)}</dd>
+              <dt className="text-ink-soft">Node voltage at reset</dt>
+              <dd>{result.nodeV === null ? '—' : `${fixed(result.nodeV, 3)} V`}</dd>
+              <dt className="text-ink-soft">Pin current when driving against it</dt>
+              <dd>{result.activeCurrentA === null ? '—' : `${fixed(result.activeCurrentA * 1000, 2)} mA`}</dd>
+            </dl>
+            {result.notes.length ? (
+              <ul className="mt-2 list-disc pl-5">
+                {result.notes.map((n) => (
+                  <li key={n}>{n}</li>
+                ))}
+              </ul>
+            ) : null}
+            <p className="mt-2 text-xs text-ink-faint">
+              Verify the motor stays OFF through reset on the real board before attaching loads.
+            </p>
+          </div>
+        ) : null}
+      </section>
+    </FieldPrefix.Provider>
   );
 }

@@ -4,7 +4,7 @@ import { SUPPLY_PRESETS } from '../../lib/domain/design.ts';
 import type { SupplyReport } from '../../lib/supply.ts';
 import Verdict from '../workspace/Verdict.tsx';
 import { SupplyChecks, SupplyFigures, SupplyNotes } from '../workspace/SupplyPanel.tsx';
-import NumberField from './NumberField.tsx';
+import NumberField, { FieldPrefix } from './NumberField.tsx';
 import {
   DEFAULT_SUPPLY_FORM,
   SUPPLY_PATH_TO_FIELD,
@@ -77,79 +77,82 @@ export default function SupplyCalculator() {
   );
   const chosen = SUPPLY_PRESETS.find((p) => p.id === preset);
   return (
-    <section aria-labelledby="supply-calc-title" className="mb-8" data-testid="supply-calculator">
-      <h2 id="supply-calc-title" className="text-xl mb-2">
-        Supply: can it start the motor?
-      </h2>
-      <form className="card p-3 grid gap-3 grid-cols-2 md:grid-cols-4 lg:grid-cols-6" onSubmit={(e) => e.preventDefault()} noValidate>
-        {field('ratedV', 'Motor rated voltage', 'V')}
-        {field('noLoadSpeedRpm', 'Motor no-load speed', 'rpm')}
-        {field('noLoadCurrentA', 'Motor no-load current', 'A')}
-        {field('stallCurrentA', 'Motor stall current', 'A')}
-        {field('rotorInertiaGcm2', 'Rotor inertia', 'g·cm²', 'empty: no capacitor figure')}
-        {field('loadTorqueMNm', 'Load torque', 'mN·m', 'at start')}
-        <label className="field col-span-2">
-          Source preset
-          <select
-            value={preset}
-            data-testid="calc-supply-preset"
-            onChange={(ev) => {
-              const p = SUPPLY_PRESETS.find((x) => x.id === ev.target.value);
-              setPreset(p?.id ?? '');
-              if (p) setForm((f) => formFromPreset(f, p));
-            }}
-          >
-            <option value="">custom</option>
-            {SUPPLY_PRESETS.map((p) => (
-              <option key={p.id} value={p.id}>
-                {p.label}
-              </option>
-            ))}
-          </select>
-          {chosen ? (
-            <span className="text-xs text-ink-faint">
-              Limit: {chosen.source.currentLimit}. Internal resistance: {chosen.source.internalResistance}.
-            </span>
-          ) : null}
-        </label>
-        {field('supplyV', 'Source voltage', 'V', 'open circuit')}
-        {field('internalOhm', 'Internal resistance', 'Ω', 'pack: per cell × cells')}
-        {field('continuousA', 'Continuous rating', 'A', 'empty: not checked')}
-        {field('limitA', 'Current limit', 'A', 'empty: does not limit')}
-        {field('seriesOhm', 'Series resistance', 'Ω', 'wiring, shunt')}
-        {field('windingC', 'Winding temperature', '°C', 'coldest start draws most')}
-        <label className="col-span-2 text-sm flex items-center gap-2 self-end">
-          <input
-            type="checkbox"
-            checked={form.logicShared}
-            data-testid="calc-logic-shared"
-            onChange={(ev) => setForm((f) => ({ ...f, logicShared: ev.target.checked }))}
-          />
-          Controller fed from the same source
-        </label>
-        {form.logicShared ? field('logicMinV', 'Controller minimum', 'V', 'its brown-out level') : null}
-        {form.logicShared ? field('dropoutV', 'Regulator dropout', 'V', '0 when fed directly') : null}
-        {field('allowedDipV', 'Allowed dip', 'V', 'for the capacitor figure')}
-        <p className="col-span-2 md:col-span-4 self-end text-sm text-ink-soft" aria-live="polite" data-testid="supply-status">
-          {status === 'loading' ? '… computing' : status === 'error' ? `⚠ ${message}` : status === 'ready' ? '✓ up to date' : ''}
-        </p>
-      </form>
-      {report ? (
-        <div className={`grid gap-3 lg:grid-cols-[1.4fr_1fr] mt-3 ${status === 'error' ? 'opacity-60' : ''}`} data-testid="supply-result">
-          <div>
-            <p className="mb-2 text-sm flex items-center gap-2" data-testid="calc-supply-verdict">
-              <Verdict verdict={report.verdict} /> <span>{status === 'error' ? 'Last good answer; fix the fields above' : 'Overall'}</span>
-            </p>
-            <SupplyChecks report={report} testId="calc-supply-checks" />
+    <FieldPrefix.Provider value="supply-calc">
+      <section aria-labelledby="supply-calc-title" className="mb-8" data-testid="supply-calculator">
+        <h2 id="supply-calc-title" className="text-xl mb-2">
+          Supply: can it start the motor?
+        </h2>
+        <form className="card p-3 grid gap-3 grid-cols-2 md:grid-cols-4 lg:grid-cols-6" onSubmit={(e) => e.preventDefault()} noValidate>
+          {field('ratedV', 'Motor rated voltage', 'V')}
+          {field('noLoadSpeedRpm', 'Motor no-load speed', 'rpm')}
+          {field('noLoadCurrentA', 'Motor no-load current', 'A')}
+          {field('stallCurrentA', 'Motor stall current', 'A')}
+          {field('rotorInertiaGcm2', 'Rotor inertia', 'g·cm²', 'empty: no capacitor figure')}
+          {field('loadTorqueMNm', 'Load torque', 'mN·m', 'at start')}
+          <label className="field col-span-2">
+            Source preset
+            <select
+              value={preset}
+              data-testid="calc-supply-preset"
+              onChange={(ev) => {
+                const p = SUPPLY_PRESETS.find((x) => x.id === ev.target.value);
+                setPreset(p?.id ?? '');
+                if (p) setForm((f) => formFromPreset(f, p));
+              }}
+            >
+              <option value="">custom</option>
+              {SUPPLY_PRESETS.map((p) => (
+                <option key={p.id} value={p.id}>
+                  {p.label}
+                </option>
+              ))}
+            </select>
+            {chosen ? (
+              <span className="text-xs text-ink-faint">
+                Limit: {chosen.source.currentLimit}. Internal resistance: {chosen.source.internalResistance}.
+              </span>
+            ) : null}
+          </label>
+          {field('supplyV', 'Source voltage', 'V', 'open circuit')}
+          {field('internalOhm', 'Internal resistance', 'Ω', 'pack: per cell × cells')}
+          {field('continuousA', 'Continuous rating', 'A', 'empty: not checked')}
+          {field('limitA', 'Current limit', 'A', 'empty: does not limit')}
+          {field('seriesOhm', 'Series resistance', 'Ω', 'wiring, shunt')}
+          {field('windingC', 'Winding temperature', '°C', 'coldest start draws most')}
+          <label className="col-span-2 text-sm flex items-center gap-2 self-end">
+            <input
+              type="checkbox"
+              checked={form.logicShared}
+              data-testid="calc-logic-shared"
+              onChange={(ev) => setForm((f) => ({ ...f, logicShared: ev.target.checked }))}
+            />
+            Controller fed from the same source
+          </label>
+          {form.logicShared ? field('logicMinV', 'Controller minimum', 'V', 'its brown-out level') : null}
+          {form.logicShared ? field('dropoutV', 'Regulator dropout', 'V', '0 when fed directly') : null}
+          {field('allowedDipV', 'Allowed dip', 'V', 'for the capacitor figure')}
+          <p className="col-span-2 md:col-span-4 self-end text-sm text-ink-soft" aria-live="polite" data-testid="supply-status">
+            {status === 'loading' ? '… computing' : status === 'error' ? `⚠ ${message}` : status === 'ready' ? '✓ up to date' : ''}
+          </p>
+        </form>
+        {report ? (
+          <div className={`grid gap-3 lg:grid-cols-[1.4fr_1fr] mt-3 ${status === 'error' ? 'opacity-60' : ''}`} data-testid="supply-result">
+            <div>
+              <p className="mb-2 text-sm flex items-center gap-2" data-testid="calc-supply-verdict">
+                <Verdict verdict={report.verdict} />{' '}
+                <span>{status === 'error' ? 'Last good answer; fix the fields above' : 'Overall'}</span>
+              </p>
+              <SupplyChecks report={report} testId="calc-supply-checks" />
+            </div>
+            <div className="card p-3">
+              <h3 className="font-semibold mb-1 text-sm">Start figures</h3>
+              <SupplyFigures report={report} worstCases={false} />
+              <h3 className="font-semibold mt-3 mb-1 text-sm">What to change, and cautions</h3>
+              <SupplyNotes notes={report.notes} />
+            </div>
           </div>
-          <div className="card p-3">
-            <h3 className="font-semibold mb-1 text-sm">Start figures</h3>
-            <SupplyFigures report={report} worstCases={false} />
-            <h3 className="font-semibold mt-3 mb-1 text-sm">What to change, and cautions</h3>
-            <SupplyNotes notes={report.notes} />
-          </div>
-        </div>
-      ) : null}
-    </section>
+        ) : null}
+      </section>
+    </FieldPrefix.Provider>
   );
 }

@@ -111,24 +111,26 @@ export default function ImportPanel() {
             )}
           </p>
           {report.errors.length > 0 && (
-            <table className="data-table text-sm" data-testid="import-errors">
-              <thead>
-                <tr>
-                  <th className="num">Line</th>
-                  <th>Column</th>
-                  <th>Problem</th>
-                </tr>
-              </thead>
-              <tbody>
-                {report.errors.map((e, i) => (
-                  <tr key={i}>
-                    <td className="num">{e.line}</td>
-                    <td>{e.column}</td>
-                    <td>{e.message}</td>
+            <div className="table-scroll">
+              <table className="data-table text-sm" data-testid="import-errors">
+                <thead>
+                  <tr>
+                    <th className="num">Line</th>
+                    <th>Column</th>
+                    <th>Problem</th>
                   </tr>
-                ))}
-              </tbody>
-            </table>
+                </thead>
+                <tbody>
+                  {report.errors.map((e, i) => (
+                    <tr key={i}>
+                      <td className="num">{e.line}</td>
+                      <td>{e.column}</td>
+                      <td>{e.message}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </div>
           )}
           {report.mode === 'preview' && report.errors.length === 0 && report.counts.ready > 0 && (
             <div>

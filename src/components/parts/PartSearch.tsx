@@ -330,55 +330,61 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
 
         {data && data.total > 0 && (
           <div className="card overflow-x-auto" aria-busy={loading}>
-            <table className="data-table w-full text-sm" data-testid="results-table">
-              <thead>
-                {table.getHeaderGroups().map((hg) => (
-                  <tr key={hg.id}>
-                    {hg.headers.map((h) => {
-                      const meta = (h.column.columnDef.meta ?? {}) as { sortKey?: string; unit?: string; numeric?: boolean };
-                      const dir = sortParam === meta.sortKey ? 'ascending' : sortParam === `-${meta.sortKey}` ? 'descending' : undefined;
-                      const label = (
-                        <>
-                          {flexRender(h.column.columnDef.header, h.getContext())}
-                          {meta.unit && <span className="normal-case font-normal"> ({meta.unit})</span>}
-                        </>
-                      );
-                      return (
-                        <th key={h.id} className={meta.numeric ? 'num' : undefined} aria-sort={meta.sortKey ? (dir ?? 'none') : undefined}>
-                          {meta.sortKey ? (
-                            <button
-                              type="button"
-                              className="uppercase tracking-wide font-semibold cursor-pointer"
-                              onClick={() => toggleSort(meta.sortKey)}
-                              title="Sort by this column"
-                            >
-                              {label}
-                              <span aria-hidden="true">{dir === 'ascending' ? ' ▲' : dir === 'descending' ? ' ▼' : ' ⇅'}</span>
-                            </button>
-                          ) : (
-                            label
-                          )}
-                        </th>
-                      );
-                    })}
-                  </tr>
-                ))}
-              </thead>
-              <tbody>
-                {table.getRowModel().rows.map((row) => (
-                  <tr key={row.id} data-mpn={row.original.mpn}>
-                    {row.getVisibleCells().map((cell) => {
-                      const meta = (cell.column.columnDef.meta ?? {}) as { numeric?: boolean };
-                      return (
-                        <td key={cell.id} className={meta.numeric ? 'num whitespace-nowrap' : undefined}>
-                          {flexRender(cell.column.columnDef.cell, cell.getContext())}
-                        </td>
-                      );
-                    })}
-                  </tr>
-                ))}
-              </tbody>
-            </table>
+            <div className="table-scroll">
+              <table className="data-table w-full text-sm" data-testid="results-table">
+                <thead>
+                  {table.getHeaderGroups().map((hg) => (
+                    <tr key={hg.id}>
+                      {hg.headers.map((h) => {
+                        const meta = (h.column.columnDef.meta ?? {}) as { sortKey?: string; unit?: string; numeric?: boolean };
+                        const dir = sortParam === meta.sortKey ? 'ascending' : sortParam === `-${meta.sortKey}` ? 'descending' : undefined;
+                        const label = (
+                          <>
+                            {flexRender(h.column.columnDef.header, h.getContext())}
+                            {meta.unit && <span className="normal-case font-normal"> ({meta.unit})</span>}
+                          </>
+                        );
+                        return (
+                          <th
+                            key={h.id}
+                            className={meta.numeric ? 'num' : undefined}
+                            aria-sort={meta.sortKey ? (dir ?? 'none') : undefined}
+                          >
+                            {meta.sortKey ? (
+                              <button
+                                type="button"
+                                className="uppercase tracking-wide font-semibold cursor-pointer"
+                                onClick={() => toggleSort(meta.sortKey)}
+                                title="Sort by this column"
+                              >
+                                {label}
+                                <span aria-hidden="true">{dir === 'ascending' ? ' ▲' : dir === 'descending' ? ' ▼' : ' ⇅'}</span>
+                              </button>
+                            ) : (
+                              label
+                            )}
+                          </th>
+                        );
+                      })}
+                    </tr>
+                  ))}
+                </thead>
+                <tbody>
+                  {table.getRowModel().rows.map((row) => (
+                    <tr key={row.id} data-mpn={row.original.mpn}>
+                      {row.getVisibleCells().map((cell) => {
+                        const meta = (cell.column.columnDef.meta ?? {}) as { numeric?: boolean };
+                        return (
+                          <td key={cell.id} className={meta.numeric ? 'num whitespace-nowrap' : undefined}>
+                            {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                          </td>
+                        );
+                      })}
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </div>
           </div>
         )}
 

@@ -39,57 +39,59 @@ function PartRef({ entry, id }: { entry: MatchEntry | undefined; id: number }) {
 /** The chosen part per line and up to three alternates, as the bill of materials will list them. */
 export default function SelectionPanel({ input, match }: { input: DesignInput; match: DesignMatch }) {
   return (
-    <table className="data-table w-full text-sm" data-testid="selection">
-      <thead>
-        <tr>
-          <th>Ref.</th>
-          <th>Line</th>
-          <th>Chosen</th>
-          <th>Alternates</th>
-        </tr>
-      </thead>
-      <tbody>
-        {LINES.filter((l) => l.role !== 'driver' || match.driverNeeded || input.selections.driver.chosenPartId != null).map((l) => {
-          const list = listFor(match, l.role);
-          const find = (id: number) => list.find((e) => e.partId === id);
-          const sel = input.selections[l.role];
-          const chosen = sel.chosenPartId == null ? undefined : find(sel.chosenPartId);
-          return (
-            <tr key={l.role} data-role={l.role}>
-              <td>{l.refdes}</td>
-              <td>{l.label}</td>
-              <td>
-                {sel.chosenPartId == null ? (
-                  <span className="text-warn">! nothing chosen yet</span>
-                ) : (
-                  <PartRef entry={chosen} id={sel.chosenPartId} />
-                )}
-                {pairingNote(match, l.role, chosen) ? (
-                  <div className="text-xs text-ink-soft" data-testid={`pairing-${l.role}`}>
-                    {pairingNote(match, l.role, chosen)}
-                  </div>
-                ) : null}
-                {chosen && chosen.verdict === 'fail' ? (
-                  <div className="text-bad text-xs">✕ fails with the current inputs: pick another part</div>
-                ) : null}
-              </td>
-              <td>
-                {sel.alternatePartIds.length === 0 ? (
-                  <span className="text-ink-soft">none</span>
-                ) : (
-                  <ul className="grid gap-0.5">
-                    {sel.alternatePartIds.map((id) => (
-                      <li key={id}>
-                        <PartRef entry={find(id)} id={id} />
-                      </li>
-                    ))}
-                  </ul>
-                )}
-              </td>
-            </tr>
-          );
-        })}
-      </tbody>
-    </table>
+    <div className="table-scroll">
+      <table className="data-table w-full text-sm" data-testid="selection">
+        <thead>
+          <tr>
+            <th>Ref.</th>
+            <th>Line</th>
+            <th>Chosen</th>
+            <th>Alternates</th>
+          </tr>
+        </thead>
+        <tbody>
+          {LINES.filter((l) => l.role !== 'driver' || match.driverNeeded || input.selections.driver.chosenPartId != null).map((l) => {
+            const list = listFor(match, l.role);
+            const find = (id: number) => list.find((e) => e.partId === id);
+            const sel = input.selections[l.role];
+            const chosen = sel.chosenPartId == null ? undefined : find(sel.chosenPartId);
+            return (
+              <tr key={l.role} data-role={l.role}>
+                <td>{l.refdes}</td>
+                <td>{l.label}</td>
+                <td>
+                  {sel.chosenPartId == null ? (
+                    <span className="text-warn">! nothing chosen yet</span>
+                  ) : (
+                    <PartRef entry={chosen} id={sel.chosenPartId} />
+                  )}
+                  {pairingNote(match, l.role, chosen) ? (
+                    <div className="text-xs text-ink-soft" data-testid={`pairing-${l.role}`}>
+                      {pairingNote(match, l.role, chosen)}
+                    </div>
+                  ) : null}
+                  {chosen && chosen.verdict === 'fail' ? (
+                    <div className="text-bad text-xs">✕ fails with the current inputs: pick another part</div>
+                  ) : null}
+                </td>
+                <td>
+                  {sel.alternatePartIds.length === 0 ? (
+                    <span className="text-ink-soft">none</span>
+                  ) : (
+                    <ul className="grid gap-0.5">
+                      {sel.alternatePartIds.map((id) => (
+                        <li key={id}>
+                          <PartRef entry={find(id)} id={id} />
+                        </li>
+                      ))}
+                    </ul>
+                  )}
+                </td>
+              </tr>
+            );
+          })}
+        </tbody>
+      </table>
+    </div>
   );
 }
