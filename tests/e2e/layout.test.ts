@@ -47,9 +47,20 @@ describe.each([1366, 390])('at %i px wide', (width) => {
       innerWidth: window.innerWidth,
       headerRight: document.querySelector('header')!.getBoundingClientRect().right,
     }));
-    await page.screenshot({ path: screenshotPath(`layout-${width}-${role}-${url.replace(/\W+/g, '-')}`), fullPage: false });
+    const widest = await page.evaluate(() => {
+      const over = [...document.querySelectorAll('body *')].filter((el) => el.getBoundingClientRect().right > window.innerWidth + 0.5);
+      const leaf = over.filter((el) => !over.some((o) => o !== el && el.contains(o)));
+      return leaf
+        .slice(0, 3)
+        .map((el) => `${el.tagName.toLowerCase()}.${[...el.classList].join('.')} (${Math.round(el.getBoundingClientRect().right)} px)`);
+    });
+    await page.screenshot({
+      path: screenshotPath(`layout-${width}-${role}-${url.replace(/\W+/g, '-')}`),
+      fullPage: false,
+      caret: 'initial',
+    });
     await context.close();
-    expect(sizes.scrollWidth, `${url} at ${width} px`).toBeLessThanOrEqual(sizes.innerWidth);
+    expect(sizes.scrollWidth, `${url} at ${width} px; past the edge: ${widest.join(', ')}`).toBeLessThanOrEqual(sizes.innerWidth);
     expect(sizes.headerRight).toBeLessThanOrEqual(sizes.innerWidth);
   });
 });

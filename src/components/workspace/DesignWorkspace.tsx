@@ -131,7 +131,7 @@ export default function DesignWorkspace({ design, initialInput, motors, canEdit 
         <span className="text-sm text-ink-soft" aria-live="polite" data-testid="match-status">
           {status === 'loading' ? '… ranking' : status === 'error' ? `⚠ ${error}` : status === 'ready' ? '✓ ranked' : ''}
         </span>
-        <div className="flex gap-2 ml-auto">
+        <div className="flex flex-wrap gap-2 ml-auto">
           {canEdit && match ? (
             <button type="button" className="btn btn-quiet" onClick={() => setInput({ ...input, selections: suggestSelections(match) })}>
               Suggest picks
