@@ -39,6 +39,9 @@ describe('calculators page', () => {
     // Bad input is named at the field (the browser logs the deliberate 400 answer as a failed resource).
     await page.getByLabel('No-load current', { exact: true }).fill('5');
     await page.getByText('below the stall current').first().waitFor();
+    // The results of the earlier, accepted inputs stay visible but greyed and say so.
+    await page.getByTestId('motor-stale').waitFor();
+    await expect(page.getByTestId('motor-results').getAttribute('class')).resolves.toContain('opacity-40');
     expect(errors.filter((e) => !/status of 400/.test(e))).toEqual([]);
   });
 

@@ -33,11 +33,14 @@ function useMotorResults(form: MotorForm) {
   const [errors, setErrors] = useState<FieldErrors>({});
   const [status, setStatus] = useState<Status>('idle');
   const [message, setMessage] = useState('');
+  /** True while the shown results belong to earlier inputs (the current ones are refused). */
+  const [stale, setStale] = useState(false);
   const abort = useRef<AbortController | null>(null);
   useEffect(() => {
     const built = toRequests(form);
     if (!built.ok) {
       setErrors(built.errors);
+      setStale(true);
       return;
     }
     const timer = setTimeout(async () => {
@@ -53,11 +56,13 @@ function useMotorResults(form: MotorForm) {
         if (min.ok && max.ok) {
           setResults({ min: min.data, max: max.data });
           setErrors({});
+          setStale(false);
           setStatus('ready');
         } else {
           const bad = !min.ok ? min : !max.ok ? max : null;
           setErrors(bad ? issuesToErrors(bad.issues) : {});
           setMessage(bad ? bad.error : '');
+          setStale(true);
           setStatus('error');
         }
       } catch {
@@ -66,7 +71,7 @@ function useMotorResults(form: MotorForm) {
     }, 200);
     return () => clearTimeout(timer);
   }, [form]);
-  return { results, errors, status, message };
+  return { results, errors, status, message, stale };
 }
 
 function curveSeries(r: Results, unit: TorqueUnit, pick: (p: CalcMotorResponse['curve'][number]) => number): ChartSeries[] {
@@ -80,7 +85,7 @@ function curveSeries(r: Results, unit: TorqueUnit, pick: (p: CalcMotorResponse['
 /** Motor curves at minimum and maximum supply from datasheet points, in the datasheet's own units. */
 export default function MotorCalculator() {
   const [form, setForm] = useState<MotorForm>(DEFAULT_MOTOR_FORM);
-  const { results, errors, status, message } = useMotorResults(form);
+  const { results, errors, status, message, stale } = useMotorResults(form);
   const set = (key: keyof MotorForm) => (value: string) => setForm((f) => ({ ...f, [key]: value }));
   const unit = form.torqueUnit;
   const charts = useMemo(() => {
@@ -223,8 +228,19 @@ export default function MotorCalculator() {
             {status === 'loading' ? '… computing' : status === 'error' ? `⚠ ${message}` : status === 'ready' ? '✓ up to date' : ''}
           </p>
         </form>
-        {results ? <MotorSummary min={results.min} max={results.max} torqueUnit={unit} /> : null}
-        {charts ? <div className="grid gap-3 md:grid-cols-2 mt-3">{charts}</div> : null}
+        <div
+          className={stale && results ? 'opacity-40' : undefined}
+          aria-hidden={stale && results ? true : undefined}
+          data-testid="motor-results"
+        >
+          {results ? <MotorSummary min={results.min} max={results.max} torqueUnit={unit} /> : null}
+          {charts ? <div className="grid gap-3 md:grid-cols-2 mt-3">{charts}</div> : null}
+        </div>
+        {stale && results ? (
+          <p className="text-sm text-warn mt-2" role="status" data-testid="motor-stale">
+            ! These results are for the last inputs that were accepted; correct the marked fields to update them.
+          </p>
+        ) : null}
       </section>
     </FieldPrefix.Provider>
   );
