@@ -1,6 +1,6 @@
 /** CSV export of any filtered list, in the import format (services/parts-csv.ts). */
-import Papa from 'papaparse';
 import { db } from '../db.ts';
+import { toCsv } from '../../lib/csv.ts';
 import type { PartListQuery } from '../../lib/schemas/parts.ts';
 import { loadPartsByIds } from '../repos/part-writes.ts';
 import { CSV_COLUMNS, partToCsvRow } from './parts-csv.ts';
@@ -14,11 +14,11 @@ export async function exportPartsCsv(query: PartListQuery): Promise<{ csv: strin
   for (let i = 0; i < ids.length; i += 200) {
     for (const part of await loadPartsByIds(db(), ids.slice(i, i + 200))) rows.push(partToCsvRow(part));
   }
-  // escapeFormulae: a cell starting with = + - @ gets a leading ' so spreadsheets do not run it; import drops it again.
-  const csv = Papa.unparse(
-    { fields: CSV_COLUMNS, data: rows.map((r) => CSV_COLUMNS.map((c) => r[c])) },
-    { escapeFormulae: true, newline: '\r\n' },
+  // toCsv guards formula-leading cells with an apostrophe; the import (parts-csv.ts) restores the text.
+  const csv = toCsv(
+    CSV_COLUMNS,
+    rows.map((r) => CSV_COLUMNS.map((c) => r[c])),
   );
   const fileName = `stallpoint-parts${query.category ? `-${query.category}` : ''}-${new Date().toISOString().slice(0, 10)}.csv`;
-  return { csv: `${csv}\r\n`, fileName, rows: rows.length };
+  return { csv, fileName, rows: rows.length };
 }
