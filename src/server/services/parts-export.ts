@@ -1,14 +1,14 @@
 /** CSV export of any filtered list, in the import format (services/parts-csv.ts). */
 import { db } from '../db.ts';
 import { toCsv } from '../../lib/csv.ts';
-import type { PartListQuery } from '../../lib/schemas/parts.ts';
+import type { ScopedPartQuery } from '../repos/part-search.ts';
 import { loadPartsByIds } from '../repos/part-writes.ts';
 import { CSV_COLUMNS, partToCsvRow } from './parts-csv.ts';
 import { matchingIds } from './parts-search.ts';
 
 export const MAX_EXPORT_ROWS = 5000;
 
-export async function exportPartsCsv(query: PartListQuery): Promise<{ csv: string; fileName: string; rows: number }> {
+export async function exportPartsCsv(query: ScopedPartQuery): Promise<{ csv: string; fileName: string; rows: number }> {
   const ids = (await matchingIds(query)).slice(0, MAX_EXPORT_ROWS);
   const rows: Record<string, string>[] = [];
   for (let i = 0; i < ids.length; i += 200) {
