@@ -140,7 +140,7 @@ const ENDPOINTS: Endpoint[] = [
     base: () => ({ decision: 'reject', reason: 'no', version: partVersion }),
   },
   {
-    method: 'post',
+    method: 'put',
     path: () => `/api/parts/${partId}/sources`,
     role: 'buyer',
     base: () => ({ sources: partBody.sources ?? [], version: partVersion }),
@@ -151,7 +151,7 @@ const ENDPOINTS: Endpoint[] = [
     role: 'admin',
     base: () => ({ email: 'new@kestrel-fluidics.example', name: 'N', roles: ['buyer'] }),
   },
-  { method: 'post', path: () => `/api/people/${personId}/roles`, role: 'admin', base: () => ({ roles: ['buyer'] }) },
+  { method: 'put', path: () => `/api/people/${personId}/roles`, role: 'admin', base: () => ({ roles: ['buyer'] }) },
   { method: 'post', path: () => `/api/people/${personId}/invite`, role: 'admin', base: () => ({ x: 1 }) },
   { method: 'post', path: () => `/api/people/${personId}/deactivate`, role: 'admin', base: () => ({ x: 1 }) },
   { method: 'post', path: () => `/api/people/${personId}/reactivate`, role: 'admin', base: () => ({ x: 1 }) },
@@ -180,9 +180,18 @@ describe.each(ENDPOINTS)('$method $path with generated bodies', (endpoint) => {
     const seen = new Map<number, number>();
     await fc.assert(
       fc.asyncProperty(bodies(endpoint.base()), async (body) => {
-        let req = request(appUrl())[endpoint.method](endpoint.path()).set('Content-Type', 'application/json').set('Origin', appUrl());
-        if (endpoint.role !== 'anonymous') req = req.set('Cookie', cookies[endpoint.role]);
-        const res = await req.send(JSON.stringify(body) ?? 'null');
+        const send = () => {
+          const req = request(appUrl())[endpoint.method](endpoint.path()).set('Content-Type', 'application/json').set('Origin', appUrl());
+          if (endpoint.role !== 'anonymous') req.set('Cookie', cookies[endpoint.role]);
+          return req.send(JSON.stringify(body) ?? 'null');
+        };
+        let res = await send();
+        // The calculators allow a number of requests per address per minute: wait out the window once, so
+        // every generated body reaches validation (the sign-in and link limits last 15 min: their 429 stands).
+        if (res.status === 429 && endpoint.path().startsWith('/api/calc/')) {
+          await new Promise((resolve) => setTimeout(resolve, Number(res.headers['retry-after']) * 1000 + 100));
+          res = await send();
+        }
         seen.set(res.status, (seen.get(res.status) ?? 0) + 1);
         expect(res.status, JSON.stringify(body)?.slice(0, 300)).toBeLessThan(500);
         expect(res.headers['content-type']).toMatch(/application\/json/);
@@ -193,5 +202,7 @@ describe.each(ENDPOINTS)('$method $path with generated bodies', (endpoint) => {
       { numRuns: RUNS },
     );
     expect([...seen.values()].reduce((a, b) => a + b, 0)).toBeGreaterThanOrEqual(RUNS);
-  }, 300_000);
+    // The bodies reached validation (not only 401/403/415): some were refused as bad input by name.
+    expect(seen.get(400) ?? 0, JSON.stringify([...seen])).toBeGreaterThan(0);
+  }, 400_000);
 });
