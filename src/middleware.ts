@@ -1,6 +1,7 @@
 import { defineMiddleware } from 'astro:middleware';
 import type { APIContext } from 'astro';
-import { SECURITY_HEADERS } from './server/http/security-headers.ts';
+import { securityHeaders } from './server/http/security-headers.ts';
+import { appConfig } from './server/config.ts';
 import { jsonError } from './server/http/responses.ts';
 import { errorResponse } from './server/http/error-response.ts';
 import { db } from './server/db.ts';
@@ -15,7 +16,7 @@ import { accessFor, allowedMethods, decide, isApiRoute, type Decision } from './
  */
 export const onRequest = defineMiddleware(async (context, next) => {
   const response = await guarded(context, next);
-  for (const [name, value] of Object.entries(SECURITY_HEADERS)) {
+  for (const [name, value] of Object.entries(securityHeaders(appConfig().publicUrl))) {
     if (!response.headers.has(name)) response.headers.set(name, value);
   }
   if (context.locals.user && !response.headers.has('Cache-Control')) response.headers.set('Cache-Control', 'private, no-store');

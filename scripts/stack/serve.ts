@@ -6,7 +6,7 @@ import http from 'node:http';
 import { createReadStream, existsSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
-import { SECURITY_HEADERS } from '../../src/server/http/security-headers.ts';
+import { securityHeaders } from '../../src/server/http/security-headers.ts';
 import { readConfig } from '../../src/server/config.ts';
 
 const TYPES: Record<string, string> = {
@@ -52,13 +52,14 @@ export async function createListener(distDir: string): Promise<http.RequestListe
   const entry = pathToFileURL(path.join(distDir, 'server', 'entry.mjs')).href;
   const { handler } = (await import(entry)) as { handler: Handler };
   const clientDir = path.join(distDir, 'client');
-  const { trustProxy } = readConfig(process.env);
+  const { trustProxy, publicUrl } = readConfig(process.env);
+  const headers = securityHeaders(publicUrl);
   return (req, res) => {
     dropUntrustedForwarding(req, trustProxy);
     const urlPath = (req.url ?? '/').split('?')[0];
     const file = req.method === 'GET' || req.method === 'HEAD' ? staticFile(clientDir, urlPath) : null;
     if (file) {
-      for (const [k, v] of Object.entries(SECURITY_HEADERS)) res.setHeader(k, v);
+      for (const [k, v] of Object.entries(headers)) res.setHeader(k, v);
       res.setHeader('Content-Type', TYPES[path.extname(file)] ?? 'application/octet-stream');
       res.setHeader('Cache-Control', urlPath.startsWith('/_astro/') ? 'public, max-age=31536000, immutable' : 'public, max-age=3600');
       if (req.method === 'HEAD') return void res.end();
@@ -67,7 +68,7 @@ export async function createListener(distDir: string): Promise<http.RequestListe
     }
     const answerJson = (err: unknown): void => {
       if (!res.headersSent) {
-        res.writeHead(err ? 500 : 404, { 'Content-Type': 'application/json', ...SECURITY_HEADERS });
+        res.writeHead(err ? 500 : 404, { 'Content-Type': 'application/json', ...headers });
       }
       res.end(JSON.stringify({ error: err ? 'Something went wrong on the server.' : 'Not found.', issues: [] }));
     };

@@ -1,9 +1,9 @@
 /** Bill of materials of a design: one line per role, chosen part plus alternates, with designator suggestions. */
-import Papa from 'papaparse';
 import type { DesignInput, PartRole } from './domain/design.ts';
 import type { Part } from './domain/parts.ts';
 import type { RecommendedPull } from './power-on.ts';
 import { formatOhms } from './units.ts';
+import { toCsv } from './csv.ts';
 
 export interface BomLine {
   line: number;
@@ -106,9 +106,10 @@ export function buildBom({ input, motor, partsById, pull, statusOf, motorStatus,
   return lines.map((l, i) => ({ line: i + 1, ...l }));
 }
 
+/** The BOM as CSV through the one writer (src/lib/csv.ts): hand-entered labels like "=HYPERLINK(…)" come out as text. */
 export function bomToCsv(lines: BomLine[]): string {
-  return Papa.unparse({
-    fields: BOM_COLUMNS.map((c) => c.header),
-    data: lines.map((l) => BOM_COLUMNS.map((c) => l[c.key])),
-  });
+  return toCsv(
+    BOM_COLUMNS.map((c) => c.header),
+    lines.map((l) => BOM_COLUMNS.map((c) => l[c.key])),
+  );
 }

@@ -2,7 +2,8 @@
  * GET /api/parts filters return exactly the parts that satisfy them. Expected sets come from a plain
  * filter written here over the invented seed catalogue (db/seeds/data), following the rules stated in
  * README "Searching the catalogue"; every returned item must also pass the same filter (other tests may
- * have added parts, which must obey the filter too).
+ * have added parts, which must obey the filter too). A librarian asks, because librarians see every part
+ * whatever its review status (designers and buyers see approved parts and their own: parts-visibility.test.ts).
  */
 import { beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
@@ -15,7 +16,7 @@ type Seed = (typeof demoParts)[number];
 type Pred = (p: Part | Seed) => boolean;
 let cookie = '';
 beforeAll(async () => {
-  cookie = await sessionCookie('designer');
+  cookie = await sessionCookie('librarian');
 });
 
 async function getAll(query: Record<string, string | number | boolean>): Promise<Part[]> {

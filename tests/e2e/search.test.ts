@@ -18,8 +18,9 @@ afterAll(async () => {
   await browser?.close();
 });
 
-/** VGS(th) max ≤ 1 V and RDS(on) ≤ 100 mΩ judged at the highest 25 °C line at or below 2.5 V. */
+/** VGS(th) max ≤ 1 V and RDS(on) ≤ 100 mΩ judged at the highest 25 °C line at or below 2.5 V; a designer sees approved parts only. */
 const expected = demoMosfets
+  .filter((m) => m.reviewStatus === 'approved')
   .filter((m) => m.params.vgsThMaxV <= 1)
   .filter((m) => {
     const line = m.params.rdsOn.filter((r) => r.tjC === 25 && r.vgsV <= 2.5).sort((a, b) => b.vgsV - a.vgsV)[0];

@@ -5,19 +5,20 @@ import { z } from 'zod';
 import { issuesOf, type ApiIssue } from './issues.ts';
 import { E_SERIES_NAMES } from '../eseries.ts';
 import { calcSupply } from '../supply.ts';
+import { positiveIn, RANGES, zeroOrIn, type RangeName } from './bounds.ts';
 
-const positive = (): z.ZodNumber => z.number().positive();
-const nonNegative = (): z.ZodNumber => z.number().nonnegative();
+const positive = (range: RangeName): z.ZodNumber => positiveIn(range);
+const nonNegative = (range: RangeName): z.ZodNumber => zeroOrIn(range);
 
 export const motorPointsSchema = z
   .object({
-    ratedVoltageV: positive(),
-    noLoadSpeedRpm: positive(),
-    noLoadCurrentA: positive(),
-    stallCurrentA: positive(),
-    stallTorqueNm: positive(),
+    ratedVoltageV: positive('voltageV'),
+    noLoadSpeedRpm: positive('speedRpm'),
+    noLoadCurrentA: positive('currentA'),
+    stallCurrentA: positive('surgeA'),
+    stallTorqueNm: positive('torqueNm'),
     /** Optional measured terminal resistance; replaces V/Is. */
-    terminalResistanceOhm: positive().optional(),
+    terminalResistanceOhm: positive('resistanceOhm').optional(),
   })
   .superRefine((m, ctx) => {
     if (m.noLoadCurrentA >= m.stallCurrentA) {
@@ -35,8 +36,8 @@ export const motorPointsSchema = z
 
 export const calcMotorRequestSchema = z.object({
   motor: motorPointsSchema,
-  supplyV: positive(),
-  seriesResistanceOhm: nonNegative().default(0),
+  supplyV: positive('voltageV'),
+  seriesResistanceOhm: nonNegative('resistanceOhm').default(0),
   curvePoints: z.number().int().min(2).max(501).default(21),
 });
 export type CalcMotorRequest = z.infer<typeof calcMotorRequestSchema>;
@@ -45,9 +46,9 @@ export const calcPullResistorRequestSchema = z
   .object({
     pin: z.object({
       internalPull: z.enum(['up', 'down', 'none']),
-      internalPullOhms: nonNegative(),
-      railV: positive(),
-      maxCurrentA: positive(),
+      internalPullOhms: nonNegative('resistanceOhm'),
+      railV: positive('voltageV'),
+      maxCurrentA: positive('currentA'),
       /** Fraction (0.3 = ±30 %); absent = 0 [api-contract.md, Extensions]. */
       internalPullTolerance: z
         .number()
@@ -63,7 +64,7 @@ export const calcPullResistorRequestSchema = z
     }),
     external: z.object({
       to: z.enum(['up', 'down']),
-      railV: nonNegative(),
+      railV: nonNegative('voltageV'),
       /** Fraction (0.01 = ±1 %); absent = 0. */
       tolerance: z
         .number()
@@ -71,12 +72,12 @@ export const calcPullResistorRequestSchema = z
         .max(0.2, { error: 'The resistor tolerance is a fraction from 0 to 0.2 (0.01 means ±1 %).' })
         .optional(),
     }),
-    node: z.object({ mustBe: z.enum(['low', 'high']), limitV: nonNegative() }),
+    node: z.object({ mustBe: z.enum(['low', 'high']), limitV: nonNegative('voltageV') }),
     series: z.enum(E_SERIES_NAMES),
     /** Largest resistance worth fitting; absent = 1 MΩ. */
     ceilingOhms: z
       .number()
-      .positive({ error: 'The ceiling is a resistance in Ω above 0 and at most 100 MΩ (1e8).' })
+      .min(RANGES.resistanceOhm.min, { error: 'The ceiling is a resistance in Ω from 1 µΩ to 100 MΩ (1e8).' })
       .max(1e8, { error: 'The ceiling is a resistance in Ω above 0 and at most 100 MΩ (1e8).' })
       .optional(),
   })
@@ -87,47 +88,53 @@ export const calcPullResistorRequestSchema = z
   });
 export type CalcPullResistorRequest = z.infer<typeof calcPullResistorRequestSchema>;
 
-const rdsOnPointSchema = z.object({ vgsV: positive(), ohms: positive(), testCurrentA: positive().optional() });
+const rdsOnPointSchema = z.object({
+  vgsV: positive('voltageV'),
+  ohms: positive('resistanceOhm'),
+  testCurrentA: positive('surgeA').optional(),
+});
 
 /** Extensions for a jammed motor [api-contract.md "Extensions"]: absent = no protection, full-on jam. */
 const stallProtectionSchema = z.discriminatedUnion('kind', [
   z.object({ kind: z.literal('none') }),
-  z.object({ kind: z.literal('current-limit'), limitA: positive().max(1000) }),
-  z.object({ kind: z.literal('cut-off'), afterS: positive().max(3600) }),
+  z.object({ kind: z.literal('current-limit'), limitA: positive('currentA') }),
+  z.object({ kind: z.literal('cut-off'), afterS: positive('timeS').max(3600) }),
 ]);
-const zthPointSchema = z.object({ pulseS: positive().max(10_000), zthCPerW: positive().max(10_000) });
+const zthPointSchema = z.object({ pulseS: positive('timeS').max(10_000), zthCPerW: positive('thermalCPerW') });
 
 export const calcSwitchRequestSchema = z.object({
   mosfet: z.object({
-    vdsMaxV: positive(),
-    vgsMaxV: positive(),
-    vgsThMaxV: positive(),
-    idPulsedA: positive(),
+    vdsMaxV: positive('ratingV'),
+    vgsMaxV: positive('voltageV'),
+    vgsThMaxV: positive('voltageV'),
+    idPulsedA: positive('surgeA'),
     tjMaxC: z.number().min(25).max(250),
-    rthJaCPerW: positive(),
-    qgTotalNc: positive(),
-    qgdNc: positive().optional(),
-    qgsNc: positive().optional(),
-    vPlateauV: positive().optional(),
+    rthJaCPerW: positive('thermalCPerW'),
+    qgTotalNc: positive('chargeNc'),
+    qgdNc: positive('chargeNc').optional(),
+    qgsNc: positive('chargeNc').optional(),
+    vPlateauV: positive('voltageV').optional(),
     rdsOn: z.array(rdsOnPointSchema).min(1).max(20),
     rdsOnTempCoeffPerC: z.number().min(0).max(0.05).optional(),
     zthPoints: z.array(zthPointSchema).max(20).optional(),
   }),
   operating: z.object({
-    supplyMaxV: positive(),
-    runningCurrentA: nonNegative(),
-    stallCurrentA: nonNegative(),
-    gateDriveV: positive(),
-    gateDriveCurrentA: positive(),
-    gateResistanceOhm: nonNegative().optional(),
-    pwmHz: positive().optional(),
+    supplyMaxV: positive('voltageV'),
+    runningCurrentA: nonNegative('currentA'),
+    stallCurrentA: nonNegative('surgeA'),
+    gateDriveV: positive('voltageV'),
+    gateDriveCurrentA: positive('currentA'),
+    gateResistanceOhm: nonNegative('resistanceOhm').optional(),
+    pwmHz: positive('frequencyHz').optional(),
     duty: z.number().min(0).max(1).optional(),
     ambientC: z.number().min(-60).max(200),
-    diodeForwardV: nonNegative(),
+    diodeForwardV: nonNegative('voltageV'),
     stallProtection: stallProtectionSchema.optional(),
     stallDuty: z.number().min(0).max(1).optional(),
   }),
-  margins: z.object({ voltageDerating: z.number().gt(0).max(1).optional(), thermalMarginC: nonNegative().optional() }).optional(),
+  margins: z
+    .object({ voltageDerating: z.number().gt(0).max(1).optional(), thermalMarginC: z.number().min(0).max(200).optional() })
+    .optional(),
 });
 export type CalcSwitchRequest = z.infer<typeof calcSwitchRequestSchema>;
 
@@ -144,14 +151,18 @@ export function parseCalcBody<S extends z.ZodType>(schema: S, body: unknown): Pa
 /* POST /api/calc/supply [api-contract.md]: only `motor` and `supply.voltageV` are required. */
 const numberOf = (what: string): z.ZodNumber =>
   z.number({ error: (issue) => (issue.input === undefined ? `${what} is required` : `${what} must be a number`) });
-const gtZero = (what: string, max: number, unit: string): z.ZodNumber =>
+/** Above zero, at least `floor` (so 5e-324 is refused by name), at most max. */
+const gtZero = (what: string, max: number, unit: string, floor = 1e-9): z.ZodNumber =>
   numberOf(what)
     .gt(0, { error: `${what} must be above zero` })
+    .min(floor, { error: `${what} must be at least ${floor} ${unit}` })
     .max(max, { error: `${what} must be at most ${max} ${unit}` });
-const atLeastZero = (what: string, max: number, unit: string): z.ZodNumber =>
+/** Zero, or from `floor` to max. */
+const atLeastZero = (what: string, max: number, unit: string, floor = 1e-9): z.ZodNumber =>
   numberOf(what)
     .min(0, { error: `${what} cannot be negative` })
-    .max(max, { error: `${what} must be at most ${max} ${unit}` });
+    .max(max, { error: `${what} must be at most ${max} ${unit}` })
+    .refine((v) => v === 0 || v >= floor, { error: `${what} must be 0 or at least ${floor} ${unit}` });
 
 export const supplyMotorSchema = z
   .object(
@@ -162,7 +173,7 @@ export const supplyMotorSchema = z
       stallCurrentA: gtZero('Stall current', 10_000, 'A'),
       /** Not used by the supply formulas; checked when given. */
       stallTorqueNm: gtZero('Stall torque', 1000, 'N·m').nullish(),
-      rotorInertiaKgM2: gtZero('Rotor inertia', 1, 'kg·m²').nullish(),
+      rotorInertiaKgM2: gtZero('Rotor inertia', 1, 'kg·m²', RANGES.inertiaKgM2.min).nullish(),
     },
     { error: 'motor is required: the datasheet points ratedVoltageV, noLoadSpeedRpm, noLoadCurrentA, stallCurrentA' },
   )

@@ -1,22 +1,23 @@
 /** zod schema of a design as entered; shared by the workspace form and the designs endpoints. */
 import { z } from 'zod';
+import { INT_UNSIGNED_MAX, positiveIn, zeroOrIn, type RangeName } from './bounds.ts';
 
-const pos = () => z.number().positive();
-const nonNeg = () => z.number().nonnegative();
-const id = () => z.number().int().positive();
+const pos = (range: RangeName) => positiveIn(range);
+const nonNeg = (range: RangeName) => zeroOrIn(range);
+const id = () => z.number().int().positive().max(INT_UNSIGNED_MAX);
 
 const motorParams = z
   .object({
-    ratedVoltageV: pos(),
-    voltageMinV: pos().nullable().default(null),
-    voltageMaxV: pos().nullable().default(null),
-    noLoadSpeedRpm: pos(),
-    noLoadCurrentA: pos(),
-    stallTorqueNm: pos(),
-    stallCurrentA: pos(),
-    terminalResistanceOhm: pos().nullable().default(null),
-    inductanceH: pos().nullable().default(null),
-    rotorInertiaKgM2: pos().nullable().default(null),
+    ratedVoltageV: pos('voltageV'),
+    voltageMinV: pos('voltageV').nullable().default(null),
+    voltageMaxV: pos('voltageV').nullable().default(null),
+    noLoadSpeedRpm: pos('speedRpm'),
+    noLoadCurrentA: pos('currentA'),
+    stallTorqueNm: pos('torqueNm'),
+    stallCurrentA: pos('surgeA'),
+    terminalResistanceOhm: pos('resistanceOhm').nullable().default(null),
+    inductanceH: pos('inductanceH').nullable().default(null),
+    rotorInertiaKgM2: pos('inertiaKgM2').nullable().default(null),
   })
   .refine((m) => m.stallCurrentA > m.noLoadCurrentA, {
     path: ['stallCurrentA'],
@@ -47,27 +48,27 @@ export const designInputSchema = z
       z.object({ source: z.literal('manual'), label: z.string().trim().min(1).max(120), params: motorParams }),
     ]),
     supply: z.object({
-      minV: pos().max(60),
-      nomV: pos().max(60),
-      maxV: pos().max(60),
+      minV: pos('voltageV').max(60),
+      nomV: pos('voltageV').max(60),
+      maxV: pos('voltageV').max(60),
       preset: z.string().max(40).nullable().default(null),
-      internalResistanceOhm: nonNeg().max(100).default(0),
-      continuousCurrentA: pos().max(1000).nullable().default(null),
-      currentLimitA: pos().max(1000).nullable().default(null),
+      internalResistanceOhm: nonNeg('resistanceOhm').max(100).default(0),
+      continuousCurrentA: pos('currentA').nullable().default(null),
+      currentLimitA: pos('currentA').nullable().default(null),
     }),
-    wiringResistanceOhm: nonNeg().max(100).default(0),
-    shuntResistanceOhm: nonNeg().max(100).default(0),
+    wiringResistanceOhm: nonNeg('resistanceOhm').max(100).default(0),
+    shuntResistanceOhm: nonNeg('resistanceOhm').max(100).default(0),
     logic: z.object({
-      railV: pos().max(15),
-      highV: pos().max(15),
-      lowV: nonNeg().max(5),
-      pinSourceCurrentA: pos().max(1),
-      pinSinkCurrentA: pos().max(1),
+      railV: pos('voltageV').max(15),
+      highV: pos('voltageV').max(15),
+      lowV: nonNeg('voltageV').max(5),
+      pinSourceCurrentA: pos('currentA').max(1),
+      pinSinkCurrentA: pos('currentA').max(1),
       resetPull: z.enum(['up', 'down', 'none']),
-      resetPullOhms: nonNeg().max(10_000_000),
-      resetPullTolerance: nonNeg().max(0.9),
+      resetPullOhms: nonNeg('resistanceOhm').max(10_000_000),
+      resetPullTolerance: z.number().min(0).max(0.9),
       sharedSupply: z
-        .object({ minSupplyV: pos().max(60), regulatorDropoutV: nonNeg().max(10).default(0) })
+        .object({ minSupplyV: pos('voltageV').max(60), regulatorDropoutV: nonNeg('voltageV').max(10).default(0) })
         .nullable()
         .default(null),
     }),
@@ -75,26 +76,26 @@ export const designInputSchema = z
       z.object({ mode: z.literal('onoff') }),
       z.object({
         mode: z.literal('pwm'),
-        frequencyHz: pos().max(2_000_000),
-        dutyMin: z.number().gt(0).max(1),
-        dutyMax: z.number().gt(0).max(1),
+        frequencyHz: pos('frequencyHz').max(2_000_000),
+        dutyMin: z.number().min(1e-6).max(1),
+        dutyMax: z.number().min(1e-6).max(1),
       }),
     ]),
     ambientMinC: z.number().min(-60).max(150),
     ambientMaxC: z.number().min(-60).max(150),
     load: z.discriminatedUnion('kind', [
-      z.object({ kind: z.literal('torque'), torqueNm: nonNeg() }),
-      z.object({ kind: z.literal('speed'), speedRpm: nonNeg() }),
+      z.object({ kind: z.literal('torque'), torqueNm: nonNeg('torqueNm') }),
+      z.object({ kind: z.literal('speed'), speedRpm: nonNeg('speedRpm') }),
       z.object({ kind: z.literal('stall-only') }),
     ]),
-    margins: z.object({ voltageDerating: z.number().gt(0).max(1).default(0.8), thermalMarginC: nonNeg().max(100).default(25) }),
-    driverSupplyV: pos().max(40).nullable().default(null),
+    margins: z.object({ voltageDerating: z.number().gt(0).max(1).default(0.8), thermalMarginC: z.number().min(0).max(100).default(25) }),
+    driverSupplyV: pos('voltageV').max(40).nullable().default(null),
     boardQuantity: z.number().int().min(1).max(1_000_000).default(100),
     stallProtection: z
       .discriminatedUnion('kind', [
         z.object({ kind: z.literal('none') }),
-        z.object({ kind: z.literal('current-limit'), limitA: pos().max(1000) }),
-        z.object({ kind: z.literal('cut-off'), afterS: pos().max(3600) }),
+        z.object({ kind: z.literal('current-limit'), limitA: pos('currentA') }),
+        z.object({ kind: z.literal('cut-off'), afterS: pos('timeS').max(3600) }),
       ])
       .default({ kind: 'none' }),
     resetStartIntent: z
@@ -137,6 +138,6 @@ export type ParsedDesignInput = z.output<typeof designInputSchema>;
 export const matchRequestSchema = z.object({
   includePending: z.boolean().default(false),
   input: designInputSchema.optional(),
-  revision: z.number().int().min(1).optional(),
+  revision: z.number().int().min(1).max(INT_UNSIGNED_MAX).optional(),
 });
 export type MatchRequest = z.output<typeof matchRequestSchema>;

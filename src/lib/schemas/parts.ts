@@ -4,11 +4,12 @@
  */
 import { z } from 'zod';
 import { LIFECYCLES, PART_CATEGORIES, REVIEW_STATUSES } from '../domain/parts.ts';
+import { countIn, INT_UNSIGNED_MAX, positiveIn, zeroOrIn, type RangeName } from './bounds.ts';
 
 const num = (label: string) => z.number({ error: `${label} must be a number` }).finite();
-const pos = (label: string) => num(label).positive({ error: `${label} must be above zero` });
-const nonNeg = (label: string) => num(label).nonnegative({ error: `${label} cannot be negative` });
-const optPos = (label: string) => pos(label).nullable().default(null);
+const pos = (label: string, range: RangeName) => positiveIn(range, label);
+const nonNeg = (label: string, range: RangeName) => zeroOrIn(range, label);
+const optPos = (label: string, range: RangeName) => pos(label, range).nullable().default(null);
 
 export const isoDateSchema = z
   .string()
@@ -30,36 +31,36 @@ export const mpnSchema = text('Part number', 80).regex(/^[A-Za-z0-9][A-Za-z0-9._
 });
 
 export const zthPointSchema = z.object({
-  pulseS: pos('Zth pulse length').max(10_000),
-  zthCPerW: pos('Zth'),
+  pulseS: pos('Zth pulse length', 'timeS').max(10_000),
+  zthCPerW: pos('Zth', 'thermalCPerW'),
 });
 
 export const rdsOnPointSchema = z.object({
-  vgsV: pos('VGS'),
+  vgsV: pos('VGS', 'voltageV'),
   tjC: num('Tj').min(-55).max(200).default(25),
-  maxOhm: pos('RDS(on) max'),
-  typOhm: optPos('RDS(on) typ'),
-  idA: optPos('ID'),
+  maxOhm: pos('RDS(on) max', 'resistanceOhm'),
+  typOhm: optPos('RDS(on) typ', 'resistanceOhm'),
+  idA: optPos('ID', 'currentA'),
 });
 
 export const mosfetParamsSchema = z
   .object({
     channel: z.enum(['n', 'p'], { error: 'Channel is n or p' }),
-    vdsMaxV: pos('VDS max'),
-    vgsMaxV: pos('VGS max'),
-    vgsThMinV: pos('VGS(th) min'),
-    vgsThMaxV: pos('VGS(th) max'),
-    vgsThTestCurrentA: pos('VGS(th) test current').default(0.00025),
-    idContinuousA: pos('ID continuous'),
-    idPulsedA: pos('ID pulsed'),
-    qgTotalNc: pos('Qg'),
-    qgTestVgsV: pos('Qg test VGS'),
-    qgsNc: optPos('Qgs'),
-    qgdNc: optPos('Qgd'),
-    vPlateauV: optPos('Plateau voltage'),
-    rthJaCPerW: pos('RθJA'),
+    vdsMaxV: pos('VDS max', 'ratingV'),
+    vgsMaxV: pos('VGS max', 'voltageV'),
+    vgsThMinV: pos('VGS(th) min', 'voltageV'),
+    vgsThMaxV: pos('VGS(th) max', 'voltageV'),
+    vgsThTestCurrentA: pos('VGS(th) test current', 'currentA').default(0.00025),
+    idContinuousA: pos('ID continuous', 'currentA'),
+    idPulsedA: pos('ID pulsed', 'surgeA'),
+    qgTotalNc: pos('Qg', 'chargeNc'),
+    qgTestVgsV: pos('Qg test VGS', 'voltageV'),
+    qgsNc: optPos('Qgs', 'chargeNc'),
+    qgdNc: optPos('Qgd', 'chargeNc'),
+    vPlateauV: optPos('Plateau voltage', 'voltageV'),
+    rthJaCPerW: pos('RθJA', 'thermalCPerW'),
     tjMaxC: num('Tj max').min(25).max(250),
-    bodyDiodeVfV: optPos('Body-diode VF'),
+    bodyDiodeVfV: optPos('Body-diode VF', 'voltageV'),
     rdsOn: z.array(rdsOnPointSchema).min(1, { error: 'Give at least one RDS(on) line with its VGS' }).max(8),
     zthPoints: z.array(zthPointSchema).max(12).default([]),
   })
@@ -108,18 +109,18 @@ export const driverParamsSchema = z
     kind: z.enum(['gate-driver', 'level-shifter'], { error: 'Kind is gate-driver or level-shifter' }),
     channels: z.number({ error: 'Channels must be a number' }).int().min(1).max(8),
     inverting: z.boolean({ error: 'Inverting is true or false' }),
-    supplyMinV: pos('Supply min'),
-    supplyMaxV: pos('Supply max'),
+    supplyMinV: pos('Supply min', 'voltageV'),
+    supplyMaxV: pos('Supply max', 'voltageV'),
     inputLogic: z.enum(['fixed', 'ratio', 'input-rail'], { error: 'Input logic is fixed, ratio or input-rail' }),
-    inputHighMin: pos('VIH min'),
-    inputLowMax: nonNeg('VIL max'),
-    outputHighDropV: nonNeg('Output high drop'),
-    outputLowMaxV: nonNeg('VOL max'),
-    sourceCurrentA: pos('Source current'),
-    sinkCurrentA: pos('Sink current'),
-    propagationDelayNs: pos('Propagation delay'),
+    inputHighMin: pos('VIH min', 'voltageV'),
+    inputLowMax: nonNeg('VIL max', 'voltageV'),
+    outputHighDropV: nonNeg('Output high drop', 'voltageV'),
+    outputLowMaxV: nonNeg('VOL max', 'voltageV'),
+    sourceCurrentA: pos('Source current', 'currentA'),
+    sinkCurrentA: pos('Sink current', 'currentA'),
+    propagationDelayNs: pos('Propagation delay', 'timeNs'),
     inputPull: z.enum(['up', 'down', 'none'], { error: 'Input pull is up, down or none' }),
-    inputPullOhms: optPos('Input pull resistance'),
+    inputPullOhms: optPos('Input pull resistance', 'resistanceOhm'),
   })
   .superRefine((p, ctx) => {
     if (p.supplyMinV > p.supplyMaxV) ctx.addIssue({ code: 'custom', path: ['supplyMinV'], message: 'Supply min is above supply max' });
@@ -131,29 +132,29 @@ export const driverParamsSchema = z
 
 export const diodeParamsSchema = z.object({
   kind: z.enum(['schottky', 'ultrafast', 'fast', 'general'], { error: 'Kind is schottky, ultrafast, fast or general' }),
-  vrrmV: pos('VRRM'),
-  ifAvA: pos('IF(AV)'),
-  ifsmA: pos('IFSM'),
-  vfV: pos('VF'),
-  vfAtIfA: pos('VF test current'),
-  trrNs: optPos('trr'),
-  ifrmA: optPos('IFRM'),
-  rthJaCPerW: optPos('RθJA'),
+  vrrmV: pos('VRRM', 'ratingV'),
+  ifAvA: pos('IF(AV)', 'currentA'),
+  ifsmA: pos('IFSM', 'surgeA'),
+  vfV: pos('VF', 'voltageV'),
+  vfAtIfA: pos('VF test current', 'currentA'),
+  trrNs: optPos('trr', 'timeNs'),
+  ifrmA: optPos('IFRM', 'surgeA'),
+  rthJaCPerW: optPos('RθJA', 'thermalCPerW'),
   tjMaxC: num('Tj max').min(25, { error: 'Tj max: at least 25 °C' }).max(250, { error: 'Tj max: at most 250 °C' }).nullable().default(null),
 });
 
 export const motorParamsSchema = z
   .object({
-    ratedVoltageV: pos('Rated voltage'),
-    voltageMinV: optPos('Voltage min'),
-    voltageMaxV: optPos('Voltage max'),
-    noLoadSpeedRpm: pos('No-load speed'),
-    noLoadCurrentA: pos('No-load current'),
-    stallTorqueNm: pos('Stall torque'),
-    stallCurrentA: pos('Stall current'),
-    terminalResistanceOhm: optPos('Terminal resistance'),
-    inductanceH: optPos('Inductance'),
-    rotorInertiaKgM2: optPos('Rotor inertia'),
+    ratedVoltageV: pos('Rated voltage', 'voltageV'),
+    voltageMinV: optPos('Voltage min', 'voltageV'),
+    voltageMaxV: optPos('Voltage max', 'voltageV'),
+    noLoadSpeedRpm: pos('No-load speed', 'speedRpm'),
+    noLoadCurrentA: pos('No-load current', 'currentA'),
+    stallTorqueNm: pos('Stall torque', 'torqueNm'),
+    stallCurrentA: pos('Stall current', 'surgeA'),
+    terminalResistanceOhm: optPos('Terminal resistance', 'resistanceOhm'),
+    inductanceH: optPos('Inductance', 'inductanceH'),
+    rotorInertiaKgM2: optPos('Rotor inertia', 'inertiaKgM2'),
   })
   .superRefine((p, ctx) => {
     if (p.noLoadCurrentA >= p.stallCurrentA)
@@ -165,17 +166,17 @@ export const motorParamsSchema = z
   });
 
 export const priceBreakSchema = z.object({
-  qty: z.number({ error: 'Quantity must be a number' }).int({ error: 'Quantity must be whole' }).min(1),
-  unitPrice: pos('Unit price'),
+  qty: countIn(1, 'Quantity'),
+  unitPrice: pos('Unit price', 'unitPrice'),
 });
 
 export const partSourceSchema = z
   .object({
     distributor: text('Distributor', 120),
     sku: text('SKU', 80),
-    moq: z.number({ error: 'MOQ must be a number' }).int().min(1).default(1),
+    moq: countIn(1, 'MOQ').default(1),
     leadTimeDays: z.number({ error: 'Lead time must be a number' }).int().min(0).max(1000).default(0),
-    stockQty: z.number({ error: 'Stock must be a number' }).int().min(0).default(0),
+    stockQty: countIn(0, 'Stock').default(0),
     currency: z
       .string()
       .regex(/^[A-Z]{3}$/, { error: 'Currency is a three-letter ISO 4217 code' })
@@ -225,7 +226,7 @@ export const partInputSchema = z.discriminatedUnion(
 );
 export type PartInput = z.infer<typeof partInputSchema>;
 
-const versionSchema = z.number({ error: 'version is required (the version you loaded)' }).int().min(1);
+const versionSchema = z.number({ error: 'version is required (the version you loaded)' }).int().min(1).max(INT_UNSIGNED_MAX);
 
 /** PUT /api/parts/:id: the whole record as loaded, with the version it was loaded at. */
 export const partUpdateSchema = z.intersection(partInputSchema, z.object({ version: versionSchema }));

@@ -20,6 +20,9 @@ function tokenHash(token: string): Buffer {
   return Buffer.from(sha256(new TextEncoder().encode(token)));
 }
 
+/** A name for the token in rate-limit buckets (its SHA-256 in hex: the token itself is never stored). */
+export const tokenBucketId = (token: string): string => tokenHash(token).toString('hex');
+
 export interface IssueInput {
   userId: number;
   purpose: TokenPurpose;

@@ -1,8 +1,9 @@
 /**
  * The one place an error becomes a response (called by the middleware around every route):
  * a ServiceError → its status in the one shape {error, issues, …details}; the database not answering →
- * 503; anything else is a bug → logged, and 500 in the same shape (never an empty body).
+ * 503; anything else is a bug → logged with an id, and 500 in the same shape with that id (never an empty body).
  */
+import { randomUUID } from 'node:crypto';
 import { jsonError } from './responses.ts';
 import { ServiceError } from '../services/errors.ts';
 
@@ -42,9 +43,12 @@ export function errorResponse(err: unknown, api: boolean): Response {
       headers: { 'Content-Type': 'text/plain; charset=utf-8', 'Cache-Control': 'no-store', 'Retry-After': '5' },
     });
   }
-  console.error('[stallpoint] unhandled error:', err);
-  if (api) return jsonError(500, 'Something went wrong on the server; it has been logged.');
-  return new Response('Something went wrong on the server; it has been logged.', {
+  // An id in the log line and in the answer, so a report of the answer finds its stack trace.
+  const errorId = randomUUID();
+  console.error(`[stallpoint] unhandled error ${errorId}:`, err);
+  const said = `Something went wrong on the server; it has been logged as ${errorId}.`;
+  if (api) return Response.json({ error: said, issues: [], errorId }, { status: 500, headers: { 'Cache-Control': 'no-store' } });
+  return new Response(said, {
     status: 500,
     headers: { 'Content-Type': 'text/plain; charset=utf-8', 'Cache-Control': 'no-store' },
   });

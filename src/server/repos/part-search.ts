@@ -105,8 +105,15 @@ function motorFilters(q: Knex.QueryBuilder, f: PartListQuery): void {
   if (f.stallTorqueMinNm !== undefined) q.where('w.stall_torque_nm', '>=', f.stallTorqueMinNm);
 }
 
+/** Who is looking: without approvedOrOwnedBy every part; with it, approved parts and that user's own. */
+export interface PartScope {
+  approvedOrOwnedBy?: number;
+}
+/** A list query with the viewer's scope (services/parts-access.ts listingScope). */
+export type ScopedPartQuery = PartListQuery & PartScope;
+
 /** parts joined to the category table (when a category is chosen), with every filter of the query applied. */
-export function filteredParts(db: Db, f: PartListQuery): Knex.QueryBuilder {
+export function filteredParts(db: Db, f: ScopedPartQuery): Knex.QueryBuilder {
   const q = db('parts');
   if (f.category) {
     const { table, alias } = PARAM_TABLE[f.category];
@@ -115,6 +122,8 @@ export function filteredParts(db: Db, f: PartListQuery): Knex.QueryBuilder {
   }
   if (f.lifecycle?.length) q.whereIn('parts.lifecycle', f.lifecycle);
   if (f.reviewStatus?.length) q.whereIn('parts.review_status', f.reviewStatus);
+  const owner = f.approvedOrOwnedBy;
+  if (owner !== undefined) q.where((w) => w.where('parts.review_status', 'approved').orWhere('parts.created_by', owner));
   if (f.package) q.where('parts.package', f.package);
   return q;
 }
@@ -128,7 +137,7 @@ export function applySort(q: Knex.QueryBuilder, sort: string | undefined): Knex.
   return q.orderBy([{ column: 'parts.mpn' }, { column: 'parts.id' }]);
 }
 
-export async function countFiltered(db: Db, f: PartListQuery): Promise<number> {
+export async function countFiltered(db: Db, f: ScopedPartQuery): Promise<number> {
   const row = await filteredParts(db, f).count({ n: 'parts.id' }).first();
   return Number(row?.n ?? 0);
 }
@@ -141,13 +150,13 @@ export interface SearchTextRow {
 }
 
 /** Id and text of every part the filters keep, in sort order (the input of the fuzzy text match). */
-export async function filteredTextRows(db: Db, f: PartListQuery, limit: number): Promise<SearchTextRow[]> {
+export async function filteredTextRows(db: Db, f: ScopedPartQuery, limit: number): Promise<SearchTextRow[]> {
   const q = filteredParts(db, f).select('parts.id', 'parts.manufacturer', 'parts.mpn', 'parts.description');
   return applySort(q, f.sort).limit(limit);
 }
 
 /** One page of part ids in sort order. */
-export async function filteredIdsPage(db: Db, f: PartListQuery, offset: number, limit: number): Promise<number[]> {
+export async function filteredIdsPage(db: Db, f: ScopedPartQuery, offset: number, limit: number): Promise<number[]> {
   const rows: { id: number }[] = await applySort(filteredParts(db, f).select('parts.id'), f.sort).offset(offset).limit(limit);
   return rows.map((r) => r.id);
 }

@@ -1,9 +1,9 @@
 /**
- * Datasheet PDFs: checked by their bytes and by parsing (pdf-lib, page count), SHA-256 recorded, a
- * duplicate refused, stored under a generated name in the datasheet store, recorded in the audit trail.
+ * Datasheet PDFs: checked by their bytes, SHA-256 taken and a duplicate refused before any parsing, then
+ * inspected within a budget (worker thread: validity, page count), stored under a generated name in the
+ * datasheet store, recorded in the audit trail.
  */
 import { createHash, randomUUID } from 'node:crypto';
-import { PDFDocument } from 'pdf-lib';
 import { db } from '../db.ts';
 import type { SessionUser } from '../auth/types.ts';
 import { datasheetRevisionSchema, type DatasheetView } from '../../lib/schemas/parts.ts';
@@ -12,6 +12,7 @@ import { findPartRow } from '../repos/part-writes.ts';
 import { insertAuditEvent } from '../repos/audit.ts';
 import { datasheetStore } from '../storage/index.ts';
 import { notFound, ServiceError } from './errors.ts';
+import { inspectPdf, PDF_INSPECTION_BUDGET } from './pdf-inspection.ts';
 
 export const MAX_DATASHEET_BYTES = 20 * 1024 * 1024;
 const PDF_MAGIC = [0x25, 0x50, 0x44, 0x46, 0x2d]; // "%PDF-"
@@ -34,21 +35,35 @@ function view(r: DatasheetRecord): DatasheetView {
   return rest;
 }
 
-async function pageCount(bytes: Uint8Array): Promise<number> {
-  const isPdf = PDF_MAGIC.every((b, i) => bytes[i] === b);
-  if (!isPdf)
+function checkMagic(bytes: Uint8Array): void {
+  if (!PDF_MAGIC.every((b, i) => bytes[i] === b))
     throw new ServiceError(415, 'Only PDF datasheets are accepted; this file is not a PDF.', [
       { path: 'file', message: 'does not start with %PDF-' },
     ]);
-  try {
-    const doc = await PDFDocument.load(bytes, { ignoreEncryption: true, updateMetadata: false });
-    const pages = doc.getPageCount();
-    if (pages < 1) throw new Error('no pages');
-    return pages;
-  } catch {
-    throw new ServiceError(415, 'The file starts like a PDF but could not be read as one.', [
-      { path: 'file', message: 'not a readable PDF' },
-    ]);
+}
+
+/** The page count from the bounded inspection (src/server/services/pdf-inspection.ts), or a refusal naming the file. */
+async function pageCount(bytes: Uint8Array): Promise<number> {
+  const result = await inspectPdf(bytes);
+  if (result.ok) return result.pages;
+  const { heapMb, deadlineMs, unpackedBytes } = PDF_INSPECTION_BUDGET;
+  switch (result.reason) {
+    case 'unpacked-too-large':
+      throw new ServiceError(413, 'The PDF unpacks to more than Stallpoint inspects; it was not stored.', [
+        { path: 'file', message: `its object streams unpack to more than ${unpackedBytes / 1024 / 1024} MB` },
+      ]);
+    case 'out-of-memory':
+      throw new ServiceError(413, 'Reading this PDF needs more memory than Stallpoint allows; it was not stored.', [
+        { path: 'file', message: `needs more than ${heapMb} MB to read` },
+      ]);
+    case 'too-slow':
+      throw new ServiceError(413, 'Reading this PDF takes longer than Stallpoint allows; it was not stored.', [
+        { path: 'file', message: `not read within ${deadlineMs / 1000} s` },
+      ]);
+    default:
+      throw new ServiceError(415, 'The file starts like a PDF but could not be read as one.', [
+        { path: 'file', message: result.reason === 'no-pages' ? 'a PDF without pages' : 'not a readable PDF' },
+      ]);
   }
 }
 
@@ -66,13 +81,15 @@ export async function addDatasheet(user: SessionUser, partId: number, upload: Da
   if (upload.bytes.byteLength === 0) throw new ServiceError(400, 'The file is empty.', [{ path: 'file', message: '0 bytes' }]);
   if (upload.bytes.byteLength > MAX_DATASHEET_BYTES)
     throw new ServiceError(413, 'The file is larger than 20 MB.', [{ path: 'file', message: `at most ${MAX_DATASHEET_BYTES} bytes` }]);
-  const pages = await pageCount(upload.bytes);
+  checkMagic(upload.bytes);
+  // Hash and duplicate check first: a file already attached is never parsed again.
   const sha256 = createHash('sha256').update(upload.bytes).digest('hex');
   const duplicate = await findDatasheetBySha(db(), partId, sha256);
   if (duplicate)
     throw new ServiceError(409, 'This exact file is already attached to the part.', [
       { path: 'file', message: `same SHA-256 as datasheet ${duplicate.id}` },
     ]);
+  const pages = await pageCount(upload.bytes);
   const storageKey = `${randomUUID()}.pdf`;
   await datasheetStore().put(storageKey, upload.bytes);
   try {

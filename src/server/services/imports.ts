@@ -4,7 +4,6 @@
  * once per Idempotency-Key (a repeat replays the stored result; the same key with another file is a 409).
  */
 import { createHash } from 'node:crypto';
-import Papa from 'papaparse';
 import { db, type Db } from '../db.ts';
 import type { SessionUser } from '../auth/types.ts';
 import { partInputSchema, type PartInput } from '../../lib/schemas/parts.ts';
@@ -13,6 +12,7 @@ import { findPartsByMpns, loadPart } from '../repos/part-writes.ts';
 import { insertAuditEvent } from '../repos/audit.ts';
 import { claimImportKey, completeImportRequest, findImportRequest } from '../repos/import-requests.ts';
 import { ServiceError } from './errors.ts';
+import { readCsvRecords, type CsvRecord } from '../../lib/csv.ts';
 import { CSV_COLUMNS, columnForPath, csvRowToInput } from './parts-csv.ts';
 import { toNewPart } from './parts.ts';
 
@@ -42,29 +42,6 @@ export interface ImportReport {
   errors: ImportError[];
   counts: { rows: number; ready: number; invalid: number; created: number };
   replayed?: boolean;
-}
-
-interface CsvRecord {
-  line: number;
-  cells: string[];
-}
-
-/** Records with the file line each starts on (quoted fields may span lines); blank lines dropped. */
-function readRecords(text: string): CsvRecord[] {
-  const normalised = text.replace(/^\uFEFF/, '').replace(/\r\n?/g, '\n');
-  const records: CsvRecord[] = [];
-  let start = 0;
-  let line = 1;
-  Papa.parse<string[]>(normalised, {
-    header: false,
-    skipEmptyLines: false,
-    step: (result) => {
-      records.push({ line, cells: result.data.map((c) => String(c ?? '')) });
-      line += (normalised.slice(start, result.meta.cursor).match(/\n/g) ?? []).length;
-      start = result.meta.cursor;
-    },
-  });
-  return records.filter((r) => r.cells.some((c) => c.trim() !== ''));
 }
 
 interface ParsedRow {
@@ -135,7 +112,7 @@ async function markDuplicates(k: Db, rows: ParsedRow[], errors: ImportError[]): 
 }
 
 async function analyse(k: Db, text: string): Promise<{ rows: ParsedRow[]; errors: ImportError[] }> {
-  const records = readRecords(text);
+  const records = readCsvRecords(text);
   if (records.length === 0) return { rows: [], errors: [{ line: 1, column: '(file)', message: 'the file is empty' }] };
   const header = records[0].cells.map((h) => h.trim());
   const errors = headerErrors(header);

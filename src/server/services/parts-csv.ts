@@ -3,6 +3,7 @@
  * One part per row; column names carry units; columns that do not apply to a row's category stay empty.
  */
 import type { Part, PartCategory } from '../../lib/domain/parts.ts';
+import { restoreFormulaText } from '../../lib/csv.ts';
 
 export const RDS_ON_POINTS_IN_CSV = 4;
 const RDS_FIELDS = ['VgsV', 'MaxOhm', 'TypOhm', 'IdA', 'TjC'] as const;
@@ -138,9 +139,6 @@ export interface CellError {
 
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 
-/** Spreadsheet formula guard from our own export: a leading ' before = + - @ is dropped again. */
-const unguard = (s: string): string => (/^'[=+\-@\t\r]/.test(s) ? s.slice(1) : s);
-
 function readValue(column: string, raw: string, errors: CellError[]): unknown {
   if (column === 'inverting') {
     if (raw === 'true' || raw === 'false') return raw === 'true';
@@ -195,7 +193,7 @@ function readZthPoints(get: (c: string) => string, errors: CellError[]): Record<
 /** A CSV record → the object the part schema validates, plus errors found while reading cells. */
 export function csvRowToInput(record: Record<string, string>): { input: Record<string, unknown>; errors: CellError[] } {
   const errors: CellError[] = [];
-  const get = (c: string): string => unguard((record[c] ?? '').trim());
+  const get = (c: string): string => restoreFormulaText((record[c] ?? '').trim());
   const category = get('category') as PartCategory;
   const input: Record<string, unknown> = {};
   for (const c of HEAD_COLUMNS) if (get(c) !== '') input[c] = get(c);

@@ -5,8 +5,8 @@
 import Fuse from 'fuse.js';
 import { db } from '../db.ts';
 import type { Part } from '../../lib/domain/parts.ts';
-import type { PartListPage, PartListQuery } from '../../lib/schemas/parts.ts';
-import { countFiltered, filteredIdsPage, filteredTextRows, type SearchTextRow } from '../repos/part-search.ts';
+import type { PartListPage } from '../../lib/schemas/parts.ts';
+import { countFiltered, filteredIdsPage, filteredTextRows, type ScopedPartQuery, type SearchTextRow } from '../repos/part-search.ts';
 import { loadPartsByIds } from '../repos/part-writes.ts';
 
 /** The text match looks at this many filtered parts at most (the catalogue is far smaller). */
@@ -31,13 +31,14 @@ export function fuzzyMatch(rows: SearchTextRow[], text: string, keepOrder: boole
 }
 
 /** All ids the query selects, in order (text relevance unless a sort was asked for). */
-export async function matchingIds(query: PartListQuery, limit = TEXT_SEARCH_CEILING): Promise<number[]> {
+export async function matchingIds(query: ScopedPartQuery, limit = TEXT_SEARCH_CEILING): Promise<number[]> {
   const rows = await filteredTextRows(db(), query, limit);
   if (!query.q) return rows.map((r) => r.id);
   return fuzzyMatch(rows, query.q, query.sort !== undefined);
 }
 
-export async function searchParts(query: PartListQuery): Promise<PartListPage<Part>> {
+/** The list as the viewer may see it: pass the query with listingScope(user) (services/parts-access.ts). */
+export async function searchParts(query: ScopedPartQuery): Promise<PartListPage<Part>> {
   const offset = (query.page - 1) * query.pageSize;
   if (!query.q) {
     const [total, ids] = await Promise.all([countFiltered(db(), query), filteredIdsPage(db(), query, offset, query.pageSize)]);

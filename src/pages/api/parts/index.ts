@@ -4,11 +4,12 @@ import { searchParts } from '../../../server/services/parts-search.ts';
 import { exportPartsCsv } from '../../../server/services/parts-export.ts';
 import { csvDownload } from '../../../server/http/downloads.ts';
 import { createPart } from '../../../server/services/parts.ts';
+import { listingScope } from '../../../server/services/parts-access.ts';
 import { readJson, readQuery, signedInUser } from '../../../server/http/request.ts';
 
 /** GET /api/parts: filtered, sorted, paged list → { items, total, page, pageSize }; format=csv exports. */
-export const GET: APIRoute = async ({ url }) => {
-  const query = readQuery(url, partListQuerySchema);
+export const GET: APIRoute = async ({ url, locals }) => {
+  const query = { ...readQuery(url, partListQuerySchema), ...listingScope(locals.user) };
   if (query.format === 'csv') return csvDownload(await exportPartsCsv(query));
   return Response.json(await searchParts(query), { headers: { 'Cache-Control': 'no-store' } });
 };

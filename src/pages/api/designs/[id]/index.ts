@@ -1,11 +1,12 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
+import { INT_UNSIGNED_MAX } from '../../../../lib/schemas/bounds.ts';
 import { designInputSchema } from '../../../../lib/schemas/design.ts';
 import { getDesign, updateDesign } from '../../../../server/services/designs.ts';
 import { readJson, readQuery, routeId, signedInUser } from '../../../../server/http/request.ts';
 
 const getQuery = z.object({ revision: z.coerce.number().int().min(1).optional() });
-const putBody = z.object({ version: z.number().int().min(1), input: designInputSchema });
+const putBody = z.object({ version: z.number().int().min(1).max(INT_UNSIGNED_MAX), input: designInputSchema });
 
 /** GET /api/designs/:id (?revision=n for an earlier one). */
 export const GET: APIRoute = async ({ params, url }) => {
