@@ -13,6 +13,7 @@ import { startMariaDb, stopMariaDb } from '../../scripts/stack/mariadb.ts';
 import {
   commitImport,
   diodeCsv,
+  freeze,
   root,
   rowsModifiedInFlight,
   signIn,
@@ -92,7 +93,7 @@ describe('MariaDB frozen with SIGSTOP', () => {
   it('answers 503 JSON with Retry-After within a few seconds on every path, and serves again after SIGCONT', async () => {
     const designer = await signIn(stack.url, 'designer');
     const pid = stack.mariadbPid();
-    process.kill(pid, 'SIGSTOP');
+    await freeze(pid);
     try {
       const health = await timed(() => fetch(`${stack.url}/api/health`));
       await expectUnavailable(health.value, false);

@@ -4,7 +4,7 @@
  * in the supervised child process. The tests kill, freeze and stop its parts and read its log.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -189,4 +189,28 @@ export function commitImport(url: string, cookie: string, csv: string, key: stri
 export function rowsModifiedInFlight(db: MariaDbInstance): number {
   const out = rootSql(db, 'SELECT COALESCE(SUM(trx_rows_modified), 0) FROM information_schema.INNODB_TRX');
   return Number(out.trim());
+}
+
+/** State letters of every thread of `pid` (from /proc: T = stopped). */
+function threadStates(pid: number): string[] {
+  return readdirSync(`/proc/${pid}/task`).map((tid) => {
+    try {
+      return readFileSync(`/proc/${pid}/task/${tid}/stat`, 'utf8').replace(/^.*\) /s, '')[0];
+    } catch {
+      return 'T'; // a thread that ended meanwhile
+    }
+  });
+}
+
+/**
+ * SIGSTOP, and wait until every thread of the process has actually stopped: the signal is only queued
+ * by kill(), and a thread already on a CPU could still answer a query in the meantime.
+ */
+export async function freeze(pid: number): Promise<void> {
+  process.kill(pid, 'SIGSTOP');
+  const end = Date.now() + 5_000;
+  while (!threadStates(pid).every((s) => s === 'T' || s === 't')) {
+    if (Date.now() > end) throw new Error(`process ${pid} did not stop`);
+    await new Promise((r) => setTimeout(r, 10));
+  }
 }
