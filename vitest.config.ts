@@ -15,6 +15,8 @@ export default defineConfig({
         extends: true,
         test: { name: 'api', include: ['tests/db/**/*.test.ts', 'tests/api/**/*.test.ts'], setupFiles: ['tests/helpers/isolate-file.ts'] },
       },
+      // Each fault file runs its own `npm start` (tests/faults/supervised-stack.ts) and breaks it on purpose.
+      { extends: true, test: { name: 'faults', include: ['tests/faults/**/*.test.ts'], testTimeout: 90_000, hookTimeout: 360_000 } },
       {
         extends: true,
         test: { name: 'e2e', include: ['tests/e2e/**/*.test.ts'], testTimeout: 60_000, setupFiles: ['tests/helpers/isolate-file.ts'] },

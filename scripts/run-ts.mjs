@@ -11,4 +11,6 @@ if (!file) {
   console.error('usage: node scripts/run-ts.mjs <script.ts> [args]');
   process.exit(2);
 }
+// The script sees its own arguments from process.argv[2] on, as under `node script args`.
+process.argv.splice(1, 1);
 await import(pathToFileURL(path.resolve(file)).href);

@@ -28,9 +28,10 @@ async function guarded(context: APIContext, next: () => Promise<Response>): Prom
   context.locals.session = null;
   try {
     Object.assign(context.locals, await sessionFromCookies(db(), context.cookies, context.url));
-  } catch {
-    // The database is down: public routes (health check, calculators) still answer, the rest say so.
-    if (accessFor(context.routePattern, context.request.method) !== 'public') return unavailable(context);
+  } catch (err) {
+    // The database is down: public routes (health check, calculators, sign-in) still go on and answer
+    // for themselves; the rest say so here (503 with Retry-After, src/server/http/error-response.ts).
+    if (accessFor(context.routePattern, context.request.method) !== 'public') return errorResponse(err, isApiRoute(context.routePattern));
   }
   // No route matched: Astro renders the 404 page, but an API address answers in the API's own shape.
   if (context.routePattern === '/404' && context.url.pathname.startsWith('/api/')) return jsonError(404, 'No API route at this address.');
@@ -64,12 +65,4 @@ function refuse(context: APIContext, decision: Exclude<Decision, 'allow'>): Resp
 async function forbiddenPage(context: APIContext): Promise<Response> {
   const page = await context.rewrite('/account/no-access');
   return new Response(page.body, { status: 403, statusText: 'Forbidden', headers: page.headers });
-}
-
-function unavailable(context: APIContext): Response {
-  if (isApiRoute(context.routePattern)) return jsonError(503, 'The database is not answering; try again in a moment.');
-  return new Response('Stallpoint cannot reach its database right now. Try again in a moment.', {
-    status: 503,
-    headers: { 'Content-Type': 'text/plain; charset=utf-8', 'Cache-Control': 'no-store' },
-  });
 }

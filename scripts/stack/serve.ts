@@ -1,6 +1,7 @@
 /**
  * Our own http.Server in front of Astro's middleware-mode handler: static files from dist/client,
- * security headers, and a graceful close (in-flight requests finish, then the app's knex pool closes).
+ * security headers, and a graceful close (in-flight requests finish within a grace, then the app's knex
+ * pool closes). `npm start` runs it in a supervised child process (app-server.ts); `npm test` in-process.
  */
 import http from 'node:http';
 import { createReadStream, existsSync, statSync } from 'node:fs';
@@ -8,6 +9,7 @@ import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { securityHeaders } from '../../src/server/http/security-headers.ts';
 import { readConfig } from '../../src/server/config.ts';
+import { closeWhenClosing, gracefulClose } from './graceful.ts';
 
 const TYPES: Record<string, string> = {
   '.js': 'text/javascript; charset=utf-8',
@@ -87,12 +89,14 @@ export async function createListener(distDir: string): Promise<http.RequestListe
 export interface RunningServer {
   server: http.Server;
   url: string;
-  close(): Promise<void>;
+  /** Stops accepting, lets requests in flight finish for up to `graceMs`, closes the pool; false when some were cut. */
+  close(graceMs?: number): Promise<boolean>;
 }
 
 export async function startHttpServer(distDir: string, host: string, port: number): Promise<RunningServer> {
   const server = http.createServer(await createListener(distDir));
   server.keepAliveTimeout = 5_000;
+  const closing = closeWhenClosing(server);
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject);
     server.listen(port, host, () => resolve());
@@ -102,14 +106,11 @@ export async function startHttpServer(distDir: string, host: string, port: numbe
   return {
     server,
     url: `http://${host}:${actualPort}`,
-    async close() {
-      const closed = new Promise<void>((resolve) => server.close(() => resolve()));
-      server.closeIdleConnections();
-      const force = setTimeout(() => server.closeAllConnections(), 10_000);
-      await closed;
-      clearTimeout(force);
+    async close(graceMs = readConfig(process.env).shutdownGraceS * 1000) {
+      const allFinished = await gracefulClose(server, graceMs, closing.begin);
       const shutdown = (globalThis as Record<symbol, unknown>)[Symbol.for('stallpoint.shutdown')];
       if (typeof shutdown === 'function') await (shutdown as () => Promise<void>)();
+      return allFinished;
     },
   };
 }

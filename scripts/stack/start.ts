@@ -1,16 +1,29 @@
 /**
  * npm start: private MariaDB on loopback, migrations, demo seed, build when needed, serve.
- * Ctrl-C / SIGTERM (also during start-up): in-flight requests finish, the knex pool closes, and what
- * this run started stops again (a MariaDB it found running and reused is left running), exit 0.
+ * Supervision: the app server runs in a child process (app-server.ts) and is started again after a
+ * crash; the MariaDB this run started is started again after a crash (not after a clean shutdown
+ * someone asked for), both with backoff (supervisor.ts), every exit and restart logged.
+ * Ctrl-C / SIGTERM (also during start-up): the app server stops accepting, requests in flight finish
+ * (up to SHUTDOWN_GRACE_S), the knex pool closes, and what this run started stops again (a MariaDB it
+ * found running and reused is left running), exit 0.
  */
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { mkdirSync } from 'node:fs';
+import type { ChildProcess } from 'node:child_process';
 import { ensureEnvFile } from './env-file.ts';
-import { describeInstance, ensureDatabaseAndUser, ensureMariaDbInstalled, initDataDir, startMariaDb } from './mariadb.ts';
+import {
+  describeInstance,
+  ensureDatabaseAndUser,
+  ensureMariaDbInstalled,
+  initDataDir,
+  startMariaDb,
+  type MariaDbInstance,
+} from './mariadb.ts';
 import { migrateAndSeed } from './db-setup.ts';
 import { buildIfChanged } from './build.ts';
-import { startHttpServer } from './serve.ts';
+import { spawnAppServer, stopAppServer } from './app-process.ts';
+import { Supervisor } from './supervisor.ts';
 import { describeError, log } from './log.ts';
 import { Teardown, stopOnSignals } from './teardown.ts';
 import { demoPeople, DEMO_PASSWORD } from '../../db/seeds/demo.ts';
@@ -27,8 +40,25 @@ stopOnSignals(
   () => 0,
 );
 
+// Whatever happens, the app server child does not outlive this process.
+let appChild: ChildProcess | null = null;
+process.on('exit', () => appChild?.kill('SIGKILL'));
+
+/** Restarts the MariaDB this run started when it dies (a clean shutdown someone asked for is left alone). */
+function superviseMariaDb(db: MariaDbInstance): void {
+  const supervisor = new Supervisor({
+    name: 'MariaDB',
+    isCrash: (code, signal) => signal !== null || code !== 0,
+    restart: async () => ((await startMariaDb(db)) ? db.process : null),
+  });
+  supervisor.watch(db.process!);
+  // Added after the MariaDB step, so it runs first: no restart while the teardown shuts MariaDB down.
+  teardown.add('MariaDB supervision', () => supervisor.stop());
+}
+
 async function main(): Promise<void> {
-  const fileEnv = ensureEnvFile(path.join(root, '.env'));
+  // With DB_PASSWORD in the environment (e.g. a test's own stack) no .env is read or written.
+  const fileEnv = process.env.DB_PASSWORD ? {} : ensureEnvFile(path.join(root, '.env'));
   for (const [k, v] of Object.entries(fileEnv)) process.env[k] ??= v;
   process.env.ASTRO_TELEMETRY_DISABLED = '1';
   process.env.DATA_DIR ??= path.join(root, '.data');
@@ -39,6 +69,7 @@ async function main(): Promise<void> {
   const db = describeInstance(path.join(config.dataDir, 'mariadb'), config.db.port);
   if (initDataDir(db)) log(`created a new MariaDB data folder at ${db.dataDir}`);
   const startedDb = await startMariaDb(db, teardown);
+  if (startedDb) superviseMariaDb(db);
   ensureDatabaseAndUser(db, config.db.database, config.db.user, config.db.password);
   await migrateAndSeed(process.env, { seed: true });
   buildIfChanged(root);
@@ -46,16 +77,17 @@ async function main(): Promise<void> {
   teardown.add('mail sink', () => services.close());
   Object.assign(process.env, services.env);
   resetAppConfig();
-  let http;
-  try {
-    http = await startHttpServer(path.join(root, 'dist'), config.host, config.port);
-  } catch (err) {
-    if ((err as NodeJS.ErrnoException).code === 'EADDRINUSE') {
-      throw new Error(`port ${config.port} is in use (is Stallpoint already running?): stop the other server or set PORT to a free one.`);
-    }
-    throw err;
-  }
-  teardown.add('web server', () => http.close());
+  const graceMs = readConfig(process.env).shutdownGraceS * 1000;
+  const track = (child: ChildProcess): void => void (appChild = child);
+  const first = await spawnAppServer(root, process.env, track);
+  log(`app server pid ${first.child.pid}`);
+  const app = new Supervisor({
+    name: 'app server',
+    restart: async () => (await spawnAppServer(root, process.env, track)).child,
+  });
+  app.watch(first.child);
+  teardown.add('web server', () => app.stop((child) => stopAppServer(child, graceMs)));
+  const http = { url: first.url };
 
   console.log('');
   log(`Stallpoint is running at ${http.url}`);

@@ -92,7 +92,7 @@ export async function startThrowawayStack(root: string, teardown: Teardown = new
     Object.assign(process.env, services.env);
     resetAppConfig();
     const http = await startHttpServer(path.join(root, 'dist'), '127.0.0.1', await freePort());
-    teardown.add('web server', () => http.close());
+    teardown.add('web server', async () => void (await http.close(10_000)));
     return {
       env: { ...env, STALLPOINT_URL: http.url, MARIADB_DATADIR: db.dataDir, MARIADB_SOCKET: db.socketPath, MARIADB_PORT: String(dbPort) },
       url: http.url,

@@ -23,6 +23,17 @@ export const CONFIG_KEYS: readonly ConfigKey[] = [
   { key: 'DB_USER', defaultText: '`stallpoint`', meaning: 'app user (limited to that database)' },
   { key: 'DB_PASSWORD', defaultText: 'generated into `.env`', meaning: "app user's password" },
   { key: 'DB_POOL_MAX', defaultText: '`10`', meaning: 'knex pool size per app server' },
+  {
+    key: 'DB_QUERY_TIMEOUT_MS',
+    defaultText: '`5000`',
+    meaning:
+      'longest wait for one SQL statement of the app (and for a connection); a frozen or unreachable database then answers 503 instead of hanging. Migrations and seeds have no such limit',
+  },
+  {
+    key: 'SHUTDOWN_GRACE_S',
+    defaultText: '`30`',
+    meaning: 'on SIGTERM/Ctrl-C, how long requests in flight (imports included) may still run before their connections are cut',
+  },
   { key: 'DATA_DIR', defaultText: '`.data`', meaning: 'where the private MariaDB and stored datasheets live' },
   {
     key: 'PUBLIC_URL',
@@ -72,6 +83,8 @@ const envSchema = z.object({
   DB_USER: text('stallpoint'),
   DB_PASSWORD: z.string().default(''),
   DB_POOL_MAX: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).max(500).default(10)),
+  DB_QUERY_TIMEOUT_MS: z.preprocess(blankToUndefined, z.coerce.number().int().min(100).max(600_000).default(5_000)),
+  SHUTDOWN_GRACE_S: z.preprocess(blankToUndefined, z.coerce.number().min(0).max(3_600).default(30)),
   DATA_DIR: text('.data'),
   PUBLIC_URL: z.preprocess(
     blankToUndefined,
@@ -99,6 +112,8 @@ export interface DbConfig {
   user: string;
   password: string;
   poolMax: number;
+  /** Deadline of one statement and of getting a connection (src/server/knex-client.ts). */
+  queryTimeoutMs: number;
 }
 
 export interface MailConfig {
@@ -125,6 +140,8 @@ export interface AppConfig {
   sinkPort: number | null;
   calcRateLimitPerMin: number;
   trustProxy: boolean;
+  /** SIGTERM: how long requests in flight may still run. */
+  shutdownGraceS: number;
 }
 
 /** Raised when a variable does not parse; names every bad key. */
@@ -146,7 +163,15 @@ export function readConfig(env: NodeJS.ProcessEnv): AppConfig {
     nodeEnv: e.NODE_ENV ?? null,
     host: e.HOST,
     port: e.PORT,
-    db: { host: e.DB_HOST, port: e.DB_PORT, database: e.DB_NAME, user: e.DB_USER, password: e.DB_PASSWORD, poolMax: e.DB_POOL_MAX },
+    db: {
+      host: e.DB_HOST,
+      port: e.DB_PORT,
+      database: e.DB_NAME,
+      user: e.DB_USER,
+      password: e.DB_PASSWORD,
+      poolMax: e.DB_POOL_MAX,
+      queryTimeoutMs: e.DB_QUERY_TIMEOUT_MS,
+    },
     dataDir: e.DATA_DIR,
     publicUrl: e.PUBLIC_URL ?? null,
     mail: {
@@ -161,6 +186,7 @@ export function readConfig(env: NodeJS.ProcessEnv): AppConfig {
     sinkPort: e.SMTP_SINK_PORT ?? null,
     calcRateLimitPerMin: e.CALC_RATE_LIMIT_PER_MIN,
     trustProxy: e.TRUST_PROXY === '1',
+    shutdownGraceS: e.SHUTDOWN_GRACE_S,
   };
 }
 

@@ -11,7 +11,15 @@ describe('readConfig', () => {
     const c = readConfig({});
     expect(c.host).toBe('127.0.0.1');
     expect(c.port).toBe(4321);
-    expect(c.db).toEqual({ host: '127.0.0.1', port: 3407, database: 'stallpoint', user: 'stallpoint', password: '', poolMax: 10 });
+    expect(c.db).toEqual({
+      host: '127.0.0.1',
+      port: 3407,
+      database: 'stallpoint',
+      user: 'stallpoint',
+      password: '',
+      poolMax: 10,
+      queryTimeoutMs: 5000,
+    });
     expect(c.dataDir).toBe('.data');
     expect(c.publicUrl).toBeNull();
     expect(c.mail).toEqual({
@@ -26,6 +34,7 @@ describe('readConfig', () => {
     expect(c.sinkPort).toBeNull();
     expect(c.calcRateLimitPerMin).toBe(600);
     expect(c.trustProxy).toBe(false);
+    expect(c.shutdownGraceS).toBe(30);
   });
 
   it('reads set values and treats blank ones as unset', () => {
@@ -39,6 +48,8 @@ describe('readConfig', () => {
       MAIL_SINK: 'local',
       TRUST_PROXY: '1',
       HOST: '  ',
+      DB_QUERY_TIMEOUT_MS: '2500',
+      SHUTDOWN_GRACE_S: '0',
     });
     expect(c.port).toBe(8080);
     expect(c.db.port).toBe(3306);
@@ -49,6 +60,8 @@ describe('readConfig', () => {
     expect(c.mail.sinkLocal).toBe(true);
     expect(c.trustProxy).toBe(true);
     expect(c.host).toBe('127.0.0.1');
+    expect(c.db.queryTimeoutMs).toBe(2500);
+    expect(c.shutdownGraceS).toBe(0);
   });
 
   it.each([
@@ -60,6 +73,8 @@ describe('readConfig', () => {
     ['SMTP_SECURE', 'yes'],
     ['TRUST_PROXY', 'true'],
     ['CALC_RATE_LIMIT_PER_MIN', '-5'],
+    ['DB_QUERY_TIMEOUT_MS', '10'],
+    ['SHUTDOWN_GRACE_S', 'soon'],
   ])('refuses %s=%s naming the key', (key, value) => {
     let err: unknown;
     try {
