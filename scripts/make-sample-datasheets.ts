@@ -6,7 +6,7 @@
  * Output: data-samples/datasheets/<MPN>.pdf (one MOSFET, one diode, one gate driver). Every page carries a
  * banner saying the part is invented. The generator is exported so tests can build a PDF in memory:
  *
- *   import { makeDatasheetPdf } from '../scripts/make-sample-datasheets';
+ *   import { makeDatasheetPdf } from './make-sample-datasheets';
  *   const bytes = await makeDatasheetPdf(part);
  *
  * Text uses Source Sans 3 through the shared loader in src/server/reports/fonts.ts (Latin plus Greek subsets

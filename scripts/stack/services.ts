@@ -8,7 +8,7 @@ import { SMTPServer } from 'smtp-server';
 import { simpleParser } from 'mailparser';
 import knexFactory, { type Knex } from 'knex';
 import { knexConfig } from '../../knexfile.ts';
-import { insertCapturedMail } from '../../src/server/mail/captured.ts';
+import { insertCapturedMail } from '../../src/server/repos/captured-mail.ts';
 import { log } from './log.ts';
 import { DEFAULT_SINK_PORT, readConfig } from '../../src/server/config.ts';
 

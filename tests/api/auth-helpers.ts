@@ -3,7 +3,7 @@ import type { Knex } from 'knex';
 import request from 'supertest';
 import { appUrl } from '../helpers/stack.ts';
 import { hashPassword } from '../../src/server/auth/password.ts';
-import { createSession } from '../../src/server/auth/session.ts';
+import { createSession } from '../../src/server/repos/sessions.ts';
 import { SESSION_COOKIE } from '../../src/server/auth/session-cookie.ts';
 import type { Role } from '../../src/server/auth/types.ts';
 

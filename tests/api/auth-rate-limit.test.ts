@@ -5,7 +5,7 @@
  */
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { appDb } from '../helpers/stack.ts';
-import { consume, pruneBuckets, refund, reset } from '../../src/server/auth/rate-limit.ts';
+import { consume, pruneBuckets, refund, reset } from '../../src/server/repos/rate-limit.ts';
 import { accountBucket, addressBucket, SIGNIN_ACCOUNT_LIMIT, SIGNIN_ADDRESS_LIMIT } from '../../src/server/auth/signin.ts';
 import { createPerson, postJson, uniqueEmail } from './auth-helpers.ts';
 

@@ -10,7 +10,7 @@ import {
   SESSION_ABSOLUTE_MS,
   SESSION_IDLE_MS,
   SESSION_REFRESH_MS,
-} from '../../src/server/auth/session.ts';
+} from '../../src/server/repos/sessions.ts';
 import { createPerson, demoEmail, DEMO_PASSWORD, meStatus, postJson, signIn, uniqueEmail } from './auth-helpers.ts';
 
 const knex = appDb();

@@ -5,7 +5,7 @@
  */
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { appDb } from '../helpers/stack.ts';
-import { issueToken } from '../../src/server/auth/account-tokens.ts';
+import { issueToken } from '../../src/server/repos/account-tokens.ts';
 import { TOKEN_ADDRESS_LIMIT, TOKEN_USE_LIMIT, tokenUseBucket } from '../../src/server/services/people-accounts.ts';
 import { createPerson, postJson, uniqueEmail } from './auth-helpers.ts';
 

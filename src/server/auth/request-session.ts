@@ -1,7 +1,7 @@
 /** Reads the session cookie of a request into the user and session the middleware puts into locals. */
 import type { AstroCookies } from 'astro';
 import type { Db } from '../db.ts';
-import { validateSessionToken } from './session.ts';
+import { validateSessionToken } from '../repos/sessions.ts';
 import { deleteSessionCookie, SESSION_COOKIE, setSessionCookie } from './session-cookie.ts';
 import type { SessionInfo, SessionUser } from './types.ts';
 

@@ -5,9 +5,9 @@
  */
 import type { Db } from '../db.ts';
 import { hashPassword, verifyPassword } from './password.ts';
-import { consume, refund, reset, type RateLimit } from './rate-limit.ts';
-import { createSession } from './session.ts';
-import { findUserByEmail, normalizeEmail, sessionUserOf } from './users.ts';
+import { consume, refund, reset, type RateLimit } from '../repos/rate-limit.ts';
+import { createSession } from '../repos/sessions.ts';
+import { findUserByEmail, normalizeEmail, sessionUserOf } from '../repos/users.ts';
 import type { SessionInfo, SessionUser } from './types.ts';
 
 /** Failed attempts allowed per account in 15 minutes. */

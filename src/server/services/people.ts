@@ -5,9 +5,9 @@
 import type { Db } from '../db.ts';
 import type { Knex } from 'knex';
 import type { Person, Role, SessionUser } from '../auth/types.ts';
-import { findUserByEmail, findUserById, insertUser, listPeopleRows, replaceRoles, rolesOf, setActive, toPerson } from '../auth/users.ts';
-import { INVITE_VALID_HOURS, issueToken, withdrawTokens } from '../auth/account-tokens.ts';
-import { invalidateUserSessions } from '../auth/session.ts';
+import { findUserByEmail, findUserById, insertUser, listPeopleRows, replaceRoles, rolesOf, setActive, toPerson } from '../repos/users.ts';
+import { INVITE_VALID_HOURS, issueToken, withdrawTokens } from '../repos/account-tokens.ts';
+import { invalidateUserSessions } from '../repos/sessions.ts';
 import { inviteMessage } from '../mail/messages.ts';
 import { sendMail } from '../mail/send.ts';
 import { ServiceError } from './errors.ts';

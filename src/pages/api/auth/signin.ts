@@ -3,7 +3,7 @@ import { db } from '../../../server/db.ts';
 import { signInBody } from '../../../server/auth/schemas.ts';
 import { signIn } from '../../../server/auth/signin.ts';
 import { setSessionCookie } from '../../../server/auth/session-cookie.ts';
-import { invalidateSession } from '../../../server/auth/session.ts';
+import { invalidateSession } from '../../../server/repos/sessions.ts';
 import { readJson } from '../../../server/http/request.ts';
 import { jsonError } from '../../../server/http/responses.ts';
 

@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
 import { db } from '../../../server/db.ts';
 import { emptyBody } from '../../../server/auth/schemas.ts';
-import { invalidateUserSessions } from '../../../server/auth/session.ts';
+import { invalidateUserSessions } from '../../../server/repos/sessions.ts';
 import { deleteSessionCookie } from '../../../server/auth/session-cookie.ts';
 import { readJson, signedInUser } from '../../../server/http/request.ts';
 

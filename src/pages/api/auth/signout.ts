@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
 import { db } from '../../../server/db.ts';
 import { emptyBody } from '../../../server/auth/schemas.ts';
-import { invalidateSession } from '../../../server/auth/session.ts';
+import { invalidateSession } from '../../../server/repos/sessions.ts';
 import { deleteSessionCookie } from '../../../server/auth/session-cookie.ts';
 import { readJson } from '../../../server/http/request.ts';
 

@@ -7,7 +7,7 @@ import { sha256 } from '@oslojs/crypto/sha2';
 import { constantTimeEqual } from '@oslojs/crypto/subtle';
 import { encodeBase32LowerCaseNoPadding } from '@oslojs/encoding';
 import type { Db } from '../db.ts';
-import type { SessionInfo, SessionUser } from './types.ts';
+import type { SessionInfo, SessionUser } from '../auth/types.ts';
 import { findUserById, sessionUserOf } from './users.ts';
 
 const HOUR_MS = 60 * 60 * 1000;

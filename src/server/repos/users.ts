@@ -1,6 +1,6 @@
 /** Data access for people (users + user_roles). Row types stay here; callers get SessionUser / Person. */
 import type { Db } from '../db.ts';
-import { ROLES, type Person, type Role, type SessionUser } from './types.ts';
+import { ROLES, type Person, type Role, type SessionUser } from '../auth/types.ts';
 
 export interface UserRow {
   id: number;
