@@ -18,7 +18,7 @@ import { accountBucket, SIGNIN_ACCOUNT_LIMIT } from '../auth/signin.ts';
 import { resetMessage } from '../mail/messages.ts';
 import { sendMailInBackground } from '../mail/send.ts';
 import { ServiceError } from './errors.ts';
-import { auditPerson } from './people-audit.ts';
+import { auditPerson } from '../repos/people-audit.ts';
 
 /** Reset mails per address per hour, so the form cannot be used to flood someone's inbox. */
 export const RESET_REQUEST_LIMIT: RateLimit = { limit: 5, windowSeconds: 60 * 60 };

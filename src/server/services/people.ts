@@ -11,7 +11,7 @@ import { invalidateUserSessions } from '../repos/sessions.ts';
 import { inviteMessage } from '../mail/messages.ts';
 import { sendMail } from '../mail/send.ts';
 import { ServiceError } from './errors.ts';
-import { auditPerson } from './people-audit.ts';
+import { auditPerson } from '../repos/people-audit.ts';
 
 export async function listPeople(db: Db): Promise<Person[]> {
   return listPeopleRows(db);
