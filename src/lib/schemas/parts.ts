@@ -239,7 +239,11 @@ export const reviewDecisionSchema = z
   })
   .superRefine((d, ctx) => {
     if (d.decision === 'reject' && d.reason.length < 3) {
-      ctx.addIssue({ code: 'custom', path: ['reason'], message: 'Say why the part is rejected; the proposer reads this' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['reason'],
+        message: 'Give a reason to reject: say what is wrong so the proposer can fix it (at least 3 characters)',
+      });
     }
   });
 export type ReviewDecision = z.infer<typeof reviewDecisionSchema>;
