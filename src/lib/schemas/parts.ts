@@ -4,6 +4,7 @@
  */
 import { z } from 'zod';
 import { LIFECYCLES, PART_CATEGORIES, REVIEW_STATUSES } from '../domain/parts.ts';
+import type { PartChangeGroup } from '../part-diff.ts';
 
 const num = (label: string) => z.number({ error: `${label} must be a number` }).finite();
 const pos = (label: string) => num(label).positive({ error: `${label} must be above zero` });
@@ -445,6 +446,8 @@ export interface HistoryEntry {
   occurredAt: string;
   actor: string | null;
   action: string;
+  /** The change in words, grouped (record, parameters, sources), for the part page (src/lib/part-diff.ts). */
+  groups: PartChangeGroup[];
   note: string | null;
   changes: HistoryChange[];
 }
