@@ -232,21 +232,12 @@ const versionSchema = z.number({ error: 'version is required (the version you lo
 export const partUpdateSchema = z.intersection(partInputSchema, z.object({ version: versionSchema }));
 export type PartUpdate = z.infer<typeof partUpdateSchema>;
 
-export const reviewDecisionSchema = z
-  .object({
-    decision: z.enum(['approve', 'reject'], { error: 'Decision is approve or reject' }),
-    reason: z.string().trim().max(500).default(''),
-    version: versionSchema,
-  })
-  .superRefine((d, ctx) => {
-    if (d.decision === 'reject' && d.reason.length < 3) {
-      ctx.addIssue({
-        code: 'custom',
-        path: ['reason'],
-        message: 'Give a reason to reject: say what is wrong so the proposer can fix it (at least 3 characters)',
-      });
-    }
-  });
+/** A review decision; the reason a rejection needs is checked by the service (reviewPart), which says what to do. */
+export const reviewDecisionSchema = z.object({
+  decision: z.enum(['approve', 'reject'], { error: 'Decision is approve or reject' }),
+  reason: z.string().trim().max(500).default(''),
+  version: versionSchema,
+});
 export type ReviewDecision = z.infer<typeof reviewDecisionSchema>;
 
 export const lifecycleChangeSchema = z.object({

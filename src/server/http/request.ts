@@ -109,15 +109,14 @@ export async function readJson<S extends z.ZodType>(request: Request, schema: S)
   const parsed = schema.safeParse(raw);
   if (!parsed.success) {
     const issues = issuesOf(parsed.error);
-    // One refused field: its own message says what to do; several: name the first few.
-    const message =
-      issues.length === 1
-        ? `${issues[0].message} (${issues[0].path}).`
-        : `Some fields are not valid: ${issues
-            .map((i) => i.path)
-            .slice(0, 3)
-            .join(', ')}.`;
-    throw new ServiceError(400, message, issues);
+    throw new ServiceError(
+      400,
+      `Some fields are not valid: ${issues
+        .map((i) => i.path)
+        .slice(0, 3)
+        .join(', ')}.`,
+      issues,
+    );
   }
   return parsed.data;
 }

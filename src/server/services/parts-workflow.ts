@@ -17,6 +17,11 @@ import { reverifyDesignsUsingParts } from './design-status.ts';
  * a librarian may not approve a part they created or last edited (403); an admin may, recorded as an override.
  */
 export async function reviewPart(user: SessionUser, id: number, decision: ReviewDecision, baseUrl: string): Promise<Part> {
+  if (decision.decision === 'reject' && decision.reason.length < 3) {
+    throw new ServiceError(400, 'Give a reason to reject: say what is wrong so the proposer can fix it.', [
+      { path: 'reason', message: 'at least 3 characters: what is wrong, so the proposer can fix it' },
+    ]);
+  }
   const { row, after } = await withLockedVersion(PART_ENTITY, {
     id,
     expectedVersion: decision.version,
