@@ -42,12 +42,13 @@ export function demoParts(): NewPart[] {
   return [...demoMotors, ...demoMosfets, ...demoDrivers, ...demoDiodes] as NewPart[];
 }
 
-async function seedParts(knex: Knex, librarianId: number | null): Promise<number> {
+/** The catalogue is entered by the librarian, except the parts waiting for review: a designer proposed those. */
+async function seedParts(knex: Knex, librarianId: number | null, designerId: number | null): Promise<number> {
   let added = 0;
   for (const part of demoParts()) {
     if ((await findPartId(knex, part.manufacturer, part.mpn)) !== null) continue;
     await knex.transaction(async (trx) => {
-      await insertPart(trx, part, librarianId);
+      await insertPart(trx, part, part.reviewStatus === 'pending' ? (designerId ?? librarianId) : librarianId);
     });
     added += 1;
   }
@@ -61,8 +62,8 @@ export interface SeedReport {
 
 export async function seed(knex: Knex): Promise<SeedReport> {
   const people = await seedPeople(knex);
-  const partsAdded = await seedParts(knex, people.get(`librarian@${DEMO_DOMAIN}`) ?? null);
   const designer = people.get(`designer@${DEMO_DOMAIN}`);
+  const partsAdded = await seedParts(knex, people.get(`librarian@${DEMO_DOMAIN}`) ?? null, designer ?? null);
   const designsAdded = designer ? await seedDesigns(knex, designer) : 0;
   return { partsAdded, designsAdded };
 }

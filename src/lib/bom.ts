@@ -4,6 +4,7 @@ import type { Part } from './domain/parts.ts';
 import type { RecommendedPull } from './power-on.ts';
 import { formatOhms } from './units.ts';
 import { toCsv } from './csv.ts';
+import { PART_ROLE_LABELS } from './labels.ts';
 
 export interface BomLine {
   line: number;
@@ -106,10 +107,58 @@ export function buildBom({ input, motor, partsById, pull, statusOf, motorStatus,
   return lines.map((l, i) => ({ line: i + 1, ...l }));
 }
 
-/** The BOM as CSV through the one writer (src/lib/csv.ts): hand-entered labels like "=HYPERLINK(…)" come out as text. */
-export function bomToCsv(lines: BomLine[]): string {
+/** The mark every output of a design that is not ready carries (report pages, BOM). */
+export const DRAFT_MARK = 'Draft — not verified';
+
+export interface DraftNotice {
+  /** One sentence: why the output is not for buying or building. */
+  summary: string;
+  /** Each failing pick or check, named for a reader ("Low-side switch, alternate 1: …"). */
+  failing: string[];
+}
+
+/** Where a readiness issue sits, in words: "Freewheel diode", "Low-side switch, alternate 2", "Supply". */
+export function issuePlace(path: string): string {
+  const sel = /^selections\.(switch|driver|diode)\.(chosenPartId|alternatePartIds\.(\d+))/.exec(path);
+  if (sel) {
+    const role = PART_ROLE_LABELS[sel[1] as PartRole];
+    return sel[3] === undefined ? role : `${role}, alternate ${Number(sel[3]) + 1}`;
+  }
+  if (path.startsWith('motor')) return 'Motor';
+  if (path.startsWith('supply')) return 'Supply';
+  if (path.startsWith('resetStartIntent')) return 'Power-on state';
+  return 'Design';
+}
+
+/**
+ * The draft notice of a design's outputs: null when the design is marked ready and holds at the current
+ * catalogue; otherwise the summary and every failing pick (none listed when it only was never marked ready).
+ */
+export function draftNotice(status: 'draft' | 'ready', issues: readonly { path: string; message: string }[]): DraftNotice | null {
+  if (status === 'ready' && issues.length === 0) return null;
+  const failing = issues.map((i) => `${issuePlace(i.path)}: ${i.message}`);
+  const summary =
+    issues.length === 0
+      ? 'Every pick holds at the current catalogue, but the designer has not marked the design ready: check it before buying.'
+      : `${issues.length} check${issues.length === 1 ? '' : 's'} fail${issues.length === 1 ? 's' : ''} at the current catalogue: not for buying or building until each is resolved.`;
+  return { summary, failing };
+}
+
+/** The BOM as CSV; a draft carries the draft notice as its first row (the header stays the first line). */
+export function bomToCsv(lines: BomLine[], notice: DraftNotice | null = null): string {
+  const row = (l: Partial<Record<keyof BomLine, string | number>>): (string | number)[] => BOM_COLUMNS.map((c) => l[c.key] ?? '');
+  const noticeRows = notice
+    ? [
+        row({
+          role: DRAFT_MARK,
+          description: notice.summary,
+          status: notice.failing.length ? `failing: ${notice.failing.join('; ')}` : 'not marked ready',
+        }),
+      ]
+    : [];
+  // Through the one writer (src/lib/csv.ts): hand-entered labels like "=HYPERLINK(…)" come out as text.
   return toCsv(
     BOM_COLUMNS.map((c) => c.header),
-    lines.map((l) => BOM_COLUMNS.map((c) => l[c.key])),
+    [...noticeRows, ...lines.map((l) => row(l))],
   );
 }

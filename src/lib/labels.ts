@@ -35,3 +35,10 @@ export const REVIEW_LABELS: Readonly<Record<ReviewStatus, StateLabel>> = {
 
 /** "◒ NRND": icon and short word. */
 export const lifecycleTag = (l: Lifecycle): string => `${LIFECYCLE_LABELS[l].icon} ${LIFECYCLE_LABELS[l].short}`;
+
+/** The three part lines of a design, as the workspace, the BOM and the history name them. */
+export const PART_ROLE_LABELS: Readonly<Record<'switch' | 'driver' | 'diode', string>> = {
+  switch: 'Low-side switch',
+  driver: 'Gate driver / level shifter',
+  diode: 'Freewheel diode',
+};

@@ -8,6 +8,7 @@ import request from 'supertest';
 import Papa from 'papaparse';
 import { appDb, appUrl } from '../helpers/stack.ts';
 import { sessionCookie } from '../helpers/session.ts';
+import { createPerson, sessionCookie as personCookie, uniqueEmail } from './auth-helpers.ts';
 
 const knex = appDb();
 const SAMPLE = readFileSync('data-samples/parts-import.csv', 'utf8');
@@ -134,7 +135,10 @@ describe('POST /api/imports', () => {
     expect((await post('preview', SAMPLE, undefined, await sessionCookie('designer'))).status).toBe(403);
   });
 
-  it('a librarian can approve an imported part and a designer then finds it by parameters', async () => {
+  it('another librarian can approve an imported part (four eyes) and a designer then finds it by parameters', async () => {
+    const reviewerEmail = uniqueEmail('second.librarian');
+    await createPerson(knex, { email: reviewerEmail, password: 'a long unused test password', roles: ['librarian'] });
+    const reviewer = await personCookie(knex, reviewerEmail);
     const { csv, mpns } = renamed('R');
     const created = await post('commit', csv, `test-review-${Date.now()}`);
     expect(created.status).toBe(201);
@@ -142,7 +146,7 @@ describe('POST /api/imports', () => {
     const part = (await request(appUrl()).get(`/api/parts/${diode.partId}`).set('Cookie', librarian)).body;
     const approved = await request(appUrl())
       .post(`/api/parts/${part.id}/review`)
-      .set('Cookie', librarian)
+      .set('Cookie', reviewer)
       .set('Content-Type', 'application/json')
       .send(JSON.stringify({ decision: 'approve', version: part.version }));
     expect(approved.body.reviewStatus).toBe('approved');

@@ -290,3 +290,41 @@ describe('shared font loader', () => {
     expect(measureText(fonts.bold, 'RθJA 250 K/W', 9)).toBeGreaterThan(0);
   });
 });
+
+describe('a report of a design that is not ready says so (issue 14 item 9)', () => {
+  const failing = [
+    { path: 'selections.switch.chosenPartId', message: 'QX11 fails stall-thermal' },
+    { path: 'selections.diode.alternatePartIds.1', message: 'DX32 is pending review — not approved' },
+  ];
+  const withStatus = (status: 'draft' | 'ready', issues: typeof failing): DesignReportData => {
+    const data = reportData(benchFan);
+    return { ...data, design: { ...data.design, status }, readiness: { issues, acceptedResetStart: null } };
+  };
+
+  it('a draft with failing picks: "Draft — not verified" on every page and each failing pick named by its line', async () => {
+    const pages = await readPages(await buildDesignReportPdf(withStatus('draft', failing)));
+    for (const p of pages) expect(p.text).toContain('Draft — not verified');
+    const first = pages[0].text;
+    expect(first).toContain(
+      'Draft — not verified. 2 checks fail at the current catalogue: not for buying or building until each is resolved.',
+    );
+    expect(first).toContain('Low-side switch: QX11 fails stall-thermal');
+    expect(first).toContain('Freewheel diode, alternate 2: DX32 is pending review — not approved');
+  });
+
+  it('a draft whose picks all hold still says it is not verified (never marked ready)', async () => {
+    const pages = await readPages(await buildDesignReportPdf(withStatus('draft', [])));
+    expect(pages[0].text).toContain('Draft — not verified. Every pick holds at the current catalogue, but the designer has not marked');
+    expect(pages[0].text).not.toContain('Failing picks');
+  });
+
+  it('a design marked ready that holds carries no draft mark', async () => {
+    const pages = await readPages(await buildDesignReportPdf(withStatus('ready', [])));
+    expect(pages.map((p) => p.text).join(' ')).not.toContain('not verified');
+  });
+
+  it('a design marked ready that no longer holds is a draft again in its outputs', async () => {
+    const pages = await readPages(await buildDesignReportPdf(withStatus('ready', failing.slice(0, 1))));
+    expect(pages[0].text).toContain('Draft — not verified. 1 check fails at the current catalogue');
+  });
+});

@@ -9,9 +9,13 @@ interface Props {
   canReject: boolean;
   /** Where to go after a decision (the queue reloads; the part page reloads itself). */
   after?: string;
+  /** The four-eyes rule's reason this person may not approve, if any. */
+  approveBlocked?: string | null;
+  /** An admin approving their own work: the approval is recorded as an override. */
+  override?: boolean;
 }
 
-export default function ReviewPanel({ partId, version, mpn, canReject, after }: Props) {
+export default function ReviewPanel({ partId, version, mpn, canReject, after, approveBlocked, override }: Props) {
   const [reason, setReason] = useState('');
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<{ message: string; field?: string } | null>(null);
@@ -51,9 +55,21 @@ export default function ReviewPanel({ partId, version, mpn, canReject, after }: 
           )}
         </label>
       )}
+      {approveBlocked && (
+        <p className="text-sm" data-testid="four-eyes">
+          <span aria-hidden="true">! </span>
+          {approveBlocked}
+        </p>
+      )}
+      {override && (
+        <p className="text-sm" data-testid="four-eyes">
+          <span aria-hidden="true">! </span>
+          You entered or last edited this part; approving it is recorded as an admin override of the four-eyes rule.
+        </p>
+      )}
       <div className="flex gap-2">
-        <button type="button" className="btn" disabled={busy} onClick={() => decide('approve')}>
-          <span aria-hidden="true">✓</span> Approve
+        <button type="button" className="btn" disabled={busy || !!approveBlocked} onClick={() => decide('approve')}>
+          <span aria-hidden="true">✓</span> Approve{override ? ' (admin override)' : ''}
         </button>
         {canReject && (
           <button type="button" className="btn btn-quiet" disabled={busy} onClick={() => decide('reject')}>

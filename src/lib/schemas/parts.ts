@@ -5,6 +5,7 @@
 import { z } from 'zod';
 import { LIFECYCLES, PART_CATEGORIES, REVIEW_STATUSES } from '../domain/parts.ts';
 import { countIn, INT_UNSIGNED_MAX, positiveIn, zeroOrIn, type RangeName } from './bounds.ts';
+import type { PartChangeGroup } from '../part-diff.ts';
 
 const num = (label: string) => z.number({ error: `${label} must be a number` }).finite();
 const pos = (label: string, range: RangeName) => positiveIn(range, label);
@@ -232,17 +233,12 @@ const versionSchema = z.number({ error: 'version is required (the version you lo
 export const partUpdateSchema = z.intersection(partInputSchema, z.object({ version: versionSchema }));
 export type PartUpdate = z.infer<typeof partUpdateSchema>;
 
-export const reviewDecisionSchema = z
-  .object({
-    decision: z.enum(['approve', 'reject'], { error: 'Decision is approve or reject' }),
-    reason: z.string().trim().max(500).default(''),
-    version: versionSchema,
-  })
-  .superRefine((d, ctx) => {
-    if (d.decision === 'reject' && d.reason.length < 3) {
-      ctx.addIssue({ code: 'custom', path: ['reason'], message: 'Say why the part is rejected; the proposer reads this' });
-    }
-  });
+/** A review decision; the reason a rejection needs is checked by the service (reviewPart), which says what to do. */
+export const reviewDecisionSchema = z.object({
+  decision: z.enum(['approve', 'reject'], { error: 'Decision is approve or reject' }),
+  reason: z.string().trim().max(500).default(''),
+  version: versionSchema,
+});
 export type ReviewDecision = z.infer<typeof reviewDecisionSchema>;
 
 export const lifecycleChangeSchema = z.object({
@@ -442,6 +438,8 @@ export interface HistoryEntry {
   occurredAt: string;
   actor: string | null;
   action: string;
+  /** The change in words, grouped (record, parameters, sources), for the part page (src/lib/part-diff.ts). */
+  groups: PartChangeGroup[];
   note: string | null;
   changes: HistoryChange[];
 }

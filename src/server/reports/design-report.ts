@@ -5,7 +5,7 @@
  * shipped font files.
  */
 import { PDFDocument } from 'pdf-lib';
-import type { BomLine } from '../../lib/bom.ts';
+import { DRAFT_MARK, draftNotice, type BomLine, type DraftNotice } from '../../lib/bom.ts';
 import type { DesignInput, DesignStatus } from '../../lib/domain/design.ts';
 import type { Part } from '../../lib/domain/parts.ts';
 import type { DesignMatch } from '../../lib/design-match.ts';
@@ -27,6 +27,13 @@ export interface DesignReportData {
   partsById: Map<number, Part>;
   /** The readiness rule at the current catalogue (src/lib/readiness.ts); absent in older callers. */
   readiness?: { issues: { path: string; message: string }[]; acceptedResetStart: string | null };
+  /** What a design that is not ready must say (src/lib/bom.ts draftNotice); derived from status and readiness when absent. */
+  draft?: DraftNotice | null;
+}
+
+/** The draft notice of the report: the caller's, or from the design's status and readiness issues. */
+export function reportDraftNotice(data: DesignReportData): DraftNotice | null {
+  return data.draft !== undefined ? data.draft : draftNotice(data.design.status, data.readiness?.issues ?? []);
 }
 
 export interface DesignReportOptions {
@@ -53,6 +60,15 @@ function drawTitleBlock(layout: ReportLayout, data: DesignReportData): void {
     `Motor ${data.match.motor.label} on a ${sig(data.input.supply.nomV)} V supply, switched low-side from ${sig(data.input.logic.railV)} V logic.`,
     { color: MUTED },
   );
+  const notice = reportDraftNotice(data);
+  if (notice) {
+    layout.y -= 4;
+    layout.paragraph(`${DRAFT_MARK}. ${notice.summary}`, { bold: true, sizePt: 12 });
+    if (notice.failing.length) {
+      layout.paragraph('Failing picks and checks:', { bold: true });
+      notice.failing.forEach((f) => layout.bullet(f));
+    }
+  }
 }
 
 /** Sign-off check: whether the revision holds at the current catalogue, and every reason it does not. */
@@ -115,6 +131,11 @@ export async function buildDesignReportPdf(data: DesignReportData, options: Desi
   drawBom(layout, data.bom);
   drawAssumptions(layout);
   drawCautions(layout, data.match);
-  stampHeaders(layout, { designName: data.design.name, revision: data.design.revision, generatedDate: isoDate(data.design.generatedAt) });
+  stampHeaders(layout, {
+    designName: data.design.name,
+    revision: data.design.revision,
+    generatedDate: isoDate(data.design.generatedAt),
+    draft: reportDraftNotice(data) !== null,
+  });
   return pdf.save();
 }

@@ -1,5 +1,6 @@
 /** The header stamped on every report page once the page count is known. */
-import { drawTextRuns, type FontFace, measureText } from './fonts.ts';
+import { drawTextRuns, faceHasChars, type FontFace, measureText } from './fonts.ts';
+import { DRAFT_MARK } from '../../lib/bom.ts';
 import { COPPER, INK, MARGIN_PT, MUTED, PAGE_HEIGHT_PT, PAGE_WIDTH_PT, type ReportLayout } from './report-layout.ts';
 
 export interface HeaderInfo {
@@ -7,6 +8,8 @@ export interface HeaderInfo {
   revision: number;
   /** ISO date, YYYY-MM-DD. */
   generatedDate: string;
+  /** A design that is not ready: every page says "Draft — not verified". */
+  draft?: boolean;
 }
 
 export const REPORT_HEADING = 'Stallpoint design report';
@@ -30,6 +33,12 @@ export function stampHeaders(layout: ReportLayout, info: HeaderInfo): void {
   layout.pages.forEach((page, i) => {
     const pageText = `Page ${i + 1} of ${layout.pages.length}`;
     drawTextRuns(page, bold, REPORT_HEADING, { x: left, y: top, sizePt: 9, color: MUTED });
+    if (info.draft) {
+      const mark = `✕ ${DRAFT_MARK}`;
+      const face = bold;
+      const text = faceHasChars(face, '✕') ? mark : DRAFT_MARK;
+      drawTextRuns(page, face, text, { x: (left + right - measureText(face, text, 9)) / 2, y: top, sizePt: 9, color: INK });
+    }
     drawTextRuns(page, regular, pageText, { x: right - measureText(regular, pageText, 9), y: top, sizePt: 9, color: MUTED });
     drawTextRuns(page, bold, name, { x: left, y: top - 14, sizePt: 10.5, color: INK });
     drawTextRuns(page, regular, meta, { x: right - measureText(regular, meta, 9), y: top - 14, sizePt: 9, color: INK });

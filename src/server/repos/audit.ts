@@ -81,3 +81,31 @@ export async function findPerson(db: Db, id: number | null): Promise<PersonRef |
   const row = await db('users').select('id', 'name', 'email').where({ id }).first();
   return row ? { id: row.id, name: row.name, email: row.email } : null;
 }
+
+/** The actions that put content into a part record (not review, lifecycle or supply moves). */
+export const PART_CONTENT_ACTIONS = ['part.create', 'part.propose', 'part.import', 'part.update'] as const;
+
+/**
+ * Who last changed the content of each entity: the actor of its newest event among `actions`
+ * (null when the newest such event has no actor, absent when there is none).
+ */
+export async function lastEditors(
+  db: Db,
+  entityType: string,
+  entityIds: number[],
+  actions: readonly string[],
+): Promise<Map<number, number | null>> {
+  const out = new Map<number, number | null>();
+  if (entityIds.length === 0) return out;
+  const rows: { entity_id: number; actor_user_id: number | null }[] = await db('audit_events')
+    .select('entity_id', 'actor_user_id')
+    .where({ entity_type: entityType })
+    .whereIn('entity_id', entityIds)
+    .whereIn('action', actions as string[])
+    .orderBy([
+      { column: 'occurred_at', order: 'desc' },
+      { column: 'id', order: 'desc' },
+    ]);
+  for (const r of rows) if (!out.has(Number(r.entity_id))) out.set(Number(r.entity_id), r.actor_user_id);
+  return out;
+}

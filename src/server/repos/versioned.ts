@@ -29,6 +29,11 @@ export interface VersionedChange<Row, Snapshot, T> {
   /** The change itself. Return what the caller needs; `deleted: true` records no after-snapshot. */
   apply(trx: Db, row: Row, before: Snapshot | null): Promise<T>;
   deleted?: boolean;
+  /**
+   * True when the change left the record as it was (a save with no edit): the transaction is rolled back,
+   * nothing is written (no version bump, no audit event) and the result says `unchanged`.
+   */
+  unchanged?: (before: Snapshot | null, after: Snapshot | null) => boolean;
 }
 
 export interface VersionedResult<Row, Snapshot, T> {
@@ -36,29 +41,42 @@ export interface VersionedResult<Row, Snapshot, T> {
   before: Snapshot | null;
   after: Snapshot | null;
   result: T;
+  /** The change was a no-op (see VersionedChange.unchanged): nothing was written and `after` is `before`. */
+  unchanged?: boolean;
+}
+
+/** Carries a no-op's outcome out of the transaction it rolls back. */
+class NoChange<R> {
+  constructor(readonly outcome: R) {}
 }
 
 export async function withLockedVersion<Row extends { version: number }, Snapshot, T>(
   entity: VersionedEntity<Row, Snapshot>,
   change: VersionedChange<Row, Snapshot, T>,
 ): Promise<VersionedResult<Row, Snapshot, T>> {
-  return db().transaction(async (trx) => {
-    const row = await entity.lock(trx, change.id);
-    if (!row) throw entity.notFound();
-    change.precheck?.(row);
-    if (change.expectedVersion !== null && row.version !== change.expectedVersion) throw entity.stale(row.version);
-    const before = await entity.snapshot(trx, change.id);
-    const result = await change.apply(trx, row, before);
-    const after = change.deleted ? null : await entity.snapshot(trx, change.id);
-    await insertAuditEvent(trx, {
-      actorUserId: change.actorUserId,
-      action: typeof change.action === 'function' ? change.action(result) : change.action,
-      entityType: entity.entityType,
-      entityId: change.id,
-      before,
-      after,
-      note: typeof change.note === 'function' ? change.note(result) : (change.note ?? null),
+  try {
+    return await db().transaction(async (trx) => {
+      const row = await entity.lock(trx, change.id);
+      if (!row) throw entity.notFound();
+      change.precheck?.(row);
+      if (change.expectedVersion !== null && row.version !== change.expectedVersion) throw entity.stale(row.version);
+      const before = await entity.snapshot(trx, change.id);
+      const result = await change.apply(trx, row, before);
+      const after = change.deleted ? null : await entity.snapshot(trx, change.id);
+      if (change.unchanged?.(before, after)) throw new NoChange({ row, before, after: before, result, unchanged: true });
+      await insertAuditEvent(trx, {
+        actorUserId: change.actorUserId,
+        action: typeof change.action === 'function' ? change.action(result) : change.action,
+        entityType: entity.entityType,
+        entityId: change.id,
+        before,
+        after,
+        note: typeof change.note === 'function' ? change.note(result) : (change.note ?? null),
+      });
+      return { row, before, after, result };
     });
-    return { row, before, after, result };
-  });
+  } catch (err) {
+    if (err instanceof NoChange) return err.outcome as VersionedResult<Row, Snapshot, T>;
+    throw err;
+  }
 }

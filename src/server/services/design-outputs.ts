@@ -9,7 +9,7 @@
 import type { Design } from '../../lib/domain/design.ts';
 import type { Part } from '../../lib/domain/parts.ts';
 import type { DesignMatch } from '../../lib/design-match.ts';
-import { buildBom, bomToCsv, type BomLine } from '../../lib/bom.ts';
+import { buildBom, bomToCsv, draftNotice, type BomLine, type DraftNotice } from '../../lib/bom.ts';
 import { bomPairingNotes } from '../../lib/design-words.ts';
 import { acceptedResetStart, pickStatus, reviewWords, type ReadinessIssue } from '../../lib/readiness.ts';
 import { db } from '../db.ts';
@@ -32,6 +32,8 @@ export interface DesignOutputs {
   bom: BomLine[];
   partsById: Map<number, Part>;
   readiness: DesignReadiness;
+  /** Null when the revision is marked ready and holds; otherwise what every output must say (src/lib/bom.ts). */
+  draft: DraftNotice | null;
 }
 
 export async function designOutputs(id: number, revision?: number): Promise<DesignOutputs> {
@@ -62,7 +64,14 @@ export async function designOutputs(id: number, revision?: number): Promise<Desi
     pairing: bomPairingNotes(match, input.selections.driver.chosenPartId),
   });
   for (const pid of motorId) partsById.delete(pid);
-  return { design, match, bom, partsById, readiness: { issues, acceptedResetStart: acceptedResetStart(input, match), includesPending } };
+  return {
+    design,
+    match,
+    bom,
+    partsById,
+    readiness: { issues, acceptedResetStart: acceptedResetStart(input, match), includesPending },
+    draft: draftNotice(design.status, issues),
+  };
 }
 
 export function bomFileName(design: Design, ext: string): string {

@@ -20,3 +20,33 @@ export const listingScope = (user: SessionUser | null): PartScope => (canCurate(
 
 /** Buyers and curators keep supply data (sources and price breaks). */
 export const canManageSupply = (user: SessionUser | null): boolean => has(user, 'buyer', 'librarian', 'admin');
+
+/** How the person approving a part stands to its record under the four-eyes rule. */
+export type FourEyesOutcome = { allowed: true; override: boolean } | { allowed: false; message: string };
+
+/**
+ * Four eyes: nobody approves a part they created or last edited; another librarian checks it. An admin may
+ * approve anyway, and the approval is recorded as an admin override.
+ */
+export function fourEyesApproval(user: SessionUser, authors: { createdBy: number | null; lastEditedBy: number | null }): FourEyesOutcome {
+  const created = authors.createdBy === user.id;
+  const edited = authors.lastEditedBy === user.id;
+  if (!created && !edited) return { allowed: true, override: false };
+  if (has(user, 'admin')) return { allowed: true, override: true };
+  const what = created && edited ? 'created and last edited' : created ? 'created' : 'last edited';
+  return {
+    allowed: false,
+    message: `Four-eyes rule: you ${what} this part, so another librarian must approve it.`,
+  };
+}
+
+/** The audit note of an admin's approval of their own work. */
+export function fourEyesOverrideNote(authors: { createdBy: number | null; lastEditedBy: number | null }, userId: number): string {
+  const what =
+    authors.createdBy === userId && authors.lastEditedBy === userId
+      ? 'created and last edited'
+      : authors.createdBy === userId
+        ? 'created'
+        : 'last edited';
+  return `Admin override of the four-eyes rule: the approver ${what} this part.`;
+}

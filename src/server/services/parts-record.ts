@@ -2,6 +2,7 @@
 import { db } from '../db.ts';
 import type { Part } from '../../lib/domain/parts.ts';
 import { diffStates, type DatasheetView, type HistoryEntry } from '../../lib/schemas/parts.ts';
+import { describePartChanges } from '../../lib/part-diff.ts';
 import { findPartRow, loadPart } from '../repos/part-writes.ts';
 import { findPerson, listAuditEvents } from '../repos/audit.ts';
 import { listDatasheets } from '../repos/datasheets.ts';
@@ -41,13 +42,25 @@ export async function partRecord(id: number): Promise<PartRecordView | null> {
     updatedAt: new Date(row.updated_at).toISOString(),
     datasheets: sheets.map(({ storageKey: _key, partId: _part, ...rest }) => rest),
     whereUsed: uses.map((u) => ({ designId: u.id, designName: u.name, role: u.role, chosen: u.position === 0, designStatus: u.status })),
-    history: events.map((e) => ({
-      id: e.id,
-      occurredAt: e.occurredAt,
-      actor: e.actorName,
-      action: e.action,
-      note: e.note,
-      changes: e.before && e.after ? diffStates(e.before, e.after) : [],
-    })),
+    history: events
+      .map((e) => {
+        const snapshots = isPartSnapshot(e.before) && isPartSnapshot(e.after);
+        return {
+          id: e.id,
+          occurredAt: e.occurredAt,
+          actor: e.actorName,
+          action: e.action,
+          note: e.note,
+          changes: e.before && e.after ? diffStates(e.before, e.after) : [],
+          groups: snapshots ? describePartChanges(e.before as Part, e.after as Part) : [],
+        };
+      })
+      // An edit that changed nothing (saved before such saves were skipped) is no entry.
+      .filter((h) => !(h.action === 'part.update' && h.changes.length === 0)),
   };
+}
+
+/** An audit snapshot of a whole part (datasheet events carry other shapes). */
+function isPartSnapshot(x: unknown): x is Part {
+  return !!x && typeof x === 'object' && 'category' in x && 'params' in x && 'sources' in x;
 }

@@ -4,22 +4,31 @@ import type { SessionUser } from '../auth/types.ts';
 import type { Part } from '../../lib/domain/parts.ts';
 import type { LifecycleChange, ReviewDecision, SourcesUpdate } from '../../lib/schemas/parts.ts';
 import { replaceSources, setLifecycle, setReview, touchPart } from '../repos/part-writes.ts';
-import { findPerson } from '../repos/audit.ts';
+import { findPerson, lastEditors, PART_CONTENT_ACTIONS } from '../repos/audit.ts';
+import { fourEyesApproval, fourEyesOverrideNote } from './parts-access.ts';
 import { withLockedVersion } from '../repos/versioned.ts';
 import { PART_ENTITY } from './part-entity.ts';
 import { ServiceError } from './errors.ts';
 import { sendRejectionNotice } from './parts-review-mail.ts';
 import { reverifyDesignsUsingParts } from './design-status.ts';
 
-/** Approve a pending (or draft) part, or reject a pending one with a reason the proposer is sent. */
+/**
+ * Approve a pending (or draft) part, or reject a pending one with a reason the proposer is sent. Four eyes:
+ * a librarian may not approve a part they created or last edited (403); an admin may, recorded as an override.
+ */
 export async function reviewPart(user: SessionUser, id: number, decision: ReviewDecision, baseUrl: string): Promise<Part> {
+  if (decision.decision === 'reject' && decision.reason.length < 3) {
+    throw new ServiceError(400, 'Give a reason to reject: say what is wrong so the proposer can fix it.', [
+      { path: 'reason', message: 'at least 3 characters: what is wrong, so the proposer can fix it' },
+    ]);
+  }
   const { row, after } = await withLockedVersion(PART_ENTITY, {
     id,
     expectedVersion: decision.version,
     actorUserId: user.id,
     action: `part.${decision.decision}`,
-    note: decision.reason || null,
-    async apply(trx, locked) {
+    note: (override) => [override, decision.reason || null].filter(Boolean).join(' ') || null,
+    async apply(trx, locked): Promise<string | null> {
       const allowedFrom = decision.decision === 'approve' ? ['pending', 'draft'] : ['pending'];
       if (!allowedFrom.includes(locked.review_status)) {
         throw new ServiceError(
@@ -28,7 +37,18 @@ export async function reviewPart(user: SessionUser, id: number, decision: Review
           [{ path: 'decision', message: `review status is ${locked.review_status}` }],
         );
       }
+      let override: string | null = null;
+      if (decision.decision === 'approve') {
+        const authors = {
+          createdBy: locked.created_by,
+          lastEditedBy: (await lastEditors(trx, 'part', [id], PART_CONTENT_ACTIONS)).get(id) ?? null,
+        };
+        const fourEyes = fourEyesApproval(user, authors);
+        if (!fourEyes.allowed) throw new ServiceError(403, fourEyes.message, [{ path: 'decision', message: 'four-eyes rule' }]);
+        if (fourEyes.override) override = fourEyesOverrideNote(authors, user.id);
+      }
       await setReview(trx, id, decision.decision === 'approve' ? 'approved' : 'rejected', decision.reason || null);
+      return override;
     },
   });
   const part = after!;

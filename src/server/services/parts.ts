@@ -2,7 +2,7 @@
 import { db } from '../db.ts';
 import type { SessionUser } from '../auth/types.ts';
 import type { Part, ReviewStatus } from '../../lib/domain/parts.ts';
-import type { PartInput, PartUpdate } from '../../lib/schemas/parts.ts';
+import { diffStates, type PartInput, type PartUpdate } from '../../lib/schemas/parts.ts';
 import { insertPart, type NewPart } from '../repos/parts.ts';
 import { deletePartRow, findPartIdByMakerMpn, loadPart, replaceParams, replaceSources, updatePartHead } from '../repos/part-writes.ts';
 import { insertAuditEvent } from '../repos/audit.ts';
@@ -56,11 +56,13 @@ export async function createPart(user: SessionUser, input: PartInput): Promise<P
  * Lifecycle moves go through changeLifecycle (with date and note), so an edit must keep the lifecycle.
  */
 export async function updatePart(user: SessionUser, id: number, input: PartUpdate): Promise<Part> {
-  const { before, after } = await withLockedVersion(PART_ENTITY, {
+  const { before, after, unchanged } = await withLockedVersion(PART_ENTITY, {
     id,
     expectedVersion: input.version,
     actorUserId: user.id,
     action: 'part.update',
+    // A save that changes nothing (sources re-inserted with new ids do not count) writes nothing.
+    unchanged: (b, a) => !!b && !!a && diffStates(b, a).length === 0,
     precheck(row) {
       const ownProposal = row.created_by === user.id && row.review_status !== 'approved' && canPropose(user);
       if (!canCurate(user) && !ownProposal) throw new ServiceError(403, 'Your role may not edit this part.');
@@ -82,6 +84,7 @@ export async function updatePart(user: SessionUser, id: number, input: PartUpdat
       if (input.sources !== undefined) await replaceSources(trx, id, next.sources);
     },
   });
+  if (unchanged) return before!;
   // Right after the change commits: ready designs using the part must still hold, or go back to draft.
   const review = before!.reviewStatus !== after!.reviewStatus ? `, review ${before!.reviewStatus} → ${after!.reviewStatus}` : '';
   await reverifyDesignsUsingParts([id], user, `${after!.mpn} (part ${id}) was edited${review}`);

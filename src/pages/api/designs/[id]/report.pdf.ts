@@ -25,6 +25,7 @@ export const GET: APIRoute = async ({ params, url }) => {
     bom: out.bom,
     partsById: out.partsById,
     readiness: out.readiness,
+    draft: out.draft,
   });
   return new Response(Buffer.from(pdf), {
     headers: {
