@@ -39,7 +39,8 @@ async function countOf(q: ReturnType<typeof eligible>): Promise<number> {
   return Number(n);
 }
 
-export async function loadCandidateParts(db: Db, bounds: CandidateBounds, includePending: boolean): Promise<CandidateRows> {
+/** The three candidate SELECTs (parts rows only; the benchmark times them bare against the whole match). */
+export function candidateQueries(db: Db, bounds: CandidateBounds, includePending: boolean) {
   const mosfetAll = eligible(db, 'mosfet', includePending);
   const mosfetQ = mosfetAll
     .clone()
@@ -61,7 +62,11 @@ export async function loadCandidateParts(db: Db, bounds: CandidateBounds, includ
     .join('diode_params', 'diode_params.part_id', 'parts.id')
     .where('diode_params.vrrm_v', '>=', bounds.supplyMaxV)
     .select('parts.*');
+  return { mosfetAll, mosfetQ, driverAll, driverQ, diodeAll, diodeQ };
+}
 
+export async function loadCandidateParts(db: Db, bounds: CandidateBounds, includePending: boolean): Promise<CandidateRows> {
+  const { mosfetAll, mosfetQ, driverAll, driverQ, diodeAll, diodeQ } = candidateQueries(db, bounds, includePending);
   const [mosfetRows, driverRows, diodeRows, mosfet, driver, diode] = await Promise.all([
     mosfetQ,
     driverQ,
