@@ -189,6 +189,7 @@ try {
     const design = (await (await get(`/api/designs/${row.id}`)).json()) as { input: DesignInput };
     let status = 0;
     let bytes = 0;
+    let driverNeeded = false;
     const s = await timed(ITER, async () => {
       const res = await fetch(`${stack.url}/api/designs/${row.id}/match`, {
         method: 'POST',
@@ -196,13 +197,16 @@ try {
         body: '{}',
       });
       status = res.status;
-      bytes = (await res.arrayBuffer()).byteLength;
+      const buf = await res.arrayBuffer();
+      bytes = buf.byteLength;
+      driverNeeded = (JSON.parse(Buffer.from(buf).toString('utf8')) as { driverNeeded?: boolean }).driverNeeded === true;
     });
     const input = design.input;
     const motor = input.motor.source === 'catalogue' ? (await partsByIds(bk, [input.motor.partId])).get(input.motor.partId) : null;
     const params = input.motor.source === 'manual' ? input.motor.params : motor?.category === 'motor' ? motor.params : null;
     if (!params) throw new Error(`no motor for ${d.name}`);
-    const q = candidateQueries(bk, candidateBounds(prepareCase(input, params)), false);
+    // The SELECT the match ends on: the direct-drive narrowing, or the driver one when a driver is used.
+    const q = candidateQueries(bk, candidateBounds(prepareCase(input, params), driverNeeded ? 'driver' : 'direct'), false);
     let candidates = 0;
     const sel = await timed(ITER, async () => {
       const [a, b, c] = await Promise.all([q.mosfetQ.clone(), q.driverQ.clone(), q.diodeQ.clone()]);

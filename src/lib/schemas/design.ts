@@ -1,6 +1,10 @@
 /** zod schema of a design as entered; shared by the workspace form and the designs endpoints. */
 import { z } from 'zod';
 
+/** Match answers: entries per ranked list by default, and at most. */
+export const DEFAULT_MATCH_LIMIT = 25;
+export const MAX_MATCH_LIMIT = 500;
+
 const pos = () => z.number().positive();
 const nonNeg = () => z.number().nonnegative();
 const id = () => z.number().int().positive();
@@ -138,5 +142,8 @@ export const matchRequestSchema = z.object({
   includePending: z.boolean().default(false),
   input: designInputSchema.optional(),
   revision: z.number().int().min(1).optional(),
+  /** Entries per ranked list in the answer (the best first) and where the page starts; counts cover all. */
+  limit: z.number({ error: 'limit must be a whole number' }).int().min(1).max(MAX_MATCH_LIMIT).default(DEFAULT_MATCH_LIMIT),
+  offset: z.number({ error: 'offset must be a whole number' }).int().min(0).default(0),
 });
 export type MatchRequest = z.output<typeof matchRequestSchema>;
