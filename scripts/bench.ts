@@ -267,8 +267,22 @@ try {
     `page  / p50 ${home.p50Ms} ms (${(homeBytes / 1024).toFixed(0)} KiB); /parts p50 ${partsPage.p50Ms} ms (${(partsBytes / 1024).toFixed(0)} KiB); /designs/new p50 ${newDesign.p50Ms} ms (${(newBytes / 1024).toFixed(0)} KiB)`,
   );
 
-  // Load: autocannon in a child, /api/health probed from another child at 20 requests/s.
+  /** Waits until the server is idle again (health answers under 50 ms three times running, at most 90 s). */
+  const settle = async () => {
+    const until = Date.now() + 90_000;
+    let quick = 0;
+    while (quick < 3 && Date.now() < until) {
+      const t0 = performance.now();
+      await fetch(`${stack.url}/api/health`).catch(() => undefined);
+      quick = performance.now() - t0 < 50 ? quick + 1 : 0;
+      await new Promise((r) => setTimeout(r, 200));
+    }
+  };
+
+  // Load: autocannon in a child, /api/health probed from another child at 20 requests/s. Each load
+  // starts on an idle server (work left in flight by the previous one has finished).
   const load = async (title: string, opts: object) => {
+    await settle();
     const probe = child<LoadResult>(
       'scripts/bench/load.ts',
       [JSON.stringify({ url: `${stack.url}/api/health`, connections: 1, overallRate: 20, duration: LOAD_S, timeout: 10 })],
