@@ -1,28 +1,73 @@
 /**
- * npm run bench: speed and memory, measured here and never in unit tests.
- * 1. The engineering core ranking each demo design against the whole demo catalogue (in process).
- * 2. HTTP load with autocannon against a throwaway stack: design matching and the motor calculator.
+ * npm run bench: speed and memory at a real team's catalogue size, measured here and never in unit tests.
+ * 1. The engineering core ranking each demo design against the demo catalogue (in process).
+ * 2. A throwaway stack whose database a child process fills with the invented large catalogue
+ *    (scripts/bench/catalogue.ts: 50,000 MOSFETs, 10,000 diodes, 5,000 drivers, 2,000 motors), then, over
+ *    HTTP: match per demo design next to the bare SELECT of the candidates it ranks, parametric and text
+ *    search, the catalogue pages, and autocannon load (child processes) while /api/health is probed.
+ * 3. Server RSS (the app server runs in this process; loaders and load generators run in children).
+ * Writes bench/results/latest.json and bench/results/latest.md (targets met or missed).
+ *
+ * Knobs: BENCH_ITERATIONS (timed runs per measurement, default 15), BENCH_SCALE (fraction of the full
+ * catalogue, default 1), BENCH_LOAD_SECONDS (default 10), BENCH_CONNECTIONS (default 20),
+ * BENCH_CORE_ITERATIONS (default 50). A quick run: BENCH_SCALE=0.05 BENCH_ITERATIONS=3 BENCH_LOAD_SECONDS=2.
  */
 import path from 'node:path';
+import os from 'node:os';
 import { fileURLToPath } from 'node:url';
-import autocannon from 'autocannon';
+import { spawn } from 'node:child_process';
+import { mkdirSync, writeFileSync } from 'node:fs';
+import knexFactory, { type Knex } from 'knex';
 import { demoDiodes, demoDrivers, demoMosfets, demoMotors } from '../db/seeds/data/index.ts';
 import { demoDesigns } from '../db/seeds/designs.ts';
 import { DEMO_DOMAIN, DEMO_PASSWORD } from '../db/seeds/demo.ts';
-import { matchDesign } from '../src/lib/design-match.ts';
+import { matchDesign, prepareCase } from '../src/lib/design-match.ts';
 import type { DesignInput } from '../src/lib/domain/design.ts';
 import type { PartOf } from '../src/lib/domain/parts.ts';
+import { knexConnectionConfig } from '../src/server/knex-config.ts';
+import { candidateBounds } from '../src/server/services/design-candidates.ts';
+import { candidateQueries } from '../src/server/repos/part-candidates.ts';
+import { partsByIds } from '../src/server/repos/parts.ts';
 import { startThrowawayStack } from './stack/throwaway.ts';
 import { Teardown, stopOnSignals } from './stack/teardown.ts';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 process.chdir(root);
 
+const ITER = Math.max(1, Number(process.env.BENCH_ITERATIONS ?? 15));
+const SCALE = Number(process.env.BENCH_SCALE ?? 1);
+const LOAD_S = Number(process.env.BENCH_LOAD_SECONDS ?? 10);
+const CONNECTIONS = Number(process.env.BENCH_CONNECTIONS ?? 20);
+const CORE_ITER = Number(process.env.BENCH_CORE_ITERATIONS ?? 50);
+const MiB = 2 ** 20;
+
+interface Stats {
+  runs: number;
+  p50Ms: number;
+  p95Ms: number;
+}
+
 function percentile(sorted: number[], p: number): number {
   return sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))];
 }
+function stats(times: number[]): Stats {
+  const s = [...times].sort((a, b) => a - b);
+  return { runs: s.length, p50Ms: round(percentile(s, 50)), p95Ms: round(percentile(s, 95)) };
+}
+const round = (x: number, d = 1) => Math.round(x * 10 ** d) / 10 ** d;
 
-function benchCore(iterations: number): void {
+async function timed(n: number, fn: () => Promise<void>): Promise<Stats> {
+  await fn(); // warm-up, not counted
+  const times: number[] = [];
+  for (let i = 0; i < n; i++) {
+    const t0 = performance.now();
+    await fn();
+    times.push(performance.now() - t0);
+  }
+  return stats(times);
+}
+
+function benchCore(iterations: number) {
   let id = 1;
   const ids = <T extends object>(l: readonly T[]) => l.map((p) => ({ ...p, id: id++ }));
   const catalogue = {
@@ -32,38 +77,67 @@ function benchCore(iterations: number): void {
     excluded: { switch: 0, driver: 0, diode: 0 },
   };
   const none = { chosenPartId: null, alternatePartIds: [] };
+  const out: { design: string; parts: number; stats: Stats }[] = [];
   for (const d of demoDesigns) {
-    const { motorMpn, ready: _r, ...rest } = d;
+    const { motorMpn, ready: _r, laterRevisions: _l, ...rest } = d;
     const motor = demoMotors.find((m) => m.mpn === motorMpn)!;
-    const input: DesignInput = {
+    const input = {
       ...rest,
       motor: { source: 'catalogue', partId: 1 },
       selections: { switch: none, driver: none, diode: none },
-    };
-    global.gc?.();
-    const heapBefore = process.memoryUsage().heapUsed;
+    } as DesignInput;
     const times: number[] = [];
     for (let i = 0; i < iterations; i++) {
       const t0 = performance.now();
       matchDesign(input, motor.mpn, motor.params, catalogue);
       times.push(performance.now() - t0);
     }
-    times.sort((a, b) => a - b);
-    const heapMiB = (process.memoryUsage().heapUsed - heapBefore) / 2 ** 20;
-    console.log(
-      `core  ${d.name.padEnd(58)} median ${percentile(times, 50).toFixed(2)} ms  p95 ${percentile(times, 95).toFixed(2)} ms  heap Δ ${heapMiB.toFixed(1)} MiB (${iterations} runs, ${catalogue.mosfets.length + catalogue.drivers.length + catalogue.diodes.length} parts)`,
-    );
+    const s = stats(times);
+    out.push({ design: d.name, parts: catalogue.mosfets.length + catalogue.drivers.length + catalogue.diodes.length, stats: s });
+    console.log(`core  ${d.name.padEnd(58)} p50 ${s.p50Ms} ms  p95 ${s.p95Ms} ms (${iterations} runs, demo catalogue)`);
   }
+  return out;
 }
 
-async function load(title: string, opts: autocannon.Options): Promise<void> {
-  const r = await autocannon({ duration: 5, connections: 8, ...opts });
-  console.log(
-    `http  ${title.padEnd(40)} ${r.requests.average.toFixed(0)} req/s  p50 ${r.latency.p50} ms  p99 ${r.latency.p99} ms  non-2xx ${r.non2xx}  errors ${r.errors}`,
-  );
+/** Runs a TypeScript child with tsx and returns its last stdout line parsed as JSON. */
+function child<T>(script: string, args: string[], env: NodeJS.ProcessEnv): Promise<T> {
+  return new Promise((resolve, reject) => {
+    const p = spawn(process.execPath, ['--import', 'tsx', script, ...args], { cwd: root, env, stdio: ['ignore', 'pipe', 'inherit'] });
+    let out = '';
+    p.stdout.on('data', (b) => (out += b));
+    p.on('error', reject);
+    p.on('exit', (code) => {
+      const last = out.trim().split('\n').pop() ?? '';
+      if (code !== 0) return reject(new Error(`${script} exited with ${code}`));
+      try {
+        resolve(JSON.parse(last) as T);
+      } catch {
+        reject(new Error(`${script} printed no JSON: ${out.slice(-500)}`));
+      }
+    });
+  });
 }
 
-benchCore(Number(process.env.BENCH_ITERATIONS ?? 200));
+interface LoadResult {
+  requestsPerS: number;
+  total: number;
+  p50Ms: number;
+  p99Ms: number;
+  maxMs: number;
+  errors: number;
+  timeouts: number;
+  non2xx: number;
+  status5xx: number;
+  statusCodes: Record<string, { count: number }>;
+}
+
+// RSS of this process, which is the app server (plus the bench's own small HTTP client).
+let rssPeak = 0;
+const sampleRss = () => (rssPeak = Math.max(rssPeak, process.memoryUsage().rss));
+const sampler = setInterval(sampleRss, 50);
+const gc = (globalThis as { gc?: () => void }).gc;
+
+const core = benchCore(CORE_ITER);
 process.env.CALC_RATE_LIMIT_PER_MIN = '100000000';
 const teardown = new Teardown();
 stopOnSignals(
@@ -72,35 +146,288 @@ stopOnSignals(
   () => 130,
 );
 const stack = await startThrowawayStack(root, teardown);
+let bk: Knex | undefined;
 try {
+  console.log(`bench generating the invented catalogue at scale ${SCALE} (child process)…`);
+  const gen = await child<{ size: object; parts: number; insertS: number; statements: number; sampleMosfetMpns: string[] }>(
+    'scripts/bench/load-catalogue.ts',
+    [],
+    { ...stack.env },
+  );
+  console.log(
+    `gen   ${gen.parts} parts in ${gen.insertS.toFixed(1)} s, ${gen.statements} statements (${(gen.statements / gen.parts).toFixed(3)} per part)`,
+  );
+  bk = knexFactory(knexConnectionConfig(stack.env));
+
   const signin = await fetch(`${stack.url}/api/auth/signin`, {
     method: 'POST',
     headers: { 'Content-Type': 'application/json' },
     body: JSON.stringify({ email: `designer@${DEMO_DOMAIN}`, password: DEMO_PASSWORD }),
   });
   const cookie = (signin.headers.get('set-cookie') ?? '').split(';')[0];
-  const designs = (await (await fetch(`${stack.url}/api/designs`, { headers: { cookie } })).json()) as {
-    items: { id: number; name: string }[];
+  const get = (p: string) => fetch(`${stack.url}${p}`, { headers: { cookie } });
+  gc?.();
+  await new Promise((r) => setTimeout(r, 500));
+  const rssStart = process.memoryUsage().rss;
+  rssPeak = rssStart;
+
+  // Match per demo design, next to the bare SELECT of its candidates.
+  const designs = (await (await get('/api/designs?pageSize=50')).json()) as { items: { id: number; name: string }[] };
+  const match: {
+    design: string;
+    id: number;
+    status: number;
+    bytes: number;
+    stats: Stats;
+    select: Stats;
+    candidates: number;
+    ratio: number;
+  }[] = [];
+  for (const d of demoDesigns) {
+    const row = designs.items.find((x) => x.name === d.name);
+    if (!row) continue;
+    const design = (await (await get(`/api/designs/${row.id}`)).json()) as { input: DesignInput };
+    let status = 0;
+    let bytes = 0;
+    let driverNeeded = false;
+    const s = await timed(ITER, async () => {
+      const res = await fetch(`${stack.url}/api/designs/${row.id}/match`, {
+        method: 'POST',
+        headers: { 'content-type': 'application/json', cookie },
+        body: '{}',
+      });
+      status = res.status;
+      const buf = await res.arrayBuffer();
+      bytes = buf.byteLength;
+      driverNeeded = (JSON.parse(Buffer.from(buf).toString('utf8')) as { driverNeeded?: boolean }).driverNeeded === true;
+    });
+    const input = design.input;
+    const motor = input.motor.source === 'catalogue' ? (await partsByIds(bk, [input.motor.partId])).get(input.motor.partId) : null;
+    const params = input.motor.source === 'manual' ? input.motor.params : motor?.category === 'motor' ? motor.params : null;
+    if (!params) throw new Error(`no motor for ${d.name}`);
+    // The SELECT the match ends on: the direct-drive narrowing, or the driver one when a driver is used.
+    const q = candidateQueries(bk, candidateBounds(prepareCase(input, params), driverNeeded ? 'driver' : 'direct'), false);
+    let candidates = 0;
+    const sel = await timed(ITER, async () => {
+      const [a, b, c] = await Promise.all([q.mosfetQ.clone(), q.driverQ.clone(), q.diodeQ.clone()]);
+      candidates = a.length + b.length + c.length;
+    });
+    const ratio = round(s.p50Ms / Math.max(0.1, sel.p50Ms), 2);
+    match.push({ design: d.name, id: row.id, status, bytes, stats: s, select: sel, candidates, ratio });
+    console.log(
+      `match ${d.name.padEnd(50)} ${status} p50 ${s.p50Ms} ms p95 ${s.p95Ms} ms, ${(bytes / 1024).toFixed(0)} KiB | SELECT of ${candidates} candidates p50 ${sel.p50Ms} ms → ratio ${ratio}`,
+    );
+  }
+
+  // Parametric search, three filters.
+  const paramUrl = '/api/parts?category=mosfet&channel=n&vdsMinV=30&rdsOnAtVgsV=4.5&rdsOnMaxOhm=0.02&pageSize=25';
+  let paramTotal = 0;
+  const param = await timed(ITER, async () => {
+    const res = await get(paramUrl);
+    paramTotal = ((await res.json()) as { total: number }).total;
+  });
+  console.log(
+    `srch  parametric (channel n, VDS ≥ 30 V, RDS(on) ≤ 20 mΩ at 4.5 V) p50 ${param.p50Ms} ms p95 ${param.p95Ms} ms, ${paramTotal} hits`,
+  );
+
+  // Text search: an exact part number (20 random tries: is it first?) and one with a typo.
+  const tries = gen.sampleMosfetMpns.slice(0, 20);
+  let exactFirst = 0;
+  const exactTimes: number[] = [];
+  for (const mpn of tries) {
+    const t0 = performance.now();
+    const body = (await (await get(`/api/parts?q=${encodeURIComponent(mpn)}&pageSize=25`)).json()) as { items: { mpn: string }[] };
+    exactTimes.push(performance.now() - t0);
+    if (body.items[0]?.mpn === mpn) exactFirst++;
+  }
+  const exact = stats(exactTimes);
+  const typoOf = (mpn: string) => mpn.slice(0, 4) + (mpn[4] === '3' ? '8' : '3') + mpn.slice(5);
+  let typoFound = 0;
+  const typoTimes: number[] = [];
+  for (const mpn of tries.slice(0, Math.max(3, Math.min(ITER, tries.length)))) {
+    const t0 = performance.now();
+    const body = (await (await get(`/api/parts?q=${encodeURIComponent(typoOf(mpn))}&pageSize=25`)).json()) as { items: { mpn: string }[] };
+    typoTimes.push(performance.now() - t0);
+    if (body.items.some((i) => i.mpn === mpn)) typoFound++;
+  }
+  const typo = stats(typoTimes);
+  const descTypo = await timed(ITER, async () => void (await (await get('/api/parts?q=schotky%20rectifer&pageSize=25')).arrayBuffer()));
+  console.log(`srch  exact part number p50 ${exact.p50Ms} ms p95 ${exact.p95Ms} ms, first in ${exactFirst}/${tries.length}`);
+  console.log(`srch  part number with a typo p50 ${typo.p50Ms} ms p95 ${typo.p95Ms} ms, found in ${typoFound}/${typoTimes.length}`);
+  console.log(`srch  description with typos ("schotky rectifer") p50 ${descTypo.p50Ms} ms p95 ${descTypo.p95Ms} ms`);
+
+  // Pages.
+  let homeBytes = 0;
+  const home = await timed(ITER, async () => void (homeBytes = (await (await get('/')).arrayBuffer()).byteLength));
+  let partsBytes = 0;
+  const partsPage = await timed(ITER, async () => void (partsBytes = (await (await get('/parts')).arrayBuffer()).byteLength));
+  let newBytes = 0;
+  const newDesign = await timed(ITER, async () => void (newBytes = (await (await get('/designs/new')).arrayBuffer()).byteLength));
+  console.log(
+    `page  / p50 ${home.p50Ms} ms (${(homeBytes / 1024).toFixed(0)} KiB); /parts p50 ${partsPage.p50Ms} ms (${(partsBytes / 1024).toFixed(0)} KiB); /designs/new p50 ${newDesign.p50Ms} ms (${(newBytes / 1024).toFixed(0)} KiB)`,
+  );
+
+  /** Waits until the server is idle again (health answers under 50 ms three times running, at most 90 s). */
+  const settle = async () => {
+    const until = Date.now() + 90_000;
+    let quick = 0;
+    while (quick < 3 && Date.now() < until) {
+      const t0 = performance.now();
+      await fetch(`${stack.url}/api/health`).catch(() => undefined);
+      quick = performance.now() - t0 < 50 ? quick + 1 : 0;
+      await new Promise((r) => setTimeout(r, 200));
+    }
   };
-  const pump = designs.items.find((d) => d.name.startsWith('P-20'))!;
-  await load('POST /api/designs/:id/match (pump)', {
-    url: `${stack.url}/api/designs/${pump.id}/match`,
+
+  // Load: autocannon in a child, /api/health probed from another child at 20 requests/s. Each load
+  // starts on an idle server (work left in flight by the previous one has finished).
+  const load = async (title: string, opts: object) => {
+    await settle();
+    const probe = child<LoadResult>(
+      'scripts/bench/load.ts',
+      [JSON.stringify({ url: `${stack.url}/api/health`, connections: 1, overallRate: 20, duration: LOAD_S, timeout: 10 })],
+      process.env,
+    );
+    const main = child<LoadResult>(
+      'scripts/bench/load.ts',
+      [JSON.stringify({ connections: CONNECTIONS, duration: LOAD_S, timeout: 10, ...opts })],
+      process.env,
+    );
+    const [r, h] = await Promise.all([main, probe]);
+    console.log(
+      `load  ${title.padEnd(34)} ${r.requestsPerS.toFixed(1)} req/s p50 ${r.p50Ms} ms p99 ${r.p99Ms} ms, non-2xx ${r.non2xx} (5xx ${r.status5xx}), errors ${r.errors}, timeouts ${r.timeouts} | health p99 ${h.p99Ms} ms, non-2xx ${h.non2xx}, errors ${h.errors}`,
+    );
+    return { main: r, health: h };
+  };
+  const pump = match[0];
+  const loadMatch = await load(`POST match (${pump?.design.slice(0, 12)})`, {
+    url: `${stack.url}/api/designs/${pump?.id}/match`,
     method: 'POST',
     body: '{}',
     headers: { 'content-type': 'application/json', cookie },
   });
-  await load('POST /api/calc/motor', {
-    url: `${stack.url}/api/calc/motor`,
-    method: 'POST',
-    headers: { 'content-type': 'application/json' },
-    body: JSON.stringify({
-      motor: { ratedVoltageV: 3, noLoadSpeedRpm: 12000, noLoadCurrentA: 0.2, stallCurrentA: 1.8, stallTorqueNm: 0.0033953 },
-      supplyV: 3,
-    }),
+  const loadSearch = await load('GET /api/parts?q=… (text search)', {
+    url: `${stack.url}/api/parts?q=${encodeURIComponent(tries[0] ?? 'mosfet')}&pageSize=25`,
+    headers: { cookie },
   });
-  await load('GET /api/health', { url: `${stack.url}/api/health` });
-  console.log(`rss   ${(process.memoryUsage().rss / 2 ** 20).toFixed(0)} MiB (bench process, app server in process)`);
+
+  await new Promise((r) => setTimeout(r, 2_000));
+  gc?.();
+  await new Promise((r) => setTimeout(r, 1_000));
+  const rssEnd = process.memoryUsage().rss;
+  sampleRss();
+  console.log(
+    `rss   start ${(rssStart / MiB).toFixed(0)} MiB, peak ${(rssPeak / MiB).toFixed(0)} MiB, end ${(rssEnd / MiB).toFixed(0)} MiB`,
+  );
+
+  // Targets (issue 12).
+  type Row = { target: string; measured: string; met: boolean };
+  const rows: Row[] = [];
+  for (const m of match) {
+    rows.push({
+      target: `match p50 < 250 ms: ${m.design}`,
+      measured: `${m.stats.p50Ms} ms (p95 ${m.stats.p95Ms})`,
+      met: m.status === 200 && m.stats.p50Ms < 250,
+    });
+    rows.push({
+      target: `match ≤ 2× bare SELECT of its ${m.candidates} candidates`,
+      measured: `${m.ratio}× (${m.select.p50Ms} ms)`,
+      met: m.ratio <= 2,
+    });
+    rows.push({ target: `match response < 1 MB`, measured: `${(m.bytes / 1024).toFixed(0)} KiB`, met: m.bytes < 1_000_000 });
+  }
+  rows.push({
+    target: 'parametric search (3 filters) p50 < 50 ms',
+    measured: `${param.p50Ms} ms (p95 ${param.p95Ms})`,
+    met: param.p50Ms < 50,
+  });
+  rows.push({
+    target: 'text search, exact part number, p50 < 50 ms',
+    measured: `${exact.p50Ms} ms (p95 ${exact.p95Ms})`,
+    met: exact.p50Ms < 50,
+  });
+  rows.push({
+    target: 'exact part number first, 20 random tries',
+    measured: `${exactFirst}/${tries.length}`,
+    met: exactFirst === tries.length && tries.length === 20,
+  });
+  rows.push({
+    target: 'text search with a typo p50 < 50 ms',
+    measured: `${typo.p50Ms} ms, found ${typoFound}/${typoTimes.length}`,
+    met: typo.p50Ms < 50,
+  });
+  rows.push({
+    target: 'catalogue page (/) < 200 ms',
+    measured: `${home.p50Ms} ms, ${(homeBytes / 1024).toFixed(0)} KiB`,
+    met: home.p50Ms < 200,
+  });
+  rows.push({
+    target: 'catalogue page (/parts) < 200 ms',
+    measured: `${partsPage.p50Ms} ms, ${(partsBytes / 1024).toFixed(0)} KiB`,
+    met: partsPage.p50Ms < 200,
+  });
+  for (const [name, l] of [
+    ['match', loadMatch],
+    ['search', loadSearch],
+  ] as const) {
+    rows.push({
+      target: `${CONNECTIONS} conn × ${LOAD_S} s on ${name}: zero 5xx, zero timeouts`,
+      measured: `${l.main.requestsPerS.toFixed(1)} req/s, p50 ${l.main.p50Ms} / p99 ${l.main.p99Ms} ms, 5xx ${l.main.status5xx}, non-2xx ${l.main.non2xx}, timeouts ${l.main.timeouts}, errors ${l.main.errors}`,
+      met: l.main.status5xx === 0 && l.main.timeouts === 0 && l.main.errors === 0,
+    });
+    rows.push({
+      target: `health p99 < 100 ms during ${name} load`,
+      measured: `${l.health.p99Ms} ms, non-2xx ${l.health.non2xx}`,
+      met: l.health.p99Ms < 100 && l.health.non2xx === 0 && l.health.errors === 0,
+    });
+  }
+  rows.push({ target: 'server RSS peak < 512 MB', measured: `${(rssPeak / MiB).toFixed(0)} MiB`, met: rssPeak < 512 * 1e6 });
+  rows.push({
+    target: 'RSS back within 20 % of start after the load',
+    measured: `start ${(rssStart / MiB).toFixed(0)}, end ${(rssEnd / MiB).toFixed(0)} MiB`,
+    met: rssEnd <= rssStart * 1.2,
+  });
+
+  const machine = `${os.cpus().length} cores (${os.cpus()[0]?.model ?? 'unknown'}), ${(os.totalmem() / 2 ** 30).toFixed(0)} GiB, Node ${process.version}, ${os.platform()}`;
+  const result = {
+    date: new Date().toISOString(),
+    machine,
+    knobs: { iterations: ITER, scale: SCALE, loadSeconds: LOAD_S, connections: CONNECTIONS },
+    generated: gen,
+    core,
+    match,
+    search: {
+      param: { ...param, total: paramTotal },
+      exact: { ...exact, first: exactFirst, tries: tries.length },
+      typo: { ...typo, found: typoFound },
+      descriptionTypo: descTypo,
+    },
+    pages: {
+      home: { ...home, bytes: homeBytes },
+      parts: { ...partsPage, bytes: partsBytes },
+      newDesign: { ...newDesign, bytes: newBytes },
+    },
+    load: { match: loadMatch, search: loadSearch },
+    rssMiB: { start: round(rssStart / MiB), peak: round(rssPeak / MiB), end: round(rssEnd / MiB) },
+    targets: rows,
+  };
+  const md = [
+    `# Benchmark ${result.date.slice(0, 10)}`,
+    '',
+    `Machine: ${machine}. Catalogue: ${gen.parts} generated parts (scale ${SCALE}) plus the demo seed; ${ITER} timed runs per figure.`,
+    '',
+    '| target | measured | |',
+    '|---|---|---|',
+    ...rows.map((r) => `| ${r.target} | ${r.measured} | ${r.met ? '✓ met' : '✗ missed'} |`),
+    '',
+  ].join('\n');
+  mkdirSync(path.join(root, 'bench', 'results'), { recursive: true });
+  writeFileSync(path.join(root, 'bench', 'results', 'latest.json'), JSON.stringify(result, null, 2) + '\n');
+  writeFileSync(path.join(root, 'bench', 'results', 'latest.md'), md);
+  console.log('\n' + md);
 } finally {
+  clearInterval(sampler);
+  await bk?.destroy();
   await stack.cleanup();
 }
 process.exit(0);

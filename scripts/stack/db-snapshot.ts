@@ -18,6 +18,15 @@ const q = (name: string): string => {
   return `\`${name}\``;
 };
 
+/** The stored columns of a table, quoted: generated columns (parts.mpn_norm) are worked out by the copy itself. */
+async function storedColumns(knex: Knex, schema: string, table: string): Promise<string> {
+  const [rows] = (await knex.raw(
+    "SELECT COLUMN_NAME AS c FROM information_schema.COLUMNS WHERE TABLE_SCHEMA = ? AND TABLE_NAME = ? AND IS_GENERATED = 'NEVER' ORDER BY ORDINAL_POSITION",
+    [schema, table],
+  )) as [{ c: string }[]];
+  return rows.map((r) => q(r.c)).join(', ');
+}
+
 /** Copies every table of `from` into `to` (structure and rows), replacing what `to` held. */
 export async function snapshotDatabase(knex: Knex, from: string, to: string): Promise<void> {
   await knex.transaction(async (trx) => {
@@ -25,7 +34,8 @@ export async function snapshotDatabase(knex: Knex, from: string, to: string): Pr
     for (const t of await tablesOf(trx, to)) await trx.raw(`DROP TABLE ${q(to)}.${q(t)}`);
     for (const t of await tablesOf(trx, from)) {
       await trx.raw(`CREATE TABLE ${q(to)}.${q(t)} LIKE ${q(from)}.${q(t)}`);
-      await trx.raw(`INSERT INTO ${q(to)}.${q(t)} SELECT * FROM ${q(from)}.${q(t)}`);
+      const cols = await storedColumns(trx, from, t);
+      await trx.raw(`INSERT INTO ${q(to)}.${q(t)} (${cols}) SELECT ${cols} FROM ${q(from)}.${q(t)}`);
     }
     await trx.raw('SET FOREIGN_KEY_CHECKS = 1');
   });
@@ -43,7 +53,8 @@ export async function restoreDatabase(knex: Knex, from: string, to: string): Pro
     await run('SET FOREIGN_KEY_CHECKS = 0');
     for (const t of await tablesOf(knex, from)) {
       await run(`TRUNCATE TABLE ${q(to)}.${q(t)}`);
-      await run(`INSERT INTO ${q(to)}.${q(t)} SELECT * FROM ${q(from)}.${q(t)}`);
+      const cols = await storedColumns(knex, from, t);
+      await run(`INSERT INTO ${q(to)}.${q(t)} (${cols}) SELECT ${cols} FROM ${q(from)}.${q(t)}`);
     }
   } finally {
     await run('SET FOREIGN_KEY_CHECKS = 1').catch(() => undefined);

@@ -58,6 +58,7 @@ export const CONFIG_KEYS: readonly ConfigKey[] = [
   },
   { key: 'SMTP_SINK_PORT', defaultText: '`2526` (`npm test`: a free port)', meaning: 'port of the local sink on 127.0.0.1' },
   { key: 'CALC_RATE_LIMIT_PER_MIN', defaultText: '`600`', meaning: 'calculator requests per client address per minute (per app server)' },
+  { key: 'MATCH_CONCURRENCY', defaultText: '`4`', meaning: 'design matches ranked at once per app server; more get 429 with Retry-After' },
   {
     key: 'TRUST_PROXY',
     defaultText: 'unset',
@@ -102,6 +103,7 @@ const envSchema = z.object({
   MAIL_SINK: optionalText,
   SMTP_SINK_PORT: z.preprocess(blankToUndefined, z.coerce.number().int().min(0).max(65_535).optional()),
   CALC_RATE_LIMIT_PER_MIN: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).default(600)),
+  MATCH_CONCURRENCY: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).max(64).default(4)),
   TRUST_PROXY: z.preprocess(blankToUndefined, z.enum(['0', '1']).default('0')),
 });
 
@@ -139,6 +141,8 @@ export interface AppConfig {
   /** Port of the local mail sink; null = the default for the run (2526, or a free one under test). */
   sinkPort: number | null;
   calcRateLimitPerMin: number;
+  /** Design matches ranked at once per app server. */
+  matchConcurrency: number;
   trustProxy: boolean;
   /** SIGTERM: how long requests in flight may still run. */
   shutdownGraceS: number;
@@ -185,6 +189,7 @@ export function readConfig(env: NodeJS.ProcessEnv): AppConfig {
     },
     sinkPort: e.SMTP_SINK_PORT ?? null,
     calcRateLimitPerMin: e.CALC_RATE_LIMIT_PER_MIN,
+    matchConcurrency: e.MATCH_CONCURRENCY,
     trustProxy: e.TRUST_PROXY === '1',
     shutdownGraceS: e.SHUTDOWN_GRACE_S,
   };

@@ -49,7 +49,7 @@ describe('matching a seeded design', () => {
   it('equals the engineering core run directly on the same candidates', async () => {
     const id = await seededDesignId(pump.name);
     const design = (await api().get(`/api/designs/${id}`).set('Cookie', designer)).body as { input: DesignInput };
-    const res = await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({});
+    const res = await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({ limit: 500 });
     expect(res.status).toBe(200);
     const match = res.body as DesignMatch;
     const ids = [...match.switch, ...match.driver, ...match.diode].map((e) => e.partId as number);
@@ -85,7 +85,7 @@ describe('matching a seeded design', () => {
   it('leaves out in SQL only MOSFETs that the core would fail anyway', async () => {
     const id = await seededDesignId(pump.name);
     const design = (await api().get(`/api/designs/${id}`).set('Cookie', designer)).body as { input: DesignInput };
-    const match = (await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({})).body as DesignMatch;
+    const match = (await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({ limit: 500 })).body as DesignMatch;
     const ranked = new Set(match.switch.map((e) => e.partId));
     const eligibleRows = await knex('parts').where({ category: 'mosfet', review_status: 'approved' }).whereNot('lifecycle', 'obsolete');
     const left = (await hydrateParts(knex, eligibleRows)).filter((p) => !ranked.has(p.id as number)) as PartOf<'mosfet'>[];
@@ -98,7 +98,7 @@ describe('matching a seeded design', () => {
 
   it('rejects general-purpose rectifiers under PWM with the reverse-recovery reason', async () => {
     const id = await seededDesignId(pump.name);
-    const match = (await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({})).body as DesignMatch;
+    const match = (await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({ limit: 500 })).body as DesignMatch;
     const parts = await partsById(match.diode.map((e) => e.partId as number));
     const general = match.diode.filter(
       (e) =>
@@ -115,7 +115,7 @@ describe('matching a seeded design', () => {
 
   it('says a driver is needed for the 1.8 V agitator and ranks drivers with the paired switch', async () => {
     const id = await seededDesignId(agitator.name);
-    const match = (await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({})).body as DesignMatch;
+    const match = (await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({ limit: 500 })).body as DesignMatch;
     expect(match.switch.some((e) => e.verdict === 'pass')).toBe(false);
     expect(match.driverNeeded).toBe(true);
     expect(match.driverNeededNote).toMatch(/driver/i);
@@ -303,7 +303,7 @@ describe('marking a design ready', () => {
   it('refuses picks that do not hold in the design, then puts a safe design on the shortlist', async () => {
     const id = await seededDesignId(demoDesigns[1].name);
     const base = (await api().get(`/api/designs/${id}`).set('Cookie', designer)).body.input as DesignInput;
-    const match = (await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({})).body as DesignMatch;
+    const match = (await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({ limit: 500 })).body as DesignMatch;
     const failing = match.switch.find((e) => e.verdict === 'fail');
     expect(failing, 'the bench fan has failing switch candidates').toBeTruthy();
     const unsafe: DesignInput = {
@@ -362,8 +362,8 @@ describe('the one match pipeline', () => {
   it('ranks the same whether the saved input is sent or read from the design', async () => {
     const id = await seededDesignId(demoDesigns[0].name);
     const input = ((await api().get(`/api/designs/${id}`).set('Cookie', designer)).body as { input: DesignInput }).input;
-    const saved = (await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({})).body as DesignMatch;
-    const sent = (await api().post('/api/designs/match').set('Cookie', designer).send({ input })).body as DesignMatch;
+    const saved = (await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({ limit: 500 })).body as DesignMatch;
+    const sent = (await api().post('/api/designs/match').set('Cookie', designer).send({ input, limit: 500 })).body as DesignMatch;
     expect(sent.switch.map((e) => [e.partId, e.verdict, e.score])).toEqual(saved.switch.map((e) => [e.partId, e.verdict, e.score]));
     expect(sent.diode.map((e) => [e.partId, e.verdict])).toEqual(saved.diode.map((e) => [e.partId, e.verdict]));
   });

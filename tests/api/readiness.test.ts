@@ -171,7 +171,7 @@ describe('property: no design stays ready while any pick fails at the current ca
             const ready = await knex('designs').where({ status: 'ready' }).select('id');
             for (const { id } of ready) {
               const d = await getDesign(id);
-              const match = (await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({})).body as DesignMatch;
+              const match = (await api().post(`/api/designs/${id}/match`).set('Cookie', designer).send({ limit: 500 })).body as DesignMatch;
               expect(readinessIssues(d.input, match), `design ${id} is ready`).toEqual([]);
             }
           }
@@ -219,7 +219,7 @@ describe('the 24 V agitator copied with a 5 V driver supply', () => {
     await api().post(`/api/designs/${control.id}/status`).set('Cookie', designer).send({ status: 'draft', version: accepted.body.version });
 
     const copy = await createDesign({ ...base, name: `Agitator 5 V driver supply ${Date.now()}`, driverSupplyV: 5, selections });
-    const match = (await api().post(`/api/designs/${copy.id}/match`).set('Cookie', designer).send({})).body as DesignMatch;
+    const match = (await api().post(`/api/designs/${copy.id}/match`).set('Cookie', designer).send({ limit: 500 })).body as DesignMatch;
     // A driver cannot put more on the gate than its own supply: at most 5 V, half the 10 V the parts are specified at.
     expect(match.switchDrive.by).toBe('driver');
     expect(match.switchDrive.gateV).toBeLessThanOrEqual(5);
@@ -270,7 +270,7 @@ describe('an inverting driver with an internal input pull-down on a floating pin
       resetStartIntent: null,
     };
     const design = await createDesign(input);
-    const match = (await api().post(`/api/designs/${design.id}/match`).set('Cookie', designer).send({})).body as DesignMatch;
+    const match = (await api().post(`/api/designs/${design.id}/match`).set('Cookie', designer).send({ limit: 500 })).body as DesignMatch;
     // By hand: floating pin → the driver's pull-down holds its input low → inverting → output high → gate high → motor on.
     const states = Object.fromEntries((match.powerOn?.steps ?? []).map((s) => [s.stage, s.state]));
     expect(states).toMatchObject({ pin: 'undetermined', 'pull-network': 'low', driver: 'high', gate: 'high', motor: 'on' });

@@ -13,9 +13,21 @@ afterAll(async () => {
 });
 
 describe('home page (catalogue)', () => {
-  it('shows seeded parts from every category, the cautions, and no console errors', async () => {
+  it('shows the count and the most recently changed part of every category, the cautions, and no console errors', async () => {
     const knex = appDb();
-    const samples: { category: string; mpn: string }[] = await knex('parts').select('category').min({ mpn: 'mpn' }).groupBy('category');
+    const counts: { category: string; n: number }[] = await knex('parts').select('category').count({ n: '*' }).groupBy('category');
+    const samples: { category: string; mpn: string }[] = [];
+    for (const { category } of counts) {
+      samples.push(
+        await knex('parts')
+          .where({ category })
+          .orderBy([
+            { column: 'updated_at', order: 'desc' },
+            { column: 'id', order: 'desc' },
+          ])
+          .first('category', 'mpn'),
+      );
+    }
     await knex.destroy();
     expect(samples).toHaveLength(4);
 
@@ -31,6 +43,12 @@ describe('home page (catalogue)', () => {
     await page.waitForURL(appUrl() + '/');
     for (const s of samples) {
       await expect(page.locator(`section[data-category="${s.category}"] tr[data-mpn="${s.mpn}"]`).count()).resolves.toBe(1);
+    }
+    for (const c of counts) {
+      // The page never lists the whole catalogue: a count and a link to the paged search instead.
+      await expect(page.getByTestId(`count-${c.category}`).innerText()).resolves.toContain(`(${Number(c.n)})`);
+      await expect(page.getByTestId(`count-${c.category}`).getAttribute('href')).resolves.toBe(`/parts?category=${c.category}`);
+      await expect(page.locator(`section[data-category="${c.category}"] tbody tr`).count()).resolves.toBeLessThanOrEqual(5);
     }
     await expect(page.getByRole('heading', { name: 'Cautions' }).count()).resolves.toBe(1);
     const font = await page.evaluate(() => getComputedStyle(document.body).fontFamily);

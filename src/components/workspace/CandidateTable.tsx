@@ -6,6 +6,8 @@ import type { CandidateResult } from '../../lib/ranking.ts';
 import type { RoleSelection } from '../../lib/domain/design.ts';
 import { checkLabel } from '../../lib/design-words.ts';
 import Verdict, { CheckMark } from './Verdict.tsx';
+import { DEFAULT_MATCH_LIMIT } from '../../lib/schemas/design.ts';
+import type { MatchListSummary, Ranked } from '../../lib/match-page.ts';
 
 export interface ExtraColumn<T> {
   header: string;
@@ -15,7 +17,11 @@ export interface ExtraColumn<T> {
 interface Props<T extends MatchEntry> {
   role: 'switch' | 'driver' | 'diode';
   caption: string;
-  entries: T[];
+  /** The page of the ranking (best first) plus the picks that rank outside it (pinned). */
+  entries: (T & Ranked)[];
+  /** Counts and failure reasons over the whole ranking. */
+  summary: MatchListSummary;
+  onShowMore: () => void;
   extra: ExtraColumn<T>[];
   selection: RoleSelection;
   onSelect: (selection: RoleSelection) => void;
@@ -74,10 +80,21 @@ function Reasons({ checks }: { checks: CandidateResult['checks'] }) {
 }
 
 /** Ranked candidates for one line of the design, with expandable reasons and pick controls. */
-export default function CandidateTable<T extends MatchEntry>({ role, caption, entries, extra, selection, onSelect, readOnly }: Props<T>) {
+export default function CandidateTable<T extends MatchEntry>({
+  role,
+  caption,
+  entries,
+  summary,
+  onShowMore,
+  extra,
+  selection,
+  onSelect,
+  readOnly,
+}: Props<T>) {
   const [open, setOpen] = useState<Set<string>>(new Set());
-  const [showAll, setShowAll] = useState(false);
-  const rows = showAll ? entries : entries.slice(0, 10);
+  const rows = entries;
+  const shown = entries.filter((e) => !e.pinned).length;
+  const remaining = summary.total - summary.offset - shown;
   const toggle = (key: string) =>
     setOpen((s) => {
       const n = new Set(s);
@@ -94,6 +111,9 @@ export default function CandidateTable<T extends MatchEntry>({ role, caption, en
   if (entries.length === 0) return <p className="text-sm text-ink-soft p-3">No candidates in the catalogue for this line.</p>;
   return (
     <div className="overflow-x-auto">
+      <p className="text-xs text-ink-soft px-1 pb-1" data-testid={`list-summary-${role}`}>
+        Showing {shown.toLocaleString('en-US')} of {summary.total.toLocaleString('en-US')}: {summary.summary}
+      </p>
       <table className="data-table w-full text-sm" data-testid={`candidates-${role}`}>
         <caption className="sr-only">{caption}</caption>
         <thead>
@@ -130,6 +150,11 @@ export default function CandidateTable<T extends MatchEntry>({ role, caption, en
                     {e.mpn}
                     {e.reviewStatus === 'pending' ? <span className="tag ml-1">pending review</span> : null}
                     {e.footprintChange ? <FootprintChange /> : null}
+                    {e.pinned ? (
+                      <span className="tag ml-1" title="Your pick, shown although it ranks below this page">
+                        ranked {e.rank.toLocaleString('en-US')}
+                      </span>
+                    ) : null}
                   </td>
                   <td className="whitespace-nowrap">{e.manufacturer}</td>
                   <td className="whitespace-nowrap">{e.package}</td>
@@ -188,9 +213,11 @@ export default function CandidateTable<T extends MatchEntry>({ role, caption, en
           })}
         </tbody>
       </table>
-      {entries.length > 10 && (
-        <button type="button" className="btn-quiet text-sm px-2 py-1 rounded mt-1" onClick={() => setShowAll((v) => !v)}>
-          {showAll ? 'Show the top 10' : `Show all ${entries.length}`}
+      {remaining > 0 && (
+        <button type="button" className="btn-quiet text-sm px-2 py-1 rounded mt-1" onClick={onShowMore}>
+          {remaining <= DEFAULT_MATCH_LIMIT
+            ? `Show all ${summary.total.toLocaleString('en-US')}`
+            : `Show ${DEFAULT_MATCH_LIMIT} more (of ${summary.total.toLocaleString('en-US')})`}
         </button>
       )}
     </div>

@@ -1,14 +1,18 @@
 import type { ComponentType, ReactNode } from 'react';
 import type { DesignInput, PartRole, RoleSelection } from '../../lib/domain/design.ts';
-import { effectiveSwitchList, type DesignMatch } from '../../lib/design-match.ts';
+import type { DesignMatchPage } from '../../lib/match-page.ts';
 import { driverSupplyRangeOf } from '../../lib/design-input.ts';
 import { driversRankedForLine, switchDriveLine } from '../../lib/design-words.ts';
 import CandidateTable, { type ExtraColumn } from './CandidateTable.tsx';
 
 type StepComponent = ComponentType<{ n: number; title: string; children: ReactNode; testId?: string }>;
 
+type DesignMatch = DesignMatchPage;
+
 interface Props {
   match: DesignMatch;
+  /** Asks for the next page of every list. */
+  onShowMore: () => void;
   input: DesignInput;
   onSelect: (role: PartRole) => (sel: RoleSelection) => void;
   readOnly: boolean;
@@ -66,14 +70,15 @@ function Excluded({ count, what }: { count: number; what: string }) {
   if (!count) return null;
   return (
     <p className="text-xs text-ink-faint mt-1">
-      {count} {what} left out before ranking: a rating can never pass (or the part is obsolete).
+      {count} {what} left out before ranking: a rating or the gate drive can never pass (or the part is obsolete).
     </p>
   );
 }
 
 /** Steps 4–6: switch, gate drive, freewheel diode. */
-export default function CandidatesSection({ match, input, onSelect, readOnly, Step }: Props) {
-  const switches = effectiveSwitchList(match);
+export default function CandidatesSection({ match, input, onSelect, readOnly, Step, onShowMore }: Props) {
+  const switchKey = match.driverNeeded ? 'switchWithDriver' : 'switch';
+  const switches = match[switchKey];
   const pairedSwitch = match.driver[0]?.pairing;
   return (
     <>
@@ -91,6 +96,8 @@ export default function CandidatesSection({ match, input, onSelect, readOnly, St
             role="switch"
             caption="Switch candidates"
             entries={switches}
+            summary={match.lists[switchKey]}
+            onShowMore={onShowMore}
             extra={SWITCH_COLS}
             selection={input.selections.switch}
             onSelect={onSelect('switch')}
@@ -115,6 +122,8 @@ export default function CandidatesSection({ match, input, onSelect, readOnly, St
               role="driver"
               caption="Gate driver candidates"
               entries={match.driver}
+              summary={match.lists.driver}
+              onShowMore={onShowMore}
               extra={DRIVER_COLS}
               selection={input.selections.driver}
               onSelect={onSelect('driver')}
@@ -138,6 +147,8 @@ export default function CandidatesSection({ match, input, onSelect, readOnly, St
             role="diode"
             caption="Diode candidates"
             entries={match.diode}
+            summary={match.lists.diode}
+            onShowMore={onShowMore}
             extra={DIODE_COLS}
             selection={input.selections.diode}
             onSelect={onSelect('diode')}

@@ -1,6 +1,6 @@
 import { useMemo, useState } from 'react';
 import type { DesignInput, DesignStatus, PartRole, RoleSelection } from '../../lib/domain/design.ts';
-import { suggestSelections } from '../../lib/design-match.ts';
+import { DEFAULT_MATCH_LIMIT } from '../../lib/schemas/design.ts';
 import { sendJson } from '../api-client.ts';
 import InputsPanel, { type MotorOption } from './InputsPanel.tsx';
 import MotorPanel from './MotorPanel.tsx';
@@ -39,7 +39,8 @@ export default function DesignWorkspace({ design, initialInput, motors, canEdit 
   const [saveMsg, setSaveMsg] = useState<{ tone: 'ok' | 'bad'; text: string } | null>(null);
   const [saveErrors, setSaveErrors] = useState<Record<string, string>>({});
   const [busy, setBusy] = useState(false);
-  const { match, status, error, fieldErrors } = useMatch(meta?.id ?? null, input, includePending);
+  const [matchLimit, setMatchLimit] = useState(DEFAULT_MATCH_LIMIT);
+  const { match, status, error, fieldErrors } = useMatch(meta?.id ?? null, input, includePending, matchLimit);
   const dirty = JSON.stringify(input) !== saved;
   const errors = useMemo(() => ({ ...fieldErrors, ...saveErrors }), [fieldErrors, saveErrors]);
   const readOnly = !canEdit;
@@ -133,7 +134,7 @@ export default function DesignWorkspace({ design, initialInput, motors, canEdit 
         </span>
         <div className="flex flex-wrap gap-2 ml-auto">
           {canEdit && match ? (
-            <button type="button" className="btn btn-quiet" onClick={() => setInput({ ...input, selections: suggestSelections(match) })}>
+            <button type="button" className="btn btn-quiet" onClick={() => setInput({ ...input, selections: match.suggested })}>
               Suggest picks
             </button>
           ) : null}
@@ -191,7 +192,14 @@ export default function DesignWorkspace({ design, initialInput, motors, canEdit 
           <Step n={3} title="Supply and logic at start" testId="step-supply">
             <SupplyPanel supply={match.supply} />
           </Step>
-          <CandidatesSection match={match} input={input} onSelect={select} readOnly={readOnly} Step={Step} />
+          <CandidatesSection
+            match={match}
+            input={input}
+            onSelect={select}
+            readOnly={readOnly}
+            Step={Step}
+            onShowMore={() => setMatchLimit((l) => l + DEFAULT_MATCH_LIMIT)}
+          />
           <Step n={7} title="Power-on and reset state" testId="step-power-on">
             <PowerOnPanel powerOn={match.powerOn} resetStartIntent={input.resetStartIntent} />
           </Step>

@@ -1,5 +1,7 @@
+import { useEffect, useState } from 'react';
 import type { DesignInput, DesignMotor, MotorOption } from '../../lib/domain/design.ts';
-import { LOGIC_PRESETS } from '../../lib/domain/design.ts';
+import { LOGIC_PRESETS, motorOptionOf } from '../../lib/domain/design.ts';
+import type { Part } from '../../lib/domain/parts.ts';
 import NumInput from './NumInput.tsx';
 import { DriverSupplyInput, ResetStartIntentInput, StallProtectionInput } from './DriveInputs.tsx';
 import { SharedLogicFields, SupplyPresetField, SupplySourceFields, useSupplyCells } from './SupplyInputs.tsx';
@@ -30,6 +32,41 @@ const MANUAL_DEFAULT: DesignMotor = {
   },
 };
 
+/**
+ * The catalogue motors on offer: the page sends a few; typing searches the whole catalogue (the same
+ * text search as Find parts), and the motor in use always stays on the list.
+ */
+function useMotorSearch(initial: MotorOption[], currentId: number | null) {
+  const [text, setText] = useState('');
+  const [found, setFound] = useState<MotorOption[]>(initial);
+  const [current, setCurrent] = useState<MotorOption | null>(initial.find((o) => o.id === currentId) ?? null);
+  useEffect(() => {
+    if (currentId != null) setCurrent((c) => (c?.id === currentId ? c : (found.find((o) => o.id === currentId) ?? c)));
+  }, [currentId, found]);
+  useEffect(() => {
+    if (!text.trim()) {
+      setFound(initial);
+      return;
+    }
+    const ctrl = new AbortController();
+    const timer = setTimeout(async () => {
+      const qs = new URLSearchParams({ category: 'motor', q: text.trim(), pageSize: '20', reviewStatus: 'approved,pending' });
+      try {
+        const res = await fetch(`/api/parts?${qs}`, { signal: ctrl.signal });
+        if (res.ok) setFound(((await res.json()) as { items: Part[] }).items.map(motorOptionOf));
+      } catch {
+        /* superseded by newer typing */
+      }
+    }, 250);
+    return () => {
+      clearTimeout(timer);
+      ctrl.abort();
+    };
+  }, [text, initial]);
+  const options = current && !found.some((o) => o.id === current.id) ? [current, ...found] : found;
+  return { text, setText, options };
+}
+
 function Section({ title, children }: { title: string; children: React.ReactNode }) {
   return (
     <fieldset className="card p-3">
@@ -45,9 +82,20 @@ export default function InputsPanel({ input, motors, errors, onChange, readOnly 
   const e = (path: string) => errors[path];
   const m = input.motor;
   const [cells, setCells] = useSupplyCells(input.supply.preset);
+  const motorSearch = useMotorSearch(motors, m.source === 'catalogue' ? m.partId : null);
   return (
     <fieldset disabled={readOnly} className="grid gap-3 lg:grid-cols-2" data-testid="design-inputs">
       <Section title="Motor">
+        <label className="field col-span-2">
+          Find a motor
+          <input
+            type="search"
+            value={motorSearch.text}
+            data-testid="motor-search"
+            placeholder="Part number, maker or words"
+            onChange={(ev) => motorSearch.setText(ev.target.value)}
+          />
+        </label>
         <label className="field col-span-2">
           Motor
           <select
@@ -57,7 +105,7 @@ export default function InputsPanel({ input, motors, errors, onChange, readOnly 
               set({ motor: ev.target.value === 'manual' ? MANUAL_DEFAULT : { source: 'catalogue', partId: Number(ev.target.value) } })
             }
           >
-            {motors.map((o) => (
+            {motorSearch.options.map((o) => (
               <option key={o.id} value={o.id}>
                 {o.label}
               </option>

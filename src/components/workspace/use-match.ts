@@ -1,7 +1,7 @@
 import { useEffect, useRef, useState } from 'react';
 import { postJson, type ApiIssue } from '../api-client.ts';
 import type { DesignInput } from '../../lib/domain/design.ts';
-import type { DesignMatch } from '../../lib/design-match.ts';
+import type { DesignMatchPage } from '../../lib/match-page.ts';
 
 export type MatchStatus = 'idle' | 'loading' | 'ready' | 'error';
 
@@ -14,9 +14,12 @@ export function issuesByPath(issues: ApiIssue[], prefix = ''): Record<string, st
   return out;
 }
 
-/** Re-ranks the candidates shortly after every input change; older answers are discarded. */
-export function useMatch(designId: number | null, input: DesignInput, includePending: boolean) {
-  const [match, setMatch] = useState<DesignMatch | null>(null);
+/**
+ * Re-ranks the candidates shortly after every input change; older answers are discarded. `limit`: entries
+ * per list ("show more" raises it); counts and picks always cover the whole ranking.
+ */
+export function useMatch(designId: number | null, input: DesignInput, includePending: boolean, limit: number) {
+  const [match, setMatch] = useState<DesignMatchPage | null>(null);
   const [status, setStatus] = useState<MatchStatus>('idle');
   const [error, setError] = useState('');
   const [fieldErrors, setFieldErrors] = useState<Record<string, string>>({});
@@ -29,7 +32,7 @@ export function useMatch(designId: number | null, input: DesignInput, includePen
       setStatus('loading');
       const url = designId ? `/api/designs/${designId}/match` : '/api/designs/match';
       try {
-        const res = await postJson<DesignMatch>(url, { includePending, input }, ctrl.signal);
+        const res = await postJson<DesignMatchPage>(url, { includePending, input, limit }, ctrl.signal);
         if (res.ok) {
           setMatch(res.data);
           setFieldErrors({});
@@ -45,6 +48,6 @@ export function useMatch(designId: number | null, input: DesignInput, includePen
       }
     }, 250);
     return () => clearTimeout(timer);
-  }, [designId, input, includePending]);
+  }, [designId, input, includePending, limit]);
   return { match, status, error, fieldErrors };
 }

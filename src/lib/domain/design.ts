@@ -5,6 +5,7 @@
 import { sig } from '../units.ts';
 import type { z } from 'zod';
 import type { designInputSchema } from '../schemas/design.ts';
+import type { Part } from './parts.ts';
 
 export const PART_ROLES = ['switch', 'driver', 'diode'] as const;
 export type PartRole = (typeof PART_ROLES)[number];
@@ -279,4 +280,13 @@ export const DEFAULT_DESIGN_MARGINS = { voltageDerating: 0.8, thermalMarginC: 25
 export interface MotorOption {
   id: number;
   label: string;
+}
+
+/** How the motor picker names a catalogue motor. */
+export function motorOptionOf(m: Part): MotorOption {
+  const rating = m.category === 'motor' ? `${m.params.ratedVoltageV} V, ${m.params.stallCurrentA} A stall` : '';
+  return {
+    id: m.id as number,
+    label: `${m.mpn} · ${m.manufacturer} · ${rating}${m.reviewStatus === 'pending' ? ' (pending review)' : ''}`,
+  };
 }

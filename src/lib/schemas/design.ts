@@ -2,6 +2,10 @@
 import { z } from 'zod';
 import { INT_UNSIGNED_MAX, positiveIn, zeroOrIn, type RangeName } from './bounds.ts';
 
+/** Match answers: entries per ranked list by default, and at most. */
+export const DEFAULT_MATCH_LIMIT = 25;
+export const MAX_MATCH_LIMIT = 500;
+
 const pos = (range: RangeName) => positiveIn(range);
 const nonNeg = (range: RangeName) => zeroOrIn(range);
 const id = () => z.number().int().positive().max(INT_UNSIGNED_MAX);
@@ -139,5 +143,8 @@ export const matchRequestSchema = z.object({
   includePending: z.boolean().default(false),
   input: designInputSchema.optional(),
   revision: z.number().int().min(1).max(INT_UNSIGNED_MAX).optional(),
+  /** Entries per ranked list in the answer (the best first) and where the page starts; counts cover all. */
+  limit: z.number({ error: 'limit must be a whole number' }).int().min(1).max(MAX_MATCH_LIMIT).default(DEFAULT_MATCH_LIMIT),
+  offset: z.number({ error: 'offset must be a whole number' }).int().min(0).max(INT_UNSIGNED_MAX).default(0),
 });
 export type MatchRequest = z.output<typeof matchRequestSchema>;

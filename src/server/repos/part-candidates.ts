@@ -1,6 +1,7 @@
 /**
  * The catalogue candidates of a design, narrowed in SQL on indexed rating columns: only parts whose
- * ratings can never pass are left out (the engineering core would fail them on a hard limit), with
+ * ratings or gate-drive needs can never pass are left out (the engineering core would fail them on a
+ * hard limit), with
  * obsolete parts (not for new designs) and parts not yet approved unless asked for.
  */
 import type { Db } from '../db.ts';
@@ -17,6 +18,14 @@ export interface CandidateBounds {
   /** The driver supply band: a driver's supply range must cover it. */
   driverSupplyMinV: number;
   driverSupplyMaxV: number;
+  /**
+   * The highest gate voltage the switch can see (the pin's logic high for direct drive, the driver
+   * supply's top for a driver): a MOSFET whose lowest RDS(on) line or VGS(th) max lies above it fails
+   * the gate-drive check at any drive there is, so it is left out. The picks are kept regardless.
+   */
+  switchGateMaxV: number;
+  /** The design's switch picks: ranked whenever their ratings allow, whatever the gate drive. */
+  switchPickIds: number[];
 }
 
 export interface CandidateRows {
@@ -39,7 +48,8 @@ async function countOf(q: ReturnType<typeof eligible>): Promise<number> {
   return Number(n);
 }
 
-export async function loadCandidateParts(db: Db, bounds: CandidateBounds, includePending: boolean): Promise<CandidateRows> {
+/** The three candidate SELECTs (parts rows only; the benchmark times them bare against the whole match). */
+export function candidateQueries(db: Db, bounds: CandidateBounds, includePending: boolean) {
   const mosfetAll = eligible(db, 'mosfet', includePending);
   const mosfetQ = mosfetAll
     .clone()
@@ -47,6 +57,15 @@ export async function loadCandidateParts(db: Db, bounds: CandidateBounds, includ
     .where('mosfet_params.channel', 'n')
     .where('mosfet_params.vds_max_v', '>=', bounds.supplyMaxV)
     .where('mosfet_params.id_pulsed_a', '>=', bounds.stallCurrentMaxA)
+    .where((w) =>
+      w
+        .where((g) =>
+          g
+            .where('mosfet_params.min_rds_on_vgs_v', '<=', bounds.switchGateMaxV)
+            .where('mosfet_params.vgs_th_max_v', '<=', bounds.switchGateMaxV),
+        )
+        .orWhereIn('parts.id', bounds.switchPickIds),
+    )
     .select('parts.*');
   const driverAll = eligible(db, 'driver', includePending);
   const driverQ = driverAll
@@ -61,7 +80,11 @@ export async function loadCandidateParts(db: Db, bounds: CandidateBounds, includ
     .join('diode_params', 'diode_params.part_id', 'parts.id')
     .where('diode_params.vrrm_v', '>=', bounds.supplyMaxV)
     .select('parts.*');
+  return { mosfetAll, mosfetQ, driverAll, driverQ, diodeAll, diodeQ };
+}
 
+export async function loadCandidateParts(db: Db, bounds: CandidateBounds, includePending: boolean): Promise<CandidateRows> {
+  const { mosfetAll, mosfetQ, driverAll, driverQ, diodeAll, diodeQ } = candidateQueries(db, bounds, includePending);
   const [mosfetRows, driverRows, diodeRows, mosfet, driver, diode] = await Promise.all([
     mosfetQ,
     driverQ,

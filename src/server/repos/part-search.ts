@@ -149,6 +149,69 @@ export interface SearchTextRow {
   description: string;
 }
 
+/** A part number as the search compares it (the parts.mpn_norm column: upper case, letters and digits). */
+export const normalizeMpn = (text: string): string => text.toUpperCase().replace(/[^A-Z0-9]/g, '');
+
+/** Rows each lookup of the text search contributes at most. */
+export const TEXT_LOOKUP_ROWS = 200;
+
+/**
+ * The candidates of a text search, from indexed lookups only (never a scan of the catalogue), each
+ * within the query's filters: the normalised part number exactly, as a prefix, by its first half and by
+ * its second half (the halves do not overlap, so one wrong character leaves the other half intact), and the words of maker and
+ * description by FULLTEXT, also by their first four letters (a typo after them is still found).
+ * The rows come back with `exact` set for an exact part number. fuse.js orders them afterwards.
+ */
+export async function textCandidates(db: Db, f: ScopedPartQuery, text: string): Promise<(SearchTextRow & { exact: boolean })[]> {
+  const n = normalizeMpn(text);
+  const base = () =>
+    filteredParts(db, f)
+      .select('parts.id', 'parts.manufacturer', 'parts.mpn', 'parts.description', 'parts.mpn_norm')
+      .limit(TEXT_LOOKUP_ROWS);
+  const lookups: Knex.QueryBuilder[] = [];
+  if (n.length > 0) lookups.push(base().where('parts.mpn_norm', n));
+  if (n.length >= 2) lookups.push(base().where('parts.mpn_norm', 'like', `${n}%`).orderBy('parts.mpn_norm'));
+  if (n.length >= 6) {
+    const half = Math.ceil(n.length / 2);
+    lookups.push(
+      base()
+        .where('parts.mpn_norm', 'like', `${n.slice(0, half)}%`)
+        .orderBy('parts.mpn_norm'),
+    );
+    lookups.push(
+      base()
+        .where('parts.mpn_rev', 'like', `${[...n.slice(half)].reverse().join('')}%`)
+        .orderBy('parts.mpn_rev'),
+    );
+  }
+  const words = text
+    .toLowerCase()
+    .split(/[^\p{L}\p{N}]+/u)
+    .filter((w) => w.length >= 3);
+  if (words.length) {
+    lookups.push(base().whereRaw('MATCH(parts.manufacturer, parts.description) AGAINST (? IN NATURAL LANGUAGE MODE)', [words.join(' ')]));
+    const stems = words.filter((w) => w.length >= 4).map((w) => `${w.slice(0, 4)}*`);
+    if (stems.length)
+      lookups.push(base().whereRaw('MATCH(parts.manufacturer, parts.description) AGAINST (? IN BOOLEAN MODE)', [stems.join(' ')]));
+  }
+  const results = (await Promise.all(lookups)) as (SearchTextRow & { mpn_norm: string })[][];
+  const seen = new Map<number, SearchTextRow & { exact: boolean }>();
+  for (const rows of results) {
+    for (const r of rows) {
+      if (!seen.has(r.id))
+        seen.set(r.id, { id: r.id, manufacturer: r.manufacturer, mpn: r.mpn, description: r.description, exact: r.mpn_norm === n });
+    }
+  }
+  return [...seen.values()];
+}
+
+/** The given ids in the query's sort order. */
+export async function sortIds(db: Db, f: ScopedPartQuery, ids: number[]): Promise<number[]> {
+  if (ids.length === 0) return [];
+  const rows: { id: number }[] = await applySort(filteredParts(db, f).select('parts.id').whereIn('parts.id', ids), f.sort);
+  return rows.map((r) => r.id);
+}
+
 /** Id and text of every part the filters keep, in sort order (the input of the fuzzy text match). */
 export async function filteredTextRows(db: Db, f: ScopedPartQuery, limit: number): Promise<SearchTextRow[]> {
   const q = filteredParts(db, f).select('parts.id', 'parts.manufacturer', 'parts.mpn', 'parts.description');

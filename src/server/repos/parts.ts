@@ -181,6 +181,41 @@ export async function countPartsByCategory(db: Db): Promise<Record<PartCategory,
   return counts;
 }
 
+/** A part as a list of recent changes shows it (no parameters, no sources). */
+export interface RecentPart {
+  id: number;
+  mpn: string;
+  manufacturer: string;
+  description: string;
+  package: string;
+  lifecycle: Part['lifecycle'];
+  lifecycleEffectiveDate: string | null;
+  reviewStatus: Part['reviewStatus'];
+  updatedAt: string;
+}
+
+/** The most recently changed parts of a category, newest first (index parts_category_updated_idx). */
+export async function recentlyChangedParts(db: Db, category: PartCategory, limit: number): Promise<RecentPart[]> {
+  const rows: DbPartRow[] = await db<DbPartRow>('parts')
+    .where('category', category)
+    .orderBy([
+      { column: 'updated_at', order: 'desc' },
+      { column: 'id', order: 'desc' },
+    ])
+    .limit(limit);
+  return rows.map((r) => ({
+    id: r.id,
+    mpn: r.mpn,
+    manufacturer: r.manufacturer,
+    description: r.description,
+    package: r.package,
+    lifecycle: r.lifecycle,
+    lifecycleEffectiveDate: r.lifecycle_effective_date == null ? null : new Date(r.lifecycle_effective_date).toISOString().slice(0, 10),
+    reviewStatus: r.review_status,
+    updatedAt: new Date(r.updated_at).toISOString(),
+  }));
+}
+
 /** Parts by id (any category), fully hydrated, keyed by id. */
 export async function partsByIds(db: Db, ids: number[]): Promise<Map<number, Part>> {
   if (ids.length === 0) return new Map();

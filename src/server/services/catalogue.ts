@@ -1,13 +1,20 @@
-/** Catalogue reads for pages. */
+/** Catalogue reads for pages: sizes that do not grow with the catalogue (counts and a few rows). */
 import { db } from '../db.ts';
-import { listParts } from '../repos/parts.ts';
-import { PART_CATEGORIES, type Part, type PartCategory } from '../../lib/domain/parts.ts';
+import { countPartsByCategory, recentlyChangedParts, type RecentPart } from '../repos/parts.ts';
+import { PART_CATEGORIES, type PartCategory } from '../../lib/domain/parts.ts';
 
-export type CatalogueGroups = Record<PartCategory, Part[]>;
+/** Rows of recent changes per category on the home page. */
+export const RECENT_PER_CATEGORY = 5;
 
-export async function catalogueByCategory(): Promise<CatalogueGroups> {
-  const parts = await listParts(db());
-  const groups = Object.fromEntries(PART_CATEGORIES.map((c) => [c, [] as Part[]])) as CatalogueGroups;
-  for (const part of parts) groups[part.category].push(part);
-  return groups;
+export interface CatalogueOverview {
+  counts: Record<PartCategory, number>;
+  recent: Record<PartCategory, RecentPart[]>;
+}
+
+export async function catalogueOverview(): Promise<CatalogueOverview> {
+  const [counts, ...recent] = await Promise.all([
+    countPartsByCategory(db()),
+    ...PART_CATEGORIES.map((c) => recentlyChangedParts(db(), c, RECENT_PER_CATEGORY)),
+  ]);
+  return { counts, recent: Object.fromEntries(PART_CATEGORIES.map((c, i) => [c, recent[i]])) as CatalogueOverview['recent'] };
 }

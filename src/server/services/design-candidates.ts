@@ -4,19 +4,43 @@ import type { MatchCatalogue, PreparedCase } from '../../lib/design-match.ts';
 import { driverSupplyOf } from '../../lib/driver-ranking.ts';
 import { loadCandidateParts, type CandidateBounds } from '../repos/part-candidates.ts';
 
+/**
+ * Which gate drive the switch candidates are narrowed for: `direct` keeps only MOSFETs the logic pin
+ * can enhance (the rest fail gate drive there, whatever else they do); `driver` keeps every MOSFET a
+ * driver on the design's driver supply could enhance.
+ */
+export type SwitchDrivePhase = 'direct' | 'driver';
+
 /** The hard rating limits of a design (pure). */
-export function candidateBounds({ designCase, worstCase }: PreparedCase): CandidateBounds {
+export function candidateBounds(
+  { designCase, worstCase }: PreparedCase,
+  phase: SwitchDrivePhase = 'driver',
+  switchPickIds: number[] = [],
+): CandidateBounds {
   const driverSupply = driverSupplyOf(designCase);
   return {
     supplyMaxV: worstCase.supplyMaxV,
     stallCurrentMaxA: worstCase.stallCurrentMaxA,
     driverSupplyMinV: driverSupply.minV,
     driverSupplyMaxV: driverSupply.maxV,
+    // A driver's output high is its supply less a drop, so never above the supply's top.
+    switchGateMaxV: phase === 'direct' ? worstCase.gateDriveMinV : Math.max(worstCase.gateDriveMinV, driverSupply.maxV),
+    switchPickIds,
   };
 }
 
-export async function loadCandidates(db: Db, prepared: PreparedCase, includePending: boolean): Promise<MatchCatalogue> {
-  const { mosfets, drivers, diodes, totals } = await loadCandidateParts(db, candidateBounds(prepared), includePending);
+export async function loadCandidates(
+  db: Db,
+  prepared: PreparedCase,
+  includePending: boolean,
+  phase: SwitchDrivePhase = 'driver',
+  switchPickIds: number[] = [],
+): Promise<MatchCatalogue> {
+  const { mosfets, drivers, diodes, totals } = await loadCandidateParts(
+    db,
+    candidateBounds(prepared, phase, switchPickIds),
+    includePending,
+  );
   return {
     mosfets,
     drivers,

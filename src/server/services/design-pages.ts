@@ -1,18 +1,23 @@
 /** Data the design pages need besides the design itself. */
 import { db } from '../db.ts';
-import { listParts } from '../repos/parts.ts';
+import { hydrateParts } from '../repos/parts.ts';
+import type { DbPartRow } from '../repos/part-rows.ts';
 import type { DesignInput, MotorOption } from '../../lib/domain/design.ts';
-import { DEFAULT_DESIGN_MARGINS, LOGIC_PRESETS, SUPPLY_PRESETS } from '../../lib/domain/design.ts';
+import { DEFAULT_DESIGN_MARGINS, LOGIC_PRESETS, SUPPLY_PRESETS, motorOptionOf } from '../../lib/domain/design.ts';
 import { supplyFromPreset } from '../../lib/supply-input.ts';
 
-export async function motorOptions(): Promise<MotorOption[]> {
-  const motors = await listParts(db(), { category: 'motor', reviewStatuses: ['approved', 'pending'] });
-  return motors
-    .filter((m) => m.category === 'motor')
-    .map((m) => ({
-      id: m.id as number,
-      label: `${m.mpn} · ${m.manufacturer} · ${m.category === 'motor' ? `${m.params.ratedVoltageV} V, ${m.params.stallCurrentA} A stall` : ''}${m.reviewStatus === 'pending' ? ' (pending review)' : ''}`,
-    }));
+/** Motors offered before any search: the first few by part number, plus the ones asked for (the design's). */
+export const MOTOR_OPTIONS_SHOWN = 20;
+
+export async function motorOptions(includeIds: number[] = []): Promise<MotorOption[]> {
+  const rows: DbPartRow[] = await db()('parts')
+    .where({ category: 'motor' })
+    .whereIn('review_status', ['approved', 'pending'])
+    .orderBy([{ column: 'mpn' }, { column: 'id' }])
+    .limit(MOTOR_OPTIONS_SHOWN);
+  const extra = includeIds.filter((id) => !rows.some((r) => r.id === id));
+  const more: DbPartRow[] = extra.length ? await db()('parts').where({ category: 'motor' }).whereIn('id', extra) : [];
+  return (await hydrateParts(db(), [...more, ...rows])).map(motorOptionOf);
 }
 
 /** A new design's starting point: 3.3 V logic on a 1S Li-ion pack, on/off, the first catalogue motor. */

@@ -22,6 +22,8 @@ import { partCategoriesByIds, partsByIds } from '../repos/parts.ts';
 import { insertAuditEvent } from '../repos/audit.ts';
 import { ServiceError, notFound } from './errors.ts';
 import { loadCandidates } from './design-candidates.ts';
+import { pageMatch, type DesignMatchPage } from '../../lib/match-page.ts';
+import { withMatchSlot } from './match-gate.ts';
 
 export const canEditDesign = (user: SessionUser, ownerId: number): boolean => user.roles.includes('admin') || user.id === ownerId;
 
@@ -137,7 +139,17 @@ export async function matchInput(
 ): Promise<DesignMatch> {
   const motor = resolved ?? (await resolveMotor(input, k));
   const prepared = prepareCase(input, motor.params);
-  const catalogue = await loadCandidates(k, prepared, includePending);
+  const sel = input.selections.switch;
+  const switchPicks = [...(sel.chosenPartId != null ? [sel.chosenPartId] : []), ...sel.alternatePartIds];
+  // First the switches the logic pin can drive. When one of them passes and no driver is chosen, the
+  // engine never looks at the others (they fail gate drive directly and no driver is used), so the
+  // answer is the one the whole catalogue gives, less parts that could only fail.
+  if (input.selections.driver.chosenPartId == null) {
+    const direct = await loadCandidates(k, prepared, includePending, 'direct', switchPicks);
+    const match = matchDesign(input, motor.label, motor.params, direct, prepared);
+    if (!match.driverNeeded && match.switch.some((e) => e.verdict === 'pass')) return match;
+  }
+  const catalogue = await loadCandidates(k, prepared, includePending, 'driver', switchPicks);
   return matchDesign(input, motor.label, motor.params, catalogue, prepared);
 }
 
@@ -148,18 +160,22 @@ export async function designExists(id: number): Promise<boolean> {
 /**
  * The one match pipeline behind both match routes. With a design id, the design must exist (404
  * otherwise, also when unsaved input is sent along); the input sent, or else its saved revision, is
- * ranked. Without an id, the input is required.
+ * ranked. Without an id, the input is required. The whole catalogue is ranked (counts, picks and
+ * suggestions come from the full ranking); the answer carries `limit` entries per list from `offset`
+ * plus the picks. At most MATCH_CONCURRENCY run at once (429 beyond).
  */
-export async function matchRequest(designId: number | null, request: MatchRequest): Promise<DesignMatch> {
+export async function matchRequest(designId: number | null, request: MatchRequest): Promise<DesignMatchPage> {
   if (designId === null) {
     if (!request.input) throw new ServiceError(400, 'Send the design input to rank.', [{ path: 'input', message: 'required' }]);
     if (request.revision !== undefined)
       throw new ServiceError(400, 'A revision needs a saved design.', [{ path: 'revision', message: 'use /api/designs/:id/match' }]);
-    return matchInput(request.input, request.includePending);
-  }
-  if (request.input && request.revision !== undefined) {
+  } else if (request.input && request.revision !== undefined) {
     throw new ServiceError(400, 'Send either unsaved input or a revision, not both.', [{ path: 'revision', message: 'not with input' }]);
   }
-  const saved = await getDesign(designId, request.revision);
-  return matchInput(request.input ?? saved.input, request.includePending);
+  return withMatchSlot(async () => {
+    const input = designId === null ? request.input! : (request.input ?? (await getDesign(designId, request.revision)).input);
+    if (designId !== null && request.input) await getDesign(designId);
+    const match = await matchInput(input, request.includePending);
+    return pageMatch(match, input, { limit: request.limit, offset: request.offset });
+  });
 }

@@ -1,0 +1,121 @@
+/**
+ * What the match routes answer: each ranked list cut to the best N (from `offset`), with the counts by
+ * verdict and why the rest fail, worked out on the FULL ranking. The designer's picks (chosen and
+ * alternates) and the suggested picks always travel with the page, wherever they rank, so the workspace
+ * and its readiness view judge them exactly as the server does. Pure: the service ranks, this cuts.
+ */
+import type { DesignInput } from './domain/design.ts';
+import type { Check } from './checks.ts';
+import { checkLabel } from './design-words.ts';
+import { suggestSelections, type DesignMatch } from './design-match.ts';
+import { DEFAULT_MATCH_LIMIT, MAX_MATCH_LIMIT } from './schemas/design.ts';
+
+export const MATCH_LIST_KEYS = ['switch', 'switchWithDriver', 'driver', 'diode'] as const;
+export type MatchListKey = (typeof MATCH_LIST_KEYS)[number];
+
+export { DEFAULT_MATCH_LIMIT, MAX_MATCH_LIMIT };
+
+export interface MatchListSummary {
+  /** Entries in the full ranking. */
+  total: number;
+  offset: number;
+  limit: number;
+  /** How many of the full ranking have each verdict. */
+  counts: { pass: number; marginal: number; fail: number };
+  /** Failing parts per hard check they break, most common first (a part breaking two checks counts in both). */
+  failing: { checkId: string; label: string; count: number }[];
+  /** One line: "1,204 pass · 8 marginal · 25,412 fail — 25,001 fail gate drive, …". */
+  summary: string;
+}
+
+/** Position of the entry in the full ranking (1 = best); the page and the pinned picks carry it. */
+export interface Ranked {
+  rank: number;
+  /** True for a pick (or suggestion) shown although it ranks outside the page. */
+  pinned: boolean;
+}
+
+type Lists = { [K in MatchListKey]: (DesignMatch[K][number] & Ranked)[] };
+
+export type DesignMatchPage = Omit<DesignMatch, MatchListKey> &
+  Lists & {
+    lists: Record<MatchListKey, MatchListSummary>;
+    /** The default picks worked out on the full ranking (suggestSelections). */
+    suggested: DesignInput['selections'];
+  };
+
+const hardFail = (c: Check) => !c.ok && c.severity !== 'margin';
+const thousands = (n: number) => n.toLocaleString('en-US');
+
+export function summarizeList(
+  list: readonly { verdict: string; checks: readonly Check[] }[],
+  offset: number,
+  limit: number,
+): MatchListSummary {
+  const counts = { pass: 0, marginal: 0, fail: 0 };
+  const byCheck = new Map<string, number>();
+  for (const e of list) {
+    if (e.verdict === 'pass' || e.verdict === 'marginal' || e.verdict === 'fail') counts[e.verdict]++;
+    if (e.verdict !== 'fail') continue;
+    for (const c of e.checks) if (hardFail(c)) byCheck.set(c.id, (byCheck.get(c.id) ?? 0) + 1);
+  }
+  const failing = [...byCheck.entries()]
+    .sort((a, b) => b[1] - a[1] || a[0].localeCompare(b[0]))
+    .map(([checkId, count]) => ({ checkId, label: checkLabel(checkId), count }));
+  const head = `${thousands(counts.pass)} pass · ${thousands(counts.marginal)} marginal · ${thousands(counts.fail)} fail`;
+  const why = failing
+    .slice(0, 4)
+    .map((f) => `${thousands(f.count)} fail ${f.label.toLowerCase()}`)
+    .join(', ');
+  return { total: list.length, offset, limit, counts, failing, summary: why ? `${head} — ${why}` : head };
+}
+
+function cut<T extends { partId?: number | null }>(
+  list: readonly T[],
+  offset: number,
+  limit: number,
+  pinIds: ReadonlySet<number>,
+): (T & Ranked)[] {
+  const out: (T & Ranked)[] = [];
+  list.forEach((e, i) => {
+    const inPage = i >= offset && i < offset + limit;
+    if (inPage || (e.partId != null && pinIds.has(e.partId))) out.push({ ...e, rank: i + 1, pinned: !inPage });
+  });
+  return out;
+}
+
+/** The answer of the match routes: `limit` entries per list from `offset`, plus every pick. */
+export function pageMatch(
+  match: DesignMatch,
+  input: DesignInput,
+  { limit = DEFAULT_MATCH_LIMIT, offset = 0 }: { limit?: number; offset?: number } = {},
+): DesignMatchPage {
+  const suggested = suggestSelections(match);
+  const idsOf = (role: 'switch' | 'driver' | 'diode') => {
+    const ids = new Set<number>();
+    for (const sel of [input.selections[role], suggested[role]]) {
+      if (sel.chosenPartId != null) ids.add(sel.chosenPartId);
+      for (const id of sel.alternatePartIds) ids.add(id);
+    }
+    return ids;
+  };
+  const pins: Record<MatchListKey, Set<number>> = {
+    switch: idsOf('switch'),
+    switchWithDriver: idsOf('switch'),
+    driver: idsOf('driver'),
+    diode: idsOf('diode'),
+  };
+  const summaries = Object.fromEntries(MATCH_LIST_KEYS.map((k) => [k, summarizeList(match[k], offset, limit)])) as Record<
+    MatchListKey,
+    MatchListSummary
+  >;
+  return {
+    ...match,
+    switch: cut(match.switch, offset, limit, pins.switch),
+    switchWithDriver: cut(match.switchWithDriver, offset, limit, pins.switchWithDriver),
+    driver: cut(match.driver, offset, limit, pins.driver),
+    diode: cut(match.diode, offset, limit, pins.diode),
+    lists: summaries,
+    suggested,
+  };
+}
