@@ -81,9 +81,9 @@ describe('SIGTERM to npm start during slow requests', () => {
     let uploadStarted = false;
     const uploading = slowPreview(stack.url, librarian, diodeCsv('SLOW', 40), 6, 500, () => (uploadStarted = true));
     const end = Date.now() + 60_000;
-    while (rowsModifiedInFlight(stack.db) < 200 || !uploadStarted) {
+    while (rowsModifiedInFlight(stack.db) < 1 || !uploadStarted) {
       if (Date.now() > end) throw new Error('the import never started writing');
-      await new Promise((r) => setTimeout(r, 50));
+      await new Promise((r) => setTimeout(r, 5));
     }
     stack.proc.kill('SIGTERM');
     await stack.waitForLog(/app server: SIGTERM; finishing requests in flight/, 10_000, logFrom);
