@@ -1,5 +1,5 @@
 /**
- * In Chromium: a designer narrows MOSFETs by VGS(th) and RDS(on) at a gate drive, sees exactly the seed
+ * In Chromium: a buyer narrows MOSFETs by VGS(th) and RDS(on) at a gate drive, sees exactly the seed
  * parts that meet both bounds (plain filter over db/seeds/data here), shares the URL, sorts with the
  * keyboard, and opens a part.
  */
@@ -18,7 +18,7 @@ afterAll(async () => {
   await browser?.close();
 });
 
-/** VGS(th) max ≤ 1 V and RDS(on) ≤ 100 mΩ judged at the highest 25 °C line at or below 2.5 V; a designer sees approved parts only. */
+/** VGS(th) max ≤ 1 V and RDS(on) ≤ 100 mΩ judged at the highest 25 °C line at or below 2.5 V; a buyer sees approved parts only (a designer also sees the pending parts they proposed). */
 const expected = demoMosfets
   .filter((m) => m.reviewStatus === 'approved')
   .filter((m) => m.params.vgsThMaxV <= 1)
@@ -33,7 +33,7 @@ describe('search page', () => {
   it('narrows MOSFETs by VGS(th) and RDS(on) at 2.5 V, keeps the filter in the URL, and opens a part', async () => {
     expect(expected.length).toBeGreaterThan(1);
     const context = await browser.newContext({ acceptDownloads: true });
-    await signInContext(context, 'designer');
+    await signInContext(context, 'buyer');
     const page = await context.newPage();
     const errors: string[] = [];
     page.on('console', (m) => m.type() === 'error' && errors.push(m.text()));
