@@ -79,10 +79,11 @@ describe('Supervisor', () => {
     sup.watch(first);
     await until(() => starts.length >= 3, 10_000);
     await sup.stop();
-    // Each gap is at least the policy's delay (timers never fire early) and below the next one.
-    expect(gaps[0]).toBeGreaterThanOrEqual(50);
-    expect(gaps[1]).toBeGreaterThanOrEqual(100);
-    expect(gaps[2]).toBeGreaterThanOrEqual(200);
+    // Each gap is at least the policy's delay and below the next one. Date.now() and the timer round to
+    // whole milliseconds differently, so a gap may read up to 2 ms short (seen: 49 for 50 in CI).
+    expect(gaps[0]).toBeGreaterThanOrEqual(48);
+    expect(gaps[1]).toBeGreaterThanOrEqual(98);
+    expect(gaps[2]).toBeGreaterThanOrEqual(198);
     expect(gaps[2]).toBeLessThan(400 + 1_000);
   });
 
