@@ -142,6 +142,7 @@ describe('designs CRUD', () => {
     const id = created.body.id;
     const same = await api().put(`/api/designs/${id}`).set('Cookie', designer).send({ version: created.body.version, input });
     expect(same.body.revision).toBe(1); // nothing changed: no new revision
+    expect(same.body.version).toBe(created.body.version); // …no version bump either
     const changed = await api()
       .put(`/api/designs/${id}`)
       .set('Cookie', designer)
@@ -156,6 +157,15 @@ describe('designs CRUD', () => {
       .send({ version: created.body.version, input: { ...input, ambientMaxC: 55 } });
     expect(stale.status).toBe(409);
     expect(stale.body.issues[0].path).toBe('version');
+    // The audit trail: one create and one revise (the no-change save and the refused stale save wrote nothing).
+    const events = await knex('audit_events')
+      .where({ entity_type: 'design', entity_id: id })
+      .orderBy('id')
+      .select('action', 'before_json', 'after_json');
+    expect(events.map((e) => e.action)).toEqual(['design.create', 'design.revise']);
+    const json = (v: unknown) => (typeof v === 'string' ? JSON.parse(v) : v);
+    expect(json(events[1].before_json)).toMatchObject({ revision: 1 });
+    expect(json(events[1].after_json)).toMatchObject({ revision: 2 });
   });
 
   it('names the wrong field on bad input and writes nothing', async () => {

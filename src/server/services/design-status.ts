@@ -12,7 +12,9 @@ import type { SessionUser } from '../auth/types.ts';
 import { loadRevisionInput, lockDesignRow, readyDesignIdsUsingParts, writeDesignStatus, type DbDesignRow } from '../repos/designs.ts';
 import { insertAuditEvent } from '../repos/audit.ts';
 import { ServiceError, notFound } from './errors.ts';
-import { canEditDesign, getDesign, matchInput, resolveMotor, staleDesign } from './designs.ts';
+import { canEditDesign, getDesign, matchInput, resolveMotor } from './designs.ts';
+import { withLockedVersion } from '../repos/versioned.ts';
+import { DESIGN_ENTITY, sameDesign } from './design-entity.ts';
 import { partsByIds } from '../repos/parts.ts';
 
 /** designs.status_reason is VARCHAR(2000). */
@@ -72,30 +74,29 @@ async function lockDesign(k: Db, id: number): Promise<DbDesignRow> {
 }
 
 export async function setDesignStatus(user: SessionUser, id: number, status: DesignStatus, expectedVersion: number): Promise<Design> {
-  await db().transaction(async (trx) => {
-    const row = await lockDesign(trx, id);
-    if (!canEditDesign(user, row.owner_id)) throw new ServiceError(403, 'Only the owner of a design (or an admin) can mark it ready.');
-    if (row.version !== expectedVersion) throw staleDesign(row.version);
-    if (row.status === status) return;
-    if (status === 'ready') {
-      // Checked under the row lock: a part change committing meanwhile re-verifies after this commits.
-      const { issues } = await verifyAt(trx, id, row.current_revision);
-      if (issues.length)
-        throw new ServiceError(
-          409,
-          'This design cannot go on the shortlist yet: some picks do not hold with its inputs at the current catalogue.',
-          issues,
-        );
-    }
-    await writeDesignStatus(trx, id, { status, reason: null, version: row.version + 1 });
-    await insertAuditEvent(trx, {
-      actorUserId: user.id,
-      action: `design.${status}`,
-      entityType: 'design',
-      entityId: id,
-      before: { status: row.status },
-      after: { status, revision: row.current_revision },
-    });
+  await withLockedVersion(DESIGN_ENTITY, {
+    id,
+    expectedVersion,
+    actorUserId: user.id,
+    action: `design.${status}`,
+    precheck: (row) => {
+      if (!canEditDesign(user, row.owner_id)) throw new ServiceError(403, 'Only the owner of a design (or an admin) can mark it ready.');
+    },
+    apply: async (trx, row) => {
+      if (row.status === status) return;
+      if (status === 'ready') {
+        // Checked under the row lock: a part change committing meanwhile re-verifies after this commits.
+        const { issues } = await verifyAt(trx, id, row.current_revision);
+        if (issues.length)
+          throw new ServiceError(
+            409,
+            'This design cannot go on the shortlist yet: some picks do not hold with its inputs at the current catalogue.',
+            issues,
+          );
+      }
+      await writeDesignStatus(trx, id, { status, reason: null, version: row.version + 1 });
+    },
+    unchanged: sameDesign,
   });
   return getDesign(id);
 }

@@ -13,7 +13,6 @@ import {
   listDesignRows,
   loadDesign,
   loadRevisionInput,
-  lockDesignRow,
   replaceDesignParts,
   setCurrentRevision,
   type DesignListQuery,
@@ -24,6 +23,8 @@ import { ServiceError, notFound } from './errors.ts';
 import { loadCandidates } from './design-candidates.ts';
 import { pageMatch, type DesignMatchPage } from '../../lib/match-page.ts';
 import { withMatchSlot } from './match-gate.ts';
+import { withLockedVersion } from '../repos/versioned.ts';
+import { DESIGN_ENTITY, sameDesign } from './design-entity.ts';
 
 export const canEditDesign = (user: SessionUser, ownerId: number): boolean => user.roles.includes('admin') || user.id === ownerId;
 
@@ -79,33 +80,26 @@ export async function createDesign(user: SessionUser, input: DesignInput): Promi
   return getDesign(id);
 }
 
-export const staleDesign = (current: number): ServiceError =>
-  new ServiceError(409, 'This design was changed after you loaded it. Reload to see the change, then apply yours again.', [
-    { path: 'version', message: `the design is now at version ${current}` },
-  ]);
-
 /** Saves a changed input as a new revision; an unchanged input leaves the revision as it is. */
 export async function updateDesign(user: SessionUser, id: number, input: DesignInput, expectedVersion: number): Promise<Design> {
-  await db().transaction(async (trx) => {
-    const row = await lockDesignRow(trx, id);
-    if (!row) throw notFound('The design');
-    if (!canEditDesign(user, row.owner_id)) throw new ServiceError(403, 'Only the owner of a design (or an admin) can change it.');
-    if (row.version !== expectedVersion) throw staleDesign(row.version);
-    const current = await loadRevisionInput(trx, id, row.current_revision).catch(() => null);
-    if (current && JSON.stringify(current) === JSON.stringify(input)) return;
-    await assertReferencesExist(trx, input);
-    const revision = row.current_revision + 1;
-    await insertRevision(trx, id, revision, input, user.id);
-    await replaceDesignParts(trx, id, input);
-    await setCurrentRevision(trx, id, input.name, revision, row.version + 1);
-    await insertAuditEvent(trx, {
-      actorUserId: user.id,
-      action: 'design.revise',
-      entityType: 'design',
-      entityId: id,
-      before: { revision: row.current_revision },
-      after: { revision },
-    });
+  await withLockedVersion(DESIGN_ENTITY, {
+    id,
+    expectedVersion,
+    actorUserId: user.id,
+    action: 'design.revise',
+    precheck: (row) => {
+      if (!canEditDesign(user, row.owner_id)) throw new ServiceError(403, 'Only the owner of a design (or an admin) can change it.');
+    },
+    apply: async (trx, row) => {
+      const current = await loadRevisionInput(trx, id, row.current_revision).catch(() => null);
+      if (current && JSON.stringify(current) === JSON.stringify(input)) return;
+      await assertReferencesExist(trx, input);
+      const revision = row.current_revision + 1;
+      await insertRevision(trx, id, revision, input, user.id);
+      await replaceDesignParts(trx, id, input);
+      await setCurrentRevision(trx, id, input.name, revision, row.version + 1);
+    },
+    unchanged: sameDesign,
   });
   return getDesign(id);
 }
