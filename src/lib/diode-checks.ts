@@ -55,7 +55,8 @@ function checkReverseVoltage(d: DiodeParams, supplyMaxV: number, derating: numbe
   const ok = supplyMaxV <= deratedV;
   const note = ok
     ? `Supply up to ${fmt(supplyMaxV)} V is within VRRM ${fmt(d.vrrmV)} V derated to ${fmt(deratedV)} V.`
-    : `Supply up to ${fmt(supplyMaxV)} V exceeds VRRM ${hardOk ? `${fmt(d.vrrmV)} V derated to ${fmt(deratedV)} V` : `${fmt(d.vrrmV)} V itself`}: choose a diode rated at least ${fmt(supplyMaxV / derating)} V.`;
+    : `Supply up to ${fmt(supplyMaxV)} V exceeds VRRM ${hardOk ? `${fmt(d.vrrmV)} V derated to ${fmt(deratedV)} V` : `${fmt(d.vrrmV)} V itself`}: ` +
+      `choose a diode rated at least ${fmt(supplyMaxV / derating)} V.`;
   return makeCheck(
     { id: 'reverse-voltage', ok, value: supplyMaxV, limit: deratedV, unit: 'V', margin: marginBelow(supplyMaxV, deratedV), note },
     hardOk ? 'margin' : 'hard',
@@ -108,7 +109,8 @@ function checkDiodeThermal(d: DiodeParams, meanA: number, ambientC: number, pwmH
   const rise = d.tjMaxC - ambientC;
   const note = ok
     ? `At ${fmt(meanA)} A mean (a jam under PWM included) the diode's junction reaches about ${fmt(junctionC)} °C, within Tj,max ${fmt(d.tjMaxC)} °C.`
-    : `At ${fmt(meanA)} A mean (a jam under PWM included) the diode's junction would reach about ${fmt(junctionC)} °C, above Tj,max ${fmt(d.tjMaxC)} °C: choose a larger package or a lower-VF diode, or limit the stall current.`;
+    : `At ${fmt(meanA)} A mean (a jam under PWM included) the diode's junction would reach about ${fmt(junctionC)} ` +
+      `°C, above Tj,max ${fmt(d.tjMaxC)} °C: choose a larger package or a lower-VF diode, or limit the stall current.`;
   return makeCheck({
     id,
     ok,

@@ -40,7 +40,8 @@ function checkDriverSupply(driver: DriverParams, supply: SupplyRange): Check {
   const lowSide = supply.minV < driver.supplyMinV;
   const note = ok
     ? `Supply ${fmt(supply.minV)}–${fmt(supply.maxV)} V is inside the driver's ${fmt(driver.supplyMinV)}–${fmt(driver.supplyMaxV)} V range.`
-    : `Supply ${fmt(supply.minV)}–${fmt(supply.maxV)} V leaves the driver's ${fmt(driver.supplyMinV)}–${fmt(driver.supplyMaxV)} V range: feed it from a rail inside that range or choose another driver.`;
+    : `Supply ${fmt(supply.minV)}–${fmt(supply.maxV)} V leaves the driver's ${fmt(driver.supplyMinV)}–${fmt(driver.supplyMaxV)} ` +
+      `V range: feed it from a rail inside that range or choose another driver.`;
   const value = lowSide ? supply.minV : supply.maxV;
   const limit = lowSide ? driver.supplyMinV : driver.supplyMaxV;
   return makeCheck({

@@ -47,7 +47,8 @@ export function checkMillerPlateau(driveV: number, plateauV: number | null | und
     : `VGS(th) max ${fmt(vgsThMaxV)} V plus ${fmt(PLATEAU_MARGIN_OVER_VTH_V)} V (no plateau on record)`;
   const note = ok
     ? `The ${fmt(driveV)} V drive clears ${basis}, so the channel enhances fully.`
-    : `The ${fmt(driveV)} V drive does not clear ${basis}: the part cannot carry the load current fully enhanced and heats in its linear region; raise the gate drive (a gate driver) or choose a part with a lower plateau.`;
+    : `The ${fmt(driveV)} V drive does not clear ${basis}: the part cannot carry the load current fully enhanced ` +
+      `and heats in its linear region; raise the gate drive (a gate driver) or choose a part with a lower plateau.`;
   return makeCheck({ id: 'miller-plateau', ok, value: driveV, limit: requiredV, unit: 'V', margin: marginAbove(driveV, requiredV), note });
 }
 
@@ -95,7 +96,8 @@ export function checkRdsOnTestCurrent(
     ? near
       ? `Worst-case ${fmt(worstCurrentA)} A is within ${TEST_CURRENT_FACTOR}× the ${fmt(line.testCurrentA)} A the ${fmt(line.vgsV)} V line was measured at.`
       : `The ${fmt(driveV)} V drive is well above VGS(th) max ${fmt(vgsThMaxV)} V, so the line's ${fmt(line.testCurrentA)} A test current does not limit.`
-    : `At ${fmt(driveV)} V, within ${fmt(TEST_CURRENT_NEAR_THRESHOLD_V)} V of VGS(th) max, the ${fmt(line.vgsV)} V line was measured at only ${fmt(line.testCurrentA)} A but the worst case is ${fmt(worstCurrentA)} A: the part may leave full enhancement; drive the gate harder or choose a part specified at this current.`;
+    : `At ${fmt(driveV)} V, within ${fmt(TEST_CURRENT_NEAR_THRESHOLD_V)} V of VGS(th) max, the ${fmt(line.vgsV)} V line was measured at only ${fmt(line.testCurrentA)} ` +
+      `A but the worst case is ${fmt(worstCurrentA)} A: the part may leave full enhancement; drive the gate harder or choose a part specified at this current.`;
   return makeCheck(
     {
       id,
@@ -148,7 +150,9 @@ export function checkStallThermal(s: StallThermalInput): Check {
     });
   }
   if (s.junctionC == null) {
-    const note = `${how}: the RDS(on) rise with heat runs away (no steady junction temperature). Limit the stall current, cut the drive off after a short time, or choose a part with lower RDS(on) or RθJA.`;
+    const note =
+      `${how}: the RDS(on) rise with heat runs away (no steady junction temperature). Limit the stall ` +
+      `current, cut the drive off after a short time, or choose a part with lower RDS(on) or RθJA.`;
     return makeCheck({ id, ok: false, value: null, limit: s.tjMaxC, unit: '°C', margin: null, note });
   }
   const ok = s.junctionC <= s.tjMaxC;
@@ -156,7 +160,8 @@ export function checkStallThermal(s: StallThermalInput): Check {
   const margin = rise > 0 ? (s.tjMaxC - s.junctionC) / rise : null;
   const note = ok
     ? `${how}: the junction reaches about ${fmt(s.junctionC)} °C, within Tj,max ${fmt(s.tjMaxC)} °C.`
-    : `${how}: the junction would reach about ${fmt(s.junctionC)} °C, above Tj,max ${fmt(s.tjMaxC)} °C. Add a stall protection (current limit or a timed cut-off), or choose a part with lower RDS(on) or RθJA.`;
+    : `${how}: the junction would reach about ${fmt(s.junctionC)} °C, above Tj,max ${fmt(s.tjMaxC)} °C. Add ` +
+      `a stall protection (current limit or a timed cut-off), or choose a part with lower RDS(on) or RθJA.`;
   return makeCheck({ id, ok, value: s.junctionC, limit: s.tjMaxC, unit: '°C', margin, note });
 }
 

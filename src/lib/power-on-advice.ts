@@ -54,7 +54,8 @@ function alternatives(input: PowerOnInput, needHigh: boolean): string {
   }
   return needHigh
     ? 'Choose a non-inverting driver (or one whose input pull-up holds its output low), or a pin that resets with a pull-up; a stronger pull-up than the pin can drive low needs a buffer.'
-    : 'Choose a driver with an internal input pull-down, or the inverting polarity with a pull-up, or a pin that resets with a pull-down; a stronger pull-down than the pin can drive high needs a buffer.';
+    : 'Choose a driver with an internal input pull-down, or the inverting polarity with a pull-up, or a ' +
+        'pin that resets with a pull-down; a stronger pull-down than the pin can drive high needs a buffer.';
 }
 
 function sizeFor(input: PowerOnInput, sources: readonly PullSource[], t: Thresholds, needHigh: boolean): PullResistorResult {
@@ -86,7 +87,8 @@ export function recommendPull(input: PowerOnInput, sources: readonly PullSource[
     // The calculator's "pull the other way" would start the motor here, so the walk words its own reason.
     const reason =
       sized.maxOhms == null
-        ? `a pull-${to} to ${fmt(railV)} V cannot take the node ${needHigh ? 'up to' : 'down to'} ${fmt(holdLimitV(input, t, needHigh))} V, where the ${input.driver == null ? 'gate' : 'driver input'} is surely ${needHigh ? 'high' : 'low'}.`
+        ? `a pull-${to} to ${fmt(railV)} V cannot take the node ${needHigh ? 'up to' : 'down to'} ${fmt(holdLimitV(input, t, needHigh))} ` +
+          `V, where the ${input.driver == null ? 'gate' : 'driver input'} is surely ${needHigh ? 'high' : 'low'}.`
         : sized.notes[0];
     return {
       pull: null,
@@ -122,6 +124,8 @@ export function recommendPull(input: PowerOnInput, sources: readonly PullSource[
     pull,
     rewalk,
     drawWhenHighA,
-    note: `Fit a ${describeKohm(sized.chosenOhms)} ±1 % pull-${to} from the pin (${where}) to ${fmt(railV)} V: re-walked at every tolerance corner, it holds the node ${needHigh ? 'high' : 'low'} and the motor off through reset.${draw}`,
+    note:
+      `Fit a ${describeKohm(sized.chosenOhms)} ±1 % pull-${to} from the pin (${where}) to ${fmt(railV)} V: re-walked at ` +
+      `every tolerance corner, it holds the node ${needHigh ? 'high' : 'low'} and the motor off through reset.${draw}`,
   };
 }

@@ -214,7 +214,9 @@ function networkStep(
     state,
     minV: range.minV,
     maxV: range.maxV,
-    note: `${sources.map(describeSource).join('; ')}: the node sits at ${rangeText(range)} over every tolerance corner and leakage, against ${fmt(t.lowMaxV)} V (low) and ${fmt(t.highMinV)} V (high), so it is ${state}.${clampNote}`,
+    note:
+      `${sources.map(describeSource).join('; ')}: the node sits at ${rangeText(range)} over every tolerance corner ` +
+      `and leakage, against ${fmt(t.lowMaxV)} V (low) and ${fmt(t.highMinV)} V (high), so it is ${state}.${clampNote}`,
   };
 }
 

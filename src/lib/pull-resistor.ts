@@ -155,7 +155,8 @@ function requestNotes(req: PullResistorRequest): string[] {
   } else if (req.pin.internalPull !== 'none') {
     notes.push(
       tolInt > 0
-        ? `Sized against the internal pull at ${fmt((req.pin.internalPullOhms * (1 - tolInt)) / 1000)}–${fmt((req.pin.internalPullOhms * (1 + tolInt)) / 1000)} kΩ (${fmt(req.pin.internalPullOhms / 1000)} kΩ ±${fmt(tolInt * 100)} %).`
+        ? `Sized against the internal pull at ${fmt((req.pin.internalPullOhms * (1 - tolInt)) / 1000)}–${fmt((req.pin.internalPullOhms * (1 + tolInt)) / 1000)} ` +
+            `kΩ (${fmt(req.pin.internalPullOhms / 1000)} kΩ ±${fmt(tolInt * 100)} %).`
         : `Sized against the internal pull at ${fmt(req.pin.internalPullOhms / 1000)} kΩ with no tolerance: enter the typical value with its tolerance, or the datasheet minimum.`,
     );
   }
@@ -173,7 +174,10 @@ function worstCaseNote(req: PullResistorRequest, nodeV: number): string {
 }
 
 function fitFailure(req: PullResistorRequest, maxRawOhms: number, minRawOhms: number): string {
-  return `No ${req.series} value fits: holding the node needs at most ${fmt(maxRawOhms)} Ω but the pin can only drive ${fmt(minRawOhms)} Ω or more; use a stronger driver stage or a pin with a weaker internal pull.`;
+  return (
+    `No ${req.series} value fits: holding the node needs at most ${fmt(maxRawOhms)} Ω but the pin can only ` +
+    `drive ${fmt(minRawOhms)} Ω or more; use a stronger driver stage or a pin with a weaker internal pull.`
+  );
 }
 
 /** Chooses the largest standard value that holds the node at its worst corner and that the pin can still drive. */

@@ -160,7 +160,8 @@ function dynamicCautions(c: DesignCase, wc: WorstCase, diode: CandidateResult[])
   );
   if ((c.stallProtection?.kind ?? 'none') === 'none') {
     cautions.push(
-      'No stall protection is set: a jammed shaft holds the switch on at stall current until someone notices. Switch, diode and motor case can exceed 100 °C; consider a current limit or a timed cut-off.',
+      'No stall protection is set: a jammed shaft holds the switch on at stall current until someone ' +
+        'notices. Switch, diode and motor case can exceed 100 °C; consider a current limit or a timed cut-off.',
     );
   }
   cautions.push('Junction temperatures use the datasheet RθJA from its test board; your board may run hotter or cooler.');

@@ -46,7 +46,8 @@ export interface GateDrive {
 
 /** The line the workspace shows beside every list. */
 export const SCORE_EXPLANATION =
-  'Score 0–100: the smallest headroom among the part’s rated checks, as a share of each limit (100 = far from every limit, 0 = at one or failing). Ties: lower price at the build quantity, then lifecycle.';
+  'Score 0–100: the smallest headroom among the part’s rated checks, as a share of each limit (100 = far ' +
+  'from every limit, 0 = at one or failing). Ties: lower price at the build quantity, then lifecycle.';
 
 /** Checks that only inform (estimates without a rating to hold) do not weigh in the score. */
 const INFORMATIVE = new Set(['surge-current', 'drain-spike', 'polarity', 'paired-switch', 'power-on', 'channel']);

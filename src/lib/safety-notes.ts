@@ -24,7 +24,9 @@ export const CAUTIONS: readonly Caution[] = [
   {
     id: 'inductive-spike',
     title: 'Inductive spike',
-    text: 'Breaking motor current raises the switch node far above the supply. Always fit the freewheel diode across the motor, cathode to the positive supply; the MOSFET body diode does not do this job.',
+    text:
+      'Breaking motor current raises the switch node far above the supply. Always fit the freewheel diode ' +
+      'across the motor, cathode to the positive supply; the MOSFET body diode does not do this job.',
   },
   {
     id: 'unexpected-start',

@@ -66,7 +66,8 @@ export function supplyMotorVoltageCheck(supplyMaxV: number, motor: DesignCase['m
   const rated = motor.voltageMaxV != null ? `rated maximum of ${fmt(ratedMaxV)} V` : `rated ${fmt(ratedMaxV)} V (no maximum stated)`;
   const note = ok
     ? `Supply maximum ${fmt(supplyMaxV)} V is within the motor's ${rated}.`
-    : `⚠ Supply maximum ${fmt(supplyMaxV)} V is above the motor's ${rated}: it over-speeds and runs hot, brushes and bearings wear early${over ? `; above ${fmt(failV)} V (1.5×) this is a fail` : ''}. Lower the supply (or limit the duty) or choose a motor rated for it.`;
+    : `⚠ Supply maximum ${fmt(supplyMaxV)} V is above the motor's ${rated}: it over-speeds and runs hot, brushes and bearings wear ` +
+      `early${over ? `; above ${fmt(failV)} V (1.5×) this is a fail` : ''}. Lower the supply (or limit the duty) or choose a motor rated for it.`;
   return makeCheck(
     {
       id: 'supply-motor-voltage',
@@ -147,7 +148,8 @@ export function supplyReportForCase(c: DesignCase, model: MotorModel = motorMode
   });
   if (startWeak.startTorqueNm < loadTorqueNm && startWeak.startActualCurrentA === startWeak.startCurrentA) {
     notes.unshift(
-      `At the lowest supply (${fmt(c.supplyMinV)} V, winding at ${fmt(c.ambientMaxC)} °C) the motor's own start torque (${fmt(startWeak.startTorqueNm * 1000)} mN·m) is below the ${fmt(loadTorqueNm * 1000)} mN·m load: it stalls whatever the source.`,
+      `At the lowest supply (${fmt(c.supplyMinV)} V, winding at ${fmt(c.ambientMaxC)} °C) the motor's own start torque ` +
+        `(${fmt(startWeak.startTorqueNm * 1000)} mN·m) is below the ${fmt(loadTorqueNm * 1000)} mN·m load: it stalls whatever the source.`,
     );
   }
   return {

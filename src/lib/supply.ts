@@ -102,7 +102,8 @@ export function runningCurrentCheck(runningCurrentA: number, continuousCurrentA:
     margin: marginBelow(runningCurrentA, continuousCurrentA),
     note: ok
       ? `Running current ${fmt(runningCurrentA)} A is within the source's ${fmt(continuousCurrentA)} A continuous rating.`
-      : `Running current ${fmt(runningCurrentA)} A is above the source's ${fmt(continuousCurrentA)} A continuous rating: it will sag, heat or shut down. Use a source rated for at least ${fmt(runningCurrentA)} A.`,
+      : `Running current ${fmt(runningCurrentA)} A is above the source's ${fmt(continuousCurrentA)} A continuous ` +
+        `rating: it will sag, heat or shut down. Use a source rated for at least ${fmt(runningCurrentA)} A.`,
   });
 }
 
@@ -224,7 +225,8 @@ export function supplyNotes(f: SupplyNoteFacts): string[] {
     else notes.push(`The source holds the allowed dip at start without bulk capacitance (${tau}).`);
   } else if (f.noBulkReason) notes.push(f.noBulkReason);
   notes.push(
-    `⚠ Every start draws up to ${fmt(f.startCurrentA)} A for tens of milliseconds, and a jammed shaft draws it steadily: wiring, connectors and any fuse must carry it. Fuse cell packs close to the cells and keep within the cell maker's limits; follow local codes.`,
+    `⚠ Every start draws up to ${fmt(f.startCurrentA)} A for tens of milliseconds, and a jammed shaft draws it steadily: wiring, connectors ` +
+      `and any fuse must carry it. Fuse cell packs close to the cells and keep within the cell maker's limits; follow local codes.`,
   );
   return notes;
 }
