@@ -13,6 +13,7 @@ type Role = 'designer' | 'buyer' | 'librarian' | 'admin';
 const cookies = {} as Record<Role, string>;
 const stamp = Date.now().toString(36).toUpperCase();
 const mpns = { proposal: `VIS-P${stamp}`, draft: `VIS-D${stamp}`, rejected: `VIS-R${stamp}` };
+const ids = {} as Record<keyof typeof mpns, number>;
 
 const diode = (mpn: string, reviewStatus?: string) => ({
   category: 'diode',
@@ -36,9 +37,12 @@ async function listed(role: Role, query: Record<string, string>): Promise<{ mpn:
 
 beforeAll(async () => {
   for (const role of ['designer', 'buyer', 'librarian', 'admin'] as const) cookies[role] = await sessionCookie(role);
-  expect((await post('designer', '/api/parts', diode(mpns.proposal))).body.reviewStatus).toBe('pending');
-  expect((await post('librarian', '/api/parts', diode(mpns.draft, 'draft'))).body.reviewStatus).toBe('draft');
+  const proposal = (await post('designer', '/api/parts', diode(mpns.proposal))).body;
+  expect(proposal.reviewStatus).toBe('pending');
+  const draft = (await post('librarian', '/api/parts', diode(mpns.draft, 'draft'))).body;
+  expect(draft.reviewStatus).toBe('draft');
   const toReject = (await post('designer', '/api/parts', diode(mpns.rejected))).body;
+  Object.assign(ids, { proposal: proposal.id, draft: draft.id, rejected: toReject.id });
   const res = await post('librarian', `/api/parts/${toReject.id}/review`, {
     decision: 'reject',
     reason: 'duplicate entry',
@@ -78,5 +82,38 @@ describe('GET /api/parts?reviewStatus=…', () => {
     const rows = Papa.parse<Record<string, string>>(designer.text, { header: true, skipEmptyLines: true, delimiter: ',' }).data;
     expect(rows.map((r) => r.mpn)).toEqual(expect.arrayContaining([mpns.proposal, mpns.rejected]));
     expect(rows.map((r) => r.mpn)).not.toContain(mpns.draft);
+  });
+});
+
+/**
+ * One part by id (API record and page), written by hand from README "Roles": librarians and admins read
+ * every part; a designer their own proposal (pending or rejected) but not a librarian's draft; a buyer
+ * proposed nothing, so none of the three. Hidden reads as 404, like a missing part.
+ */
+const SINGLE: [Role, keyof typeof mpns, 200 | 404][] = [
+  ['librarian', 'proposal', 200],
+  ['librarian', 'draft', 200],
+  ['librarian', 'rejected', 200],
+  ['admin', 'proposal', 200],
+  ['admin', 'draft', 200],
+  ['admin', 'rejected', 200],
+  ['designer', 'proposal', 200],
+  ['designer', 'rejected', 200],
+  ['designer', 'draft', 404],
+  ['buyer', 'proposal', 404],
+  ['buyer', 'draft', 404],
+  ['buyer', 'rejected', 404],
+];
+
+describe('GET /api/parts/:id and /parts/:id', () => {
+  it.each(SINGLE)('%s reading the %s part gets %i', async (role, which, status) => {
+    const api = await request(appUrl()).get(`/api/parts/${ids[which]}`).set('Cookie', cookies[role]);
+    expect(api.status, JSON.stringify(api.body)).toBe(status);
+    if (status === 200) expect(api.body.mpn).toBe(mpns[which]);
+    else expect(JSON.stringify(api.body)).not.toContain(mpns[which]);
+    const page = await request(appUrl()).get(`/parts/${ids[which]}`).set('Cookie', cookies[role]);
+    expect(page.status).toBe(status);
+    if (status === 200) expect(page.text).toContain(mpns[which]);
+    else expect(page.text).not.toContain(mpns[which]);
   });
 });

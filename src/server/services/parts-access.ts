@@ -18,6 +18,14 @@ export const canPropose = (user: SessionUser | null): boolean => has(user, 'desi
  */
 export const listingScope = (user: SessionUser | null): PartScope => (canCurate(user) ? {} : { approvedOrOwnedBy: user?.id ?? 0 });
 
+/**
+ * Whether a person may read one part (its API record and its page): the same rule as the listing —
+ * curators every part, everyone else approved parts and their own proposals. Others get a 404, so a hidden
+ * part is indistinguishable from a missing one.
+ */
+export const canSeePart = (user: SessionUser | null, part: { reviewStatus: string; createdBy: number | null }): boolean =>
+  canCurate(user) || part.reviewStatus === 'approved' || (!!user && part.createdBy === user.id);
+
 /** Buyers and curators keep supply data (sources and price breaks). */
 export const canManageSupply = (user: SessionUser | null): boolean => has(user, 'buyer', 'librarian', 'admin');
 

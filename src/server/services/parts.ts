@@ -4,14 +4,22 @@ import type { SessionUser } from '../auth/types.ts';
 import type { Part, ReviewStatus } from '../../lib/domain/parts.ts';
 import { diffStates, type PartInput, type PartUpdate } from '../../lib/schemas/parts.ts';
 import { insertPart, type NewPart } from '../repos/parts.ts';
-import { deletePartRow, findPartIdByMakerMpn, loadPart, replaceParams, replaceSources, updatePartHead } from '../repos/part-writes.ts';
+import {
+  deletePartRow,
+  findPartIdByMakerMpn,
+  findPartRow,
+  loadPart,
+  replaceParams,
+  replaceSources,
+  updatePartHead,
+} from '../repos/part-writes.ts';
 import { insertAuditEvent } from '../repos/audit.ts';
 import { withLockedVersion } from '../repos/versioned.ts';
 import { PART_ENTITY } from './part-entity.ts';
 import { listDatasheets } from '../repos/datasheets.ts';
 import { designsUsingPart } from '../repos/designs.ts';
 import { datasheetStore } from '../storage/index.ts';
-import { canCurate, canPropose } from './parts-access.ts';
+import { canCurate, canPropose, canSeePart } from './parts-access.ts';
 import { reverifyDesignsUsingParts } from './design-status.ts';
 import { notFound, ServiceError } from './errors.ts';
 
@@ -120,8 +128,12 @@ export async function deletePart(user: SessionUser, id: number, version: number 
   for (const key of keys) await datasheetStore().delete(key);
 }
 
-export async function getPart(id: number): Promise<Part> {
-  const part = await loadPart(db(), id);
+/** One part as the viewer may read it: hidden parts (see canSeePart) answer 404 like missing ones. */
+export async function getPart(user: SessionUser | null, id: number): Promise<Part> {
+  const k = db();
+  const row = await findPartRow(k, id);
+  if (!row || !canSeePart(user, { reviewStatus: row.review_status, createdBy: row.created_by })) throw notFound('The part');
+  const part = await loadPart(k, id);
   if (!part) throw notFound('The part');
   return part;
 }

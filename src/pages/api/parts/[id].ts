@@ -4,8 +4,9 @@ import { partUpdateSchema } from '../../../lib/schemas/parts.ts';
 import { deletePart, getPart, updatePart } from '../../../server/services/parts.ts';
 import { readJson, readQuery, routeId, signedInUser } from '../../../server/http/request.ts';
 
-export const GET: APIRoute = async ({ params }) => {
-  return Response.json(await getPart(routeId(params.id)), { headers: { 'Cache-Control': 'no-store' } });
+/** GET /api/parts/:id: 404 for a part the viewer may not see (another person's draft, proposal or rejected part). */
+export const GET: APIRoute = async ({ params, locals }) => {
+  return Response.json(await getPart(locals.user ?? null, routeId(params.id)), { headers: { 'Cache-Control': 'no-store' } });
 };
 
 /** PUT /api/parts/:id: the whole record with the version it was loaded at (stale → 409). */
