@@ -264,7 +264,8 @@ try {
   let newBytes = 0;
   const newDesign = await timed(ITER, async () => void (newBytes = (await (await get('/designs/new')).arrayBuffer()).byteLength));
   console.log(
-    `page  / p50 ${home.p50Ms} ms (${(homeBytes / 1024).toFixed(0)} KiB); /parts p50 ${partsPage.p50Ms} ms (${(partsBytes / 1024).toFixed(0)} KiB); /designs/new p50 ${newDesign.p50Ms} ms (${(newBytes / 1024).toFixed(0)} KiB)`,
+    `page  / p50 ${home.p50Ms} ms (${(homeBytes / 1024).toFixed(0)} KiB); /parts p50 ${partsPage.p50Ms} ms ` +
+      `(${(partsBytes / 1024).toFixed(0)} KiB); /designs/new p50 ${newDesign.p50Ms} ms (${(newBytes / 1024).toFixed(0)} KiB)`,
   );
 
   /** Waits until the server is idle again (health answers under 50 ms three times running, at most 90 s). */
@@ -295,7 +296,8 @@ try {
     );
     const [r, h] = await Promise.all([main, probe]);
     console.log(
-      `load  ${title.padEnd(34)} ${r.requestsPerS.toFixed(1)} req/s p50 ${r.p50Ms} ms p99 ${r.p99Ms} ms, non-2xx ${r.non2xx} (5xx ${r.status5xx}), errors ${r.errors}, timeouts ${r.timeouts} | health p99 ${h.p99Ms} ms, non-2xx ${h.non2xx}, errors ${h.errors}`,
+      `load  ${title.padEnd(34)} ${r.requestsPerS.toFixed(1)} req/s p50 ${r.p50Ms} ms p99 ${r.p99Ms} ms, non-2xx ${r.non2xx} (5xx ` +
+        `${r.status5xx}), errors ${r.errors}, timeouts ${r.timeouts} | health p99 ${h.p99Ms} ms, non-2xx ${h.non2xx}, errors ${h.errors}`,
     );
     return { main: r, health: h };
   };
@@ -372,7 +374,9 @@ try {
   ] as const) {
     rows.push({
       target: `${CONNECTIONS} conn × ${LOAD_S} s on ${name}: zero 5xx, zero timeouts`,
-      measured: `${l.main.requestsPerS.toFixed(1)} req/s, p50 ${l.main.p50Ms} / p99 ${l.main.p99Ms} ms, 5xx ${l.main.status5xx}, non-2xx ${l.main.non2xx}, timeouts ${l.main.timeouts}, errors ${l.main.errors}`,
+      measured:
+        `${l.main.requestsPerS.toFixed(1)} req/s, p50 ${l.main.p50Ms} / p99 ${l.main.p99Ms} ms, 5xx ` +
+        `${l.main.status5xx}, non-2xx ${l.main.non2xx}, timeouts ${l.main.timeouts}, errors ${l.main.errors}`,
       met: l.main.status5xx === 0 && l.main.timeouts === 0 && l.main.errors === 0,
     });
     rows.push({

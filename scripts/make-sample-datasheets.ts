@@ -377,7 +377,9 @@ function driverSheet(p: DriverParams): Sheet {
       : `internal ${pullName}${p.inputPullOhms !== null ? `, ${fmt(p.inputPullOhms / 1000)} kΩ typ.` : ''}`;
   const kind = p.kind === 'gate-driver' ? 'low-side gate driver' : 'level shifter';
   return {
-    subtitle: `${p.channels === 1 ? 'Single' : p.channels === 2 ? 'Dual' : `${p.channels}-channel`} ${p.inverting ? 'inverting' : 'non-inverting'} ${kind}, ${fmt(p.supplyMinV)} V to ${fmt(p.supplyMaxV)} V`,
+    subtitle:
+      `${p.channels === 1 ? 'Single' : p.channels === 2 ? 'Dual' : `${p.channels}-channel`} ` +
+      `${p.inverting ? 'inverting' : 'non-inverting'} ${kind}, ${fmt(p.supplyMinV)} V to ${fmt(p.supplyMaxV)} V`,
     features: [
       `Supply ${fmt(p.supplyMinV)} V to ${fmt(p.supplyMaxV)} V`,
       `Peak output current ${amps(p.sourceCurrentA)} source, ${amps(p.sinkCurrentA)} sink`,

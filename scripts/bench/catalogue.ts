@@ -256,7 +256,9 @@ export function makeDriver(r: Rand, serial: number): NewPart {
     category: 'driver',
     manufacturer: maker.name,
     mpn: `${maker.code}G${inverting ? 'I' : 'N'}${Math.round(supplyMaxV)}${serial.toString(36).toUpperCase().padStart(4, '0')}-${pkg.replace(/[^A-Z0-9]/g, '')}`,
-    description: `${kind === 'gate-driver' ? 'Low-side gate driver' : 'Logic level shifter'}, ${inverting ? 'inverting' : 'non-inverting'}, ${supplyMinV}–${supplyMaxV} V supply, ${sourceCurrentA} A source, ${inputLogic} input thresholds, ${pkg}.`,
+    description:
+      `${kind === 'gate-driver' ? 'Low-side gate driver' : 'Logic level shifter'}, ${inverting ? 'inverting' : 'non-inverting'}, ` +
+      `${supplyMinV}–${supplyMaxV} V supply, ${sourceCurrentA} A source, ${inputLogic} input thresholds, ${pkg}.`,
     package: pkg,
     ...head(r),
     params: {

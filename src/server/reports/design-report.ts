@@ -83,7 +83,8 @@ function drawSignOff(layout: ReportLayout, data: DesignReportData): void {
     );
   else {
     layout.paragraph(
-      `✕ Does not hold: ${r.issues.length} reason${r.issues.length === 1 ? '' : 's'}. ${data.design.status === 'ready' ? 'It is marked ready but will go back to draft on its next check.' : 'It cannot be marked ready until each is resolved.'}`,
+      `✕ Does not hold: ${r.issues.length} reason${r.issues.length === 1 ? '' : 's'}. ` +
+        `${data.design.status === 'ready' ? 'It is marked ready but will go back to draft on its next check.' : 'It cannot be marked ready until each is resolved.'}`,
       { bold: true },
     );
     r.issues.forEach((i) => layout.bullet(`${i.path}: ${i.message}`));

@@ -13,7 +13,8 @@ import { drawTable, type TableColumn } from './report-table.ts';
 
 /** The report's last line: the design is an aid, not a sign-off. */
 export const DEFERRAL_LINE =
-  'This report is an engineering aid, not an approval. Follow local codes and regulations, and have a qualified engineer review the design against the parts\u2019 own datasheets before it is built or used.';
+  'This report is an engineering aid, not an approval. Follow local codes and regulations, and have a ' +
+  'qualified engineer review the design against the parts\u2019 own datasheets before it is built or used.';
 
 const POWER_ON_COLUMNS: readonly TableColumn[] = [
   { title: 'Stage', widthFraction: 0.14 },
@@ -123,11 +124,14 @@ export function drawBom(layout: ReportLayout, bom: readonly BomLine[]): void {
 }
 
 const ASSUMPTIONS: readonly string[] = [
-  'Junction temperatures use the junction-to-ambient thermal resistance (RθJA) from each datasheet, which is measured on a standard JEDEC-style test board. Your board, its copper area and its enclosure will run hotter or cooler.',
-  `RDS(on) rises with junction temperature by ${percent(DEFAULT_RDSON_TEMPCO_PER_C, 1)} per kelvin from its 25 °C value unless a part states otherwise; between the gate voltages a datasheet lists, RDS(on) is interpolated.`,
+  'Junction temperatures use the junction-to-ambient thermal resistance (RθJA) from each datasheet, which is measured ' +
+    'on a standard JEDEC-style test board. Your board, its copper area and its enclosure will run hotter or cooler.',
+  `RDS(on) rises with junction temperature by ${percent(DEFAULT_RDSON_TEMPCO_PER_C, 1)} per kelvin from its 25 °C ` +
+    `value unless a part states otherwise; between the gate voltages a datasheet lists, RDS(on) is interpolated.`,
   `The winding resistance is taken at 20 °C and scaled with copper's ${percent(COPPER_ALPHA20_PER_K, 3)} per kelvin; the start-up (stall) current uses the coldest ambient and the highest supply.`,
   'The motor follows the linear DC model: constant winding resistance, Ke = Kt and a constant friction torque; brush drop, saturation and heating while running are ignored.',
-  'PWM currents include the ripple when the motor’s inductance is known (continuous or discontinuous conduction, docs/engineering.md §4.2–§4.3) and assume the mean-voltage model when it is not; switching losses are estimates from gate charge and drive current, not measurements.',
+  'PWM currents include the ripple when the motor’s inductance is known (continuous or discontinuous conduction, docs/engineering.md §4.2–§4.3) ' +
+    'and assume the mean-voltage model when it is not; switching losses are estimates from gate charge and drive current, not measurements.',
   'Prices are the best catalogue offer at the board quantity when the report was generated; prices, stock and lead times change.',
 ];
 

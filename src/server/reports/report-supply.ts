@@ -67,7 +67,8 @@ export function drawSupply(layout: ReportLayout, input: DesignInput, supply: Sup
   layout.keyValues([
     [
       'Start current',
-      `${quantity(supply.startCurrentA, 'A')} asked for at the highest supply, winding at ${sig(input.ambientMinC)} °C; the source delivers ${quantity(supply.startActualCurrentA, 'A')}${limited ? ' (held at its limit)' : ''}`,
+      `${quantity(supply.startCurrentA, 'A')} asked for at the highest supply, winding at ${sig(input.ambientMinC)} ` +
+        `°C; the source delivers ${quantity(supply.startActualCurrentA, 'A')}${limited ? ' (held at its limit)' : ''}`,
     ],
     ['Source at start', `${quantity(supply.sourceVoltageAtStartV, 'V')} at the terminals at the lowest supply`],
     ['Start torque', `${torqueText(supply.startTorqueNm)} at the lowest supply, winding at ${sig(input.ambientMaxC)} °C`],
