@@ -1,0 +1,87 @@
+/**
+ * The home page per role: designers their designs; librarians the review queue, recent imports and parts
+ * without a datasheet; buyers the ready designs with stock shortfalls at their build quantity; admins the
+ * same plus people. Open change alerts show above it (components/alerts). Every list is short and bounded.
+ */
+import { db } from '../db.ts';
+import type { DesignSummary } from '../../lib/domain/design.ts';
+import type { SessionUser } from '../auth/types.ts';
+import { listDesignRows, listReadyDesigns, loadRevisionInput } from '../repos/designs.ts';
+import { partsByIds } from '../repos/parts.ts';
+import { partsMissingDatasheets, peopleCounts, recentImports, reviewQueueHead, type DeskImport, type DeskPart } from '../repos/desk.ts';
+
+const LIST = 5;
+
+export interface Shortfall {
+  mpn: string;
+  role: string;
+  needed: number;
+  inStock: number;
+}
+
+export interface ReadyDesignDesk {
+  id: number;
+  name: string;
+  ownerName: string;
+  boards: number;
+  shortfalls: Shortfall[];
+}
+
+export interface Desk {
+  designs?: { items: DesignSummary[]; total: number };
+  review?: { items: DeskPart[]; total: number };
+  missingDatasheets?: { items: DeskPart[]; total: number };
+  imports?: DeskImport[];
+  shortlists?: { items: ReadyDesignDesk[]; total: number };
+  people?: { active: number; invited: number };
+}
+
+const has = (u: SessionUser, role: SessionUser['roles'][number]) => u.roles.includes(role) || u.roles.includes('admin');
+
+/** Chosen parts whose stock over all sources is below one per board at the design's build quantity. */
+async function readyWithShortfalls(): Promise<{ items: ReadyDesignDesk[]; total: number }> {
+  const heads = await listReadyDesigns(db());
+  const shown = heads.slice(0, LIST);
+  const inputs = await Promise.all(shown.map((h) => loadRevisionInput(db(), h.id, h.revision).catch(() => null)));
+  const picks = inputs.map((input) =>
+    input
+      ? [
+          ...(input.motor.source === 'catalogue' ? [{ role: 'motor', id: input.motor.partId }] : []),
+          ...(['switch', 'driver', 'diode'] as const).flatMap((r) =>
+            input.selections[r].chosenPartId != null ? [{ role: r, id: input.selections[r].chosenPartId as number }] : [],
+          ),
+        ]
+      : [],
+  );
+  const parts = await partsByIds(
+    db(),
+    picks.flat().map((p) => p.id),
+  );
+  const items = shown.map((h, i) => {
+    const boards = inputs[i]?.boardQuantity ?? 0;
+    const shortfalls = picks[i].flatMap(({ role, id }) => {
+      const part = parts.get(id);
+      if (!part) return [];
+      const inStock = part.sources.reduce((s, src) => s + src.stockQty, 0);
+      return inStock < boards ? [{ mpn: part.mpn, role, needed: boards, inStock }] : [];
+    });
+    return { id: h.id, name: h.name, ownerName: h.ownerName, boards, shortfalls };
+  });
+  return { items, total: heads.length };
+}
+
+export async function deskFor(user: SessionUser): Promise<Desk> {
+  const desk: Desk = {};
+  const work: Promise<void>[] = [];
+  if (has(user, 'designer'))
+    work.push(listDesignRows(db(), { ownerId: user.id, page: 1, pageSize: LIST }).then((d) => void (desk.designs = d)));
+  if (has(user, 'librarian')) {
+    work.push(reviewQueueHead(db(), LIST).then((r) => void (desk.review = r)));
+    work.push(partsMissingDatasheets(db(), LIST).then((r) => void (desk.missingDatasheets = r)));
+    work.push(recentImports(db(), LIST).then((r) => void (desk.imports = r)));
+  }
+  if (has(user, 'buyer')) work.push(readyWithShortfalls().then((r) => void (desk.shortlists = r)));
+  if (user.roles.includes('admin')) work.push(peopleCounts(db()).then((r) => void (desk.people = r)));
+  await Promise.all(work);
+  return desk;
+}
