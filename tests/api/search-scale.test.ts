@@ -17,10 +17,12 @@ import { generateCatalogue, rng } from '../../scripts/bench/catalogue.ts';
 const knex = appDb();
 const api = () => request(appUrl());
 let designer = '';
+let librarian = '';
 const parts = [...generateCatalogue({ mosfets: 14_000, diodes: 3_000, drivers: 2_000, motors: 1_000 }, 4242)];
 
 beforeAll(async () => {
   designer = await sessionCookie('designer');
+  librarian = await sessionCookie('librarian');
   await knex.transaction((trx) => insertPartsBulk(trx, parts, null));
 }, 120_000);
 afterAll(() => knex.destroy());
@@ -47,23 +49,34 @@ describe('text search over a 20,000-part catalogue', () => {
     expect(found).toBe(parts.length);
   });
 
-  // Known failure, left open in the closing note: in the generated catalogue an exact part number is
-  // sometimes not first (seen: OVN25S058A-SO8 behind OVN25S05WP-SO8). Skipped until the ranking is fixed.
-  it.skip('puts the exact part number first over HTTP, also typed loosely, and finds it with one character wrong', async () => {
+  // The generated catalogue holds pending, draft and rejected parts too (about 12 %). A designer sees
+  // approved parts and their own proposals only (README "Roles"), so such a part is rightly missing from
+  // a designer's list; measured: all 11 of 11 misses of the earlier version of this test were such
+  // hidden parts, none an approved part ranked second. Hidden parts are searched as a librarian here,
+  // and checked to stay hidden from the designer.
+  it('puts the exact part number first over HTTP, also typed loosely, and finds it with one character wrong', async () => {
     const r = rng(99);
     for (let i = 0; i < 60; i++) {
       const part = parts[Math.floor(r() * parts.length)];
-      const exact = await api().get('/api/parts').query({ q: part.mpn, pageSize: 5 }).set('Cookie', designer);
+      const viewer = part.reviewStatus === 'approved' ? designer : librarian;
+      if (viewer === librarian) {
+        const hidden = await api().get('/api/parts').query({ q: part.mpn, pageSize: 5 }).set('Cookie', designer);
+        expect(
+          hidden.body.items.map((p: { mpn: string }) => p.mpn),
+          `${part.mpn} is ${part.reviewStatus}`,
+        ).not.toContain(part.mpn);
+      }
+      const exact = await api().get('/api/parts').query({ q: part.mpn, pageSize: 5 }).set('Cookie', viewer);
       expect(exact.status).toBe(200);
       expect(exact.body.items[0]?.mpn, part.mpn).toBe(part.mpn);
       const loose = await api()
         .get('/api/parts')
         .query({ q: part.mpn.toLowerCase().replace(/-/g, ''), pageSize: 5 })
-        .set('Cookie', designer);
+        .set('Cookie', viewer);
       expect(loose.body.items[0]?.mpn, part.mpn).toBe(part.mpn);
       const at = 2 + Math.floor(r() * (part.mpn.length - 3));
       const wrong = part.mpn.slice(0, at) + (part.mpn[at] === 'Q' ? 'X' : 'Q') + part.mpn.slice(at + 1);
-      const typo = await api().get('/api/parts').query({ q: wrong, pageSize: 25 }).set('Cookie', designer);
+      const typo = await api().get('/api/parts').query({ q: wrong, pageSize: 25 }).set('Cookie', viewer);
       expect(
         typo.body.items.map((p: { mpn: string }) => p.mpn),
         `${wrong} → ${part.mpn}`,
