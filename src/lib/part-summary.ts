@@ -117,6 +117,9 @@ export function summarize(part: Part): Record<string, string> {
 }
 
 /** Lowest unit price across sources at a quantity (the break at or below qty), or null. */
+/** Units in stock over all of a part's sources. */
+export const totalStock = (part: Pick<Part, 'sources'>): number => part.sources.reduce((sum, src) => sum + src.stockQty, 0);
+
 export function bestUnitPrice(part: Part, qty: number): { price: number; currency: string } | null {
   let best: { price: number; currency: string } | null = null;
   for (const s of part.sources) {

@@ -11,33 +11,25 @@ import type { Knex } from 'knex';
 import { appDb, appUrl } from '../helpers/stack.ts';
 import { demoAddress, sessionCookie } from '../helpers/session.ts';
 import type { DesignInput } from '../../src/lib/domain/design.ts';
-import type { Part } from '../../src/lib/domain/parts.ts';
 import { demoDesigns } from '../../db/seeds/designs.ts';
+import { editParams, getDesign, getPart, lifecycle as changeLifecycle, markReady } from '../helpers/design-api.ts';
 import { processPendingAlerts } from '../../src/server/services/design-alerts.ts';
 
 const knex = appDb();
 const second = appDb();
 const api = () => request(appUrl());
 let designer = '';
-let librarian = '';
 let buyer = '';
 
 beforeAll(async () => {
-  [designer, librarian, buyer] = await Promise.all([sessionCookie('designer'), sessionCookie('librarian'), sessionCookie('buyer')]);
+  [designer, buyer] = await Promise.all([sessionCookie('designer'), sessionCookie('buyer')]);
 });
 afterAll(async () => {
   await Promise.all([knex.destroy(), second.destroy()]);
 });
 
 const fanName = demoDesigns[1].name;
-const getPart = async (id: number): Promise<Part & { version: number }> =>
-  (await api().get(`/api/parts/${id}`).set('Cookie', librarian)).body;
-const getDesign = async (id: number) => (await api().get(`/api/designs/${id}`).set('Cookie', designer)).body;
-const lifecycle = (id: number, to: string, version: number) =>
-  api()
-    .post(`/api/parts/${id}/lifecycle`)
-    .set('Cookie', librarian)
-    .send({ lifecycle: to, effectiveDate: '2026-12-01', note: 'alert test', version });
+const lifecycle = (id: number, to: string, version: number) => changeLifecycle(id, to, version, 'alert test');
 
 async function fanCopy(tag: string, ready: boolean, change?: (i: DesignInput) => DesignInput): Promise<{ id: number; input: DesignInput }> {
   const fanId = (await knex('designs').where({ name: fanName }).first('id')).id;
@@ -46,10 +38,7 @@ async function fanCopy(tag: string, ready: boolean, change?: (i: DesignInput) =>
   const created = await api().post('/api/designs').set('Cookie', designer).send(input);
   expect(created.status, JSON.stringify(created.body)).toBe(201);
   if (ready) {
-    const r = await api()
-      .post(`/api/designs/${created.body.id}/status`)
-      .set('Cookie', designer)
-      .send({ status: 'ready', version: created.body.version });
+    const r = await markReady(created.body.id, created.body.version);
     expect(r.status, JSON.stringify(r.body)).toBe(200);
   }
   return { id: created.body.id, input };
@@ -119,12 +108,9 @@ describe('a parameter change that breaks a ready design', () => {
     const { id, input } = await fanCopy('params', true);
     const altId = input.selections.switch.alternatePartIds[0];
     const part = await getPart(altId);
-    const { id: _id, ...rest } = part as unknown as Record<string, unknown>;
+    const original = part.params as unknown as Record<string, unknown>;
     // 12.6 V supply maximum against a 10 V drain rating: a hard fail (docs/engineering.md §5 drain-voltage check).
-    const res = await api()
-      .put(`/api/parts/${altId}`)
-      .set('Cookie', librarian)
-      .send({ ...rest, params: { ...(part.params as unknown as Record<string, unknown>), vdsMaxV: 10 }, version: part.version });
+    const res = await editParams(altId, (p) => ({ ...p, vdsMaxV: 10 }));
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     try {
       const rows = await alertsOf(id);
@@ -132,12 +118,7 @@ describe('a parameter change that breaks a ready design', () => {
       expect(rows[0].detail).toContain(part.mpn);
       expect((await getDesign(id)).status).toBe('draft');
     } finally {
-      const now = await getPart(altId);
-      const { id: _i, ...restNow } = now as unknown as Record<string, unknown>;
-      await api()
-        .put(`/api/parts/${altId}`)
-        .set('Cookie', librarian)
-        .send({ ...restNow, params: part.params, version: now.version });
+      await editParams(altId, () => original);
     }
   });
 });

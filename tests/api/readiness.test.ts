@@ -11,9 +11,9 @@ import { appDb, appUrl } from '../helpers/stack.ts';
 import { sessionCookie } from '../helpers/session.ts';
 import type { DesignInput } from '../../src/lib/domain/design.ts';
 import type { DesignMatch } from '../../src/lib/design-match.ts';
-import type { Part } from '../../src/lib/domain/parts.ts';
 import { readinessIssues } from '../../src/lib/readiness.ts';
 import { demoDesigns } from '../../db/seeds/designs.ts';
+import { editParams, getDesign, getPart, lifecycle as changeLifecycle, markReady } from '../helpers/design-api.ts';
 
 const knex = appDb();
 const api = () => request(appUrl());
@@ -26,25 +26,7 @@ beforeAll(async () => {
 afterAll(() => knex.destroy());
 
 const fanName = demoDesigns[1].name;
-const getPart = async (id: number): Promise<Part & { version: number }> =>
-  (await api().get(`/api/parts/${id}`).set('Cookie', librarian)).body;
-const getDesign = async (id: number) => (await api().get(`/api/designs/${id}`).set('Cookie', designer)).body;
-const lifecycle = (id: number, to: string, version: number) =>
-  api()
-    .post(`/api/parts/${id}/lifecycle`)
-    .set('Cookie', librarian)
-    .send({ lifecycle: to, effectiveDate: '2026-12-01', note: 'readiness test', version });
-const markReady = (id: number, version: number) =>
-  api().post(`/api/designs/${id}/status`).set('Cookie', designer).send({ status: 'ready', version });
-
-async function editParams(id: number, change: (params: Record<string, unknown>) => Record<string, unknown>) {
-  const part = await getPart(id);
-  const { id: _id, ...rest } = part as unknown as Record<string, unknown>;
-  return api()
-    .put(`/api/parts/${id}`)
-    .set('Cookie', librarian)
-    .send({ ...rest, params: change(part.params as unknown as Record<string, unknown>), version: part.version });
-}
+const lifecycle = (id: number, to: string, version: number) => changeLifecycle(id, to, version, 'readiness test');
 
 /** A ready copy of the demo fan made by this file, so other test files keep their designs. */
 async function readyCopy(tag: string): Promise<{ id: number; input: DesignInput }> {

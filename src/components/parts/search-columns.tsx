@@ -2,7 +2,7 @@
 import { sig, price } from '../../lib/units.ts';
 import type { Lifecycle, Part, PartCategory } from '../../lib/domain/parts.ts';
 import { LIFECYCLE_LABELS } from '../../lib/labels.ts';
-import { bestUnitPrice, CATEGORY_LABELS } from '../../lib/part-summary.ts';
+import { bestUnitPrice, CATEGORY_LABELS, totalStock } from '../../lib/part-summary.ts';
 import { openInputOutput } from '../../lib/driver-input.ts';
 
 export interface SearchColumn {
@@ -34,7 +34,7 @@ const COMMON_TAIL: SearchColumn[] = [
       return best ? price(best.price, best.currency) : '—';
     },
   },
-  { id: 'stock', label: 'Stock', unit: 'pcs', numeric: true, cell: (p) => String(p.sources.reduce((s, x) => s + x.stockQty, 0)) },
+  { id: 'stock', label: 'Stock', unit: 'pcs', numeric: true, cell: (p) => String(totalStock(p)) },
   { id: 'lifecycle', label: 'Lifecycle', sortKey: 'lifecycle', defaultVisible: true, cell: (p) => LIFE(p.lifecycle) },
   { id: 'description', label: 'Description', cell: (p) => p.description },
 ];

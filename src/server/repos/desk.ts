@@ -66,3 +66,20 @@ export async function peopleCounts(db: Db): Promise<{ active: number; invited: n
   ]);
   return { active: Number(active), invited: Number(invited) };
 }
+
+/** The chosen part of each line (design_parts position 0) of some designs, with its stock over all sources. */
+export async function chosenPartStock(
+  db: Db,
+  designIds: number[],
+): Promise<{ designId: number; role: string; mpn: string; inStock: number }[]> {
+  if (designIds.length === 0) return [];
+  const rows: { design_id: number; role: string; mpn: string; stock: number | string }[] = await db('design_parts as dp')
+    .join('parts as p', 'p.id', 'dp.part_id')
+    .leftJoin('part_sources as s', 's.part_id', 'p.id')
+    .whereIn('dp.design_id', designIds)
+    .where('dp.position', 0)
+    .groupBy('dp.design_id', 'dp.role', 'p.id', 'p.mpn')
+    .select('dp.design_id', 'dp.role', 'p.mpn', db.raw('COALESCE(SUM(s.stock_qty), 0) AS stock'))
+    .orderByRaw("dp.design_id, FIELD(dp.role, 'motor', 'switch', 'driver', 'diode')");
+  return rows.map((r) => ({ designId: r.design_id, role: r.role, mpn: r.mpn, inStock: Number(r.stock) }));
+}

@@ -8,7 +8,7 @@
 import type { Knex } from 'knex';
 import { db } from '../db.ts';
 import type { SessionUser } from '../auth/types.ts';
-import type { Lifecycle } from '../../lib/domain/parts.ts';
+import type { Lifecycle, Part } from '../../lib/domain/parts.ts';
 import { LIFECYCLE_LABELS } from '../../lib/labels.ts';
 import { effectiveSwitchList } from '../../lib/design-match.ts';
 import { appConfig } from '../config.ts';
@@ -29,8 +29,7 @@ import {
   type NewAlert,
   type OpenAlert,
 } from '../repos/design-alerts.ts';
-import type { ReverifyOutcome } from './design-status.ts';
-import { verifyInput } from './design-status.ts';
+import { reverifyDesignsUsingParts, verifyInput, type ReverifyOutcome } from './design-status.ts';
 import { ServiceError, notFound } from './errors.ts';
 
 /** Lifecycle states that raise an alert on every design using the part. */
@@ -68,48 +67,40 @@ export async function raiseLifecycleAlerts(
 
 type Db = Knex | Knex.Transaction;
 
-/** Re-verification outcomes after a part change: a ready design that no longer holds gets an alert per changed part. */
+/** Re-verification outcomes after a change to one part (every outcome is of a design using it): a ready design that no longer holds gets an alert. */
 export async function raiseNoLongerHoldsAlerts(
   outcomes: ReverifyOutcome[],
-  parts: { id: number; mpn: string; version: number }[],
+  part: { id: number; mpn: string; version: number },
   k: Db = db(),
 ): Promise<void> {
-  const broken = outcomes.filter((o) => o.wasReady && !o.holds);
-  if (broken.length === 0 || parts.length === 0) return;
-  const uses = await designsUsingParts(
+  await insertAlerts(
     k,
-    parts.map((p) => p.id),
-  );
-  const alerts: NewAlert[] = [];
-  for (const o of broken) {
-    for (const p of parts) {
-      if (!uses.some((u) => u.designId === o.designId && u.partId === p.id)) continue;
-      alerts.push({
+    outcomes
+      .filter((o) => o.wasReady && !o.holds)
+      .map((o) => ({
         designId: o.designId,
-        partId: p.id,
-        kind: 'no-longer-holds',
-        changeKey: `v${p.version}`,
-        detail: clip(`After a change to ${p.mpn} the design no longer holds and went back to draft: ${o.reason ?? 'see the design'}`),
-      });
-    }
-  }
-  await insertAlerts(k, alerts);
+        partId: part.id,
+        kind: 'no-longer-holds' as const,
+        changeKey: `v${part.version}`,
+        detail: clip(`After a change to ${part.mpn} the design no longer holds and went back to draft: ${o.reason ?? 'see the design'}`),
+      })),
+  );
 }
 
 /**
- * Runs after a part change commits: raises the alerts, then mails them in the background. Never throws:
- * the part change has already been saved, and an alert that could not be raised is logged.
+ * What every part change does right after it commits (edit, review, lifecycle, supply data): ready designs
+ * using the part are re-verified (back to draft when they no longer hold), then the change alerts are raised
+ * and mailed in the background. `lifecycleFrom` is the state before a lifecycle move. Raising alerts never
+ * throws: the part change has already been saved, and an alert that could not be raised is logged.
  */
-export async function afterPartChange(input: {
-  part: { id: number; mpn: string; version: number };
-  lifecycle?: { from: Lifecycle; to: Lifecycle };
-  outcomes: ReverifyOutcome[];
-}): Promise<void> {
+export async function afterPartChange(actor: SessionUser, part: Part, reason: string, lifecycleFrom?: Lifecycle): Promise<void> {
+  const outcomes = await reverifyDesignsUsingParts([part.id as number], actor, reason);
+  const changed = { id: part.id as number, mpn: part.mpn, version: part.version as number };
   try {
-    if (input.lifecycle) await raiseLifecycleAlerts(input.part, input.lifecycle.from, input.lifecycle.to);
-    await raiseNoLongerHoldsAlerts(input.outcomes, [input.part]);
+    if (lifecycleFrom) await raiseLifecycleAlerts(changed, lifecycleFrom, part.lifecycle);
+    await raiseNoLongerHoldsAlerts(outcomes, changed);
   } catch (err) {
-    console.error(`[stallpoint] raising change alerts for part ${input.part.id} failed:`, err);
+    console.error(`[stallpoint] raising change alerts for part ${changed.id} failed:`, err);
     return;
   }
   void processPendingAlerts().catch((err: unknown) => console.error('[stallpoint] sending change alerts failed:', err));
@@ -184,10 +175,6 @@ export async function processPendingAlerts(k: Knex = db()): Promise<number> {
     if (mailed) sent += 1;
   }
   return sent;
-}
-
-export async function openAlertsOfDesign(designId: number, limit = 20): Promise<{ items: OpenAlert[]; total: number }> {
-  return listOpenAlerts(db(), { designIds: [designId], limit });
 }
 
 export async function openAlertsOfDesigns(designIds: number[], limit = 20): Promise<{ items: OpenAlert[]; total: number }> {

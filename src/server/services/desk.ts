@@ -7,8 +7,15 @@ import { db } from '../db.ts';
 import type { DesignSummary } from '../../lib/domain/design.ts';
 import type { SessionUser } from '../auth/types.ts';
 import { listDesignRows, listReadyDesigns, loadRevisionInput } from '../repos/designs.ts';
-import { partsByIds } from '../repos/parts.ts';
-import { partsMissingDatasheets, peopleCounts, recentImports, reviewQueueHead, type DeskImport, type DeskPart } from '../repos/desk.ts';
+import {
+  chosenPartStock,
+  partsMissingDatasheets,
+  peopleCounts,
+  recentImports,
+  reviewQueueHead,
+  type DeskImport,
+  type DeskPart,
+} from '../repos/desk.ts';
 
 const LIST = 5;
 
@@ -42,29 +49,18 @@ const has = (u: SessionUser, role: SessionUser['roles'][number]) => u.roles.incl
 async function readyWithShortfalls(): Promise<{ items: ReadyDesignDesk[]; total: number }> {
   const heads = await listReadyDesigns(db());
   const shown = heads.slice(0, LIST);
-  const inputs = await Promise.all(shown.map((h) => loadRevisionInput(db(), h.id, h.revision).catch(() => null)));
-  const picks = inputs.map((input) =>
-    input
-      ? [
-          ...(input.motor.source === 'catalogue' ? [{ role: 'motor', id: input.motor.partId }] : []),
-          ...(['switch', 'driver', 'diode'] as const).flatMap((r) =>
-            input.selections[r].chosenPartId != null ? [{ role: r, id: input.selections[r].chosenPartId as number }] : [],
-          ),
-        ]
-      : [],
-  );
-  const parts = await partsByIds(
-    db(),
-    picks.flat().map((p) => p.id),
-  );
+  const [inputs, stock] = await Promise.all([
+    Promise.all(shown.map((h) => loadRevisionInput(db(), h.id, h.revision).catch(() => null))),
+    chosenPartStock(
+      db(),
+      shown.map((h) => h.id),
+    ),
+  ]);
   const items = shown.map((h, i) => {
     const boards = inputs[i]?.boardQuantity ?? 0;
-    const shortfalls = picks[i].flatMap(({ role, id }) => {
-      const part = parts.get(id);
-      if (!part) return [];
-      const inStock = part.sources.reduce((s, src) => s + src.stockQty, 0);
-      return inStock < boards ? [{ mpn: part.mpn, role, needed: boards, inStock }] : [];
-    });
+    const shortfalls = stock
+      .filter((s) => s.designId === h.id && s.inStock < boards)
+      .map((s) => ({ mpn: s.mpn, role: s.role, needed: boards, inStock: s.inStock }));
     return { id: h.id, name: h.name, ownerName: h.ownerName, boards, shortfalls };
   });
   return { items, total: heads.length };

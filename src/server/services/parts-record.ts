@@ -7,6 +7,8 @@ import { findPartRow, loadPart } from '../repos/part-writes.ts';
 import { findPerson, listAuditEvents } from '../repos/audit.ts';
 import { listDatasheets } from '../repos/datasheets.ts';
 import { designsUsingPart } from '../repos/designs.ts';
+import type { SessionUser } from '../auth/types.ts';
+import { canSeePart } from './parts-access.ts';
 
 export interface PartRecordView {
   part: Part;
@@ -20,11 +22,16 @@ export interface PartRecordView {
   whereUsed: { designId: number; designName: string; role: string; chosen: boolean; designStatus: string }[];
 }
 
-/** The full record, or null when there is no such part. */
-export async function partRecord(id: number): Promise<PartRecordView | null> {
+/**
+ * The full record, or null when there is no such part or, when a viewer is given, the viewer may not see it
+ * (canSeePart: another person's draft, proposal or rejected part reads as missing). Without a viewer the
+ * caller applies its own rule (the edit page: partPermissions).
+ */
+export async function partRecord(id: number, viewer?: SessionUser | null): Promise<PartRecordView | null> {
   const k = db();
   const row = await findPartRow(k, id);
   if (!row) return null;
+  if (viewer !== undefined && !canSeePart(viewer, { reviewStatus: row.review_status, createdBy: row.created_by })) return null;
   const [part, proposer, sheets, events, uses] = await Promise.all([
     loadPart(k, id),
     findPerson(k, row.created_by),

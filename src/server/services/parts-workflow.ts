@@ -10,7 +10,6 @@ import { withLockedVersion } from '../repos/versioned.ts';
 import { PART_ENTITY } from './part-entity.ts';
 import { ServiceError } from './errors.ts';
 import { sendRejectionNotice } from './parts-review-mail.ts';
-import { reverifyDesignsUsingParts } from './design-status.ts';
 import { afterPartChange } from './design-alerts.ts';
 
 /**
@@ -53,12 +52,7 @@ export async function reviewPart(user: SessionUser, id: number, decision: Review
     },
   });
   const part = after!;
-  const outcomes = await reverifyDesignsUsingParts(
-    [id],
-    user,
-    `${part.mpn} (part ${id}) review ${row.review_status} → ${part.reviewStatus}`,
-  );
-  await afterPartChange({ part: { id, mpn: part.mpn, version: part.version ?? row.version + 1 }, outcomes });
+  await afterPartChange(user, part, `${part.mpn} (part ${id}) review ${row.review_status} → ${part.reviewStatus}`);
   if (decision.decision === 'reject') {
     const proposer = await findPerson(db(), row.created_by);
     if (proposer)
@@ -78,12 +72,7 @@ export async function changeLifecycle(user: SessionUser, id: number, change: Lif
     apply: (trx) => setLifecycle(trx, id, change.lifecycle, change.effectiveDate, change.note),
   });
   const part = after!;
-  const outcomes = await reverifyDesignsUsingParts([id], user, `${part.mpn} (part ${id}) lifecycle ${row.lifecycle} → ${part.lifecycle}`);
-  await afterPartChange({
-    part: { id, mpn: part.mpn, version: part.version ?? row.version + 1 },
-    lifecycle: { from: row.lifecycle, to: part.lifecycle },
-    outcomes,
-  });
+  await afterPartChange(user, part, `${part.mpn} (part ${id}) lifecycle ${row.lifecycle} → ${part.lifecycle}`, row.lifecycle);
   return part;
 }
 
@@ -93,7 +82,7 @@ export async function changeLifecycle(user: SessionUser, id: number, change: Lif
  * the change commits, as after every other part change.
  */
 export async function updateSources(user: SessionUser, id: number, update: SourcesUpdate): Promise<Part> {
-  const { row, after } = await withLockedVersion(PART_ENTITY, {
+  const { after } = await withLockedVersion(PART_ENTITY, {
     id,
     expectedVersion: update.version,
     actorUserId: user.id,
@@ -104,7 +93,6 @@ export async function updateSources(user: SessionUser, id: number, update: Sourc
     },
   });
   const part = after!;
-  const outcomes = await reverifyDesignsUsingParts([id], user, `${part.mpn} (part ${id}) supply data was changed`);
-  await afterPartChange({ part: { id, mpn: part.mpn, version: part.version ?? row.version + 1 }, outcomes });
+  await afterPartChange(user, part, `${part.mpn} (part ${id}) supply data was changed`);
   return part;
 }

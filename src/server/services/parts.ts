@@ -20,7 +20,6 @@ import { listDatasheets } from '../repos/datasheets.ts';
 import { designsUsingPart } from '../repos/designs.ts';
 import { datasheetStore } from '../storage/index.ts';
 import { canCurate, canPropose, canSeePart } from './parts-access.ts';
-import { reverifyDesignsUsingParts } from './design-status.ts';
 import { afterPartChange } from './design-alerts.ts';
 import { notFound, ServiceError } from './errors.ts';
 
@@ -96,8 +95,7 @@ export async function updatePart(user: SessionUser, id: number, input: PartUpdat
   if (unchanged) return before!;
   // Right after the change commits: ready designs using the part must still hold, or go back to draft.
   const review = before!.reviewStatus !== after!.reviewStatus ? `, review ${before!.reviewStatus} → ${after!.reviewStatus}` : '';
-  const outcomes = await reverifyDesignsUsingParts([id], user, `${after!.mpn} (part ${id}) was edited${review}`);
-  await afterPartChange({ part: { id, mpn: after!.mpn, version: after!.version ?? (before!.version ?? 0) + 1 }, outcomes });
+  await afterPartChange(user, after!, `${after!.mpn} (part ${id}) was edited${review}`);
   return after!;
 }
 

@@ -6,7 +6,7 @@
 import { db } from '../db.ts';
 import type { DesignInput, PartRole } from '../../lib/domain/design.ts';
 import type { Part } from '../../lib/domain/parts.ts';
-import { bestUnitPrice } from '../../lib/part-summary.ts';
+import { bestUnitPrice, totalStock } from '../../lib/part-summary.ts';
 import { pickStatus, reviewWords } from '../../lib/readiness.ts';
 import type { SessionUser } from '../auth/types.ts';
 import { partsByIds } from '../repos/parts.ts';
@@ -57,7 +57,7 @@ function supplyFacts(part: Part, position: number, qty: number, status: { text: 
     position,
     unitPrice: price?.price ?? null,
     currency: price?.currency ?? null,
-    stockQty: part.sources.reduce((s, src) => s + src.stockQty, 0),
+    stockQty: totalStock(part),
     minLeadTimeDays: part.sources.length ? Math.min(...part.sources.map((s) => s.leadTimeDays)) : null,
     minMoq: part.sources.length ? Math.min(...part.sources.map((s) => s.moq)) : null,
   };
