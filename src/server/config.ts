@@ -39,7 +39,9 @@ export const CONFIG_KEYS: readonly ConfigKey[] = [
     key: 'PUBLIC_URL',
     defaultText: '`http://HOST:PORT` under `npm start`',
     meaning:
-      'address put into e-mailed links; required outside local mail-sink mode. Its host is also allowed as a request host at build time (besides 127.0.0.1 and localhost); a change rebuilds the app on the next start. When it is `https://…`, every response carries `Strict-Transport-Security: max-age=31536000; includeSubDomains`',
+      'address put into e-mailed links; required outside local mail-sink mode. Its host is also allowed as a request host ' +
+      'at build time (besides 127.0.0.1 and localhost); a change rebuilds the app on the next start. When it is ' +
+      '`https://…`, every response carries `Strict-Transport-Security: max-age=31536000; includeSubDomains`',
   },
   {
     key: 'SMTP_HOST',
