@@ -217,6 +217,21 @@ export async function recentlyChangedParts(db: Db, category: PartCategory, limit
 }
 
 /** Parts by id (any category), fully hydrated, keyed by id. */
+/**
+ * Motors a design form offers before any search: the first `limit` approved or pending by part number, plus
+ * the ones asked for (a design's own motor, whatever its place in that order), those first.
+ */
+export async function motorsForOptions(db: Db, limit: number, includeIds: number[]): Promise<Part[]> {
+  const rows: DbPartRow[] = await db('parts')
+    .where({ category: 'motor' })
+    .whereIn('review_status', ['approved', 'pending'])
+    .orderBy([{ column: 'mpn' }, { column: 'id' }])
+    .limit(limit);
+  const extra = includeIds.filter((id) => !rows.some((r) => r.id === id));
+  const more: DbPartRow[] = extra.length ? await db('parts').where({ category: 'motor' }).whereIn('id', extra) : [];
+  return hydrateParts(db, [...more, ...rows]);
+}
+
 export async function partsByIds(db: Db, ids: number[]): Promise<Map<number, Part>> {
   if (ids.length === 0) return new Map();
   const rows: DbPartRow[] = await db('parts').whereIn('id', [...new Set(ids)]);

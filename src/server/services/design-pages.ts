@@ -1,7 +1,6 @@
 /** Data the design pages need besides the design itself. */
 import { db } from '../db.ts';
-import { hydrateParts } from '../repos/parts.ts';
-import type { DbPartRow } from '../repos/part-rows.ts';
+import { motorsForOptions } from '../repos/parts.ts';
 import type { DesignInput, MotorOption } from '../../lib/domain/design.ts';
 import { DEFAULT_DESIGN_MARGINS, LOGIC_PRESETS, SUPPLY_PRESETS, motorOptionOf } from '../../lib/domain/design.ts';
 import { supplyFromPreset } from '../../lib/supply-input.ts';
@@ -11,14 +10,7 @@ import type { MotorHandoff } from '../../lib/motor-handoff.ts';
 export const MOTOR_OPTIONS_SHOWN = 20;
 
 export async function motorOptions(includeIds: number[] = []): Promise<MotorOption[]> {
-  const rows: DbPartRow[] = await db()('parts')
-    .where({ category: 'motor' })
-    .whereIn('review_status', ['approved', 'pending'])
-    .orderBy([{ column: 'mpn' }, { column: 'id' }])
-    .limit(MOTOR_OPTIONS_SHOWN);
-  const extra = includeIds.filter((id) => !rows.some((r) => r.id === id));
-  const more: DbPartRow[] = extra.length ? await db()('parts').where({ category: 'motor' }).whereIn('id', extra) : [];
-  return (await hydrateParts(db(), [...more, ...rows])).map(motorOptionOf);
+  return (await motorsForOptions(db(), MOTOR_OPTIONS_SHOWN, includeIds)).map(motorOptionOf);
 }
 
 /** A new design's starting point: 3.3 V logic on a 1S Li-ion pack, on/off, the first catalogue motor. */
