@@ -17,6 +17,7 @@ import {
   diodeToRow,
   driverFromRow,
   driverToRow,
+  governingToRows,
   mosfetFromRows,
   mosfetToRow,
   motorFromRow,
@@ -63,6 +64,10 @@ export async function insertParams(db: Db, partId: number, part: NewPart): Promi
     case 'mosfet':
       await db('mosfet_params').insert(mosfetToRow(partId, part.params));
       await db('mosfet_rds_on_points').insert(rdsOnToRows(partId, part.params.rdsOn));
+      {
+        const governing = governingToRows(partId, part.params.rdsOn);
+        if (governing.length > 0) await db('mosfet_rds_on_governing').insert(governing);
+      }
       // Zth points are optional (knex refuses an empty insert).
       if (part.params.zthPoints.length > 0) await db('mosfet_zth_points').insert(zthToRows(partId, part.params.zthPoints));
       return;
