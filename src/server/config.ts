@@ -62,6 +62,16 @@ export const CONFIG_KEYS: readonly ConfigKey[] = [
   { key: 'CALC_RATE_LIMIT_PER_MIN', defaultText: '`600`', meaning: 'calculator requests per client address per minute (per app server)' },
   { key: 'MATCH_CONCURRENCY', defaultText: '`4`', meaning: 'design matches ranked at once per app server; more get 429 with Retry-After' },
   {
+    key: 'ORG_CURRENCY',
+    defaultText: '`EUR`',
+    meaning: "the organisation's currency (ISO 4217): shortlist totals are converted into it with the rates an admin keeps on `/rates`",
+  },
+  {
+    key: 'ATTRITION_PCT',
+    defaultText: '`2`',
+    meaning: 'spares added to every shortlist line for set-up loss and rework, in percent of per-board quantity × boards (0–50)',
+  },
+  {
     key: 'TRUST_PROXY',
     defaultText: 'unset',
     meaning: '`1` behind a reverse proxy you run: client addresses (for the sign-in limit) are then taken from `X-Forwarded-For`',
@@ -107,6 +117,14 @@ const envSchema = z.object({
   CALC_RATE_LIMIT_PER_MIN: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).default(600)),
   MATCH_CONCURRENCY: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).max(64).default(4)),
   TRUST_PROXY: z.preprocess(blankToUndefined, z.enum(['0', '1']).default('0')),
+  ORG_CURRENCY: z.preprocess(
+    blankToUndefined,
+    z
+      .string()
+      .regex(/^[A-Z]{3}$/, { error: 'ORG_CURRENCY is a three-letter ISO 4217 code such as EUR' })
+      .default('EUR'),
+  ),
+  ATTRITION_PCT: z.preprocess(blankToUndefined, z.coerce.number().min(0).max(50).default(2)),
 });
 
 export interface DbConfig {
@@ -132,6 +150,14 @@ export interface MailConfig {
   sinkLocal: boolean;
 }
 
+/** What the buyers' figures depend on. */
+export interface BuyingConfig {
+  /** ISO 4217 code of the organisation's currency. */
+  orgCurrency: string;
+  /** Spares per line, percent of per-board quantity × boards. */
+  attritionPct: number;
+}
+
 export interface AppConfig {
   nodeEnv: string | null;
   host: string;
@@ -148,6 +174,7 @@ export interface AppConfig {
   trustProxy: boolean;
   /** SIGTERM: how long requests in flight may still run. */
   shutdownGraceS: number;
+  buying: BuyingConfig;
 }
 
 /** Raised when a variable does not parse; names every bad key. */
@@ -194,6 +221,7 @@ export function readConfig(env: NodeJS.ProcessEnv): AppConfig {
     matchConcurrency: e.MATCH_CONCURRENCY,
     trustProxy: e.TRUST_PROXY === '1',
     shutdownGraceS: e.SHUTDOWN_GRACE_S,
+    buying: { orgCurrency: e.ORG_CURRENCY, attritionPct: e.ATTRITION_PCT },
   };
 }
 

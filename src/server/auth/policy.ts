@@ -30,6 +30,7 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
   '/account/no-access': 'signed-in',
   '/people': ADMIN,
   '/mail': ADMIN,
+  '/rates': ADMIN,
 
   // API
   '/api/health': { GET: 'public' },
@@ -50,6 +51,8 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
   '/api/people/[id]/deactivate': { POST: ADMIN },
   '/api/people/[id]/reactivate': { POST: ADMIN },
   '/api/people/[id]/invite': { POST: ADMIN },
+  // Exchange rates: everyone signed in reads them (the shortlist shows them); admins keep them.
+  '/api/rates': { GET: 'signed-in', PUT: ADMIN },
 
   // Designs: designers own them (the owner check lives in the design service); everyone signed in reads.
   '/designs': 'signed-in',

@@ -88,6 +88,7 @@ async function insertChunkDetails(db: Db, chunk: readonly NewPart[], ids: number
         distributor: s.distributor,
         sku: s.sku,
         moq: s.moq,
+        order_multiple: s.orderMultiple,
         lead_time_days: s.leadTimeDays,
         stock_qty: s.stockQty,
         currency: s.currency,

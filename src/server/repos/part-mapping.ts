@@ -206,6 +206,7 @@ export function sourceFromRows(row: DbSourceRow, breaks: DbPriceBreakRow[]): Par
     distributor: row.distributor,
     sku: row.sku,
     moq: row.moq,
+    orderMultiple: row.order_multiple,
     leadTimeDays: row.lead_time_days,
     stockQty: row.stock_qty,
     currency: row.currency,

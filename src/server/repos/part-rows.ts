@@ -118,6 +118,7 @@ export interface DbSourceRow {
   distributor: string;
   sku: string;
   moq: number;
+  order_multiple: number;
   lead_time_days: number;
   stock_qty: number;
   currency: string;

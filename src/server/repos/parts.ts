@@ -49,6 +49,7 @@ export async function insertSources(db: Db, partId: number, sources: PartSource[
       distributor: s.distributor,
       sku: s.sku,
       moq: s.moq,
+      order_multiple: s.orderMultiple,
       lead_time_days: s.leadTimeDays,
       stock_qty: s.stockQty,
       currency: s.currency,
