@@ -126,6 +126,8 @@ const MATRIX: Record<string, string> = {
   'POST /api/designs/[id]/status': 'saffa',
   'GET /api/designs/[id]/report.pdf': 'saaaa',
   'GET /api/designs/[id]/bom.csv': 'saaaa',
+  // The shortlist's figures: the same people as the shortlist page
+  'GET /api/shortlist': 'safaa',
   // Change alerts: anyone signed in may acknowledge one (who and when are recorded)
   'POST /api/alerts/[id]/acknowledge': 'saaaa',
   // Catalogue: everyone signed in reads; designers propose; librarians curate; buyers keep supply data

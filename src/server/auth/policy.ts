@@ -66,6 +66,7 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
   '/api/designs/[id]/status': { POST: ['designer'] },
   '/api/designs/[id]/report.pdf': { GET: 'signed-in' },
   '/api/designs/[id]/bom.csv': { GET: 'signed-in' },
+  '/api/shortlist': { GET: ['buyer', 'designer'] },
   '/api/alerts/[id]/acknowledge': { POST: 'signed-in' },
 
   // Catalogue: everyone signed in reads; designers propose parts (the service makes them pending and lets a
