@@ -123,6 +123,7 @@ const MATRIX: Record<string, string> = {
   'GET /api/designs/[id]': 'saaaa',
   'PUT /api/designs/[id]': 'saffa',
   'POST /api/designs/[id]/match': 'saaaa',
+  'GET /api/designs/[id]/compare': 'saaaa',
   'POST /api/designs/[id]/status': 'saffa',
   'GET /api/designs/[id]/report.pdf': 'saaaa',
   'GET /api/designs/[id]/bom.csv': 'saaaa',

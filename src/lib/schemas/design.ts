@@ -148,3 +148,23 @@ export const matchRequestSchema = z.object({
   offset: z.number({ error: 'offset must be a whole number' }).int().min(0).max(INT_UNSIGNED_MAX).default(0),
 });
 export type MatchRequest = z.output<typeof matchRequestSchema>;
+
+/** The query of GET /api/designs/:id/compare: one role, 1–4 part ids ("3,7,12"), pending parts on request. */
+export const compareQuerySchema = z.object({
+  role: z.enum(['switch', 'driver', 'diode'], { error: 'role must be switch, driver or diode' }),
+  ids: z
+    .string({ error: 'ids must list 1 to 4 part ids, e.g. ids=3,7' })
+    .transform((raw) => raw.split(',').map((x) => x.trim()))
+    .pipe(
+      z
+        .array(z.string().regex(/^[1-9]\d{0,9}$/, 'each id must be a whole number from 1'))
+        .min(1, 'ids must list 1 to 4 part ids')
+        .max(4, 'ids must list at most 4 part ids'),
+    )
+    .transform((list) => [...new Set(list.map(Number))]),
+  includePending: z
+    .enum(['true', 'false'], { error: 'includePending must be true or false' })
+    .default('false')
+    .transform((v) => v === 'true'),
+});
+export type CompareQuery = z.output<typeof compareQuerySchema>;

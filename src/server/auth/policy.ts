@@ -63,6 +63,7 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
   '/api/designs/match': { POST: 'signed-in' },
   '/api/designs/[id]': { GET: 'signed-in', PUT: ['designer'] },
   '/api/designs/[id]/match': { POST: 'signed-in' },
+  '/api/designs/[id]/compare': { GET: 'signed-in' },
   '/api/designs/[id]/status': { POST: ['designer'] },
   '/api/designs/[id]/report.pdf': { GET: 'signed-in' },
   '/api/designs/[id]/bom.csv': { GET: 'signed-in' },

@@ -245,6 +245,15 @@ export async function partsByIds(db: Db, ids: number[]): Promise<Map<number, Par
   return new Map(parts.map((p) => [p.id as number, p]));
 }
 
+/** Who entered each existing part and its review status (the visibility rule reads these). */
+export async function partAuthorsByIds(db: Db, ids: number[]): Promise<Map<number, { reviewStatus: string; createdBy: number | null }>> {
+  if (ids.length === 0) return new Map();
+  const rows: { id: number; review_status: string; created_by: number | null }[] = await db('parts')
+    .select('id', 'review_status', 'created_by')
+    .whereIn('id', [...new Set(ids)]);
+  return new Map(rows.map((r) => [r.id, { reviewStatus: r.review_status, createdBy: r.created_by }]));
+}
+
 /** The category of each id that exists. */
 export async function partCategoriesByIds(db: Db, ids: number[]): Promise<Map<number, string>> {
   if (ids.length === 0) return new Map();

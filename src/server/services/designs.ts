@@ -5,7 +5,7 @@ import type { Design, DesignInput, DesignSummary } from '../../lib/domain/design
 import type { MatchRequest } from '../../lib/schemas/design.ts';
 import type { MotorParams, Part } from '../../lib/domain/parts.ts';
 import type { SessionUser } from '../auth/types.ts';
-import { matchDesign, prepareCase, type DesignMatch } from '../../lib/design-match.ts';
+import { matchDesign, prepareCase, type DesignMatch, type MatchCatalogue, type PreparedCase } from '../../lib/design-match.ts';
 import {
   findDesignRow,
   insertDesignRow,
@@ -131,6 +131,16 @@ export async function matchInput(
   resolved?: ResolvedMotor,
   k: Knex | Knex.Transaction = db(),
 ): Promise<DesignMatch> {
+  return (await matchWithCatalogue(input, includePending, resolved, k)).match;
+}
+
+/** The match with the catalogue it ranked and its prepared case (the comparison judges further parts at them). */
+export async function matchWithCatalogue(
+  input: DesignInput,
+  includePending: boolean,
+  resolved?: ResolvedMotor,
+  k: Knex | Knex.Transaction = db(),
+): Promise<{ match: DesignMatch; catalogue: MatchCatalogue; prepared: PreparedCase }> {
   const motor = resolved ?? (await resolveMotor(input, k));
   const prepared = prepareCase(input, motor.params);
   const sel = input.selections.switch;
@@ -141,10 +151,10 @@ export async function matchInput(
   if (input.selections.driver.chosenPartId == null) {
     const direct = await loadCandidates(k, prepared, includePending, 'direct', switchPicks);
     const match = matchDesign(input, motor.label, motor.params, direct, prepared);
-    if (!match.driverNeeded && match.switch.some((e) => e.verdict === 'pass')) return match;
+    if (!match.driverNeeded && match.switch.some((e) => e.verdict === 'pass')) return { match, catalogue: direct, prepared };
   }
   const catalogue = await loadCandidates(k, prepared, includePending, 'driver', switchPicks);
-  return matchDesign(input, motor.label, motor.params, catalogue, prepared);
+  return { match: matchDesign(input, motor.label, motor.params, catalogue, prepared), catalogue, prepared };
 }
 
 export async function designExists(id: number): Promise<boolean> {
