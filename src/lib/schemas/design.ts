@@ -154,6 +154,7 @@ export const compareQuerySchema = z.object({
   role: z.enum(['switch', 'driver', 'diode'], { error: 'role must be switch, driver or diode' }),
   ids: z
     .string({ error: 'ids must list 1 to 4 part ids, e.g. ids=3,7' })
+    .min(1, 'ids must list 1 to 4 part ids, e.g. ids=3,7')
     .transform((raw) => raw.split(',').map((x) => x.trim()))
     .pipe(
       z
