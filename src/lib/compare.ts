@@ -86,10 +86,15 @@ export function limitSense(c: Pick<Check, 'value' | 'limit' | 'margin' | 'ok'>):
 export function checkQuantity(value: number | null, unit: string, id = ''): string {
   if (value == null || !Number.isFinite(value)) return '—';
   if (id === 'duty-error' && unit === '') return percent(value, Math.abs(value) < 0.01 ? 2 : 1);
-  if (unit === 'ns') return formatSi(value * 1e-9, 's');
-  if (unit === 'nC') return formatSi(value * 1e-9, 'C');
-  if (['V', 'A', 's', 'Ω', 'W', 'Hz', 'H', 'F', 'C'].includes(unit)) return formatSi(value, unit);
+  if (unit === 'ns') return trimZeros(formatSi(value * 1e-9, 's'));
+  if (unit === 'nC') return trimZeros(formatSi(value * 1e-9, 'C'));
+  if (['V', 'A', 's', 'Ω', 'W', 'Hz', 'H', 'F', 'C'].includes(unit)) return trimZeros(formatSi(value, unit));
   return quantity(value, unit);
+}
+
+/** "85.0 mΩ" → "85 mΩ", "1.50 A" → "1.5 A" (significant digits kept, trailing zeros dropped). */
+function trimZeros(text: string): string {
+  return text.replace(/(\.\d*?)0+(?= )/, '$1').replace(/\.(?= )/, '');
 }
 
 export function compareCheck(c: Check): CompareCheck {
@@ -194,41 +199,55 @@ export function compareRows(parts: readonly Pick<ComparePart, 'checks'>[]): { id
   return [...seen.entries()].map(([id, label]) => ({ id, label }));
 }
 
+const hardFail = (c: Check) => !c.ok && c.severity !== 'margin';
+
 export interface NearMiss {
   partId: number | null;
   mpn: string;
-  /** Hard-failing checks, each as "label value, needs ≤ limit" (or the check's sentence without numbers). */
+  verdict: Verdict;
+  /** The checks that do not hold, each as "label value, needs ≤ limit" (or the check's sentence without numbers). */
   misses: { id: string; label: string; text: string; shortfall: number | null }[];
   /** The largest relative distance to a limit among the misses (|value − limit| / |limit|). */
   worstShortfall: number;
 }
 
-const hardFail = (c: Check) => !c.ok && c.severity !== 'margin';
-
 /**
- * The closest failing candidates when nothing passes: fewest limits broken first, then the smallest
- * worst relative distance to a limit, then part number. Empty when something passes (or marginal-only).
+ * The closest candidates when nothing passes: marginal parts before failing ones, then the smallest worst
+ * relative distance to a limit (a miss without numbers counts as far), then fewest checks missed, then
+ * part number. A failing part lists
+ * the limits it breaks; a marginal one the margins it eats into. Empty when something passes.
  */
-export function nearMisses(list: readonly Pick<CandidateResult, 'partId' | 'mpn' | 'verdict' | 'checks'>[], count = 3): NearMiss[] {
-  if (list.some((e) => e.verdict !== 'fail')) return [];
+export function nearMisses(
+  list: readonly { partId: number | null; mpn: string; verdict: Verdict; checks: readonly Check[] }[],
+  count = 3,
+): NearMiss[] {
+  if (list.length === 0 || list.some((e) => e.verdict === 'pass')) return [];
   const misses = list.map((e): NearMiss => {
-    const failing = e.checks.filter(hardFail).map((c) => {
+    const missed = e.checks.filter((c) => (e.verdict === 'fail' ? hardFail(c) : !c.ok));
+    const failing = missed.map((c) => {
       const cc = compareCheck(c);
       const shortfall = c.value != null && c.limit != null && c.limit !== 0 ? Math.abs(c.value - c.limit) / Math.abs(c.limit) : null;
       const needs = needsText(cc);
       const text = needs && c.value != null ? `${cc.label} ${checkQuantity(c.value, c.unit, c.id)}, ${needs}` : `${cc.label}: ${c.note}`;
       return { id: c.id, label: cc.label, text, shortfall };
     });
-    // A miss without numbers (wrong channel, wrong polarity) counts as far away.
+    // A miss without numbers (wrong channel, no RDS(on) at this drive) counts as far away.
     const worst = failing.reduce((m, f) => Math.max(m, f.shortfall ?? Infinity), 0);
-    return { partId: e.partId, mpn: e.mpn, misses: failing, worstShortfall: worst };
+    return { partId: e.partId, mpn: e.mpn, verdict: e.verdict, misses: failing, worstShortfall: worst };
   });
+  const rank = (v: Verdict) => (v === 'marginal' ? 0 : 1);
   return misses
-    .sort((a, b) => a.misses.length - b.misses.length || a.worstShortfall - b.worstShortfall || a.mpn.localeCompare(b.mpn))
+    .sort(
+      (a, b) =>
+        rank(a.verdict) - rank(b.verdict) ||
+        a.worstShortfall - b.worstShortfall ||
+        a.misses.length - b.misses.length ||
+        a.mpn.localeCompare(b.mpn),
+    )
     .slice(0, count);
 }
 
-/** One line: "closest: X at 85 mΩ, needs ≤ 60 mΩ" style, for a hint. */
+/** One line for a hint: "closest: X — Junction temperature, running 162 °C, needs ≤ 125 °C". */
 export function nearMissLine(m: NearMiss): string {
   return `closest: ${m.mpn} — ${m.misses.map((x) => x.text).join('; ')}`;
 }

@@ -5,8 +5,9 @@
  * and its readiness view judge them exactly as the server does. Pure: the service ranks, this cuts.
  */
 import type { DesignInput } from './domain/design.ts';
-import type { Check } from './checks.ts';
+import type { Check, Verdict } from './checks.ts';
 import { checkLabel } from './design-words.ts';
+import { nearMisses, type NearMiss } from './compare.ts';
 import { suggestSelections, type DesignMatch } from './design-match.ts';
 import { DEFAULT_MATCH_LIMIT, MAX_MATCH_LIMIT } from './schemas/design.ts';
 
@@ -26,6 +27,8 @@ export interface MatchListSummary {
   failing: { checkId: string; label: string; count: number }[];
   /** One line: "1,204 pass · 8 marginal · 25,412 fail — 25,001 fail gate drive, …". */
   summary: string;
+  /** When nothing in the full ranking passes: the closest candidates and what they miss (else empty). */
+  nearMisses: NearMiss[];
 }
 
 /** Position of the entry in the full ranking (1 = best); the page and the pinned picks carry it. */
@@ -48,7 +51,7 @@ const hardFail = (c: Check) => !c.ok && c.severity !== 'margin';
 const thousands = (n: number) => n.toLocaleString('en-US');
 
 export function summarizeList(
-  list: readonly { verdict: string; checks: readonly Check[] }[],
+  list: readonly { partId: number | null; mpn: string; verdict: Verdict; checks: readonly Check[] }[],
   offset: number,
   limit: number,
 ): MatchListSummary {
@@ -67,7 +70,7 @@ export function summarizeList(
     .slice(0, 4)
     .map((f) => `${thousands(f.count)} fail ${f.label.toLowerCase()}`)
     .join(', ');
-  return { total: list.length, offset, limit, counts, failing, summary: why ? `${head} — ${why}` : head };
+  return { total: list.length, offset, limit, counts, failing, summary: why ? `${head} — ${why}` : head, nearMisses: nearMisses(list) };
 }
 
 function cut<T extends { partId?: number | null }>(
