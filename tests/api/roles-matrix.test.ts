@@ -78,6 +78,7 @@ const MATRIX: Record<string, string> = {
   'GET /calculators': 'aaaaa',
   'GET /designs': 'saaaa',
   'GET /designs/[id]': 'saaaa',
+  'GET /designs/[id]/compare': 'saaaa',
   'GET /designs/new': 'saffa',
   'GET /invite': 'aaaaa',
   'GET /mail': 'sfffa',

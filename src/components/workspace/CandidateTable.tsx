@@ -8,6 +8,7 @@ import { checkLabel } from '../../lib/design-words.ts';
 import Verdict, { CheckMark } from './Verdict.tsx';
 import { DEFAULT_MATCH_LIMIT } from '../../lib/schemas/design.ts';
 import type { MatchListSummary, Ranked } from '../../lib/match-page.ts';
+import { nearMissLine, type NearMiss } from '../../lib/compare.ts';
 
 export interface ExtraColumn<T> {
   header: string;
@@ -26,7 +27,13 @@ interface Props<T extends MatchEntry> {
   selection: RoleSelection;
   onSelect: (selection: RoleSelection) => void;
   readOnly: boolean;
+  /** Where the comparison of the ticked rows opens (a saved design only); without it no Compare column. */
+  compareHref?: (partIds: number[]) => string;
+  /** Shown beside the Compare button (e.g. that the saved revision is compared). */
+  compareNote?: string;
 }
+
+const MAX_COMPARE = 4;
 
 const fmt = (v: number | null, unit: string): string => (v == null ? '—' : `${Number(v.toPrecision(3))} ${unit}`.trim());
 const margin = (m: number | null): string => (m == null ? '' : `${(m * 100).toFixed(0)} %`);
@@ -79,6 +86,23 @@ function Reasons({ checks }: { checks: CandidateResult['checks'] }) {
   );
 }
 
+/** When nothing in the full ranking passes: the closest candidates and what they miss. */
+export function NearMissNote({ nearMisses, role }: { nearMisses: NearMiss[]; role: string }) {
+  if (nearMisses.length === 0) return null;
+  return (
+    <div className="text-sm px-2 py-1 mb-1 rounded border border-warn bg-warn-wash" role="note" data-testid={`near-miss-${role}`}>
+      <strong>! Nothing passes.</strong> The closest candidates and what they miss:
+      <ul className="list-disc ml-5">
+        {nearMisses.map((m) => (
+          <li key={`${m.partId}-${m.mpn}`} data-mpn={m.mpn}>
+            {nearMissLine(m)}
+          </li>
+        ))}
+      </ul>
+    </div>
+  );
+}
+
 /** Ranked candidates for one line of the design, with expandable reasons and pick controls. */
 export default function CandidateTable<T extends MatchEntry>({
   role,
@@ -90,8 +114,13 @@ export default function CandidateTable<T extends MatchEntry>({
   selection,
   onSelect,
   readOnly,
+  compareHref,
+  compareNote,
 }: Props<T>) {
   const [open, setOpen] = useState<Set<string>>(new Set());
+  const [compareIds, setCompareIds] = useState<number[]>([]);
+  const toggleCompare = (id: number) =>
+    setCompareIds((ids) => (ids.includes(id) ? ids.filter((x) => x !== id) : ids.length < MAX_COMPARE ? [...ids, id] : ids));
   const rows = entries;
   const shown = entries.filter((e) => !e.pinned).length;
   const remaining = summary.total - summary.offset - shown;
@@ -114,6 +143,19 @@ export default function CandidateTable<T extends MatchEntry>({
       <p className="text-xs text-ink-soft px-1 pb-1" data-testid={`list-summary-${role}`}>
         Showing {shown.toLocaleString('en-US')} of {summary.total.toLocaleString('en-US')}: {summary.summary}
       </p>
+      <NearMissNote nearMisses={summary.nearMisses ?? []} role={role} />
+      {compareHref ? (
+        <p className="text-xs px-1 pb-1 flex flex-wrap items-center gap-2">
+          {compareIds.length > 0 ? (
+            <a className="btn btn-quiet no-underline text-xs" href={compareHref(compareIds)} data-testid={`compare-${role}`}>
+              <span aria-hidden="true">⇆ </span>Compare {compareIds.length} side by side
+            </a>
+          ) : (
+            <span className="text-ink-soft">Tick up to {MAX_COMPARE} rows under “Compare” to see every check side by side.</span>
+          )}
+          {compareIds.length > 0 && compareNote ? <span className="text-ink-soft">{compareNote}</span> : null}
+        </p>
+      ) : null}
       <table className="data-table w-full text-sm" data-testid={`candidates-${role}`}>
         <caption className="sr-only">{caption}</caption>
         <thead>
@@ -132,6 +174,7 @@ export default function CandidateTable<T extends MatchEntry>({
             <th>Lifecycle</th>
             {!readOnly && <th>Use</th>}
             {!readOnly && <th>Alt.</th>}
+            {compareHref ? <th>Compare</th> : null}
             <th></th>
           </tr>
         </thead>
@@ -195,6 +238,18 @@ export default function CandidateTable<T extends MatchEntry>({
                       />
                     </td>
                   )}
+                  {compareHref ? (
+                    <td>
+                      <input
+                        type="checkbox"
+                        aria-label={`Compare ${e.mpn}`}
+                        checked={compareIds.includes(id)}
+                        disabled={e.partId == null || (!compareIds.includes(id) && compareIds.length >= MAX_COMPARE)}
+                        title={compareIds.length >= MAX_COMPARE && !compareIds.includes(id) ? `At most ${MAX_COMPARE} at once` : undefined}
+                        onChange={() => toggleCompare(id)}
+                      />
+                    </td>
+                  ) : null}
                   <td>
                     <button type="button" className="btn-quiet text-xs px-1.5 rounded" aria-expanded={isOpen} onClick={() => toggle(key)}>
                       {isOpen ? 'Hide reasons' : 'Reasons'}

@@ -17,6 +17,8 @@ interface Props {
   onSelect: (role: PartRole) => (sel: RoleSelection) => void;
   readOnly: boolean;
   Step: StepComponent;
+  /** The saved design the Compare buttons open against (none before the first save). */
+  compare?: { designId: number; includePending: boolean; unsaved: boolean };
 }
 
 type SwitchEntry = DesignMatch['switch'][number];
@@ -76,7 +78,15 @@ function Excluded({ count, what }: { count: number; what: string }) {
 }
 
 /** Steps 4–6: switch, gate drive, freewheel diode. */
-export default function CandidatesSection({ match, input, onSelect, readOnly, Step, onShowMore }: Props) {
+export default function CandidatesSection({ match, input, onSelect, readOnly, Step, onShowMore, compare }: Props) {
+  const compareProps = (role: 'switch' | 'driver' | 'diode') =>
+    compare
+      ? {
+          compareHref: (ids: number[]) =>
+            `/designs/${compare.designId}/compare?role=${role}&ids=${ids.join(',')}${compare.includePending ? '&includePending=true' : ''}`,
+          compareNote: compare.unsaved ? 'Compares the saved revision; save to include your changes.' : undefined,
+        }
+      : {};
   const switchKey = match.driverNeeded ? 'switchWithDriver' : 'switch';
   const switches = match[switchKey];
   const pairedSwitch = match.driver[0]?.pairing;
@@ -102,6 +112,7 @@ export default function CandidatesSection({ match, input, onSelect, readOnly, St
             selection={input.selections.switch}
             onSelect={onSelect('switch')}
             readOnly={readOnly}
+            {...compareProps('switch')}
           />
           <Excluded count={match.excluded.switch} what="MOSFETs" />
         </div>
@@ -128,6 +139,7 @@ export default function CandidatesSection({ match, input, onSelect, readOnly, St
               selection={input.selections.driver}
               onSelect={onSelect('driver')}
               readOnly={readOnly}
+              {...compareProps('driver')}
             />
             <Excluded count={match.excluded.driver} what="drivers" />
           </div>
@@ -153,6 +165,7 @@ export default function CandidatesSection({ match, input, onSelect, readOnly, St
             selection={input.selections.diode}
             onSelect={onSelect('diode')}
             readOnly={readOnly}
+            {...compareProps('diode')}
           />
           <Excluded count={match.excluded.diode} what="diodes" />
         </div>

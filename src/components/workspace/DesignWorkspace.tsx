@@ -199,6 +199,7 @@ export default function DesignWorkspace({ design, initialInput, motors, canEdit 
             readOnly={readOnly}
             Step={Step}
             onShowMore={() => setMatchLimit((l) => l + DEFAULT_MATCH_LIMIT)}
+            compare={meta ? { designId: meta.id, includePending, unsaved: dirty } : undefined}
           />
           <Step n={7} title="Power-on and reset state" testId="step-power-on">
             <PowerOnPanel powerOn={match.powerOn} resetStartIntent={input.resetStartIntent} />

@@ -58,6 +58,7 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
   '/designs': 'signed-in',
   '/designs/new': ['designer'],
   '/designs/[id]': 'signed-in',
+  '/designs/[id]/compare': 'signed-in',
   '/shortlist': ['buyer', 'designer'],
   '/api/designs': { GET: 'signed-in', POST: ['designer'] },
   '/api/designs/match': { POST: 'signed-in' },
