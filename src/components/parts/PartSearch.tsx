@@ -9,6 +9,8 @@ import { CATEGORY_LABELS } from '../../lib/part-summary.ts';
 import { CATEGORY_FIELDS, STATUS_FIELDS, toApi, toDisplay, type FilterField } from './search-fields.ts';
 import { columnsFor, type SearchColumn } from './search-columns.tsx';
 import { StatusBadges } from './StatusBadges.tsx';
+import type { SearchNearMiss } from '../../lib/search-near-miss.ts';
+import CompareBar from './CompareBar.tsx';
 
 interface Props {
   packages: Record<string, string[]>;
@@ -22,7 +24,12 @@ interface PageData {
   total: number;
   page: number;
   pageSize: number;
+  /** When nothing meets every bound: the closest parts and what they miss. */
+  nearMisses?: SearchNearMiss[];
 }
+
+const COMPARE_ROLE: Partial<Record<PartCategory, 'switch' | 'driver' | 'diode'>> = { mosfet: 'switch', driver: 'driver', diode: 'diode' };
+const MAX_COMPARE = 4;
 
 type Load =
   | { state: 'loading' }
@@ -57,6 +64,11 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
   const [visibilityLoaded, setVisibilityLoaded] = useState(false);
   const queryString = params.toString();
   const seq = useRef(0);
+  const [compareIds, setCompareIds] = useState<number[]>([]);
+  const compareRole = category ? COMPARE_ROLE[category] : undefined;
+  useEffect(() => setCompareIds([]), [category]);
+  const toggleCompare = (id: number) =>
+    setCompareIds((ids) => (ids.includes(id) ? ids.filter((x) => x !== id) : ids.length < MAX_COMPARE ? [...ids, id] : ids));
 
   /** Applies changes to the latest filter (several fields may fire close together). */
   function update(changes: Record<string, string>, resetPage = true): void {
@@ -325,9 +337,24 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
               <span aria-hidden="true">∅ </span>No part meets every bound.
             </p>
             <p>Loosen a bound, clear the text, or pick another category. A part you expect may still be waiting in review.</p>
+            {data.nearMisses && data.nearMisses.length > 0 && (
+              <div className="mt-2 text-ink" role="note" data-testid="search-near-miss">
+                <p className="font-semibold">
+                  <span aria-hidden="true">! </span>Closest parts and what they miss:
+                </p>
+                <ul className="list-disc ml-5">
+                  {data.nearMisses.map((m) => (
+                    <li key={m.partId} data-mpn={m.mpn}>
+                      closest: <a href={`/parts/${m.partId}`}>{m.mpn}</a> ({m.manufacturer}) — {m.misses.join('; ')}
+                    </li>
+                  ))}
+                </ul>
+              </div>
+            )}
           </div>
         )}
 
+        {data && data.total > 0 && compareRole && <CompareBar role={compareRole} ids={compareIds} max={MAX_COMPARE} />}
         {data && data.total > 0 && (
           <div className="card overflow-x-auto" aria-busy={loading}>
             <div className="table-scroll">
@@ -366,6 +393,7 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
                           </th>
                         );
                       })}
+                      {compareRole && <th>Compare</th>}
                     </tr>
                   ))}
                 </thead>
@@ -380,6 +408,17 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
                           </td>
                         );
                       })}
+                      {compareRole && (
+                        <td>
+                          <input
+                            type="checkbox"
+                            aria-label={`Compare ${row.original.mpn}`}
+                            checked={compareIds.includes(row.original.id ?? -1)}
+                            disabled={!compareIds.includes(row.original.id ?? -1) && compareIds.length >= MAX_COMPARE}
+                            onChange={() => row.original.id != null && toggleCompare(row.original.id)}
+                          />
+                        </td>
+                      )}
                     </tr>
                   ))}
                 </tbody>

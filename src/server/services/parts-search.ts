@@ -17,6 +17,10 @@ import {
   type SearchTextRow,
 } from '../repos/part-search.ts';
 import { loadPartsByIds } from '../repos/part-writes.ts';
+import { SEARCH_BOUND_KEYS, searchNearMisses, type SearchNearMiss } from '../../lib/search-near-miss.ts';
+
+/** How many parts of the category, bounds left off, the near-miss hint weighs. */
+const NEAR_MISS_POOL = 500;
 
 /** fuse.js score limit (0 exact … 1 anything): one or two wrong characters in a part number still match. */
 const FUZZY_THRESHOLD = 0.3;
@@ -53,13 +57,28 @@ export async function matchingIds(query: ScopedPartQuery, limit?: number): Promi
 }
 
 /** The list as the viewer may see it: pass the query with listingScope(user) (services/parts-access.ts). */
-export async function searchParts(query: ScopedPartQuery): Promise<PartListPage<Part>> {
+export async function searchParts(query: ScopedPartQuery): Promise<PartListPage<Part> & { nearMisses?: SearchNearMiss[] }> {
   const offset = (query.page - 1) * query.pageSize;
+  let page: PartListPage<Part>;
   if (!query.q) {
     const { ids, total } = await filteredPageAndCount(db(), query, offset, query.pageSize);
-    return { items: await loadPartsByIds(db(), ids), total, page: query.page, pageSize: query.pageSize };
+    page = { items: await loadPartsByIds(db(), ids), total, page: query.page, pageSize: query.pageSize };
+  } else {
+    const ids = await matchingIds(query);
+    const pageIds = ids.slice(offset, offset + query.pageSize);
+    page = { items: await loadPartsByIds(db(), pageIds), total: ids.length, page: query.page, pageSize: query.pageSize };
   }
-  const ids = await matchingIds(query);
-  const pageIds = ids.slice(offset, offset + query.pageSize);
-  return { items: await loadPartsByIds(db(), pageIds), total: ids.length, page: query.page, pageSize: query.pageSize };
+  if (page.total > 0 || !SEARCH_BOUND_KEYS.some((k) => query[k] !== undefined)) return page;
+  return { ...page, nearMisses: await nearMissesOf(query) };
+}
+
+/**
+ * Nothing meets every bound: the closest parts the person may see, with the same text, category and
+ * other filters but the numeric bounds left off, and what each misses.
+ */
+async function nearMissesOf(query: ScopedPartQuery): Promise<SearchNearMiss[]> {
+  const relaxed: ScopedPartQuery = { ...query, rdsOnAtVgsV: undefined, sort: undefined };
+  for (const k of SEARCH_BOUND_KEYS) relaxed[k] = undefined;
+  const ids = await matchingIds(relaxed, NEAR_MISS_POOL);
+  return searchNearMisses(await loadPartsByIds(db(), ids), query);
 }
