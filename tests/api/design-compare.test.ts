@@ -181,3 +181,26 @@ describe('bad input', () => {
     expect((await compare(`role=switch&ids=${pending}`, buyer)).status).toBe(404);
   });
 });
+
+describe('near misses of a parametric search with nothing found', () => {
+  it('Schottky diodes with VRRM ≥ 150 V: none; the closest is the highest-rated approved Schottky', async () => {
+    // From the seed data file: the approved Schottky parts' VRRM values; none reaches 150 V.
+    const schottky = demoDiodes.filter((d) => d.params.kind === 'schottky' && d.reviewStatus === 'approved');
+    const best = Math.max(...schottky.map((d) => d.params.vrrmV));
+    expect(best).toBeLessThan(150);
+    const res = await api().get('/api/parts?category=diode&kind=schottky&vrrmMinV=150').set('Cookie', designer);
+    expect(res.status).toBe(200);
+    expect(res.body.total).toBe(0);
+    const near = res.body.nearMisses as { mpn: string; misses: string[] }[];
+    expect(near.length).toBeGreaterThan(0);
+    expect(near[0].misses).toEqual([`VRRM ${best} V, needs ≥ 150 V`]);
+    // The other filters still hold: every near miss is a Schottky.
+    for (const m of near) expect(schottky.map((d) => d.mpn)).toContain(m.mpn);
+  });
+
+  it('a search that finds parts carries no hint', async () => {
+    const res = await api().get('/api/parts?category=diode&vrrmMinV=20').set('Cookie', designer);
+    expect(res.body.total).toBeGreaterThan(0);
+    expect(res.body.nearMisses).toBeUndefined();
+  });
+});
