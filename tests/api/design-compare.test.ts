@@ -204,3 +204,36 @@ describe('near misses of a parametric search with nothing found', () => {
     expect(res.body.nearMisses).toBeUndefined();
   });
 });
+
+describe('near misses of a workspace list with nothing passing', () => {
+  it('the AG-3 at 150 °C ambient: no diode passes; the hint lists the closest by relative miss (recomputed here)', async () => {
+    // 150 °C ambient leaves no junction headroom under the demo parts' Tj max (150–175 °C) less the 25 K margin.
+    const hot = { ...input, ambientMaxC: 150, ambientMinC: Math.min(input.ambientMinC, 150) };
+    const res = await api().post(`/api/designs/${designId}/match`).set('Cookie', designer).send({ input: hot, limit: 500 });
+    expect(res.status, res.text).toBe(200);
+    const page = res.body as DesignMatchPage;
+    const list = page.diode;
+    expect(page.lists.diode.counts.pass).toBe(0);
+    expect(list.length).toBeGreaterThan(0);
+    // Second method: the rule written out here — marginal first, then the largest |value − limit| / |limit|
+    // among the checks that do not hold (Infinity without numbers), then fewer misses, then part number.
+    const worst = (e: (typeof list)[number]) =>
+      e.checks
+        .filter((c) => (e.verdict === 'fail' ? !c.ok && c.severity !== 'margin' : !c.ok))
+        .reduce((m, c) => Math.max(m, c.value != null && c.limit ? Math.abs(c.value - c.limit) / Math.abs(c.limit) : Infinity), 0);
+    const misses = (e: (typeof list)[number]) =>
+      e.checks.filter((c) => (e.verdict === 'fail' ? !c.ok && c.severity !== 'margin' : !c.ok)).length;
+    const expected = [...list]
+      .sort(
+        (a, b) =>
+          (a.verdict === 'marginal' ? 0 : 1) - (b.verdict === 'marginal' ? 0 : 1) ||
+          worst(a) - worst(b) ||
+          misses(a) - misses(b) ||
+          a.mpn.localeCompare(b.mpn),
+      )
+      .slice(0, 3)
+      .map((e) => e.mpn);
+    expect(page.lists.diode.nearMisses.map((m) => m.mpn)).toEqual(expected);
+    for (const m of page.lists.diode.nearMisses) expect(m.misses.every((x) => /needs [≤≥]|: /.test(x.text))).toBe(true);
+  });
+});
