@@ -99,4 +99,24 @@ describe('compare from the workspace', () => {
     expect(errors).toEqual([]);
     await context.close();
   });
+
+  it('a list with nothing passing shows the closest candidates and what they miss', async () => {
+    const design = await knex('designs').where({ name: AG3 }).first('id');
+    const context = await browser.newContext({ viewport: { width: 1366, height: 900 } });
+    await signInContext(context, 'designer');
+    const page = await context.newPage();
+    await page.goto(`${appUrl()}/designs/${design.id}`);
+    await page.getByTestId('candidates-diode').locator('tr[data-mpn]').first().waitFor();
+    await expect(page.getByTestId('near-miss-diode').count()).resolves.toBe(0);
+    // 150 °C ambient: no diode keeps its junction under Tj max less the margin (the API test shows the same list).
+    await page.getByLabel('Ambient max').fill('150');
+    const note = page.getByTestId('near-miss-diode');
+    await note.waitFor();
+    await expect(note.textContent()).resolves.toContain('Nothing passes');
+    const first = (await note.locator('li').first().textContent()) ?? '';
+    expect(first).toMatch(/^closest: \S+ — .+(needs [≤≥] |: )/);
+    await note.scrollIntoViewIfNeeded();
+    await page.screenshot({ path: screenshotPath('workspace-near-miss-1366'), fullPage: false });
+    await context.close();
+  });
 });
