@@ -8,6 +8,7 @@ import type { StallProtection } from './domain/design.ts';
 import type { WorstCase } from './design-case.ts';
 import type { MotorState } from './power-on.ts';
 import type { SwitchDrive } from './rank-design.ts';
+import { measure, sig } from './units.ts';
 
 const amps = (a: number): string => (Math.abs(a) < 1 ? `${fmt(a * 1000)} mA` : `${fmt(a)} A`);
 
@@ -169,4 +170,13 @@ export function stallRows(wc: WorstCase): FigureRow[] {
   ];
   if (wc.pwmHz != null) rows.push({ label: 'Jammed: diode mean current', value: `${fmt(s.diodeMeanA)} A` });
   return rows;
+}
+
+/**
+ * A check's value or limit as people read it: prefixed SI through `measure`; a dimensionless figure
+ * (the duty error) is a fraction and reads as a percentage ("0.063 %").
+ */
+export function checkFigure(value: number | null, unit: string): string {
+  if (unit === '' && value != null && Number.isFinite(value)) return `${sig(value * 100, 2)} %`;
+  return measure(value, unit);
 }

@@ -4,7 +4,8 @@ import { LIFECYCLE_LABELS } from '../../lib/labels.ts';
 import type { MatchEntry } from '../../lib/design-match.ts';
 import type { CandidateResult } from '../../lib/ranking.ts';
 import type { RoleSelection } from '../../lib/domain/design.ts';
-import { checkLabel } from '../../lib/design-words.ts';
+import { checkFigure, checkLabel } from '../../lib/design-words.ts';
+import { fixed, percent, price } from '../../lib/units.ts';
 import Verdict, { CheckMark } from './Verdict.tsx';
 import { DEFAULT_MATCH_LIMIT } from '../../lib/schemas/design.ts';
 import type { MatchListSummary, Ranked } from '../../lib/match-page.ts';
@@ -28,8 +29,7 @@ interface Props<T extends MatchEntry> {
   readOnly: boolean;
 }
 
-const fmt = (v: number | null, unit: string): string => (v == null ? '—' : `${Number(v.toPrecision(3))} ${unit}`.trim());
-const margin = (m: number | null): string => (m == null ? '' : `${(m * 100).toFixed(0)} %`);
+const margin = (m: number | null): string => (m == null ? '' : percent(m));
 const LIFE = (l: Lifecycle): string => LIFECYCLE_LABELS[l].short;
 
 /** Marks a part in another package than the chosen one (words and icon). */
@@ -68,8 +68,8 @@ function Reasons({ checks }: { checks: CandidateResult['checks'] }) {
               {checkLabel(c.id)}
               <span className="block text-ink-faint">{c.id}</span>
             </td>
-            <td className="text-right num whitespace-nowrap">{fmt(c.value, c.unit)}</td>
-            <td className="text-right num whitespace-nowrap">{fmt(c.limit, c.unit)}</td>
+            <td className="text-right num whitespace-nowrap">{checkFigure(c.value, c.unit)}</td>
+            <td className="text-right num whitespace-nowrap">{checkFigure(c.limit, c.unit)}</td>
             <td className="text-right num">{margin(c.margin)}</td>
             <td className="pl-3">{c.note}</td>
           </tr>
@@ -163,10 +163,8 @@ export default function CandidateTable<T extends MatchEntry>({
                       {c.cell(e)}
                     </td>
                   ))}
-                  <td className="num">{e.score.toFixed(0)}</td>
-                  <td className="num whitespace-nowrap">
-                    {e.priceAtQty ? `${e.priceAtQty.unitPrice.toFixed(3)} ${e.priceAtQty.currency}` : '—'}
-                  </td>
+                  <td className="num">{fixed(e.score, 0)}</td>
+                  <td className="num whitespace-nowrap">{e.priceAtQty ? price(e.priceAtQty.unitPrice, e.priceAtQty.currency) : '—'}</td>
                   <td>{LIFE(e.lifecycle)}</td>
                   {!readOnly && (
                     <td>

@@ -3,6 +3,7 @@ import type { DesignInput, PartRole, RoleSelection } from '../../lib/domain/desi
 import type { DesignMatchPage } from '../../lib/match-page.ts';
 import { driverSupplyRangeOf } from '../../lib/design-input.ts';
 import { driversRankedForLine, switchDriveLine } from '../../lib/design-words.ts';
+import { quantity } from '../../lib/units.ts';
 import CandidateTable, { type ExtraColumn } from './CandidateTable.tsx';
 
 type StepComponent = ComponentType<{ n: number; title: string; children: ReactNode; testId?: string }>;
@@ -23,8 +24,7 @@ type SwitchEntry = DesignMatch['switch'][number];
 type DriverEntry = DesignMatch['driver'][number];
 type DiodeEntry = DesignMatch['diode'][number];
 
-const n = (v: number | null | undefined, unit: string, scale = 1, d = 3) =>
-  v == null ? '—' : `${Number((v * scale).toPrecision(d))} ${unit}`;
+const n = (v: number | null | undefined, unit: string, scale = 1, d = 3) => (v == null ? '—' : quantity(v * scale, unit, d));
 const checkValue = (e: { checks: { id: string; value: number | null; unit: string }[] }, id: string, scale = 1) => {
   const c = e.checks.find((x) => x.id === id);
   return c ? n(c.value, c.unit === 'A' && scale !== 1 ? 'mA' : c.unit, scale) : '—';

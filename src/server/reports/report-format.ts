@@ -1,17 +1,14 @@
 /** Text formatting for the design report: values with units, margins, verdicts, prices. */
 import type { Check, Verdict } from '../../lib/checks.ts';
 import type { PriceAtQty } from '../../lib/design-match.ts';
-import { formatSi, percent, price as formatPrice, sig } from '../../lib/units.ts';
+import { checkFigure } from '../../lib/design-words.ts';
+import { measure, percent, price as formatPrice, sig } from '../../lib/units.ts';
 
 export { percent, sig };
 
-/** Units that take SI prefixes (µs, mA, kΩ); the rest print as plain numbers with their unit. */
-const PREFIXED_UNITS = new Set(['V', 'A', 's', 'W', 'Ω', 'Hz', 'J', 'H', 'N·m']);
-
+/** A check's value or limit with an SI prefix where the unit takes one (see units.ts `measure`). */
 export function quantity(value: number | null, unit: string, digits = 3): string {
-  if (value == null || !Number.isFinite(value)) return '—';
-  if (PREFIXED_UNITS.has(unit) && value !== 0) return formatSi(value, unit, digits);
-  return unit ? `${sig(value, digits)} ${unit}` : sig(value, digits);
+  return measure(value, unit, digits);
 }
 
 export function range(min: number, max: number, unit: string): string {
@@ -57,8 +54,8 @@ export function checkOkText(check: Check): string {
 export function checkRow(check: Check): string[] {
   return [
     checkTitle(check.id),
-    quantity(check.value, check.unit),
-    quantity(check.limit, check.unit),
+    checkFigure(check.value, check.unit),
+    checkFigure(check.limit, check.unit),
     percent(check.margin),
     checkOkText(check),
     check.note,
