@@ -74,7 +74,7 @@ async function main(): Promise<void> {
   await migrateAndSeed(process.env, { seed: true });
   buildIfChanged(root);
   const services = await startServices(process.env);
-  teardown.add('mail sink', () => services.close());
+  teardown.add('local services (mail sink, fake S3)', () => services.close());
   Object.assign(process.env, services.env);
   resetAppConfig();
   const graceMs = readConfig(process.env).shutdownGraceS * 1000;
