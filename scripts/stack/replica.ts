@@ -5,7 +5,8 @@
  * database), loaded from a consistent dump of the primary that carries the GTID position
  * (`mariadb-dump --single-transaction --gtid --master-data`), then pointed at the primary with
  * `CHANGE MASTER TO … MASTER_USE_GTID=slave_pos` and `START SLAVE`. Started by the tests that need one
- * (tests/api/replica.test.ts); in production the replica is yours to run and DB_REPLICA_HOST names it.
+ * (tests/api/replica.test.ts) and by `npm start` with DB_REPLICA_HOST=local (loaded afresh on every start);
+ * in production the replica is yours to run and DB_REPLICA_HOST names it.
  */
 import { spawn, spawnSync } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
@@ -112,6 +113,8 @@ export async function startReplica(o: ReplicaOptions): Promise<MariaDbInstance> 
       ].join(' '),
     );
     ensureDatabaseAndUser(replica, o.database, o.user, o.password);
+    // A replica kept from an earlier run is loaded afresh: replication stopped first (the dump sets its position).
+    rootSql(replica, 'STOP ALL SLAVES; RESET SLAVE ALL;');
     await copyDatabase(o.primary, replica, o.database);
     rootSql(
       replica,

@@ -44,11 +44,12 @@ export const CONFIG_KEYS: readonly ConfigKey[] = [
     key: 'DB_REPLICA_HOST',
     defaultText: 'unset',
     meaning:
-      'a MariaDB replica of the database (MariaDB replication): when set, search and catalogue reads go to it, writes always to `DB_HOST`; while it does not answer, those reads go to `DB_HOST`',
+      'a MariaDB replica of the database (MariaDB replication): when set, search and catalogue reads go to it, writes always to `DB_HOST`; while it does not answer, those reads go to `DB_HOST`. ' +
+      '`local`: `npm start` runs a private replica of its private MariaDB on 127.0.0.1 (data in `DATA_DIR/mariadb-replica`)',
   },
   {
     key: 'DB_REPLICA_PORT',
-    defaultText: '`DB_PORT`',
+    defaultText: '`DB_PORT` (`local`: `DB_PORT` + 1)',
     meaning: 'port of the replica (same database name, user and password as the primary)',
   },
   { key: 'DATA_DIR', defaultText: '`.data`', meaning: 'where the private MariaDB and stored datasheets live' },
@@ -233,7 +234,7 @@ export interface AppConfig {
   port: number;
   db: DbConfig;
   /** The read replica (search and catalogue reads), or null when there is none. */
-  dbReplica: { host: string; port: number } | null;
+  dbReplica: { host: string; port: number; /** DB_REPLICA_HOST=local: `npm start` runs it. */ local: boolean } | null;
   /** innodb_buffer_pool_size of the private MariaDB the scripts run. */
   dbBufferPoolSize: string;
   dataDir: string;
@@ -279,7 +280,11 @@ export function readConfig(env: NodeJS.ProcessEnv): AppConfig {
       poolMax: e.DB_POOL_MAX,
       queryTimeoutMs: e.DB_QUERY_TIMEOUT_MS,
     },
-    dbReplica: e.DB_REPLICA_HOST ? { host: e.DB_REPLICA_HOST, port: e.DB_REPLICA_PORT ?? e.DB_PORT } : null,
+    dbReplica: !e.DB_REPLICA_HOST
+      ? null
+      : e.DB_REPLICA_HOST === 'local'
+        ? { host: '127.0.0.1', port: e.DB_REPLICA_PORT ?? e.DB_PORT + 1, local: true }
+        : { host: e.DB_REPLICA_HOST, port: e.DB_REPLICA_PORT ?? e.DB_PORT, local: false },
     dbBufferPoolSize: e.DB_BUFFER_POOL_SIZE,
     dataDir: e.DATA_DIR,
     storage: {

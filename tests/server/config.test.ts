@@ -63,8 +63,14 @@ describe('readConfig', () => {
     expect(c.storage.kind).toBe('s3');
     expect(c.storage.s3.endpoint).toBe('http://127.0.0.1:9000');
     expect(c.storage.s3.bucket).toBe('sheets.example');
-    expect(c.dbReplica).toEqual({ host: '10.0.0.7', port: 3306 });
-    expect(readConfig({ DB_REPLICA_HOST: '127.0.0.1', DB_REPLICA_PORT: '3408' }).dbReplica).toEqual({ host: '127.0.0.1', port: 3408 });
+    expect(c.dbReplica).toEqual({ host: '10.0.0.7', port: 3306, local: false });
+    expect(readConfig({ DB_REPLICA_HOST: '127.0.0.1', DB_REPLICA_PORT: '3408' }).dbReplica).toEqual({
+      host: '127.0.0.1',
+      port: 3408,
+      local: false,
+    });
+    // `local`: npm start runs it on loopback, one port above the primary's default 3407 unless DB_REPLICA_PORT says otherwise.
+    expect(readConfig({ DB_REPLICA_HOST: 'local' }).dbReplica).toEqual({ host: '127.0.0.1', port: 3408, local: true });
     expect(c.dbBufferPoolSize).toBe('2G');
   });
 
