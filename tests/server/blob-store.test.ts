@@ -15,6 +15,7 @@ import { startS3Fake, type Services } from '../../scripts/stack/services.ts';
 import { readConfig } from '../../src/server/config.ts';
 import { storeFor, type BlobStore } from '../../src/server/storage/index.ts';
 import { S3Store } from '../../src/server/storage/s3.ts';
+import { ServiceError } from '../../src/server/services/errors.ts';
 
 const tmp = mkdtempSync(path.join(os.tmpdir(), 'stallpoint-blob-'));
 let fake: Services;
@@ -82,7 +83,7 @@ describe('STORAGE=s3 configuration', () => {
     expect(() => storeFor(readConfig({ STORAGE: 's3' }).storage, tmp)).toThrow(/S3_ENDPOINT/);
   });
 
-  it('a store that does not answer gives an error, not a hang (nothing listens on port 9, a 2 s bound)', async () => {
+  it('a store that does not answer gives a 503 naming the datasheet store, not a hang (nothing listens on port 9, a 2 s bound)', async () => {
     const dead = new S3Store({
       endpoint: 'http://127.0.0.1:9',
       bucket: 'stallpoint-datasheets',
@@ -92,7 +93,19 @@ describe('STORAGE=s3 configuration', () => {
       timeoutMs: 2_000,
     });
     try {
-      await expect(dead.get('contract-none-at-all.pdf')).rejects.toThrow();
+      for (const attempt of [
+        () => dead.get('contract-none-at-all.pdf'),
+        () => dead.put('contract-none-at-all.pdf', Uint8Array.from([1])),
+      ]) {
+        const err = await attempt().then(
+          () => null,
+          (e: unknown) => e,
+        );
+        expect(err).toBeInstanceOf(ServiceError);
+        expect((err as ServiceError).status).toBe(503);
+        expect((err as ServiceError).message).toMatch(/datasheet store/);
+        expect((err as ServiceError).headers['Retry-After']).toBe('5');
+      }
     } finally {
       dead.close();
     }
