@@ -34,7 +34,41 @@ export const CONFIG_KEYS: readonly ConfigKey[] = [
     defaultText: '`30`',
     meaning: 'on SIGTERM/Ctrl-C, how long requests in flight (imports included) may still run before their connections are cut',
   },
+  {
+    key: 'DB_BUFFER_POOL_SIZE',
+    defaultText: '`512M`',
+    meaning:
+      'InnoDB buffer pool of the private MariaDB that `npm start`/`npm test` run (sized so a catalogue of tens of thousands of parts stays in memory); `M` or `G` suffix',
+  },
+  {
+    key: 'DB_REPLICA_HOST',
+    defaultText: 'unset',
+    meaning:
+      'a MariaDB replica of the database (MariaDB replication): when set, search and catalogue reads go to it, writes always to `DB_HOST`; while it does not answer, those reads go to `DB_HOST`. ' +
+      '`local`: `npm start` runs a private replica of its private MariaDB on 127.0.0.1 (data in `DATA_DIR/mariadb-replica`)',
+  },
+  {
+    key: 'DB_REPLICA_PORT',
+    defaultText: '`DB_PORT` (`local`: `DB_PORT` + 1)',
+    meaning: 'port of the replica (same database name, user and password as the primary)',
+  },
   { key: 'DATA_DIR', defaultText: '`.data`', meaning: 'where the private MariaDB and stored datasheets live' },
+  {
+    key: 'STORAGE',
+    defaultText: '`local`',
+    meaning: '`local`: datasheets on disk under `DATA_DIR/datasheets`; `s3`: in an S3-compatible bucket (below)',
+  },
+  {
+    key: 'S3_ENDPOINT',
+    defaultText: 'the local fake',
+    meaning:
+      'address of the S3-compatible store (path-style requests). Unset with `STORAGE=s3`: `npm start`/`npm test` run a local fake (s3rver) on 127.0.0.1 with its files under `DATA_DIR/s3`',
+  },
+  { key: 'S3_FAKE_PORT', defaultText: 'a free port', meaning: 'port of the local fake S3 on 127.0.0.1' },
+  { key: 'S3_BUCKET', defaultText: '`stallpoint-datasheets`', meaning: 'bucket for datasheets (the local fake creates it)' },
+  { key: 'S3_REGION', defaultText: '`us-east-1`', meaning: 'region name sent to the store' },
+  { key: 'S3_ACCESS_KEY_ID', defaultText: "`S3RVER` (the fake's)", meaning: 'access key of the store' },
+  { key: 'S3_SECRET_ACCESS_KEY', defaultText: "`S3RVER` (the fake's)", meaning: 'secret key of the store' },
   {
     key: 'PUBLIC_URL',
     defaultText: '`http://HOST:PORT` under `npm start`',
@@ -98,7 +132,29 @@ const envSchema = z.object({
   DB_POOL_MAX: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).max(500).default(10)),
   DB_QUERY_TIMEOUT_MS: z.preprocess(blankToUndefined, z.coerce.number().int().min(100).max(600_000).default(5_000)),
   SHUTDOWN_GRACE_S: z.preprocess(blankToUndefined, z.coerce.number().min(0).max(3_600).default(30)),
+  DB_BUFFER_POOL_SIZE: z.preprocess(
+    blankToUndefined,
+    z
+      .string()
+      .regex(/^[1-9][0-9]{0,5}[MG]$/, { error: 'DB_BUFFER_POOL_SIZE is a size such as 512M or 2G' })
+      .default('512M'),
+  ),
+  DB_REPLICA_HOST: optionalText,
+  DB_REPLICA_PORT: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).max(65_535).optional()),
   DATA_DIR: text('.data'),
+  STORAGE: z.preprocess(blankToUndefined, z.enum(['local', 's3']).default('local')),
+  S3_ENDPOINT: z.preprocess(blankToUndefined, z.url({ protocol: /^https?$/, error: 'S3_ENDPOINT must be an http(s) address' }).optional()),
+  S3_FAKE_PORT: z.preprocess(blankToUndefined, z.coerce.number().int().min(0).max(65_535).optional()),
+  S3_BUCKET: z.preprocess(
+    blankToUndefined,
+    z
+      .string()
+      .regex(/^[a-z0-9][a-z0-9.-]{1,61}[a-z0-9]$/, { error: 'S3_BUCKET is a bucket name: 3–63 lower-case letters, digits, dots, dashes' })
+      .default('stallpoint-datasheets'),
+  ),
+  S3_REGION: text('us-east-1'),
+  S3_ACCESS_KEY_ID: text('S3RVER'),
+  S3_SECRET_ACCESS_KEY: text('S3RVER'),
   PUBLIC_URL: z.preprocess(
     blankToUndefined,
     z
@@ -138,6 +194,20 @@ export interface DbConfig {
   queryTimeoutMs: number;
 }
 
+/** Where datasheets are kept. */
+export interface StorageConfig {
+  kind: 'local' | 's3';
+  s3: {
+    /** null: the local fake, started by the scripts, which then set S3_ENDPOINT. */
+    endpoint: string | null;
+    fakePort: number | null;
+    bucket: string;
+    region: string;
+    accessKeyId: string;
+    secretAccessKey: string;
+  };
+}
+
 export interface MailConfig {
   host: string;
   port: number;
@@ -163,7 +233,12 @@ export interface AppConfig {
   host: string;
   port: number;
   db: DbConfig;
+  /** The read replica (search and catalogue reads), or null when there is none. */
+  dbReplica: { host: string; port: number; /** DB_REPLICA_HOST=local: `npm start` runs it. */ local: boolean } | null;
+  /** innodb_buffer_pool_size of the private MariaDB the scripts run. */
+  dbBufferPoolSize: string;
   dataDir: string;
+  storage: StorageConfig;
   publicUrl: string | null;
   mail: MailConfig;
   /** Port of the local mail sink; null = the default for the run (2526, or a free one under test). */
@@ -205,7 +280,24 @@ export function readConfig(env: NodeJS.ProcessEnv): AppConfig {
       poolMax: e.DB_POOL_MAX,
       queryTimeoutMs: e.DB_QUERY_TIMEOUT_MS,
     },
+    dbReplica: !e.DB_REPLICA_HOST
+      ? null
+      : e.DB_REPLICA_HOST === 'local'
+        ? { host: '127.0.0.1', port: e.DB_REPLICA_PORT ?? e.DB_PORT + 1, local: true }
+        : { host: e.DB_REPLICA_HOST, port: e.DB_REPLICA_PORT ?? e.DB_PORT, local: false },
+    dbBufferPoolSize: e.DB_BUFFER_POOL_SIZE,
     dataDir: e.DATA_DIR,
+    storage: {
+      kind: e.STORAGE,
+      s3: {
+        endpoint: e.S3_ENDPOINT?.replace(/\/+$/, '') ?? null,
+        fakePort: e.S3_FAKE_PORT ?? null,
+        bucket: e.S3_BUCKET,
+        region: e.S3_REGION,
+        accessKeyId: e.S3_ACCESS_KEY_ID,
+        secretAccessKey: e.S3_SECRET_ACCESS_KEY,
+      },
+    },
     publicUrl: e.PUBLIC_URL ?? null,
     mail: {
       host: e.SMTP_HOST ?? '127.0.0.1',

@@ -4,18 +4,16 @@
  * name with ../ are refused or sanitised, and nothing is stored for a refused upload.
  */
 import { createHash } from 'node:crypto';
-import { existsSync, readdirSync } from 'node:fs';
 import http from 'node:http';
-import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { PDFDocument, StandardFonts } from 'pdf-lib';
 import { appDb, appUrl } from '../helpers/stack.ts';
 import { sessionCookie } from '../helpers/session.ts';
 import { numberBomb, spaceBomb } from '../helpers/pdf-bombs.ts';
+import { storedKeys } from '../helpers/datasheet-store.ts';
 
 const knex = appDb();
-const STORE = path.join(process.env.DATA_DIR ?? '.data', 'datasheets');
 let librarian = '';
 let partId = 0;
 
@@ -26,7 +24,8 @@ async function makePdf(title: string, pages = 2): Promise<Buffer> {
     doc.addPage([595, 842]).drawText(`${title} page ${i + 1} (invented test datasheet)`, { x: 50, y: 780, size: 12, font });
   return Buffer.from(await doc.save());
 }
-const files = (): string[] => (existsSync(STORE) ? readdirSync(STORE).sort() : []);
+/** What the app's store holds (the disk folder, or the bucket when the suite runs with STORAGE=s3). */
+const files = (): Promise<string[]> => storedKeys();
 const rows = async (): Promise<number> => Number((await knex('datasheets').count({ n: '*' }).first())!.n);
 
 function upload(bytes: Buffer, filename: string, cookie = librarian, revision?: string) {
@@ -92,7 +91,7 @@ describe('POST /api/parts/:id/datasheets', () => {
     });
     const row = await knex('datasheets').where({ id: res.body.id }).first();
     expect(row.storage_key).toMatch(/^[0-9a-f-]{36}\.pdf$/);
-    expect(files()).toContain(row.storage_key);
+    expect(await files()).toContain(row.storage_key);
     const audit = await knex('audit_events')
       .where({ entity_type: 'part', entity_id: partId, action: 'datasheet.add' })
       .orderBy('id', 'desc')
@@ -125,7 +124,7 @@ describe('POST /api/parts/:id/datasheets', () => {
     expect(res.body.originalName).toBe('evil.pdf');
     const row = await knex('datasheets').where({ id: res.body.id }).first();
     expect(row.storage_key).not.toContain('evil');
-    expect(files()).toContain(row.storage_key);
+    expect(await files()).toContain(row.storage_key);
     const odd = await upload(await makePdf('odd'), '..\\..\\windows\\..pdf');
     expect(odd.status).toBe(201);
     expect(odd.body.originalName).toBe('pdf.pdf'); // base name "..pdf": leading dots dropped, extension added
@@ -134,11 +133,11 @@ describe('POST /api/parts/:id/datasheets', () => {
   describe('refusals store nothing', () => {
     let before: { rows: number; files: string[] };
     beforeAll(async () => {
-      before = { rows: await rows(), files: files() };
+      before = { rows: await rows(), files: await files() };
     });
     const unchanged = async () => {
       expect(await rows()).toBe(before.rows);
-      expect(files()).toEqual(before.files);
+      expect(await files()).toEqual(before.files);
     };
 
     it('a text file named .pdf → 415', async () => {
@@ -267,7 +266,7 @@ describe('GET and DELETE /api/datasheets/:id', () => {
       (await request(appUrl()).delete(`/api/datasheets/${created.id}`).set('Cookie', librarian).set('Content-Type', 'application/json'))
         .status,
     ).toBe(204);
-    expect(files()).not.toContain(key);
+    expect(await files()).not.toContain(key);
     expect((await request(appUrl()).get(`/api/datasheets/${created.id}`).set('Cookie', librarian)).status).toBe(404);
   });
 });
