@@ -6,6 +6,7 @@
  * a surrogate pair), a page with no text, and a long document of which only the first pages are read.
  * Every expected text is written out by hand from the content streams below, not taken from the reader.
  */
+import { createDeflate } from 'node:zlib';
 import { describe, expect, it } from 'vitest';
 import { PDFDocument, PDFName, PDFString, StandardFonts, rgb } from 'pdf-lib';
 import { inspectPdf, PDF_INSPECTION_BUDGET } from '../../src/server/services/pdf-inspection.ts';
@@ -33,6 +34,28 @@ function handWrittenPdf(objects: string[]): Buffer {
 
 const stream = (dict: string, content: string): string =>
   `<< ${dict} /Length ${Buffer.byteLength(content, 'latin1')} >>\nstream\n${content}\nendstream`;
+
+/** Deflates `before`, then `megabytes` MB of spaces, without ever holding the spaces whole. */
+function deflatedSpaces(before: string, megabytes: number): Promise<Buffer> {
+  return new Promise((resolve, reject) => {
+    const z = createDeflate({ level: 9 });
+    const out: Buffer[] = [];
+    z.on('data', (c: Buffer) => out.push(c));
+    z.on('end', () => resolve(Buffer.concat(out)));
+    z.on('error', reject);
+    z.write(before);
+    const mb = Buffer.alloc(1024 * 1024, 0x20);
+    let left = megabytes;
+    const pump = (): void => {
+      while (left > 0) {
+        left--;
+        if (!z.write(mb)) return void z.once('drain', pump);
+      }
+      z.end();
+    };
+    pump();
+  });
+}
 
 async function textOf(bytes: Uint8Array) {
   const result = await inspectPdf(bytes);
@@ -155,5 +178,18 @@ describe('text of the first pages', () => {
     const content = `BT /F1 12 Tf 50 700 Td (MQN20T06-S3) Tj ET\n${'0 0 m 1 1 l S\n'.repeat(600_000)}BT (after the budget) Tj ET`;
     page.node.set(PDFName.of('Contents'), ctx.register(ctx.flateStream(content)));
     expect(await textOf(await doc.save())).toEqual({ text: 'MQN20T06-S3', pagesRead: 1, truncated: true });
+  });
+
+  it('a content stream that unpacks to more than the worker heap (512 MB of spaces) is read only up to the budget, not refused', async () => {
+    const packed = await deflatedSpaces('BT /F1 12 Tf 50 700 Td (ORS20-40-MA) Tj ET\n', 512);
+    expect(512).toBeGreaterThan(PDF_INSPECTION_BUDGET.heapMb);
+    const pdf = handWrittenPdf([
+      '<< /Type /Catalog /Pages 2 0 R >>',
+      '<< /Type /Pages /Kids [3 0 R] /Count 1 >>',
+      '<< /Type /Page /Parent 2 0 R /MediaBox [0 0 595 842] /Resources << /Font << /F1 4 0 R >> >> /Contents 5 0 R >>',
+      '<< /Type /Font /Subtype /Type1 /BaseFont /Helvetica >>',
+      stream('/Filter /FlateDecode', packed.toString('latin1')),
+    ]);
+    expect(await textOf(pdf)).toEqual({ text: 'ORS20-40-MA', pagesRead: 1, truncated: true });
   });
 });
