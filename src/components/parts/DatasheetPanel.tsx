@@ -213,12 +213,20 @@ export default function DatasheetPanel({ partId, initial, canManage }: Props) {
                 <p id="datasheet-question-title" className="font-semibold">
                   <span aria-hidden="true">⚠ </span>Is {upload.file.name} the datasheet of this part?
                 </p>
-                <p>{upload.message}</p>
-                <ul id="datasheet-question-reasons" className="list-disc pl-5">
-                  {upload.reasons.map((r) => (
-                    <li key={r}>{r}</li>
-                  ))}
-                </ul>
+                {upload.reasons.length === 0 ? (
+                  <p id="datasheet-question-reasons">{upload.message}</p>
+                ) : (
+                  <>
+                    <ul id="datasheet-question-reasons" className="list-disc pl-5">
+                      {upload.reasons.map((r) => (
+                        <li key={r}>{r}</li>
+                      ))}
+                    </ul>
+                    <p>
+                      Check the file; attach it anyway only if it is this part&apos;s datasheet. The part history will say you confirmed it.
+                    </p>
+                  </>
+                )}
                 <div className="flex flex-wrap gap-2">
                   <button type="button" className="btn" onClick={() => void send(upload.file, true)}>
                     Attach anyway
