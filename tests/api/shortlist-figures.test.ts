@@ -256,3 +256,92 @@ describe('shortlist figures at a buyer quantity', () => {
     expect(res.text).toContain('1 USD = 0.9150 EUR (rate of 2026-12-01)');
   });
 });
+
+describe('a buyer preferred source and note (last in this file: they change the figures above)', () => {
+  const put = (body: unknown, cookie = buyer) =>
+    api()
+      .put(`/api/designs/${fanId}/preferences`)
+      .set('Cookie', cookie)
+      .set('Origin', appUrl())
+      .send(body as object);
+  const sourceId = async (sku: string): Promise<number> => (await knex('part_sources').where({ sku }).first('id')).id as number;
+  const rows = async () => (await knex('shortlist_preferences').count({ n: '*' }))[0].n;
+  const events = async () => (await knex('audit_events').where({ action: 'shortlist_preference.set' }).count({ n: '*' }))[0].n;
+
+  it('refuses a source of another part with a 409 naming sourceId, and writes nothing', async () => {
+    const [beforeRows, beforeEvents] = [await rows(), await events()];
+    const res = await put({ line: 'switch', partId: chosen.switch, sourceId: await sourceId('TPP-1'), note: null });
+    expect(res.status).toBe(409);
+    expect(res.body.issues.map((i: { path: string }) => i.path)).toEqual(['sourceId']);
+    expect([await rows(), await events()]).toEqual([beforeRows, beforeEvents]);
+  });
+
+  it('refuses a part that is not an option of the line with a 409 naming partId', async () => {
+    const res = await put({ line: 'switch', partId: chosen.diode, sourceId: null, note: 'x' });
+    expect(res.status).toBe(409);
+    expect(res.body.issues.map((i: { path: string }) => i.path)).toEqual(['partId']);
+  });
+
+  it('refuses a note longer than the column (501 characters) with a 400 naming note; 500 is taken', async () => {
+    const long = await put({ line: 'switch', partId: chosen.switch, sourceId: null, note: 'n'.repeat(501) });
+    expect(long.status).toBe(400);
+    expect(long.body.issues.map((i: { path: string }) => i.path)).toEqual(['note']);
+    const fits = await put({ line: 'switch', partId: chosen.switch, sourceId: null, note: 'é'.repeat(500) });
+    expect(fits.status).toBe(200);
+    expect(fits.body.preference.note).toBe('é'.repeat(500));
+  });
+
+  it('refuses a designer (buyers set preferences)', async () => {
+    const res = await put({ line: 'switch', partId: chosen.switch, sourceId: null, note: 'x' }, await sessionCookie('designer'));
+    expect(res.status).toBe(403);
+  });
+
+  it('buys from the preferred reel source: the switch line and the total follow, said "preferred by" the buyer', async () => {
+    const res = await put({
+      line: 'switch',
+      partId: chosen.switch,
+      sourceId: await sourceId('TRH-1'),
+      note: 'Reel for the line; ask for the date code',
+    });
+    expect(res.status, res.text).toBe(200);
+    expect(res.body.preference).toMatchObject({ source: { distributor: 'Test Reel House', sku: 'TRH-1' }, setByName: 'Bea Lindqvist' });
+    const d = await fan();
+    const o = pick(d, 'switch');
+    // TRH-1 by hand (above): 1000 × 0.20 USD = 200.00 USD × 0.915 = 183.00 EUR instead of TSS-1's 127.50 EUR.
+    expect([o.quote?.source.sku, o.quote?.converted?.amount]).toEqual(['TRH-1', 183]);
+    // Total: 1620.95 − 127.50 + 183.00 = 1676.45 EUR (1212.95 − 127.50 + 183.00 = 1268.45 without a driver line).
+    expect(d.totals.totalOrg).toBe(chosen.driver ? 1676.45 : 1268.45);
+    const page = await api()
+      .get(`/shortlist?boards-${fanId}=500`)
+      .set('Cookie', await sessionCookie('designer'));
+    expect(page.text).toContain('Test Reel House TRH-1 · preferred by Bea Lindqvist');
+    expect(page.text).toContain('Note from Bea Lindqvist: Reel for the line; ask for the date code');
+    expect(page.text).not.toContain('data-testid="preference-editor"'); // designers read only
+  });
+
+  it('records the change in the audit trail with the state before and after', async () => {
+    const ev = await knex('audit_events').where({ action: 'shortlist_preference.set' }).orderBy('id', 'desc').first();
+    expect(JSON.parse(ev.before_json)).toMatchObject({ source: null, note: 'é'.repeat(500) });
+    expect(JSON.parse(ev.after_json)).toMatchObject({ source: { sku: 'TRH-1' }, note: 'Reel for the line; ask for the date code' });
+  });
+
+  it('shows the preference read-only on the design page to its designer', async () => {
+    const page = await api()
+      .get(`/designs/${fanId}`)
+      .set('Cookie', await sessionCookie('designer'));
+    expect(page.status).toBe(200);
+    expect(page.text).toContain('Reel for the line; ask for the date code');
+    expect(page.text).toContain('Test Reel House TRH-1');
+  });
+
+  it('keeps the preference when the sources are saved again (new ids, same SKU)', async () => {
+    await setSources(chosen.switch, SWITCH);
+    expect(pick(await fan(), 'switch').quote?.source.sku).toBe('TRH-1');
+  });
+
+  it('clearing source and note removes the row and the cheapest source is bought again', async () => {
+    const res = await put({ line: 'switch', partId: chosen.switch, sourceId: null, note: '' });
+    expect([res.status, res.body.preference]).toEqual([200, null]);
+    expect(pick(await fan(), 'switch').quote?.source.sku).toBe('TSS-1');
+  });
+});
