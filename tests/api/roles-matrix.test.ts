@@ -128,6 +128,7 @@ const MATRIX: Record<string, string> = {
   'GET /api/designs/[id]/bom.csv': 'saaaa',
   // The shortlist's figures: the same people as the shortlist page
   'GET /api/shortlist': 'safaa',
+  'GET /api/shortlist.csv': 'safaa',
   // Preferred source and note per shortlist option: buyers set them (designers only read them)
   'PUT /api/designs/[id]/preferences': 'sffaa',
   // Change alerts: anyone signed in may acknowledge one (who and when are recorded)

@@ -10,6 +10,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { appDb, appUrl } from '../helpers/stack.ts';
 import { sessionCookie } from '../helpers/session.ts';
+import { readCsvRecords } from '../../src/lib/csv.ts';
 
 const knex = appDb();
 const api = () => request(appUrl());
@@ -343,5 +344,76 @@ describe('a buyer preferred source and note (last in this file: they change the 
     const res = await put({ line: 'switch', partId: chosen.switch, sourceId: null, note: '' });
     expect([res.status, res.body.preference]).toEqual([200, null]);
     expect(pick(await fan(), 'switch').quote?.source.sku).toBe('TSS-1');
+  });
+});
+
+describe('the shortlist CSV (after the preferences above were cleared again)', () => {
+  const csvAt = async (query: string) => {
+    const res = await api().get(`/api/shortlist.csv${query}`).set('Cookie', buyer);
+    expect(res.status, res.text.slice(0, 300)).toBe(200);
+    expect(res.headers['content-type']).toMatch(/^text\/csv/);
+    const [header, ...records] = readCsvRecords(res.text).map((r) => r.cells);
+    const rows = records.map((cells) => Object.fromEntries(header.map((h, i) => [h, cells[i]])));
+    return { text: res.text, fan: rows.filter((r) => r.design_id === String(fanId)) };
+  };
+  const row = (rows: Record<string, string>[], kind: string, label: string, option = 'chosen') =>
+    rows.find((r) => r.row === kind && r.line === label && (kind !== 'line' || r.option === option))!;
+
+  it('has the figures of the hand tables at 500 boards', async () => {
+    const { fan: rows } = await csvAt('');
+    const pickCells = (r: Record<string, string>) => [
+      r.need,
+      r.sku,
+      r.order_qty,
+      r.break_qty,
+      r.unit_price,
+      r.currency,
+      r.extended,
+      r.converted,
+    ];
+    // Same hand figures as the tables above (switch, diode, motor).
+    expect(pickCells(row(rows, 'line', 'Low-side switch'))).toEqual(['510', 'TSS-1', '510', '500', '0.25', 'EUR', '127.50', '127.50']);
+    expect([row(rows, 'line', 'Low-side switch').stock, row(rows, 'line', 'Low-side switch').shortfall]).toEqual(['200', '310']);
+    expect(pickCells(row(rows, 'line', 'Freewheel diode'))).toEqual(['510', 'TPP-1', '750', '100', '0.12', 'GBP', '90.00', '105.48']);
+    expect(pickCells(row(rows, 'line', 'Motor'))).toEqual(['510', 'TMM-1', '510', '250', '2.1', 'USD', '1071.00', '979.97']);
+    const total = row(rows, 'total', 'Total of the chosen parts');
+    expect([total.converted, total.org_currency]).toEqual([chosen.driver ? '1620.95' : '1212.95', 'EUR']);
+    expect(rows.filter((r) => r.row === 'short').map((r) => r.line)).toEqual(['Low-side switch', 'Freewheel diode']);
+    expect(rows.filter((r) => r.row === 'rate').map((r) => [r.currency, r.unit_price, r.note])).toEqual([
+      ['GBP', '1.172', 'rate of 2026-12-01'],
+      ['USD', '0.915', 'rate of 2026-12-01'],
+    ]);
+  });
+
+  it('follows the build quantity: at 1000 boards the diode is 5 reels at the 1000 break', async () => {
+    const { fan: rows } = await csvAt(`?boards-${fanId}=1000`);
+    const diode = row(rows, 'line', 'Freewheel diode');
+    // Hand table above: 1020 → 1250, 112.50 GBP → 131.85 EUR.
+    expect([diode.boards, diode.need, diode.order_qty, diode.extended, diode.converted]).toEqual([
+      '1000',
+      '1020',
+      '1250',
+      '112.50',
+      '131.85',
+    ]);
+  });
+
+  it('writes a note that starts like a formula with a leading apostrophe (OWASP CSV injection)', async () => {
+    const note = '=HYPERLINK("http://example.invalid","x")';
+    const res = await api()
+      .put(`/api/designs/${fanId}/preferences`)
+      .set('Cookie', buyer)
+      .set('Origin', appUrl())
+      .send({ line: 'diode', partId: chosen.diode, sourceId: null, note });
+    expect(res.status, res.text).toBe(200);
+    const { text, fan: rows } = await csvAt('');
+    expect(text).not.toMatch(/,=HYPERLINK|,"=HYPERLINK/);
+    expect(row(rows, 'line', 'Freewheel diode').note).toBe(`'${note}`);
+  });
+
+  it('refuses a bad build quantity with a 400 naming the parameter', async () => {
+    const res = await api().get(`/api/shortlist.csv?boards-${fanId}=0`).set('Cookie', buyer);
+    expect(res.status).toBe(400);
+    expect(res.body.issues.map((i: { path: string }) => i.path)).toEqual([`boards-${fanId}`]);
   });
 });

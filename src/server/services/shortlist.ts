@@ -17,6 +17,7 @@ import {
   type ShortlistTotals,
 } from '../../lib/shortlist-figures.ts';
 import { listPreferences, type StoredPreference } from '../repos/shortlist-preferences.ts';
+import { shortlistCsv } from '../../lib/shortlist-csv.ts';
 import { appConfig } from '../config.ts';
 import { listCurrencyRates } from '../repos/currency-rates.ts';
 import { pickStatus, reviewWords } from '../../lib/readiness.ts';
@@ -176,4 +177,14 @@ export async function readyShortlist(actor: SessionUser | null, boardsFor: Reado
     };
   });
   return { designs, withdrawn };
+}
+
+/** The shortlist as a CSV download (src/lib/shortlist-csv.ts): the same designs and figures the page shows. */
+export async function shortlistCsvFile(
+  actor: SessionUser | null,
+  boardsFor: ReadonlyMap<number, number> = new Map(),
+): Promise<{ csv: string; fileName: string; rows: number }> {
+  const { designs } = await readyShortlist(actor, boardsFor);
+  const { csv, rows } = shortlistCsv(designs);
+  return { csv, rows, fileName: `shortlist-${new Date().toISOString().slice(0, 10)}.csv` };
 }
