@@ -67,6 +67,9 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
   '/api/designs/[id]/report.pdf': { GET: 'signed-in' },
   '/api/designs/[id]/bom.csv': { GET: 'signed-in' },
   '/api/shortlist': { GET: ['buyer', 'designer'] },
+  '/api/shortlist.csv': { GET: ['buyer', 'designer'] },
+  // A buyer's preferred source and note per shortlist option; designers read them on the shortlist and the design.
+  '/api/designs/[id]/preferences': { PUT: ['buyer'] },
   '/api/alerts/[id]/acknowledge': { POST: 'signed-in' },
 
   // Catalogue: everyone signed in reads; designers propose parts (the service makes them pending and lets a
