@@ -32,10 +32,11 @@ const diskKeys = (): string[] => {
   return existsSync(dir) ? readdirSync(dir) : [];
 };
 
+/** A sheet of the test part: its number and kind are in the text, so the attach check asks nothing. */
 async function makePdf(title: string): Promise<Buffer> {
   const doc = await PDFDocument.create();
   const font = await doc.embedFont(StandardFonts.Helvetica);
-  doc.addPage([595, 842]).drawText(`${title} (invented test datasheet)`, { x: 50, y: 780, size: 12, font });
+  doc.addPage([595, 842]).drawText(`CWN30L02-S3 N-channel MOSFET: ${title} (invented test datasheet)`, { x: 50, y: 780, size: 12, font });
   doc.addPage([595, 842]);
   return Buffer.from(await doc.save());
 }
