@@ -147,7 +147,7 @@ describe('readiness rule (hand-written table of the sign-off rule)', () => {
     });
     const issues = readinessIssues(input(), m);
     expect(paths(issues)).toEqual(['selections.switch.chosenPartId']);
-    expect(issues[0].message).toBe('QX11 fails stall-thermal: Tj reaches 450 °C at a jam');
+    expect(issues[0].message).toBe('QX11 fails junction temperature, jammed shaft: Tj reaches 450 °C at a jam');
   });
 
   it('a failing alternate is refused at its own path', () => {
@@ -156,7 +156,7 @@ describe('readiness rule (hand-written table of the sign-off rule)', () => {
     });
     const issues = readinessIssues(input(), m);
     expect(paths(issues)).toEqual(['selections.switch.alternatePartIds.0']);
-    expect(issues[0].message).toMatch(/^QX12 fails drain-voltage: .*30 V exceeds the derated 24 V/);
+    expect(issues[0].message).toMatch(/^QX12 fails drain voltage rating: .*30 V exceeds the derated 24 V/);
   });
 
   it('a pending part (match run with pending parts) is refused', () => {
@@ -243,7 +243,9 @@ describe('readiness rule (hand-written table of the sign-off rule)', () => {
       input(),
       match({ supply: supply('fail', [hard('logic-brownout', 'the rail dips to 2.1 V at start')]) }),
     );
-    expect(failing).toEqual([{ path: 'supply', message: 'the supply fails logic-brownout: the rail dips to 2.1 V at start' }]);
+    expect(failing).toEqual([
+      { path: 'supply', message: 'the supply fails shared controller rail at start (brown-out): the rail dips to 2.1 V at start' },
+    ]);
     expect(readinessIssues(input(), match({ supply: supply('marginal', [margin('supply-start-current', 'close')]) }))).toEqual([]);
   });
 
@@ -261,7 +263,7 @@ describe('pick status for BOM and shortlist lines (hand-written table)', () => {
   it.each([
     ['pass, approved', entry(11, 'QX11', 'pass', []), '✓ pass · approved', true],
     ['marginal on a margin', entry(11, 'QX11', 'marginal', [margin('junction', 'm')]), '! marginal (margin: junction) · approved', true],
-    ['fail', entry(11, 'QX11', 'fail', [hard('stall-thermal', 'hot')]), '✕ fail (stall-thermal) · approved', false],
+    ['fail', entry(11, 'QX11', 'fail', [hard('stall-thermal', 'hot')]), '✕ fail (junction temperature, jammed shaft) · approved', false],
     ['pending', entry(11, 'QX11', 'pass', [], { reviewStatus: 'pending' }), '✓ pass · pending review — not approved', false],
   ] as const)('%s', (_name, e, text, holds) => {
     const s = pickStatus(match({ switch: [e] }), 'switch', 11);

@@ -4,7 +4,8 @@ import { LIFECYCLE_LABELS } from '../../lib/labels.ts';
 import type { MatchEntry } from '../../lib/design-match.ts';
 import type { CandidateResult } from '../../lib/ranking.ts';
 import type { RoleSelection } from '../../lib/domain/design.ts';
-import { checkFigure, checkLabel } from '../../lib/design-words.ts';
+import { checkFigure } from '../../lib/design-words.ts';
+import CheckName from './CheckName.tsx';
 import { fixed, percent, price } from '../../lib/units.ts';
 import Verdict, { CheckMark } from './Verdict.tsx';
 import { DEFAULT_MATCH_LIMIT } from '../../lib/schemas/design.ts';
@@ -65,8 +66,7 @@ function Reasons({ checks }: { checks: CandidateResult['checks'] }) {
               <CheckMark ok={c.ok} severity={c.severity} />
             </td>
             <td className="pr-2 min-w-36">
-              {checkLabel(c.id)}
-              <span className="block text-ink-faint">{c.id}</span>
+              <CheckName id={c.id} />
             </td>
             <td className="text-right num whitespace-nowrap">{checkFigure(c.value, c.unit)}</td>
             <td className="text-right num whitespace-nowrap">{checkFigure(c.limit, c.unit)}</td>
