@@ -42,6 +42,12 @@ function entry(partId: number, mpn: string, verdict: E['verdict'], checks: Check
   } as E;
 }
 
+/** A diode entry: the same fields plus the part's own figures (invented). */
+const asDiode = (e: E): DesignMatch['diode'][number] => ({
+  ...e,
+  diode: { kind: 'schottky', vrrmV: 40, ifAvA: 1, vfV: 0.45, trrNs: null },
+});
+
 const OFF_WALK: PowerOnResult = {
   steps: [{ stage: 'motor', state: 'off', minV: null, maxV: null, note: 'off' }],
   motorCanStart: false,
@@ -160,7 +166,7 @@ describe('readiness rule (hand-written table of the sign-off rule)', () => {
   });
 
   it('a pending part (match run with pending parts) is refused', () => {
-    const m = match({ diode: [entry(31, 'DX31', 'pass', [], { reviewStatus: 'pending' })] });
+    const m = match({ diode: [asDiode(entry(31, 'DX31', 'pass', [], { reviewStatus: 'pending' }))] });
     const issues = readinessIssues(input(), m);
     expect(paths(issues)).toEqual(['selections.diode.chosenPartId']);
     expect(issues[0].message).toBe('DX31 is pending review — not approved');

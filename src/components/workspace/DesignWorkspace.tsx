@@ -208,10 +208,11 @@ export default function DesignWorkspace({ design, initialInput, motors, canEdit 
           </Step>
           <section className="card p-3 text-sm" aria-labelledby="ws-cautions">
             <h2 id="ws-cautions" className="font-semibold mb-1">
-              ⚠ Cautions for this design
+              ⚠ More cautions for this design
             </h2>
-            <ul className="list-disc pl-5 grid gap-0.5">
-              {match.cautions.map((c) => (
+            <p className="text-xs text-ink-soft mb-1">The cautions for each step are shown with that step above.</p>
+            <ul className="list-disc pl-5 grid gap-0.5" data-testid="other-cautions">
+              {match.otherCautions.map((c) => (
                 <li key={c}>{c}</li>
               ))}
             </ul>
