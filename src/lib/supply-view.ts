@@ -4,8 +4,12 @@
  * "not practical" flag [docs/engineering.md §3.3, §3.4]. Pure, browser-safe.
  */
 import type { Check, Verdict } from './checks.ts';
+import { checkLabel } from './design-words.ts';
 import { IMPRACTICAL_BULK_CAPACITANCE_F } from './supply.ts';
 import { formatSi, quantity } from './units.ts';
+
+/** @deprecated the one table is design-words' checkLabel; kept so older callers read the same names. */
+export const supplyCheckTitle = checkLabel;
 
 /** One check's own verdict: holds → pass; short only on a margin → marginal; a rating broken → fail. */
 export function checkVerdict(check: Pick<Check, 'ok' | 'severity'>): Verdict {

@@ -39,6 +39,9 @@ export function verdictText(verdict: Verdict, fontHasMarks: boolean): string {
 
 export const VERDICT_MARKS = '✓✕';
 
+/** @deprecated the one table is design-words' checkLabel; kept so older callers read the same names. */
+export const checkTitle = checkLabel;
+
 export function checkOkText(check: Check): string {
   if (check.ok) return 'yes';
   return check.severity === 'margin' ? 'no (margin)' : 'no (rating)';
