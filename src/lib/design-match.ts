@@ -64,6 +64,8 @@ export interface DesignMatch {
   /** The source against the motor (start current, current limit, shared logic rail); null until computed. */
   supply: SupplyReport | null;
   cautions: string[];
+  /** The cautions not printed beside their own step in the workspace (see rank-design.ts). */
+  otherCautions: string[];
   /** Candidates left out before ranking because a rating can never pass (or obsolete). */
   excluded: { switch: number; driver: number; diode: number };
 }
@@ -181,6 +183,7 @@ export function matchDesign(
     powerOn: ranking.powerOn,
     supply: supplyReportForCase(designCase),
     cautions: ranking.cautions,
+    otherCautions: ranking.otherCautions,
     excluded: catalogue.excluded,
   };
 }

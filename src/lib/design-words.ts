@@ -77,8 +77,13 @@ export function motorStateText(state: MotorState): string {
   return MOTOR_STATE[state];
 }
 
-/** Readable names of the checks a candidate carries; the stable id stays beside them. */
-const CHECK_LABELS: Readonly<Record<string, string>> = {
+/**
+ * Readable names of every check the engines emit (mosfet-checks, diode-checks, driver-checks,
+ * driver-ranking, supply, supply-design): the one table the workspace, the report, the BOM and CSV notes,
+ * the failure summaries and the alert mails read. The stable id stays in the data (and in a tooltip on
+ * screen); tests/unit/check-labels.test.ts fails when an engine emits an id missing here.
+ */
+export const CHECK_LABELS: Readonly<Record<string, string>> = {
   channel: 'Channel type',
   'drain-voltage': 'Drain voltage rating',
   'gate-voltage-rating': 'Gate voltage rating',
@@ -105,13 +110,29 @@ const CHECK_LABELS: Readonly<Record<string, string>> = {
   'paired-switch': 'Paired switch',
   'power-on': 'Power-on state',
   polarity: 'Polarity',
+  'supply-motor-voltage': 'Supply against the motor’s rated voltage',
+  'supply-running-current': 'Running current against the source’s continuous rating',
+  'supply-start-current': 'Start current against the source’s current limit',
+  'logic-brownout': 'Shared controller rail at start (brown-out)',
 };
 
+/** A check's readable name, starting with a capital: "Drain voltage rating". Unknown ids read as words. */
 export function checkLabel(id: string): string {
   const label = CHECK_LABELS[id];
   if (label) return label;
   const words = id.replace(/-/g, ' ');
   return words.charAt(0).toUpperCase() + words.slice(1);
+}
+
+/** The name inside a sentence: "fails drain voltage rating"; a leading abbreviation keeps its case ("RDS(on) …"). */
+export function checkLabelInline(id: string): string {
+  const label = checkLabel(id);
+  return /^[A-Z]{2}/.test(label) ? label : label.charAt(0).toLowerCase() + label.slice(1);
+}
+
+/** Several checks in a sentence, "; " between them since a name may hold a comma. */
+export function checkLabelList(ids: readonly string[]): string {
+  return ids.map(checkLabelInline).join('; ');
 }
 
 export interface FigureRow {

@@ -6,7 +6,7 @@
  */
 import type { DesignInput } from './domain/design.ts';
 import type { Check } from './checks.ts';
-import { checkLabel } from './design-words.ts';
+import { checkLabel, checkLabelInline } from './design-words.ts';
 import { suggestSelections, type DesignMatch } from './design-match.ts';
 import { DEFAULT_MATCH_LIMIT, MAX_MATCH_LIMIT } from './schemas/design.ts';
 
@@ -65,7 +65,7 @@ export function summarizeList(
   const head = `${thousands(counts.pass)} pass · ${thousands(counts.marginal)} marginal · ${thousands(counts.fail)} fail`;
   const why = failing
     .slice(0, 4)
-    .map((f) => `${thousands(f.count)} fail ${f.label.toLowerCase()}`)
+    .map((f) => `${thousands(f.count)} fail ${checkLabelInline(f.checkId)}`)
     .join(', ');
   return { total: list.length, offset, limit, counts, failing, summary: why ? `${head} — ${why}` : head };
 }

@@ -26,6 +26,7 @@ import {
   rankDiodeCandidates,
   sortCandidates,
   type CandidateResult,
+  type DiodeCandidateResult,
   type GateDrive,
   type SwitchCandidateResult,
 } from './ranking.ts';
@@ -61,11 +62,19 @@ export interface DesignRanking {
   /** What the effective switch list was judged at. */
   switchDrive: SwitchDrive;
   driver: DriverCandidateResult[];
-  diode: CandidateResult[];
+  diode: DiodeCandidateResult[];
   /** Which diode's VF the currents use. */
   diodeForward: { voltageV: number; basis: 'chosen' | 'lowest-passing' | 'default' };
   powerOn: PowerOnResult | null;
+  /** Every caution for the design (the report prints them all). */
   cautions: string[];
+  /**
+   * The cautions the workspace lists at its foot: those not already printed beside their own step (the
+   * power-on note and the unexpected start with step 7 when the motor can start, the start-up current and
+   * stall heat with the motor and the supply, the PWM frequency and the datasheet check with the motor, the
+   * inductive spike with the diode), so each shows once.
+   */
+  otherCautions: string[];
 }
 
 export interface DesignCatalogue {
@@ -151,24 +160,32 @@ function driverNote(
   return describeDriverNeed(c.logic.highV, part.mpn, requiredV, suggestedDriveRailV(requiredV, part.params.vgsMaxV));
 }
 
-function dynamicCautions(c: DesignCase, wc: WorstCase, diode: CandidateResult[]): string[] {
-  const cautions: string[] = [];
+interface DesignCaution {
+  text: string;
+  /** True when the workspace prints it beside its own step. */
+  inPlace: boolean;
+}
+
+function dynamicCautions(c: DesignCase, wc: WorstCase, diode: CandidateResult[]): DesignCaution[] {
+  const cautions: DesignCaution[] = [];
+  const push = (text: string, inPlace = false) => cautions.push({ text, inPlace });
   const consistency = motorConsistencyOf(c);
-  if (consistency.warning) cautions.push(consistency.warning);
-  cautions.push(
+  if (consistency.warning) push(consistency.warning, true);
+  push(
     `Worst-case start-up current is ${fmt(wc.stallCurrentMaxA)} A (stall at ${fmt(wc.supplyMaxV)} V with the winding at ${fmt(wc.windingColdC)} °C): fuse and wiring must carry it.`,
+    true,
   );
   if ((c.stallProtection?.kind ?? 'none') === 'none') {
-    cautions.push(
+    push(
       'No stall protection is set: a jammed shaft holds the switch on at stall current until someone ' +
         'notices. Switch, diode and motor case can exceed 100 °C; consider a current limit or a timed cut-off.',
     );
   }
-  cautions.push('Junction temperatures use the datasheet RθJA from its test board; your board may run hotter or cooler.');
+  push('Junction temperatures use the datasheet RθJA from its test board; your board may run hotter or cooler.');
   if (wc.pwmHz != null && c.motor.inductanceH != null) {
     const tauS = c.motor.inductanceH / motorModelOf(c).resistanceOhm;
     const caution = pwmFrequencyCaution(wc.pwmHz, tauS);
-    if (caution) cautions.push(caution);
+    if (caution) push(caution, true);
   }
   const diodeOk = diode.some((d) => d.verdict !== 'fail');
   if (!diodeOk && c.motor.inductanceH != null) {
@@ -177,11 +194,27 @@ function dynamicCautions(c: DesignCase, wc: WorstCase, diode: CandidateResult[])
       wc.pwmHz != null
         ? `, ${fmt(avalanchePowerW(c.motor.inductanceH, wc.stallCurrentMaxA, wc.pwmHz))} W at ${formatSi(wc.pwmHz, 'Hz', 3)}`
         : '';
-    cautions.push(
+    push(
       `No suitable freewheel diode: without one, ½·L·I² = ${fmt(energyJ * 1000)} mJ avalanches the switch at every turn-off${perCycle}.`,
     );
   }
   return cautions;
+}
+
+/** The standing cautions the workspace prints beside a step: stall heat (motor), inductive spike (diode). */
+const STANDING_IN_PLACE: ReadonlySet<string> = new Set(['stall-heat', 'inductive-spike']);
+
+function designCautions(powerOn: PowerOnResult | null, dynamic: DesignCaution[]): Pick<DesignRanking, 'cautions' | 'otherCautions'> {
+  const canStart = powerOn?.motorCanStart === true;
+  const all: DesignCaution[] = [
+    ...(canStart && powerOn ? [{ text: powerOn.note, inPlace: true }] : []),
+    ...dynamic,
+    ...CAUTIONS.map((x) => ({
+      text: `${x.title}: ${x.text}`,
+      inPlace: STANDING_IN_PLACE.has(x.id) || (x.id === 'unexpected-start' && canStart),
+    })),
+  ];
+  return { cautions: all.map((x) => x.text), otherCautions: [...new Set(all.filter((x) => !x.inPlace).map((x) => x.text))] };
 }
 
 /** Power-on walk for a given switch and (optional) driver. */
@@ -247,7 +280,7 @@ export function rankDesign(
     diode,
     diodeForward,
     powerOn,
-    cautions: [...(powerOn?.motorCanStart ? [powerOn.note] : []), ...dynamicCautions(c, wc, diode), ...STANDING_CAUTIONS],
+    ...designCautions(powerOn, dynamicCautions(c, wc, diode)),
   };
 }
 

@@ -6,7 +6,7 @@
  */
 import { VERDICT_RANK, verdictOf, type Check, type Verdict } from './checks.ts';
 import { checkDiode } from './diode-checks.ts';
-import type { PartOf } from './domain/parts.ts';
+import type { DiodeParams, PartOf } from './domain/parts.ts';
 import { marginsOf, worstCaseOf, type DesignCase, type WorstCase } from './design-case.ts';
 import { rdsOnPointsAt25C } from './rdson.ts';
 import { evaluateSwitch, type SwitchEvaluation, type SwitchMosfetInput, type SwitchOperatingInput } from './switch-evaluation.ts';
@@ -18,6 +18,11 @@ export interface CandidateResult {
   verdict: Verdict;
   score: number;
   checks: Check[];
+}
+
+/** A diode's result with the part's own figures the candidate table shows (they vary per row; the design's needs do not). */
+export interface DiodeCandidateResult extends CandidateResult {
+  diode: Pick<DiodeParams, 'kind' | 'vrrmV' | 'ifAvA' | 'vfV' | 'trrNs'>;
 }
 
 export interface SwitchCandidateResult extends CandidateResult {
@@ -169,7 +174,7 @@ export function rankSwitchCandidates(
   return sortCandidates(mosfets.map((m) => evaluateSwitchPart(c, m, d, wc)));
 }
 
-export function evaluateDiodePart(c: DesignCase, part: PartOf<'diode'>, wc: WorstCase): CandidateResult {
+export function evaluateDiodePart(c: DesignCase, part: PartOf<'diode'>, wc: WorstCase): DiodeCandidateResult {
   const resistanceOhm = c.motor.terminalResistanceOhm ?? c.motor.ratedVoltageV / c.motor.stallCurrentA;
   const checks = checkDiode({
     diode: part.params,
@@ -185,9 +190,18 @@ export function evaluateDiodePart(c: DesignCase, part: PartOf<'diode'>, wc: Wors
     motorResistanceOhm: resistanceOhm,
   });
   const verdict = verdictOf(checks);
-  return { partId: part.id ?? null, mpn: part.mpn, manufacturer: part.manufacturer, verdict, score: scoreOf(checks, verdict), checks };
+  const { kind, vrrmV, ifAvA, vfV, trrNs } = part.params;
+  return {
+    partId: part.id ?? null,
+    mpn: part.mpn,
+    manufacturer: part.manufacturer,
+    verdict,
+    score: scoreOf(checks, verdict),
+    checks,
+    diode: { kind, vrrmV, ifAvA, vfV, trrNs },
+  };
 }
 
-export function rankDiodeCandidates(c: DesignCase, diodes: PartOf<'diode'>[], wc: WorstCase = worstCaseOf(c)): CandidateResult[] {
+export function rankDiodeCandidates(c: DesignCase, diodes: PartOf<'diode'>[], wc: WorstCase = worstCaseOf(c)): DiodeCandidateResult[] {
   return sortCandidates(diodes.map((d) => evaluateDiodePart(c, d, wc)));
 }

@@ -172,3 +172,8 @@ export function bytes(count: number): string {
 export function tidy(value: number): number {
   return Number(value.toPrecision(12));
 }
+
+/** A count with its noun in the right number: "1 diode", "25,412 diodes", "1 person", "5 people". */
+export function counted(count: number, one: string, many: string): string {
+  return `${count.toLocaleString('en-US')} ${count === 1 ? one : many}`;
+}

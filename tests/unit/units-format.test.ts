@@ -4,7 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { checkFigure } from '../../src/lib/design-words.ts';
-import { bytes, fixed, formatSi, measure, percent, price, quantity, scientific, sig, tidy } from '../../src/lib/units.ts';
+import { bytes, counted, fixed, formatSi, measure, percent, price, quantity, scientific, sig, tidy } from '../../src/lib/units.ts';
 
 describe('sig', () => {
   it.each([
@@ -96,4 +96,16 @@ describe.each([
   [null, '', '—'],
 ] as const)('checkFigure(%s, %s)', (value, unit, expected) => {
   it(`reads ${expected}`, () => expect(checkFigure(value, unit)).toBe(expected));
+});
+
+describe('counted: the noun agrees with the count (English grammar)', () => {
+  it.each([
+    [1, 'diode', 'diodes', '1 diode'],
+    [0, 'diode', 'diodes', '0 diodes'],
+    [4, 'person', 'people', '4 people'],
+    [1, 'person', 'people', '1 person'],
+    [25412, 'MOSFET', 'MOSFETs', '25,412 MOSFETs'],
+  ])('%d %s', (n, one, many, text) => {
+    expect(counted(n, one, many)).toBe(text);
+  });
 });

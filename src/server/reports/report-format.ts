@@ -1,7 +1,7 @@
 /** Text formatting for the design report: values with units, margins, verdicts, prices. */
 import type { Check, Verdict } from '../../lib/checks.ts';
 import type { PriceAtQty } from '../../lib/design-match.ts';
-import { checkFigure } from '../../lib/design-words.ts';
+import { checkFigure, checkLabel, checkLabelInline, checkLabelList } from '../../lib/design-words.ts';
 import { measure, percent, price as formatPrice, sig } from '../../lib/units.ts';
 
 export { percent, sig };
@@ -39,11 +39,8 @@ export function verdictText(verdict: Verdict, fontHasMarks: boolean): string {
 
 export const VERDICT_MARKS = '✓✕';
 
-/** "drain-voltage" → "Drain voltage"; keeps the stable id recognisable. */
-export function checkTitle(id: string): string {
-  const words = id.replace(/-/g, ' ');
-  return words.charAt(0).toUpperCase() + words.slice(1);
-}
+/** @deprecated the one table is design-words' checkLabel; kept so older callers read the same names. */
+export const checkTitle = checkLabel;
 
 export function checkOkText(check: Check): string {
   if (check.ok) return 'yes';
@@ -53,7 +50,7 @@ export function checkOkText(check: Check): string {
 /** One table row per check: check, value, limit, margin, ok, note. */
 export function checkRow(check: Check): string[] {
   return [
-    checkTitle(check.id),
+    checkLabel(check.id),
     checkFigure(check.value, check.unit),
     checkFigure(check.limit, check.unit),
     percent(check.margin),
@@ -65,9 +62,9 @@ export function checkRow(check: Check): string[] {
 /** One line for an alternate: what falls short, or else the tightest margin. */
 export function summaryOf(checks: readonly Check[]): string {
   const failing = checks.filter((c) => !c.ok);
-  if (failing.length > 0) return `Short on ${failing.map((c) => checkTitle(c.id).toLowerCase()).join(', ')}: ${failing[0].note}`;
+  if (failing.length > 0) return `Short on ${checkLabelList(failing.map((c) => c.id))}: ${failing[0].note}`;
   const withMargin = checks.filter((c) => c.margin != null).sort((a, b) => (a.margin as number) - (b.margin as number));
   const tightest = withMargin[0];
   const all = `All ${checks.length} checks hold`;
-  return tightest ? `${all}; tightest is ${checkTitle(tightest.id).toLowerCase()} at ${percent(tightest.margin)} margin.` : `${all}.`;
+  return tightest ? `${all}; tightest is ${checkLabelInline(tightest.id)} at ${percent(tightest.margin)} margin.` : `${all}.`;
 }
