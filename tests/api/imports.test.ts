@@ -223,4 +223,32 @@ describe('POST /api/imports', () => {
       ).toEqual([]);
     }
   });
+
+  it('reads MOQ and order multiple per source, defaults the multiple to 1 without the column, and names a bad one', async () => {
+    // The data-samples file: CWP20L17-S3 is sold from 10 in multiples of 10, ORU15-200-MA in multiples of 5 (invented).
+    const rows = cycled(sampleRows.length, `M${Date.now()}-`);
+    const created = await post('commit', Papa.unparse({ fields: Object.keys(sampleRows[0]), data: rows }), `test-multiple-${Date.now()}`);
+    expect(created.status, JSON.stringify(created.body.errors)).toBe(201);
+    for (const [i, row] of rows.entries()) {
+      const part = (await request(appUrl()).get(`/api/parts/${created.body.rows[i].partId}`).set('Cookie', librarian)).body;
+      expect([part.sources[0].moq, part.sources[0].orderMultiple], row.mpn).toEqual([Number(row.moq), Number(row.orderMultiple)]);
+    }
+    expect(rows.map((r) => r.orderMultiple)).toEqual(expect.arrayContaining(['10', '5']));
+
+    // A file in the format before the column existed still imports; its sources order in multiples of 1.
+    const older = cycled(2, `O${Date.now()}-`).map(({ orderMultiple: _dropped, ...rest }) => rest);
+    const olderRes = await post('commit', Papa.unparse(older), `test-no-multiple-${Date.now()}`);
+    expect(olderRes.status, JSON.stringify(olderRes.body.errors)).toBe(201);
+    const first = (await request(appUrl()).get(`/api/parts/${olderRes.body.rows[0].partId}`).set('Cookie', librarian)).body;
+    expect(first.sources[0].orderMultiple).toBe(1);
+
+    const bad = cycled(2, `X${Date.now()}-`);
+    bad[0].orderMultiple = '0';
+    bad[1].orderMultiple = 'ten';
+    const preview = await post('preview', Papa.unparse(bad));
+    expect(preview.body.errors).toEqual([
+      expect.objectContaining({ line: 2, column: 'orderMultiple' }),
+      expect.objectContaining({ line: 3, column: 'orderMultiple', message: expect.stringContaining('is not a number') }),
+    ]);
+  });
 });
