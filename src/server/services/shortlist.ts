@@ -183,8 +183,8 @@ export async function readyShortlist(actor: SessionUser | null, boardsFor: Reado
 export async function shortlistCsvFile(
   actor: SessionUser | null,
   boardsFor: ReadonlyMap<number, number> = new Map(),
-): Promise<{ csv: string; fileName: string; rows: number }> {
+): Promise<{ body: string; fileName: string; rows: number }> {
   const { designs } = await readyShortlist(actor, boardsFor);
   const { csv, rows } = shortlistCsv(designs);
-  return { csv, rows, fileName: `shortlist-${new Date().toISOString().slice(0, 10)}.csv` };
+  return { body: csv, rows, fileName: `shortlist-${new Date().toISOString().slice(0, 10)}.csv` };
 }
