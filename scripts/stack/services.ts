@@ -2,7 +2,8 @@
  * Local stand-ins for hosted services that the start and test commands run:
  * an SMTP sink on 127.0.0.1 (smtp-server) that parses every message (mailparser) and stores it in the
  * captured_mail table, where admins read it on /mail and tests find it. Real mail is configured by
- * setting SMTP_HOST (and MAIL_SINK unset); then no sink starts.
+ * setting SMTP_HOST (and MAIL_SINK unset); then no sink starts. And the local fake distributor
+ * (distributor-fake.ts) that the distributor client asks for offers, unless DISTRIBUTOR_URL names a real one.
  */
 import { SMTPServer } from 'smtp-server';
 import { simpleParser } from 'mailparser';
@@ -10,7 +11,8 @@ import knexFactory, { type Knex } from 'knex';
 import { knexConfig } from '../../knexfile.ts';
 import { insertCapturedMail } from '../../src/server/repos/captured-mail.ts';
 import { log } from './log.ts';
-import { DEFAULT_SINK_PORT, readConfig } from '../../src/server/config.ts';
+import { DEFAULT_DISTRIBUTOR_FAKE_PORT, DEFAULT_SINK_PORT, readConfig } from '../../src/server/config.ts';
+import { startFakeDistributor } from './distributor-fake.ts';
 
 export interface Services {
   env: Record<string, string>;
@@ -94,8 +96,27 @@ async function startMailSink(env: NodeJS.ProcessEnv): Promise<Services> {
   };
 }
 
+async function startDistributorFake(env: NodeJS.ProcessEnv): Promise<Services> {
+  const config = readConfig(env);
+  const wanted = config.distributor.fakePort ?? (config.nodeEnv === 'test' ? 0 : DEFAULT_DISTRIBUTOR_FAKE_PORT);
+  const fake = await startFakeDistributor(wanted);
+  log(`fake distributor on ${fake.url} (stands in for a hosted distributor API)`);
+  return { env: { DISTRIBUTOR_URL: fake.url }, close: () => fake.close() };
+}
+
+const NONE: Services = { env: {}, async close() {} };
+
+/** Starts what the configuration leaves to local stand-ins; close() stops them all (also after a half start). */
 export async function startServices(env: NodeJS.ProcessEnv): Promise<Services> {
   const config = readConfig(env);
-  if (env.SMTP_HOST && !config.mail.sinkLocal) return { env: {}, async close() {} };
-  return startMailSink(env);
+  const started: Services[] = [];
+  const close = async (): Promise<void> => void (await Promise.all(started.map((s) => s.close())));
+  try {
+    started.push(env.SMTP_HOST && !config.mail.sinkLocal ? NONE : await startMailSink(env));
+    started.push(config.distributor.url ? NONE : await startDistributorFake(env));
+  } catch (err) {
+    await close();
+    throw err;
+  }
+  return { env: Object.assign({}, ...started.map((s) => s.env)) as Record<string, string>, close };
 }

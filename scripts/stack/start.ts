@@ -74,7 +74,7 @@ async function main(): Promise<void> {
   await migrateAndSeed(process.env, { seed: true });
   buildIfChanged(root);
   const services = await startServices(process.env);
-  teardown.add('mail sink', () => services.close());
+  teardown.add('mail sink and fake distributor', () => services.close());
   Object.assign(process.env, services.env);
   resetAppConfig();
   const graceMs = readConfig(process.env).shutdownGraceS * 1000;

@@ -36,6 +36,12 @@ describe('readConfig', () => {
     expect(c.trustProxy).toBe(false);
     expect(c.shutdownGraceS).toBe(30);
     expect(c.buying).toEqual({ orgCurrency: 'EUR', attritionPct: 2 });
+    expect(c.distributor).toEqual({ url: null, fakePort: null, timeoutMs: 3000, retries: 3, refreshMin: 15 });
+  });
+
+  it('turns the distributor refresh schedule off under test unless asked for', () => {
+    expect(readConfig({ NODE_ENV: 'test' }).distributor.refreshMin).toBe(0);
+    expect(readConfig({ NODE_ENV: 'test', DISTRIBUTOR_REFRESH_MIN: '5' }).distributor.refreshMin).toBe(5);
   });
 
   it('reads set values and treats blank ones as unset', () => {
