@@ -91,7 +91,7 @@ export async function refreshOffers(deps: RefreshDeps): Promise<RefreshOutcome> 
         await markOffersFailed(
           deps.db,
           batch.flatMap((m) => idsByMpn.get(m) ?? []),
-          `refresh failed: ${err.message}`,
+          err.message,
           at,
         );
       }
