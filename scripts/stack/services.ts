@@ -5,6 +5,8 @@
  * setting SMTP_HOST (and MAIL_SINK unset); then no sink starts.
  * With STORAGE=s3 and no S3_ENDPOINT, a fake S3 (s3rver) on 127.0.0.1 with its files under DATA_DIR/s3
  * and the bucket created; a real store is configured by setting S3_ENDPOINT, and then no fake starts.
+ * And the local fake distributor (distributor-fake.ts) that the distributor client asks for offers,
+ * unless DISTRIBUTOR_URL names a real one.
  */
 import path from 'node:path';
 import S3rver from 's3rver';
@@ -14,7 +16,8 @@ import knexFactory, { type Knex } from 'knex';
 import { knexConfig } from '../../knexfile.ts';
 import { insertCapturedMail } from '../../src/server/repos/captured-mail.ts';
 import { log } from './log.ts';
-import { DEFAULT_SINK_PORT, readConfig } from '../../src/server/config.ts';
+import { DEFAULT_DISTRIBUTOR_FAKE_PORT, DEFAULT_SINK_PORT, readConfig } from '../../src/server/config.ts';
+import { startFakeDistributor } from './distributor-fake.ts';
 
 export interface Services {
   env: Record<string, string>;
@@ -129,6 +132,15 @@ function combine(parts: Services[]): Services {
   };
 }
 
+async function startDistributorFake(env: NodeJS.ProcessEnv): Promise<Services> {
+  const config = readConfig(env);
+  const wanted = config.distributor.fakePort ?? (config.nodeEnv === 'test' ? 0 : DEFAULT_DISTRIBUTOR_FAKE_PORT);
+  const fake = await startFakeDistributor(wanted);
+  log(`fake distributor on ${fake.url} (stands in for a hosted distributor API)`);
+  return { env: { DISTRIBUTOR_URL: fake.url }, close: () => fake.close() };
+}
+
+/** Starts what the configuration leaves to local stand-ins; close() stops them all (also after a half start). */
 export async function startServices(env: NodeJS.ProcessEnv): Promise<Services> {
   const config = readConfig(env);
   const parts: Services[] = [];
@@ -136,6 +148,7 @@ export async function startServices(env: NodeJS.ProcessEnv): Promise<Services> {
     if (config.storage.kind === 's3' && !config.storage.s3.endpoint)
       parts.push(await startS3Fake(path.resolve(config.dataDir, 's3'), config.storage.s3.bucket, config.storage.s3.fakePort ?? 0));
     if (!(env.SMTP_HOST && !config.mail.sinkLocal)) parts.push(await startMailSink(env));
+    if (!config.distributor.url) parts.push(await startDistributorFake(env));
   } catch (err) {
     await combine(parts).close();
     throw err;

@@ -88,7 +88,7 @@ async function main(): Promise<void> {
   }
   buildIfChanged(root);
   const services = await startServices(process.env);
-  teardown.add('local services (mail sink, fake S3)', () => services.close());
+  teardown.add('local services (mail sink, fake S3, fake distributor)', () => services.close());
   Object.assign(process.env, services.env);
   resetAppConfig();
   const graceMs = readConfig(process.env).shutdownGraceS * 1000;

@@ -174,6 +174,27 @@ export function tidy(value: number): number {
 }
 
 /** A count with its noun in the right number: "1 diode", "25,412 diodes", "1 person", "5 people". */
-export function counted(count: number, one: string, many: string): string {
-  return `${count.toLocaleString('en-US')} ${count === 1 ? one : many}`;
+export function counted(n: number, one: string, many: string): string {
+  return `${count(n)} ${n === 1 ? one : many}`;
+}
+
+/** A whole count with thousands separators: count(1240) → "1,240", count(0) → "0". */
+export function count(value: number | null | undefined): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return '—';
+  const whole = String(Math.round(Math.abs(value))).replace(/\B(?=(\d{3})+(?!\d))/g, ',');
+  return value < 0 ? `-${whole}` : whole;
+}
+
+/**
+ * How long ago, coarsely, rounded down: under a minute "just now", then "12 min ago", "3 h ago" (under
+ * two days), "5 days ago".
+ */
+export function age(ms: number | null | undefined): string {
+  if (ms === null || ms === undefined || !Number.isFinite(ms)) return '—';
+  const minutes = Math.floor(Math.max(0, ms) / 60_000);
+  if (minutes < 1) return 'just now';
+  if (minutes < 60) return `${minutes} min ago`;
+  const hours = Math.floor(minutes / 60);
+  if (hours < 48) return `${hours} h ago`;
+  return `${Math.floor(hours / 24)} days ago`;
 }

@@ -106,6 +106,29 @@ export const CONFIG_KEYS: readonly ConfigKey[] = [
     meaning: 'spares added to every shortlist line for set-up loss and rework, in percent of per-board quantity × boards (0–50)',
   },
   {
+    key: 'DISTRIBUTOR_URL',
+    defaultText: 'the local fake',
+    meaning:
+      'base address of the distributor offers API (`GET /v1/offers?mpn=…`); when unset, `npm start`/`npm test` start the local fake distributor on 127.0.0.1 and point here at it',
+  },
+  {
+    key: 'DISTRIBUTOR_FAKE_PORT',
+    defaultText: '`2527` (`npm test`: a free port)',
+    meaning: 'port of the local fake distributor on 127.0.0.1',
+  },
+  { key: 'DISTRIBUTOR_TIMEOUT_MS', defaultText: '`3000`', meaning: 'deadline of one request to the distributor (each retry has its own)' },
+  {
+    key: 'DISTRIBUTOR_RETRIES',
+    defaultText: '`3`',
+    meaning: 'further tries after a 429, a 5xx, a timeout or a dropped connection (0–10), with backoff and Retry-After honoured up to 30 s',
+  },
+  {
+    key: 'DISTRIBUTOR_REFRESH_MIN',
+    defaultText: '`15` (`npm test`: `0`)',
+    meaning:
+      'minutes between scheduled refreshes of the cached distributor offers in each app server (one server at a time, by a lock in the database); `0` turns the schedule off',
+  },
+  {
     key: 'TRUST_PROXY',
     defaultText: 'unset',
     meaning: '`1` behind a reverse proxy you run: client addresses (for the sign-in limit) are then taken from `X-Forwarded-For`',
@@ -181,6 +204,17 @@ const envSchema = z.object({
       .default('EUR'),
   ),
   ATTRITION_PCT: z.preprocess(blankToUndefined, z.coerce.number().min(0).max(50).default(2)),
+  DISTRIBUTOR_URL: z.preprocess(
+    blankToUndefined,
+    z
+      .url({ protocol: /^https?$/, error: 'DISTRIBUTOR_URL must be an http(s) address such as http://127.0.0.1:2527' })
+      .transform((u) => u.replace(/\/+$/, ''))
+      .optional(),
+  ),
+  DISTRIBUTOR_FAKE_PORT: z.preprocess(blankToUndefined, z.coerce.number().int().min(0).max(65_535).optional()),
+  DISTRIBUTOR_TIMEOUT_MS: z.preprocess(blankToUndefined, z.coerce.number().int().min(50).max(120_000).default(3_000)),
+  DISTRIBUTOR_RETRIES: z.preprocess(blankToUndefined, z.coerce.number().int().min(0).max(10).default(3)),
+  DISTRIBUTOR_REFRESH_MIN: z.preprocess(blankToUndefined, z.coerce.number().min(0).max(10_080).optional()),
 });
 
 export interface DbConfig {
@@ -228,6 +262,20 @@ export interface BuyingConfig {
   attritionPct: number;
 }
 
+/** Where the distributor offers come from and how often they are refreshed. */
+export interface DistributorConfig {
+  /** Base address of the offers API; null until the start/test scripts set the local fake's. */
+  url: string | null;
+  /** Port of the local fake; null = the default for the run (2527, or a free one under test). */
+  fakePort: number | null;
+  timeoutMs: number;
+  retries: number;
+  /** Minutes between scheduled refreshes; 0 = no schedule. */
+  refreshMin: number;
+}
+
+export const DEFAULT_DISTRIBUTOR_FAKE_PORT = 2527;
+
 export interface AppConfig {
   nodeEnv: string | null;
   host: string;
@@ -250,6 +298,7 @@ export interface AppConfig {
   /** SIGTERM: how long requests in flight may still run. */
   shutdownGraceS: number;
   buying: BuyingConfig;
+  distributor: DistributorConfig;
 }
 
 /** Raised when a variable does not parse; names every bad key. */
@@ -314,6 +363,13 @@ export function readConfig(env: NodeJS.ProcessEnv): AppConfig {
     trustProxy: e.TRUST_PROXY === '1',
     shutdownGraceS: e.SHUTDOWN_GRACE_S,
     buying: { orgCurrency: e.ORG_CURRENCY, attritionPct: e.ATTRITION_PCT },
+    distributor: {
+      url: e.DISTRIBUTOR_URL ?? null,
+      fakePort: e.DISTRIBUTOR_FAKE_PORT ?? null,
+      timeoutMs: e.DISTRIBUTOR_TIMEOUT_MS,
+      retries: e.DISTRIBUTOR_RETRIES,
+      refreshMin: e.DISTRIBUTOR_REFRESH_MIN ?? (e.NODE_ENV === 'test' ? 0 : 15),
+    },
   };
 }
 

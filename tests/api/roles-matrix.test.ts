@@ -147,6 +147,8 @@ const MATRIX: Record<string, string> = {
   'GET /api/datasheets/[id]': 'saaaa',
   'DELETE /api/datasheets/[id]': 'sfafa',
   'POST /api/imports': 'sfafa',
+  // Distributor offers: buyers and admins refresh the cache now
+  'POST /api/distributor/refresh': 'sffaa',
 };
 
 const ROUTES = routeFiles();

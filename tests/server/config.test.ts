@@ -49,6 +49,7 @@ describe('readConfig', () => {
         secretAccessKey: 'S3RVER',
       },
     });
+    expect(c.distributor).toEqual({ url: null, fakePort: null, timeoutMs: 3000, retries: 3, refreshMin: 15 });
   });
 
   it('reads the scale-out keys: S3 store, replica (port defaults to DB_PORT), buffer pool', () => {
@@ -72,6 +73,11 @@ describe('readConfig', () => {
     // `local`: npm start runs it on loopback, one port above the primary's default 3407 unless DB_REPLICA_PORT says otherwise.
     expect(readConfig({ DB_REPLICA_HOST: 'local' }).dbReplica).toEqual({ host: '127.0.0.1', port: 3408, local: true });
     expect(c.dbBufferPoolSize).toBe('2G');
+  });
+
+  it('turns the distributor refresh schedule off under test unless asked for', () => {
+    expect(readConfig({ NODE_ENV: 'test' }).distributor.refreshMin).toBe(0);
+    expect(readConfig({ NODE_ENV: 'test', DISTRIBUTOR_REFRESH_MIN: '5' }).distributor.refreshMin).toBe(5);
   });
 
   it('reads set values and treats blank ones as unset', () => {

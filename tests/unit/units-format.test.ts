@@ -4,7 +4,21 @@
  */
 import { describe, expect, it } from 'vitest';
 import { checkFigure } from '../../src/lib/design-words.ts';
-import { bytes, counted, fixed, formatSi, measure, percent, price, quantity, scientific, sig, tidy } from '../../src/lib/units.ts';
+import {
+  age,
+  bytes,
+  count,
+  counted,
+  fixed,
+  formatSi,
+  measure,
+  percent,
+  price,
+  quantity,
+  scientific,
+  sig,
+  tidy,
+} from '../../src/lib/units.ts';
 
 describe('sig', () => {
   it.each([
@@ -108,4 +122,29 @@ describe('counted: the noun agrees with the count (English grammar)', () => {
   ])('%d %s', (n, one, many, text) => {
     expect(counted(n, one, many)).toBe(text);
   });
+});
+
+describe('count (thousands separated by commas, common practice in English)', () => {
+  it.each([
+    [0, '0'],
+    [999, '999'],
+    [1240, '1,240'],
+    [1_000_000, '1,000,000'],
+    [-12_500, '-12,500'],
+    [NaN, '—'],
+    [null, '—'],
+  ])('%s → %s', (value, expected) => expect(count(value)).toBe(expected));
+});
+
+describe('age (rounded down to the unit shown)', () => {
+  it.each([
+    [0, 'just now'],
+    [59_999, 'just now'],
+    [60_000, '1 min ago'],
+    [59 * 60_000 + 59_000, '59 min ago'],
+    [3 * 3_600_000 + 20 * 60_000, '3 h ago'], // 3 h 20 min
+    [47 * 3_600_000, '47 h ago'],
+    [48 * 3_600_000, '2 days ago'],
+    [-5_000, 'just now'], // a clock a little ahead
+  ])('%i ms → %s', (ms, expected) => expect(age(ms)).toBe(expected));
 });

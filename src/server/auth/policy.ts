@@ -90,6 +90,8 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
   '/api/parts/[id]/datasheets': { POST: ['librarian'] },
   '/api/datasheets/[id]': { GET: 'signed-in', DELETE: ['librarian'] },
   '/api/imports': { POST: ['librarian'] },
+  // Distributor offers: buyers (and admins) ask for a refresh now; the scheduled one needs nobody.
+  '/api/distributor/refresh': { POST: ['buyer'] },
 };
 
 export type Decision = 'allow' | 'sign-in' | 'forbidden' | 'method-not-allowed';
