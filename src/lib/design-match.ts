@@ -4,7 +4,7 @@
  * Pure: the service loads the parts and passes them in.
  */
 import type { DesignInput } from './domain/design.ts';
-import type { Lifecycle, MotorParams, Part, ReviewStatus } from './domain/parts.ts';
+import type { CandidatePart, Lifecycle, MotorParams, ReviewStatus } from './domain/parts.ts';
 import { designCaseOf } from './design-input.ts';
 import { rankDesign, type DesignCatalogue, type DesignRanking } from './rank-design.ts';
 import { worstCaseOf, type DesignCase, type WorstCase } from './design-case.ts';
@@ -84,7 +84,7 @@ function tiebreak(a: MatchEntry, b: MatchEntry): number {
 
 function decorate<T extends CandidateResult>(
   results: T[],
-  parts: Map<number | undefined, Part>,
+  parts: Map<number | undefined, CandidatePart<'mosfet' | 'driver' | 'diode'>>,
   qty: number,
   chosenId: number | null,
 ): MatchEntry<T>[] {
@@ -164,7 +164,9 @@ export function matchDesign(
     prepared.worstCase,
   );
   const qty = input.boardQuantity;
-  const all = new Map<number | undefined, Part>([...catalogue.mosfets, ...catalogue.drivers, ...catalogue.diodes].map((p) => [p.id, p]));
+  const all = new Map<number | undefined, CandidatePart<'mosfet' | 'driver' | 'diode'>>(
+    [...catalogue.mosfets, ...catalogue.drivers, ...catalogue.diodes].map((p) => [p.id, p]),
+  );
   return {
     worstCase: ranking.worstCase,
     motor: motorView(motorLabel, motor, input),

@@ -6,7 +6,7 @@
  */
 import { fmt, type Check } from './checks.ts';
 import { avalancheEnergyJ, avalanchePowerW } from './diode-checks.ts';
-import type { PartOf } from './domain/parts.ts';
+import type { CandidatePart } from './domain/parts.ts';
 import {
   describeDriverNeed,
   driverSupplyOf,
@@ -21,7 +21,7 @@ import { suggestedDriveRailV } from './mosfet-checks.ts';
 import type { PowerOnResult } from './power-on.ts';
 import { pullDrawCurrentA } from './power-on-advice.ts';
 import {
-  evaluateSwitchPart,
+  switchEvaluator,
   pinGateDrive,
   rankDiodeCandidates,
   sortCandidates,
@@ -68,10 +68,11 @@ export interface DesignRanking {
   cautions: string[];
 }
 
+/** The candidates ranked: full parts or the lighter rows the match loads (CandidatePart). */
 export interface DesignCatalogue {
-  mosfets: PartOf<'mosfet'>[];
-  drivers: PartOf<'driver'>[];
-  diodes: PartOf<'diode'>[];
+  mosfets: CandidatePart<'mosfet'>[];
+  drivers: CandidatePart<'driver'>[];
+  diodes: CandidatePart<'diode'>[];
 }
 
 /** The designer's picks, when made (ids of catalogue parts). */
@@ -112,14 +113,14 @@ function directDrive(
   catalogue: DesignCatalogue,
   picks: DesignPicks,
 ): { drive: GateDrive; list: SwitchCandidateResult[]; draw: number } {
-  const bare = catalogue.mosfets.map((m) => evaluateSwitchPart(c, m, pinGateDrive(c, wc), wc));
+  const bare = catalogue.mosfets.map(switchEvaluator(c, pinGateDrive(c, wc), wc));
   const reference = byId(catalogue.mosfets, picks.switchId) ?? byId(catalogue.mosfets, sortCandidates(bare)[0]?.partId);
   const pull = reference ? powerOnForPair(c, null, reference).recommendedPull : null;
   // The same worst case as the power-on advice reports: the pin at its rail, the resistor at −tol.
   const draw = pullDrawCurrentA(pull, c.logic.railV);
   if (draw === 0) return { drive: pinGateDrive(c, wc), list: sortCandidates(bare), draw };
   const drive = pinGateDrive(c, wc, draw);
-  return { drive, list: sortCandidates(catalogue.mosfets.map((m) => evaluateSwitchPart(c, m, drive, wc))), draw };
+  return { drive, list: sortCandidates(catalogue.mosfets.map(switchEvaluator(c, drive, wc))), draw };
 }
 
 function failureSummary(list: SwitchCandidateResult[]): string {
@@ -185,7 +186,11 @@ function dynamicCautions(c: DesignCase, wc: WorstCase, diode: CandidateResult[])
 }
 
 /** Power-on walk for a given switch and (optional) driver. */
-export function powerOnFor(c: DesignCase, sw: PartOf<'mosfet'> | undefined, driver: PartOf<'driver'> | undefined): PowerOnResult | null {
+export function powerOnFor(
+  c: DesignCase,
+  sw: CandidatePart<'mosfet'> | undefined,
+  driver: CandidatePart<'driver'> | undefined,
+): PowerOnResult | null {
   return sw == null ? null : powerOnForPair(c, driver ?? null, sw);
 }
 
@@ -210,7 +215,7 @@ export function rankDesign(
   const directPasses = direct.list.some((e) => e.verdict === 'pass');
   const withDriver =
     refDriver && (chosenDriver || !directPasses)
-      ? sortCandidates(catalogue.mosfets.map((m) => evaluateSwitchPart(c, m, gateDriveOfDriver(c, refDriver), wc)))
+      ? sortCandidates(catalogue.mosfets.map(switchEvaluator(c, gateDriveOfDriver(c, refDriver), wc)))
       : [];
   const fixable =
     withDriver.find((e) => e.verdict === 'pass') ??

@@ -16,6 +16,7 @@ export function candidateBounds(
   { designCase, worstCase }: PreparedCase,
   phase: SwitchDrivePhase = 'driver',
   switchPickIds: number[] = [],
+  boardQuantity = 1,
 ): CandidateBounds {
   const driverSupply = driverSupplyOf(designCase);
   return {
@@ -26,6 +27,7 @@ export function candidateBounds(
     // A driver's output high is its supply less a drop, so never above the supply's top.
     switchGateMaxV: phase === 'direct' ? worstCase.gateDriveMinV : Math.max(worstCase.gateDriveMinV, driverSupply.maxV),
     switchPickIds,
+    boardQuantity,
   };
 }
 
@@ -35,10 +37,11 @@ export async function loadCandidates(
   includePending: boolean,
   phase: SwitchDrivePhase = 'driver',
   switchPickIds: number[] = [],
+  boardQuantity = 1,
 ): Promise<MatchCatalogue> {
   const { mosfets, drivers, diodes, totals } = await loadCandidateParts(
     db,
-    candidateBounds(prepared, phase, switchPickIds),
+    candidateBounds(prepared, phase, switchPickIds, boardQuantity),
     includePending,
   );
   return {

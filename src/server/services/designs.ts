@@ -139,11 +139,11 @@ export async function matchInput(
   // engine never looks at the others (they fail gate drive directly and no driver is used), so the
   // answer is the one the whole catalogue gives, less parts that could only fail.
   if (input.selections.driver.chosenPartId == null) {
-    const direct = await loadCandidates(k, prepared, includePending, 'direct', switchPicks);
+    const direct = await loadCandidates(k, prepared, includePending, 'direct', switchPicks, input.boardQuantity);
     const match = matchDesign(input, motor.label, motor.params, direct, prepared);
     if (!match.driverNeeded && match.switch.some((e) => e.verdict === 'pass')) return match;
   }
-  const catalogue = await loadCandidates(k, prepared, includePending, 'driver', switchPicks);
+  const catalogue = await loadCandidates(k, prepared, includePending, 'driver', switchPicks, input.boardQuantity);
   return matchDesign(input, motor.label, motor.params, catalogue, prepared);
 }
 
