@@ -8,6 +8,7 @@ import { insertPart, findPartId, type NewPart } from '../../src/server/repos/par
 import { hashPassword } from '../../src/server/auth/password.ts';
 import { demoDiodes, demoDrivers, demoMosfets, demoMotors } from './data/index.ts';
 import { seedDesigns } from './designs.ts';
+import { appConfig } from '../../src/server/config.ts';
 
 export const DEMO_PASSWORD = 'stallpoint-demo';
 export const DEMO_DOMAIN = 'kestrel-fluidics.example';
@@ -55,6 +56,23 @@ async function seedParts(knex: Knex, librarianId: number | null, designerId: num
   return added;
 }
 
+/** Invented exchange rates (not market data): the value of one unit in EUR, set on an invented day. */
+export const DEMO_EUR_VALUE: Readonly<Record<string, number>> = { EUR: 1, USD: 0.915, GBP: 1.172 };
+export const DEMO_RATES_AS_OF = '2026-12-01';
+
+/**
+ * The rates table for the organisation's currency: each demo currency other than it, crossed through the
+ * EUR values above. Only currencies without a row get one, so an admin's rate is never overwritten.
+ */
+async function seedCurrencyRates(knex: Knex, orgCurrency: string): Promise<void> {
+  const orgInEur = DEMO_EUR_VALUE[orgCurrency];
+  if (orgInEur === undefined) return; // an organisation currency the demo has no figure for: the admin enters rates
+  for (const [currency, inEur] of Object.entries(DEMO_EUR_VALUE)) {
+    if (currency === orgCurrency || (await knex('currency_rates').where({ currency }).first())) continue;
+    await knex('currency_rates').insert({ currency, rate_to_org: Number((inEur / orgInEur).toFixed(8)), as_of: DEMO_RATES_AS_OF });
+  }
+}
+
 export interface SeedReport {
   partsAdded: number;
   designsAdded: number;
@@ -65,5 +83,6 @@ export async function seed(knex: Knex): Promise<SeedReport> {
   const designer = people.get(`designer@${DEMO_DOMAIN}`);
   const partsAdded = await seedParts(knex, people.get(`librarian@${DEMO_DOMAIN}`) ?? null, designer ?? null);
   const designsAdded = designer ? await seedDesigns(knex, designer) : 0;
+  await seedCurrencyRates(knex, appConfig().buying.orgCurrency);
   return { partsAdded, designsAdded };
 }

@@ -97,6 +97,7 @@ function sourcesFor(r: Rand, serial: number, basePrice: number): PartSource[] {
       distributor: d.name,
       sku: `${d.sku}-${String(serial).padStart(7, '0')}`,
       moq: 1,
+      orderMultiple: 1,
       leadTimeDays: Math.floor(between(r, 0, 60)),
       stockQty: r() < 0.15 ? 0 : Math.floor(logBetween(r, 10, 200_000)),
       currency: d.currency,

@@ -91,13 +91,12 @@ export function buildBom({ input, motor, partsById, pull, statusOf, motorStatus,
       status,
     });
   }
-  if (pull && pull.ok && pull.chosenOhms != null) {
+  const pullLine = pullResistorLine(pull);
+  if (pullLine) {
     lines.push({
-      role: `Pull-${pull.to} resistor (power-on state)`,
+      ...pullLine,
       quantity: boards,
       manufacturer: 'any',
-      partNumber: `${formatOhms(pull.chosenOhms)} ±1 %, 0.1 W`,
-      description: `Holds the control line ${pull.to === 'down' ? 'low' : 'high'} through reset (to ${pull.railV} V)`,
       alternates: '',
       referenceDesignators: 'R1',
       pairing: '',
@@ -105,6 +104,16 @@ export function buildBom({ input, motor, partsById, pull, statusOf, motorStatus,
     });
   }
   return lines.map((l, i) => ({ line: i + 1, ...l }));
+}
+
+/** The generic pull resistor the power-on walk sized, as a BOM line (one per board); null when none is needed. */
+export function pullResistorLine(pull: RecommendedPull | null): { role: string; partNumber: string; description: string } | null {
+  if (!pull || !pull.ok || pull.chosenOhms == null) return null;
+  return {
+    role: `Pull-${pull.to} resistor (power-on state)`,
+    partNumber: `${formatOhms(pull.chosenOhms)} ±1 %, 0.1 W`,
+    description: `Holds the control line ${pull.to === 'down' ? 'low' : 'high'} through reset (to ${pull.railV} V)`,
+  };
 }
 
 /** The mark every output of a design that is not ready carries (report pages, BOM). */

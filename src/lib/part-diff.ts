@@ -161,12 +161,15 @@ function sourceChanges(before: PartSource[], after: PartSource[]): string[] {
     before,
     after,
     (s) => `${s.distributor}|${s.sku}`,
-    (s) => `added source ${sourceName(s)}: stock ${s.stockQty}, MOQ ${s.moq}, ${s.leadTimeDays} days, prices ${breaks(s)}`,
+    (s) =>
+      `added source ${sourceName(s)}: stock ${s.stockQty}, MOQ ${s.moq}, order multiple ${s.orderMultiple ?? 1}, ${s.leadTimeDays} days, prices ${breaks(s)}`,
     (s) => `removed source ${sourceName(s)}`,
     (b, a) => {
       const parts = [
         ...arrow('stock', String(b.stockQty), String(a.stockQty)),
         ...arrow('MOQ', String(b.moq), String(a.moq)),
+        // Versions stored before order multiples existed had none: that was "any quantity" (1).
+        ...arrow('order multiple', String(b.orderMultiple ?? 1), String(a.orderMultiple ?? 1)),
         ...arrow('lead time', `${b.leadTimeDays} days`, `${a.leadTimeDays} days`),
         ...arrow('prices', breaks(b), breaks(a)),
       ];

@@ -121,6 +121,12 @@ export function price(amount: number | null | undefined, currency: string): stri
   return `${amount < 1 ? amount.toFixed(4) : amount.toFixed(2)} ${currency}`;
 }
 
+/** An amount of money to the cent ("1234.50 EUR"): extended costs and totals. */
+export function money(amount: number | null | undefined, currency: string): string {
+  if (amount === null || amount === undefined || !Number.isFinite(amount)) return '—';
+  return `${amount.toFixed(2)} ${currency}`;
+}
+
 /** A file size: "2.4 MB", "18 KB". */
 export function bytes(count: number): string {
   return count >= 1024 * 1024 ? `${(count / 1024 / 1024).toFixed(1)} MB` : `${Math.max(1, Math.round(count / 1024))} kB`;

@@ -39,7 +39,9 @@ export const CONFIG_KEYS: readonly ConfigKey[] = [
     key: 'PUBLIC_URL',
     defaultText: '`http://HOST:PORT` under `npm start`',
     meaning:
-      'address put into e-mailed links; required outside local mail-sink mode. Its host is also allowed as a request host at build time (besides 127.0.0.1 and localhost); a change rebuilds the app on the next start. When it is `https://…`, every response carries `Strict-Transport-Security: max-age=31536000; includeSubDomains`',
+      'address put into e-mailed links; required outside local mail-sink mode. Its host is also allowed as a request host ' +
+      'at build time (besides 127.0.0.1 and localhost); a change rebuilds the app on the next start. When it is ' +
+      '`https://…`, every response carries `Strict-Transport-Security: max-age=31536000; includeSubDomains`',
   },
   {
     key: 'SMTP_HOST',
@@ -59,6 +61,16 @@ export const CONFIG_KEYS: readonly ConfigKey[] = [
   { key: 'SMTP_SINK_PORT', defaultText: '`2526` (`npm test`: a free port)', meaning: 'port of the local sink on 127.0.0.1' },
   { key: 'CALC_RATE_LIMIT_PER_MIN', defaultText: '`600`', meaning: 'calculator requests per client address per minute (per app server)' },
   { key: 'MATCH_CONCURRENCY', defaultText: '`4`', meaning: 'design matches ranked at once per app server; more get 429 with Retry-After' },
+  {
+    key: 'ORG_CURRENCY',
+    defaultText: '`EUR`',
+    meaning: "the organisation's currency (ISO 4217): shortlist totals are converted into it with the rates an admin keeps on `/rates`",
+  },
+  {
+    key: 'ATTRITION_PCT',
+    defaultText: '`2`',
+    meaning: 'spares added to every shortlist line for set-up loss and rework, in percent of per-board quantity × boards (0–50)',
+  },
   {
     key: 'TRUST_PROXY',
     defaultText: 'unset',
@@ -105,6 +117,14 @@ const envSchema = z.object({
   CALC_RATE_LIMIT_PER_MIN: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).default(600)),
   MATCH_CONCURRENCY: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).max(64).default(4)),
   TRUST_PROXY: z.preprocess(blankToUndefined, z.enum(['0', '1']).default('0')),
+  ORG_CURRENCY: z.preprocess(
+    blankToUndefined,
+    z
+      .string()
+      .regex(/^[A-Z]{3}$/, { error: 'ORG_CURRENCY is a three-letter ISO 4217 code such as EUR' })
+      .default('EUR'),
+  ),
+  ATTRITION_PCT: z.preprocess(blankToUndefined, z.coerce.number().min(0).max(50).default(2)),
 });
 
 export interface DbConfig {
@@ -130,6 +150,14 @@ export interface MailConfig {
   sinkLocal: boolean;
 }
 
+/** What the buyers' figures depend on. */
+export interface BuyingConfig {
+  /** ISO 4217 code of the organisation's currency. */
+  orgCurrency: string;
+  /** Spares per line, percent of per-board quantity × boards. */
+  attritionPct: number;
+}
+
 export interface AppConfig {
   nodeEnv: string | null;
   host: string;
@@ -146,6 +174,7 @@ export interface AppConfig {
   trustProxy: boolean;
   /** SIGTERM: how long requests in flight may still run. */
   shutdownGraceS: number;
+  buying: BuyingConfig;
 }
 
 /** Raised when a variable does not parse; names every bad key. */
@@ -192,6 +221,7 @@ export function readConfig(env: NodeJS.ProcessEnv): AppConfig {
     matchConcurrency: e.MATCH_CONCURRENCY,
     trustProxy: e.TRUST_PROXY === '1',
     shutdownGraceS: e.SHUTDOWN_GRACE_S,
+    buying: { orgCurrency: e.ORG_CURRENCY, attritionPct: e.ATTRITION_PCT },
   };
 }
 

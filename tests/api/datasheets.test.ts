@@ -9,10 +9,10 @@ import http from 'node:http';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
-import { deflateSync } from 'node:zlib';
 import { PDFDocument, StandardFonts } from 'pdf-lib';
 import { appDb, appUrl } from '../helpers/stack.ts';
 import { sessionCookie } from '../helpers/session.ts';
+import { numberBomb, spaceBomb } from '../helpers/pdf-bombs.ts';
 
 const knex = appDb();
 const STORE = path.join(process.env.DATA_DIR ?? '.data', 'datasheets');
@@ -26,43 +26,6 @@ async function makePdf(title: string, pages = 2): Promise<Buffer> {
     doc.addPage([595, 842]).drawText(`${title} page ${i + 1} (invented test datasheet)`, { x: 50, y: 780, size: 12, font });
   return Buffer.from(await doc.save());
 }
-/**
- * A one-page PDF with an object stream (/Type /ObjStm, FlateDecode) whose content is `unpacked`: zlib
- * packs runs of one byte about 1000:1, so tens of MB fit in tens of KiB (the "decompression bomb" shape).
- */
-function pdfWithObjectStream(unpacked: Buffer): Buffer {
-  const packed = deflateSync(unpacked, { level: 9 });
-  const parts: Buffer[] = [];
-  const offsets: number[] = [];
-  let at = 0;
-  const add = (s: string | Buffer): void => {
-    const b = typeof s === 'string' ? Buffer.from(s, 'latin1') : s;
-    parts.push(b);
-    at += b.length;
-  };
-  add('%PDF-1.7\n');
-  offsets[1] = at;
-  add('1 0 obj\n<< /Type /Catalog /Pages 2 0 R >>\nendobj\n');
-  offsets[2] = at;
-  add('2 0 obj\n<< /Type /Pages /Kids [3 0 R] /Count 1 >>\nendobj\n');
-  offsets[3] = at;
-  add('3 0 obj\n<< /Type /Page /Parent 2 0 R /MediaBox [0 0 595 842] >>\nendobj\n');
-  offsets[4] = at;
-  add(`4 0 obj\n<< /Type /ObjStm /N 1 /First 5 /Filter /FlateDecode /Length ${packed.length} >>\nstream\n`);
-  add(packed);
-  add('\nendstream\nendobj\n');
-  const xref = at;
-  add(`xref\n0 5\n0000000000 65535 f \n${[1, 2, 3, 4].map((i) => `${String(offsets[i]).padStart(10, '0')} 00000 n \n`).join('')}`);
-  add(`trailer\n<< /Size 5 /Root 1 0 R >>\nstartxref\n${xref}\n%%EOF\n`);
-  return Buffer.concat(parts);
-}
-/** Unpacks to 64 MB of spaces: over the unpacking budget. */
-const spaceBomb = (): Buffer =>
-  pdfWithObjectStream(Buffer.concat([Buffer.from('99 0 '), Buffer.alloc(64 * 1024 * 1024, 0x20), Buffer.from('<< >>')]));
-/** Unpacks to 24 MB (within the unpacking budget) holding one array of 12 million numbers: over the memory budget. */
-const numberBomb = (): Buffer =>
-  pdfWithObjectStream(Buffer.concat([Buffer.from('99 0 ['), Buffer.from('0 '.repeat(12 * 1024 * 1024)), Buffer.from(']')]));
-
 const files = (): string[] => (existsSync(STORE) ? readdirSync(STORE).sort() : []);
 const rows = async (): Promise<number> => Number((await knex('datasheets').count({ n: '*' }).first())!.n);
 

@@ -87,6 +87,7 @@ const MATRIX: Record<string, string> = {
   'GET /parts/import': 'sfafa',
   'GET /parts/new': 'saafa',
   'GET /people': 'sfffa',
+  'GET /rates': 'sfffa',
   'GET /reset': 'aaaaa',
   'GET /review': 'sfafa',
   'GET /shortlist': 'safaa',
@@ -106,6 +107,9 @@ const MATRIX: Record<string, string> = {
   'POST /api/people/[id]/invite': 'sfffa',
   'POST /api/people/[id]/reactivate': 'sfffa',
   'PUT /api/people/[id]/roles': 'sfffa',
+  // Exchange rates: everyone signed in reads; only admins set them
+  'GET /api/rates': 'saaaa',
+  'PUT /api/rates': 'sfffa',
   // Open calculators and health
   'POST /api/calc/motor': 'aaaaa',
   'POST /api/calc/pull-resistor': 'aaaaa',
@@ -122,6 +126,8 @@ const MATRIX: Record<string, string> = {
   'POST /api/designs/[id]/status': 'saffa',
   'GET /api/designs/[id]/report.pdf': 'saaaa',
   'GET /api/designs/[id]/bom.csv': 'saaaa',
+  // The shortlist's figures: the same people as the shortlist page
+  'GET /api/shortlist': 'safaa',
   // Change alerts: anyone signed in may acknowledge one (who and when are recorded)
   'POST /api/alerts/[id]/acknowledge': 'saaaa',
   // Catalogue: everyone signed in reads; designers propose; librarians curate; buyers keep supply data

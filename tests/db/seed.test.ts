@@ -21,6 +21,7 @@ const TABLES = [
   'designs',
   'design_revisions',
   'design_parts',
+  'currency_rates',
 ];
 
 async function counts(): Promise<Record<string, number>> {
@@ -56,5 +57,30 @@ describe('demo seed', () => {
       .whereNull('part_sources.id')
       .count({ n: '*' });
     expect(Number(withoutSource[0].n)).toBe(0);
+  });
+
+  it('seeds invented pack sizes and rates into the default organisation currency (EUR)', async () => {
+    // Hand-written from db/seeds/demo.ts and db/seeds/data/index.ts: Kelderhaus strips of 10, Fenwick Row
+    // strips of 5, everything else and every motor sold singly; 1 USD = 0.915 EUR, 1 GBP = 1.172 EUR.
+    const multiples: { distributor: string; motor: number; m: number }[] = await db('part_sources as s')
+      .join('parts as p', 'p.id', 's.part_id')
+      .select('s.distributor', db.raw("p.category = 'motor' as motor"), 's.order_multiple as m')
+      .groupBy('s.distributor', 'motor', 's.order_multiple');
+    const seen = multiples.map((r) => `${r.distributor}|${Number(r.motor) ? 'motor' : 'semi'}|${r.m}`).sort();
+    for (const line of seen)
+      expect([
+        'Ashdown Component Supply|motor|1',
+        'Ashdown Component Supply|semi|1',
+        'Fenwick Row Electronics|motor|1',
+        'Fenwick Row Electronics|semi|5',
+        'Kelderhaus Bauteile|motor|1',
+        'Kelderhaus Bauteile|semi|10',
+      ]).toContain(line);
+    expect(seen).toContain('Kelderhaus Bauteile|semi|10');
+    const rates = await db('currency_rates').orderBy('currency').select('currency', 'rate_to_org', 'as_of');
+    expect(rates.map((r) => [r.currency, Number(r.rate_to_org)])).toEqual([
+      ['GBP', 1.172],
+      ['USD', 0.915],
+    ]);
   });
 });

@@ -9,6 +9,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import knexFactory, { type Knex } from 'knex';
+import mysql from 'mysql2/promise';
 import { CONFIG_KEYS } from '../../src/server/config.ts';
 import { knexConfig } from '../../knexfile.ts';
 import { freePort } from '../../scripts/stack/throwaway.ts';
@@ -168,11 +169,14 @@ export async function waitHealthy(url: string, timeoutMs: number): Promise<void>
   }
 }
 
+/** The invented maker of every row diodeCsv writes. */
+export const DIODE_MAKER = 'Faultline Test Parts';
+
 /** A CSV of `n` invented Schottky diode rows (maker and part numbers `${prefix}-00001`… invented). */
 export function diodeCsv(prefix: string, n: number): string {
   const header = 'category,manufacturer,mpn,package,lifecycle,reviewStatus,kind,vrrmV,ifAvA,ifsmA,vfV,vfAtIfA';
   const mpn = (i: number): string => `${prefix}-${String(i + 1).padStart(5, '0')}`;
-  const rows = Array.from({ length: n }, (_, i) => `diode,Faultline Test Parts,${mpn(i)},SOD-123,active,pending,schottky,40,1,25,0.5,1`);
+  const rows = Array.from({ length: n }, (_, i) => `diode,${DIODE_MAKER},${mpn(i)},SOD-123,active,pending,schottky,40,1,25,0.5,1`);
   return [header, ...rows].join('\n') + '\n';
 }
 
@@ -185,10 +189,125 @@ export function commitImport(url: string, cookie: string, csv: string, key: stri
   });
 }
 
-/** Rows the running transactions of the server have changed so far (root over the socket). */
-export function rowsModifiedInFlight(db: MariaDbInstance): number {
-  const out = rootSql(db, 'SELECT COALESCE(SUM(trx_rows_modified), 0) FROM information_schema.INNODB_TRX');
-  return Number(out.trim());
+/**
+ * A connection of the test's own, as a user made for it by root (not the app's user, whose rights stay as
+ * `npm start` sets them): PROCESS to read information_schema.INNODB_TRX and INNODB_LOCK_WAITS, and
+ * INSERT on the parts table to hold a key.
+ */
+const probePasswords = new WeakMap<SupervisedStack, string>();
+async function probeConnection(stack: SupervisedStack): Promise<mysql.Connection> {
+  const password = probePasswords.get(stack) ?? generatedSecret();
+  probePasswords.set(stack, password);
+  rootSql(
+    stack.db,
+    [
+      `CREATE USER IF NOT EXISTS 'faults_probe'@'127.0.0.1' IDENTIFIED BY '${password}';`,
+      `ALTER USER 'faults_probe'@'127.0.0.1' IDENTIFIED BY '${password}';`,
+      "GRANT PROCESS ON *.* TO 'faults_probe'@'127.0.0.1';",
+      `GRANT SELECT, INSERT ON \`${stack.env.DB_NAME}\`.* TO 'faults_probe'@'127.0.0.1';`,
+    ].join(' '),
+  );
+  const c = await mysql.createConnection({
+    host: '127.0.0.1',
+    port: Number(stack.env.DB_PORT),
+    user: 'faults_probe',
+    password,
+    database: stack.env.DB_NAME,
+  });
+  // A MariaDB killed under it ends the connection with an error event: expected here, not a test failure.
+  c.on('error', () => {});
+  return c;
+}
+
+/** A part key (maker and part number) held by an open transaction of the test; see holdPartKey. */
+export interface PartKeyHold {
+  /**
+   * Resolves once a transaction of the app waits (LOCK WAIT) on the held key, with the rows it has
+   * changed so far; rejects when `answered()` turns true first (the request ended without waiting) or
+   * after `timeoutMs`.
+   */
+  waitUntilBlocked(timeoutMs: number, answered: () => boolean): Promise<{ rowsModified: number }>;
+  /** Rolls the holding transaction back: the waiting statement goes on as if the key had never been taken. */
+  release(): Promise<void>;
+  /** Ends both connections (after a release, or after MariaDB went away and took the transaction with it). */
+  close(): void;
+}
+
+/**
+ * Holds the unique key (manufacturer, mpn) of parts (`parts_manufacturer_mpn_unique`) with an
+ * uncommitted INSERT on a connection of the test's own. An import whose file has that row reads around
+ * the uncommitted row (consistent read: no duplicate reported) and then waits for the lock when it
+ * inserts it, whether one row per statement or many rows in one statement: the import is then provably
+ * mid-way, with every earlier row written in its transaction, and stays there until `release()` (or
+ * until the lock wait or query timeout ends it; innodb_lock_wait_timeout is MariaDB's default 50 s).
+ */
+export async function holdPartKey(
+  stack: SupervisedStack,
+  part: { category: string; manufacturer: string; mpn: string },
+): Promise<PartKeyHold> {
+  const holder = await probeConnection(stack);
+  const watcher = await probeConnection(stack);
+  await holder.beginTransaction();
+  await holder.query('INSERT INTO parts (category, manufacturer, mpn) VALUES (?, ?, ?)', [part.category, part.manufacturer, part.mpn]);
+  const holderThread = holder.threadId;
+  return {
+    async waitUntilBlocked(timeoutMs, answered) {
+      const end = Date.now() + timeoutMs;
+      for (;;) {
+        const [rows] = (await watcher.query(
+          `SELECT r.trx_rows_modified AS rowsModified
+             FROM information_schema.INNODB_LOCK_WAITS w
+             JOIN information_schema.INNODB_TRX r ON r.trx_id = w.requesting_trx_id
+             JOIN information_schema.INNODB_TRX b ON b.trx_id = w.blocking_trx_id
+            WHERE b.trx_mysql_thread_id = ? AND r.trx_state = 'LOCK WAIT' AND r.trx_rows_modified > 0`,
+          [holderThread],
+        )) as [{ rowsModified: number }[], unknown];
+        if (rows.length > 0) return { rowsModified: Number(rows[0].rowsModified) };
+        if (answered()) throw new Error(`the request ended before it waited on ${part.manufacturer} ${part.mpn}`);
+        if (Date.now() > end) throw new Error(`nothing waited on ${part.manufacturer} ${part.mpn} within ${timeoutMs} ms`);
+        // Not faster: InnoDB refreshes what INNODB_TRX shows only when it was last read over 0.1 s ago
+        // (its trx_i_s cache), so a tighter poll would read the same stale picture forever.
+        await new Promise((r) => setTimeout(r, 150));
+      }
+    },
+    async release() {
+      await holder.rollback();
+    },
+    close() {
+      holder.destroy();
+      watcher.destroy();
+    },
+  };
+}
+
+/**
+ * Sends a request (`send`, e.g. an import) and resolves once it waits on `hold`, its answer still to
+ * come, with the rows its transaction had changed by then. A request that answers first fails the wait
+ * with what it answered.
+ */
+export async function blockedOn(
+  hold: PartKeyHold,
+  send: () => Promise<Response>,
+  timeoutMs = 60_000,
+): Promise<{ answer: Promise<Response>; rowsModified: number }> {
+  let settled = false;
+  let early: Response | null = null;
+  const answer = send().then(
+    (r) => ((settled = true), (early = r)),
+    (err: unknown) => {
+      settled = true;
+      throw err;
+    },
+  );
+  answer.catch(() => {}); // the caller awaits it; no unhandled rejection meanwhile
+  try {
+    const { rowsModified } = await hold.waitUntilBlocked(timeoutMs, () => settled);
+    return { answer, rowsModified };
+  } catch (err) {
+    const r = early as Response | null;
+    if (r) throw new Error(`${(err as Error).message}; it answered ${r.status} ${(await r.clone().text()).slice(0, 500)}`);
+    throw err;
+  }
 }
 
 /** State letters of every thread of `pid` (from /proc: T = stopped). */

@@ -35,6 +35,7 @@ describe('readConfig', () => {
     expect(c.calcRateLimitPerMin).toBe(600);
     expect(c.trustProxy).toBe(false);
     expect(c.shutdownGraceS).toBe(30);
+    expect(c.buying).toEqual({ orgCurrency: 'EUR', attritionPct: 2 });
   });
 
   it('reads set values and treats blank ones as unset', () => {
@@ -50,6 +51,8 @@ describe('readConfig', () => {
       HOST: '  ',
       DB_QUERY_TIMEOUT_MS: '2500',
       SHUTDOWN_GRACE_S: '0',
+      ORG_CURRENCY: 'GBP',
+      ATTRITION_PCT: '5.5',
     });
     expect(c.port).toBe(8080);
     expect(c.db.port).toBe(3306);
@@ -62,6 +65,7 @@ describe('readConfig', () => {
     expect(c.host).toBe('127.0.0.1');
     expect(c.db.queryTimeoutMs).toBe(2500);
     expect(c.shutdownGraceS).toBe(0);
+    expect(c.buying).toEqual({ orgCurrency: 'GBP', attritionPct: 5.5 });
   });
 
   it.each([
@@ -75,6 +79,10 @@ describe('readConfig', () => {
     ['CALC_RATE_LIMIT_PER_MIN', '-5'],
     ['DB_QUERY_TIMEOUT_MS', '10'],
     ['SHUTDOWN_GRACE_S', 'soon'],
+    ['ORG_CURRENCY', 'euro'],
+    ['ORG_CURRENCY', 'eur'],
+    ['ATTRITION_PCT', '-1'],
+    ['ATTRITION_PCT', '80'],
   ])('refuses %s=%s naming the key', (key, value) => {
     let err: unknown;
     try {

@@ -46,6 +46,7 @@ const mosfet: PartOf<'mosfet'> = {
       distributor: 'Fenwick Row Electronics',
       sku: 'FRE-1',
       moq: 1,
+      orderMultiple: 1,
       leadTimeDays: 5,
       stockQty: 100,
       currency: 'USD',
@@ -126,14 +127,16 @@ describe('describePartChanges', () => {
       [{ title: 'Parameters', lines: ['added Zth point 12 K/W at 10 ms'] }],
     ],
     [
-      'supply data: stock and a price break changed, a source added',
+      'supply data: stock, order multiple and a price break changed, a source added',
       (p) => {
         p.sources[0].stockQty = 40;
+        p.sources[0].orderMultiple = 25;
         p.sources[0].priceBreaks[1].unitPrice = 0.1;
         p.sources.push({
           distributor: 'Kelderhaus Bauteile',
           sku: 'KB-7',
           moq: 5,
+          orderMultiple: 10,
           leadTimeDays: 10,
           stockQty: 30,
           currency: 'EUR',
@@ -144,8 +147,8 @@ describe('describePartChanges', () => {
         {
           title: 'Sources and prices',
           lines: [
-            'Fenwick Row Electronics FRE-1: stock 100 → 40, prices 1+: 0.3000 USD · 100+: 0.1200 USD → 1+: 0.3000 USD · 100+: 0.1000 USD',
-            'added source Kelderhaus Bauteile KB-7: stock 30, MOQ 5, 10 days, prices none',
+            'Fenwick Row Electronics FRE-1: stock 100 → 40, order multiple 1 → 25, prices 1+: 0.3000 USD · 100+: 0.1200 USD → 1+: 0.3000 USD · 100+: 0.1000 USD',
+            'added source Kelderhaus Bauteile KB-7: stock 30, MOQ 5, order multiple 10, 10 days, prices none',
           ],
         },
       ],

@@ -9,9 +9,9 @@
  *
  * Generated once and then kept as plain data; edit freely.
  */
-import type { DemoPart } from './types';
+import type { DemoEntry } from './types';
 
-export const demoDiodes: DemoPart<'diode'>[] = [
+export const demoDiodes: DemoEntry<'diode'>[] = [
   {
     category: 'diode',
     manufacturer: 'Ostler Rectifier Works',

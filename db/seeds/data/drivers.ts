@@ -13,9 +13,9 @@
  *
  * Generated once and then kept as plain data; edit freely.
  */
-import type { DemoPart } from './types';
+import type { DemoEntry } from './types';
 
-export const demoDrivers: DemoPart<'driver'>[] = [
+export const demoDrivers: DemoEntry<'driver'>[] = [
   {
     category: 'driver',
     manufacturer: 'Pellinor Analog',

@@ -2,14 +2,38 @@
  * Demo catalogue for the invented Kestrel Fluidics scenario (kestrel-fluidics.example): a small company
  * building lab dosing pumps and bench fans. Every maker, distributor and part number here is fictional.
  */
-import { demoDiodes } from './diodes';
-import { demoDrivers } from './drivers';
-import { demoMosfets } from './mosfets';
-import { demoMotors } from './motors';
-import type { AnyDemoPart, DemoDistributor, DemoManufacturer } from './types';
+import type { PartCategory } from '../../../src/lib/domain/parts';
+import { demoDiodes as diodeEntries } from './diodes';
+import { demoDrivers as driverEntries } from './drivers';
+import { demoMosfets as mosfetEntries } from './mosfets';
+import { demoMotors as motorEntries } from './motors';
+import type { AnyDemoPart, DemoDistributor, DemoEntry, DemoManufacturer, DemoPart } from './types';
 
 export type { AnyDemoPart, DemoDistributor, DemoManufacturer, DemoPart } from './types';
-export { demoDiodes, demoDrivers, demoMosfets, demoMotors };
+
+/**
+ * Invented pack sizes: Kelderhaus Bauteile cuts semiconductors from the reel in strips of ten, Fenwick Row
+ * in strips of five; Ashdown and every motor sell singly. A source that states its own multiple keeps it.
+ */
+const PACK_OF: Record<string, number> = { 'Kelderhaus Bauteile': 10, 'Fenwick Row Electronics': 5 };
+
+function withOrderMultiples<C extends PartCategory>(entries: DemoEntry<C>[]): DemoPart<C>[] {
+  return entries.map(
+    (e) =>
+      ({
+        ...e,
+        sources: e.sources.map((s) => ({
+          ...s,
+          orderMultiple: s.orderMultiple ?? (e.category === 'motor' ? 1 : (PACK_OF[s.distributor] ?? 1)),
+        })),
+      }) as DemoPart<C>,
+  );
+}
+
+export const demoMotors = withOrderMultiples(motorEntries);
+export const demoMosfets = withOrderMultiples(mosfetEntries);
+export const demoDrivers = withOrderMultiples(driverEntries);
+export const demoDiodes = withOrderMultiples(diodeEntries);
 
 export const demoCompany = {
   name: 'Kestrel Fluidics',

@@ -19,9 +19,9 @@
  *
  * Generated once and then kept as plain data; edit freely.
  */
-import type { DemoPart } from './types';
+import type { DemoEntry } from './types';
 
-export const demoMosfets: DemoPart<'mosfet'>[] = [
+export const demoMosfets: DemoEntry<'mosfet'>[] = [
   {
     category: 'mosfet',
     manufacturer: 'Marrowfield Microelectronics',

@@ -8,9 +8,9 @@
  *
  * Generated once and then kept as plain data; edit freely.
  */
-import type { DemoPart } from './types';
+import type { DemoEntry } from './types';
 
-export const demoMotors: DemoPart<'motor'>[] = [
+export const demoMotors: DemoEntry<'motor'>[] = [
   {
     category: 'motor',
     manufacturer: 'Haverleigh Motion',

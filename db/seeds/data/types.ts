@@ -5,7 +5,13 @@
  * part numbers. Parameter values are chosen to be physically plausible and consistent with each other,
  * so that ranking and worst-case checks behave as they would on a real catalogue.
  */
-import type { PartCategory, PartOf } from '../../../src/lib/domain/parts';
+import type { PartCategory, PartOf, PartSource } from '../../../src/lib/domain/parts';
+
+/** A demo source as written in the data files: the order multiple may be left out (index.ts fills in the pack size). */
+export type DemoSource = Omit<PartSource, 'orderMultiple'> & { orderMultiple?: number };
+
+/** A part as written in the data files. */
+export type DemoEntry<C extends PartCategory> = Omit<PartOf<C>, 'id' | 'version' | 'sources'> & { sources: DemoSource[] };
 
 /** A catalogue part as the seed inserts it: the database assigns id and version. */
 export type DemoPart<C extends PartCategory> = Omit<PartOf<C>, 'id' | 'version'>;

@@ -1,13 +1,18 @@
 import { useEffect, useMemo, useRef, useState } from 'react';
-import { postJson, type ApiIssue } from '../api-client.ts';
+import { postJson } from '../api-client.ts';
 import type { CalcMotorResponse } from '../../lib/calc.ts';
 import { fixed, percent, torqueFromNm, type TorqueUnit } from '../../lib/units.ts';
 import NumberField, { FieldPrefix } from './NumberField.tsx';
 import LineChart, { type ChartMarker, type ChartSeries } from './LineChart.tsx';
 import MotorSummary from './MotorSummary.tsx';
+import StaleResults from './StaleResults.tsx';
+import MotorActions, { type CalculatorViewer } from './MotorActions.tsx';
+import { localRefusal, refusalOf } from './refusal.ts';
+import type { MotorHandoff } from '../../lib/motor-handoff.ts';
 import {
   CURRENT_UNITS,
   DEFAULT_MOTOR_FORM,
+  MOTOR_FIELD_LABELS,
   PATH_TO_FIELD,
   SPEED_UNITS,
   TORQUE_UNITS,
@@ -18,15 +23,6 @@ import {
 
 type Results = { min: CalcMotorResponse; max: CalcMotorResponse };
 type Status = 'idle' | 'loading' | 'ready' | 'error';
-
-function issuesToErrors(issues: ApiIssue[]): FieldErrors {
-  const errors: FieldErrors = {};
-  for (const i of issues) {
-    const field = PATH_TO_FIELD[i.path];
-    if (field && !errors[field]) errors[field] = i.message;
-  }
-  return errors;
-}
 
 function useMotorResults(form: MotorForm) {
   const [results, setResults] = useState<Results | null>(null);
@@ -39,7 +35,10 @@ function useMotorResults(form: MotorForm) {
   useEffect(() => {
     const built = toRequests(form);
     if (!built.ok) {
-      setErrors(built.errors);
+      const refusal = localRefusal(built.errors, MOTOR_FIELD_LABELS);
+      setErrors(refusal.errors);
+      setMessage(refusal.message);
+      setStatus('error');
       setStale(true);
       return;
     }
@@ -60,8 +59,9 @@ function useMotorResults(form: MotorForm) {
           setStatus('ready');
         } else {
           const bad = !min.ok ? min : !max.ok ? max : null;
-          setErrors(bad ? issuesToErrors(bad.issues) : {});
-          setMessage(bad ? bad.error : '');
+          const refusal = bad ? refusalOf(bad.issues, PATH_TO_FIELD, MOTOR_FIELD_LABELS, bad.error) : { errors: {}, message: '' };
+          setErrors(refusal.errors);
+          setMessage(bad && bad.issues.length === 0 ? bad.error : refusal.message);
           setStale(true);
           setStatus('error');
         }
@@ -74,6 +74,16 @@ function useMotorResults(form: MotorForm) {
   return { results, errors, status, message, stale };
 }
 
+/** The accepted motor in SI with its supply range, for the actions (null while the inputs are refused). */
+function handoffOf(results: Results | null, stale: boolean, form: MotorForm): MotorHandoff | null {
+  if (!results || stale) return null;
+  const built = toRequests(form);
+  if (!built.ok) return null;
+  const body = built.requests.min as { motor: Omit<MotorHandoff, 'supplyMinV' | 'supplyMaxV'>; supplyV: number };
+  const maxBody = built.requests.max as { supplyV: number };
+  return { ...body.motor, supplyMinV: body.supplyV, supplyMaxV: maxBody.supplyV };
+}
+
 function curveSeries(r: Results, unit: TorqueUnit, pick: (p: CalcMotorResponse['curve'][number]) => number): ChartSeries[] {
   const line = (res: CalcMotorResponse) => res.curve.map((p) => ({ x: torqueFromNm(p.torqueNm, unit), y: pick(p) }));
   return [
@@ -83,9 +93,10 @@ function curveSeries(r: Results, unit: TorqueUnit, pick: (p: CalcMotorResponse['
 }
 
 /** Motor curves at minimum and maximum supply from datasheet points, in the datasheet's own units. */
-export default function MotorCalculator() {
+export default function MotorCalculator({ viewer = null }: { viewer?: CalculatorViewer | null }) {
   const [form, setForm] = useState<MotorForm>(DEFAULT_MOTOR_FORM);
   const { results, errors, status, message, stale } = useMotorResults(form);
+  const handoff = useMemo(() => handoffOf(results, stale, form), [results, stale, form]);
   const set = (key: keyof MotorForm) => (value: string) => setForm((f) => ({ ...f, [key]: value }));
   const unit = form.torqueUnit;
   const charts = useMemo(() => {
@@ -176,8 +187,8 @@ export default function MotorCalculator() {
             onChange={set('noLoadCurrent')}
             error={errors.noLoadCurrent}
             units={CURRENT_UNITS}
-            unit={form.currentUnit}
-            onUnitChange={set('currentUnit')}
+            unit={form.noLoadCurrentUnit}
+            onUnitChange={set('noLoadCurrentUnit')}
           />
           <NumberField
             name="stallCurrent"
@@ -185,7 +196,9 @@ export default function MotorCalculator() {
             value={form.stallCurrent}
             onChange={set('stallCurrent')}
             error={errors.stallCurrent}
-            unit={form.currentUnit}
+            units={CURRENT_UNITS}
+            unit={form.stallCurrentUnit}
+            onUnitChange={set('stallCurrentUnit')}
           />
           <NumberField
             name="stallTorque"
@@ -228,19 +241,11 @@ export default function MotorCalculator() {
             {status === 'loading' ? '… computing' : status === 'error' ? `⚠ ${message}` : status === 'ready' ? '✓ up to date' : ''}
           </p>
         </form>
-        <div
-          className={stale && results ? 'opacity-40' : undefined}
-          aria-hidden={stale && results ? true : undefined}
-          data-testid="motor-results"
-        >
+        <StaleResults stale={stale && results !== null} testId="motor-results" staleTestId="motor-stale">
           {results ? <MotorSummary min={results.min} max={results.max} torqueUnit={unit} /> : null}
           {charts ? <div className="grid gap-3 md:grid-cols-2 mt-3">{charts}</div> : null}
-        </div>
-        {stale && results ? (
-          <p className="text-sm text-warn mt-2" role="status" data-testid="motor-stale">
-            ! These results are for the last inputs that were accepted; correct the marked fields to update them.
-          </p>
-        ) : null}
+        </StaleResults>
+        {results ? <MotorActions motor={handoff} viewer={viewer} /> : null}
       </section>
     </FieldPrefix.Provider>
   );

@@ -2,6 +2,8 @@ import { useEffect, useRef, useState } from 'react';
 import { postJson } from '../api-client.ts';
 import type { PullResistorResult } from '../../lib/pull-resistor.ts';
 import NumberField, { FieldPrefix } from './NumberField.tsx';
+import StaleResults from './StaleResults.tsx';
+import { refusalOf } from './refusal.ts';
 import { fixed, formatOhms } from '../../lib/units.ts';
 
 interface Form {
@@ -28,7 +30,18 @@ const DEFAULTS: Form = {
   series: 'E12',
 };
 
-const PATHS: Record<string, keyof Form> = {
+type NumberKey = 'internalPullKOhm' | 'pinRailV' | 'pinMaxMa' | 'externalRailV' | 'limitV';
+
+/** The labels the form shows, used to name refused fields (never the API's paths). */
+const LABELS: Record<NumberKey, string> = {
+  internalPullKOhm: 'Internal pull (min.)',
+  pinRailV: 'Pin supply',
+  pinMaxMa: 'Pin current limit',
+  externalRailV: 'External rail',
+  limitV: 'Limit',
+};
+
+const PATHS: Record<string, NumberKey> = {
   'pin.internalPullOhms': 'internalPullKOhm',
   'pin.railV': 'pinRailV',
   'pin.maxCurrentA': 'pinMaxMa',
@@ -67,7 +80,7 @@ const fmtOhm = (ohm: number | null) => (ohm === null ? '—' : formatOhms(ohm));
 export default function PullResistorCalculator() {
   const [form, setForm] = useState<Form>(DEFAULTS);
   const [result, setResult] = useState<PullResistorResult | null>(null);
-  const [errors, setErrors] = useState<Partial<Record<keyof Form, string>>>({});
+  const [errors, setErrors] = useState<Partial<Record<NumberKey, string>>>({});
   const [message, setMessage] = useState('');
   const abort = useRef<AbortController | null>(null);
   const set =
@@ -98,10 +111,9 @@ export default function PullResistorCalculator() {
           setErrors({});
           setMessage('');
         } else {
-          const e: Partial<Record<keyof Form, string>> = {};
-          for (const i of res.issues) if (PATHS[i.path]) e[PATHS[i.path]] = i.message;
-          setErrors(e);
-          setMessage(res.error);
+          const refusal = refusalOf(res.issues, PATHS, LABELS, res.error);
+          setErrors(refusal.errors);
+          setMessage(res.issues.length ? refusal.message : res.error);
         }
       } catch {
         /* superseded */
@@ -206,35 +218,37 @@ export default function PullResistorCalculator() {
           </p>
         ) : null}
         {result ? (
-          <div className="card p-3 mt-3 text-sm" data-testid="pull-result">
-            <p className="text-base mb-1">
-              {result.ok ? (
-                <strong className="text-ok">✓ Fit {fmtOhm(result.chosenOhms)}</strong>
-              ) : (
-                <strong className="text-bad">✕ No standard value fits</strong>
-              )}
-            </p>
-            <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-0.5 num">
-              <dt className="text-ink-soft">Largest value that holds the node</dt>
-              <dd>{fmtOhm(result.maxOhms)}</dd>
-              <dt className="text-ink-soft">Smallest value the pin can drive</dt>
-              <dd>{fmtOhm(result.minOhms)}</dd>
-              <dt className="text-ink-soft">Node voltage at reset</dt>
-              <dd>{result.nodeV === null ? '—' : `${fixed(result.nodeV, 3)} V`}</dd>
-              <dt className="text-ink-soft">Pin current when driving against it</dt>
-              <dd>{result.activeCurrentA === null ? '—' : `${fixed(result.activeCurrentA * 1000, 2)} mA`}</dd>
-            </dl>
-            {result.notes.length ? (
-              <ul className="mt-2 list-disc pl-5">
-                {result.notes.map((n) => (
-                  <li key={n}>{n}</li>
-                ))}
-              </ul>
-            ) : null}
-            <p className="mt-2 text-xs text-ink-faint">
-              Verify the motor stays OFF through reset on the real board before attaching loads.
-            </p>
-          </div>
+          <StaleResults stale={message !== ''} testId="pull-result-box" staleTestId="pull-stale">
+            <div className="card p-3 mt-3 text-sm" data-testid="pull-result">
+              <p className="text-base mb-1">
+                {result.ok ? (
+                  <strong className="text-ok">✓ Fit {fmtOhm(result.chosenOhms)}</strong>
+                ) : (
+                  <strong className="text-bad">✕ No standard value fits</strong>
+                )}
+              </p>
+              <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-0.5 num">
+                <dt className="text-ink-soft">Largest value that holds the node</dt>
+                <dd>{fmtOhm(result.maxOhms)}</dd>
+                <dt className="text-ink-soft">Smallest value the pin can drive</dt>
+                <dd>{fmtOhm(result.minOhms)}</dd>
+                <dt className="text-ink-soft">Node voltage at reset</dt>
+                <dd>{result.nodeV === null ? '—' : `${fixed(result.nodeV, 3)} V`}</dd>
+                <dt className="text-ink-soft">Pin current when driving against it</dt>
+                <dd>{result.activeCurrentA === null ? '—' : `${fixed(result.activeCurrentA * 1000, 2)} mA`}</dd>
+              </dl>
+              {result.notes.length ? (
+                <ul className="mt-2 list-disc pl-5">
+                  {result.notes.map((n) => (
+                    <li key={n}>{n}</li>
+                  ))}
+                </ul>
+              ) : null}
+              <p className="mt-2 text-xs text-ink-faint">
+                Verify the motor stays OFF through reset on the real board before attaching loads.
+              </p>
+            </div>
+          </StaleResults>
         ) : null}
       </section>
     </FieldPrefix.Provider>

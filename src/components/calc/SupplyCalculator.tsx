@@ -5,8 +5,11 @@ import type { SupplyReport } from '../../lib/supply.ts';
 import Verdict from '../workspace/Verdict.tsx';
 import { SupplyChecks, SupplyFigures, SupplyNotes } from '../workspace/SupplyPanel.tsx';
 import NumberField, { FieldPrefix } from './NumberField.tsx';
+import StaleResults from './StaleResults.tsx';
+import { localRefusal, refusalOf } from './refusal.ts';
 import {
   DEFAULT_SUPPLY_FORM,
+  SUPPLY_FIELD_LABELS,
   SUPPLY_PATH_TO_FIELD,
   formFromPreset,
   toSupplyRequest,
@@ -25,9 +28,10 @@ function useSupplyReport(form: SupplyForm) {
   useEffect(() => {
     const built = toSupplyRequest(form);
     if (!built.ok) {
-      setErrors(built.errors);
+      const refusal = localRefusal(built.errors, SUPPLY_FIELD_LABELS);
+      setErrors(refusal.errors);
       setStatus('error');
-      setMessage('Some fields are not numbers.');
+      setMessage(refusal.message);
       return;
     }
     const timer = setTimeout(async () => {
@@ -44,15 +48,9 @@ function useSupplyReport(form: SupplyForm) {
           setStatus('ready');
           return;
         }
-        const e: SupplyFieldErrors = {};
-        const unplaced: string[] = [];
-        for (const i of res.issues) {
-          const field = SUPPLY_PATH_TO_FIELD[i.path];
-          if (field) e[field] ??= i.message;
-          else unplaced.push(i.message);
-        }
-        setErrors(e);
-        setMessage([res.error, ...unplaced].join(' '));
+        const refusal = refusalOf(res.issues, SUPPLY_PATH_TO_FIELD, SUPPLY_FIELD_LABELS, res.error);
+        setErrors(refusal.errors);
+        setMessage(res.issues.length ? refusal.message : res.error);
         setStatus('error');
       } catch {
         /* superseded by a newer request */
@@ -72,8 +70,16 @@ export default function SupplyCalculator() {
     setForm((f) => ({ ...f, [key]: value }));
     if (['supplyV', 'internalOhm', 'continuousA', 'limitA'].includes(key)) setPreset('');
   };
-  const field = (key: Exclude<keyof SupplyForm, 'logicShared'>, label: string, unit?: string, hint?: string) => (
-    <NumberField name={key} label={label} unit={unit} value={form[key]} onChange={set(key)} error={errors[key]} hint={hint} />
+  const field = (key: Exclude<keyof SupplyForm, 'logicShared'>, unit?: string, hint?: string) => (
+    <NumberField
+      name={key}
+      label={SUPPLY_FIELD_LABELS[key]}
+      unit={unit}
+      value={form[key]}
+      onChange={set(key)}
+      error={errors[key]}
+      hint={hint}
+    />
   );
   const chosen = SUPPLY_PRESETS.find((p) => p.id === preset);
   return (
@@ -83,12 +89,12 @@ export default function SupplyCalculator() {
           Supply: can it start the motor?
         </h2>
         <form className="card p-3 grid gap-3 grid-cols-2 md:grid-cols-4 lg:grid-cols-6" onSubmit={(e) => e.preventDefault()} noValidate>
-          {field('ratedV', 'Motor rated voltage', 'V')}
-          {field('noLoadSpeedRpm', 'Motor no-load speed', 'rpm')}
-          {field('noLoadCurrentA', 'Motor no-load current', 'A')}
-          {field('stallCurrentA', 'Motor stall current', 'A')}
-          {field('rotorInertiaGcm2', 'Rotor inertia', 'g·cm²', 'empty: no capacitor figure')}
-          {field('loadTorqueMNm', 'Load torque', 'mN·m', 'at start')}
+          {field('ratedV', 'V')}
+          {field('noLoadSpeedRpm', 'rpm')}
+          {field('noLoadCurrentA', 'A')}
+          {field('stallCurrentA', 'A')}
+          {field('rotorInertiaGcm2', 'g·cm²', 'empty: no capacitor figure')}
+          {field('loadTorqueMNm', 'mN·m', 'at start')}
           <label className="field col-span-2">
             Source preset
             <select
@@ -113,12 +119,12 @@ export default function SupplyCalculator() {
               </span>
             ) : null}
           </label>
-          {field('supplyV', 'Source voltage', 'V', 'open circuit')}
-          {field('internalOhm', 'Internal resistance', 'Ω', 'pack: per cell × cells')}
-          {field('continuousA', 'Continuous rating', 'A', 'empty: not checked')}
-          {field('limitA', 'Current limit', 'A', 'empty: does not limit')}
-          {field('seriesOhm', 'Series resistance', 'Ω', 'wiring, shunt')}
-          {field('windingC', 'Winding temperature', '°C', 'coldest start draws most')}
+          {field('supplyV', 'V', 'open circuit')}
+          {field('internalOhm', 'Ω', 'pack: per cell × cells')}
+          {field('continuousA', 'A', 'empty: not checked')}
+          {field('limitA', 'A', 'empty: does not limit')}
+          {field('seriesOhm', 'Ω', 'wiring, shunt')}
+          {field('windingC', '°C', 'coldest start draws most')}
           <label className="col-span-2 text-sm flex items-center gap-2 self-end">
             <input
               type="checkbox"
@@ -128,29 +134,30 @@ export default function SupplyCalculator() {
             />
             Controller fed from the same source
           </label>
-          {form.logicShared ? field('logicMinV', 'Controller minimum', 'V', 'its brown-out level') : null}
-          {form.logicShared ? field('dropoutV', 'Regulator dropout', 'V', '0 when fed directly') : null}
-          {field('allowedDipV', 'Allowed dip', 'V', 'for the capacitor figure')}
+          {form.logicShared ? field('logicMinV', 'V', 'its brown-out level') : null}
+          {form.logicShared ? field('dropoutV', 'V', '0 when fed directly') : null}
+          {field('allowedDipV', 'V', 'for the capacitor figure')}
           <p className="col-span-2 md:col-span-4 self-end text-sm text-ink-soft" aria-live="polite" data-testid="supply-status">
             {status === 'loading' ? '… computing' : status === 'error' ? `⚠ ${message}` : status === 'ready' ? '✓ up to date' : ''}
           </p>
         </form>
         {report ? (
-          <div className={`grid gap-3 lg:grid-cols-[1.4fr_1fr] mt-3 ${status === 'error' ? 'opacity-60' : ''}`} data-testid="supply-result">
-            <div>
-              <p className="mb-2 text-sm flex items-center gap-2" data-testid="calc-supply-verdict">
-                <Verdict verdict={report.verdict} />{' '}
-                <span>{status === 'error' ? 'Last good answer; fix the fields above' : 'Overall'}</span>
-              </p>
-              <SupplyChecks report={report} testId="calc-supply-checks" />
+          <StaleResults stale={status === 'error'} testId="supply-result" staleTestId="supply-stale">
+            <div className="grid gap-3 lg:grid-cols-[1.4fr_1fr] mt-3">
+              <div>
+                <p className="mb-2 text-sm flex items-center gap-2" data-testid="calc-supply-verdict">
+                  <Verdict verdict={report.verdict} /> <span>Overall</span>
+                </p>
+                <SupplyChecks report={report} testId="calc-supply-checks" />
+              </div>
+              <div className="card p-3">
+                <h3 className="font-semibold mb-1 text-sm">Start figures</h3>
+                <SupplyFigures report={report} worstCases={false} />
+                <h3 className="font-semibold mt-3 mb-1 text-sm">What to change, and cautions</h3>
+                <SupplyNotes notes={report.notes} />
+              </div>
             </div>
-            <div className="card p-3">
-              <h3 className="font-semibold mb-1 text-sm">Start figures</h3>
-              <SupplyFigures report={report} worstCases={false} />
-              <h3 className="font-semibold mt-3 mb-1 text-sm">What to change, and cautions</h3>
-              <SupplyNotes notes={report.notes} />
-            </div>
-          </div>
+          </StaleResults>
         ) : null}
       </section>
     </FieldPrefix.Provider>

@@ -10,8 +10,9 @@ export interface MotorForm {
   noLoadSpeed: string;
   speedUnit: (typeof SPEED_UNITS)[number];
   noLoadCurrent: string;
+  noLoadCurrentUnit: (typeof CURRENT_UNITS)[number];
   stallCurrent: string;
-  currentUnit: (typeof CURRENT_UNITS)[number];
+  stallCurrentUnit: (typeof CURRENT_UNITS)[number];
   stallTorque: string;
   torqueUnit: TorqueUnit;
   supplyMinV: string;
@@ -25,8 +26,9 @@ export const DEFAULT_MOTOR_FORM: MotorForm = {
   noLoadSpeed: '12000',
   speedUnit: 'rpm',
   noLoadCurrent: '0.2',
+  noLoadCurrentUnit: 'A',
   stallCurrent: '1.8',
-  currentUnit: 'A',
+  stallCurrentUnit: 'A',
   stallTorque: '3.3953',
   torqueUnit: 'mN·m',
   supplyMinV: '2.4',
@@ -35,6 +37,22 @@ export const DEFAULT_MOTOR_FORM: MotorForm = {
 };
 
 export type FieldErrors = Partial<Record<keyof MotorForm, string>>;
+
+/** The labels the form shows, used to name refused fields (never the API's paths). */
+export const MOTOR_FIELD_LABELS: Record<keyof MotorForm, string> = {
+  ratedV: 'Rated voltage',
+  noLoadSpeed: 'No-load speed',
+  speedUnit: 'No-load speed unit',
+  noLoadCurrent: 'No-load current',
+  noLoadCurrentUnit: 'No-load current unit',
+  stallCurrent: 'Stall current',
+  stallCurrentUnit: 'Stall current unit',
+  stallTorque: 'Stall torque',
+  torqueUnit: 'Stall torque unit',
+  supplyMinV: 'Supply minimum',
+  supplyMaxV: 'Supply maximum',
+  seriesOhm: 'Series resistance',
+};
 
 const num = (s: string): number => (s.trim() === '' ? Number.NaN : Number(s.replace(',', '.')));
 
@@ -72,12 +90,12 @@ export function toRequests(f: MotorForm): { ok: true; requests: MotorRequests } 
   const seriesResistanceOhm = need('seriesOhm', true);
   if (!errors.supplyMinV && !errors.supplyMaxV && vMin > vMax) errors.supplyMinV = 'Minimum supply is above the maximum.';
   if (Object.keys(errors).length) return { ok: false, errors };
-  const scaleA = f.currentUnit === 'mA' ? 1e-3 : 1;
+  const amps = (value: number, unit: (typeof CURRENT_UNITS)[number]) => (unit === 'mA' ? value / 1000 : value);
   const motor = {
     ratedVoltageV,
     noLoadSpeedRpm: f.speedUnit === 'rad/s' ? radPerSToRpm(speed) : speed,
-    noLoadCurrentA: i0 * scaleA,
-    stallCurrentA: is * scaleA,
+    noLoadCurrentA: amps(i0, f.noLoadCurrentUnit),
+    stallCurrentA: amps(is, f.stallCurrentUnit),
     stallTorqueNm: torqueToNm(ts, f.torqueUnit),
   };
   const body = (supplyV: number) => ({ motor, supplyV, seriesResistanceOhm, curvePoints: 41 });

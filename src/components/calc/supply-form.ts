@@ -49,6 +49,25 @@ export const DEFAULT_SUPPLY_FORM: SupplyForm = {
   allowedDipV: '0.2',
 };
 
+/** The labels the form shows, used to name refused fields (never the API's paths). */
+export const SUPPLY_FIELD_LABELS: Record<TextField, string> = {
+  ratedV: 'Motor rated voltage',
+  noLoadSpeedRpm: 'Motor no-load speed',
+  noLoadCurrentA: 'Motor no-load current',
+  stallCurrentA: 'Motor stall current',
+  rotorInertiaGcm2: 'Rotor inertia',
+  loadTorqueMNm: 'Load torque',
+  supplyV: 'Source voltage',
+  internalOhm: 'Internal resistance',
+  continuousA: 'Continuous rating',
+  limitA: 'Current limit',
+  seriesOhm: 'Series resistance',
+  windingC: 'Winding temperature',
+  logicMinV: 'Controller minimum',
+  dropoutV: 'Regulator dropout',
+  allowedDipV: 'Allowed dip',
+};
+
 /** Maps an API issue path back to the form field that caused it. */
 export const SUPPLY_PATH_TO_FIELD: Record<string, TextField> = {
   'motor.ratedVoltageV': 'ratedV',

@@ -129,6 +129,8 @@ export interface PartSource {
   distributor: string;
   sku: string;
   moq: number;
+  /** Orders go in whole multiples of this (reel, tube or pack size); 1 = any quantity. */
+  orderMultiple: number;
   leadTimeDays: number;
   stockQty: number;
   currency: string;

@@ -176,6 +176,7 @@ export const partSourceSchema = z
     distributor: text('Distributor', 120),
     sku: text('SKU', 80),
     moq: countIn(1, 'MOQ').default(1),
+    orderMultiple: countIn(1, 'Order multiple').default(1),
     leadTimeDays: z.number({ error: 'Lead time must be a number' }).int().min(0).max(1000).default(0),
     stockQty: countIn(0, 'Stock').default(0),
     currency: z

@@ -24,6 +24,7 @@ const NAV: readonly NavEntry[] = [
   { href: '/shortlist', label: 'Shortlist' },
   { href: '/calculators', label: 'Calculators' },
   { href: '/people', label: 'People' },
+  { href: '/rates', label: 'Exchange rates' },
   { href: '/mail', label: 'Mail sink', localMailOnly: true },
 ];
 

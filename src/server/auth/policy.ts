@@ -30,6 +30,7 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
   '/account/no-access': 'signed-in',
   '/people': ADMIN,
   '/mail': ADMIN,
+  '/rates': ADMIN,
 
   // API
   '/api/health': { GET: 'public' },
@@ -50,6 +51,8 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
   '/api/people/[id]/deactivate': { POST: ADMIN },
   '/api/people/[id]/reactivate': { POST: ADMIN },
   '/api/people/[id]/invite': { POST: ADMIN },
+  // Exchange rates: everyone signed in reads them (the shortlist shows them); admins keep them.
+  '/api/rates': { GET: 'signed-in', PUT: ADMIN },
 
   // Designs: designers own them (the owner check lives in the design service); everyone signed in reads.
   '/designs': 'signed-in',
@@ -63,6 +66,7 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
   '/api/designs/[id]/status': { POST: ['designer'] },
   '/api/designs/[id]/report.pdf': { GET: 'signed-in' },
   '/api/designs/[id]/bom.csv': { GET: 'signed-in' },
+  '/api/shortlist': { GET: ['buyer', 'designer'] },
   '/api/alerts/[id]/acknowledge': { POST: 'signed-in' },
 
   // Catalogue: everyone signed in reads; designers propose parts (the service makes them pending and lets a

@@ -23,3 +23,12 @@ export function publicBaseUrl(requestOrigin: string, env?: NodeJS.ProcessEnv): s
   if (config.mail.sinkLocal) return requestOrigin;
   throw new Error('PUBLIC_URL is not set: Stallpoint needs it to put links into e-mail.');
 }
+
+/**
+ * Links in a notice that must not stop the action it reports (a review decision): PUBLIC_URL when it can be
+ * had, else the address the request came in on.
+ */
+export function noticeBaseUrl(requestOrigin: string, env?: NodeJS.ProcessEnv): string {
+  const config = configOf(env);
+  return config.publicUrl ?? requestOrigin;
+}

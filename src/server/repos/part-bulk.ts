@@ -1,12 +1,12 @@
 /**
  * Many parts at once with multi-row writes: per chunk one INSERT per table (parts, the category
- * parameters, RDS(on) and Zth lines, sources, price breaks) and two SELECTs that read the new ids
+ * parameters, RDS(on) lines and their governing intervals, Zth lines, sources, price breaks) and two SELECTs that read the new ids
  * back through the unique keys — a handful of statements per chunk instead of several per part.
  * Call inside a transaction when the whole set must land or none of it.
  */
 import type { Db } from '../db.ts';
 import type { NewPart } from './parts.ts';
-import { diodeToRow, driverToRow, mosfetToRow, motorToRow, rdsOnToRows, zthToRows } from './part-mapping.ts';
+import { diodeToRow, driverToRow, governingToRows, mosfetToRow, motorToRow, rdsOnToRows, zthToRows } from './part-mapping.ts';
 
 /** Rows per INSERT: well below max_allowed_packet for the widest table (parts, 500-character descriptions). */
 export const BULK_CHUNK_ROWS = 500;
@@ -57,6 +57,7 @@ export async function insertPartsBulk(db: Db, parts: readonly NewPart[], created
 async function insertChunkDetails(db: Db, chunk: readonly NewPart[], ids: number[]): Promise<void> {
   const mosfets: object[] = [];
   const rdsOn: object[] = [];
+  const governing: object[] = [];
   const zth: object[] = [];
   const drivers: object[] = [];
   const diodes: object[] = [];
@@ -66,6 +67,7 @@ async function insertChunkDetails(db: Db, chunk: readonly NewPart[], ids: number
     if (p.category === 'mosfet') {
       mosfets.push(mosfetToRow(id, p.params));
       rdsOn.push(...rdsOnToRows(id, p.params.rdsOn));
+      governing.push(...governingToRows(id, p.params.rdsOn));
       zth.push(...zthToRows(id, p.params.zthPoints));
     } else if (p.category === 'driver') drivers.push(driverToRow(id, p.params));
     else if (p.category === 'diode') diodes.push(diodeToRow(id, p.params));
@@ -73,6 +75,7 @@ async function insertChunkDetails(db: Db, chunk: readonly NewPart[], ids: number
   });
   await insertMany(db, 'mosfet_params', mosfets);
   await insertMany(db, 'mosfet_rds_on_points', rdsOn);
+  await insertMany(db, 'mosfet_rds_on_governing', governing);
   await insertMany(db, 'mosfet_zth_points', zth);
   await insertMany(db, 'driver_params', drivers);
   await insertMany(db, 'diode_params', diodes);
@@ -85,6 +88,7 @@ async function insertChunkDetails(db: Db, chunk: readonly NewPart[], ids: number
         distributor: s.distributor,
         sku: s.sku,
         moq: s.moq,
+        order_multiple: s.orderMultiple,
         lead_time_days: s.leadTimeDays,
         stock_qty: s.stockQty,
         currency: s.currency,

@@ -16,10 +16,12 @@ import type {
   DbMotorRow,
   DbPartRow,
   DbPriceBreakRow,
+  DbRdsOnGoverningRow,
   DbRdsOnRow,
   DbSourceRow,
   DbZthRow,
 } from './part-rows.ts';
+import { governingRdsOnIntervals } from '../../lib/rdson-governing.ts';
 
 export function isoDate(value: Date | string | null): string | null {
   if (value === null) return null;
@@ -59,6 +61,11 @@ export function rdsOnToRows(partId: number, points: RdsOnSpecPoint[]): DbRdsOnRo
     typ_ohm: r.typOhm,
     id_a: r.idA,
   }));
+}
+
+/** The governing line per VGS interval (mosfet_rds_on_governing), derived from the RDS(on) lines. */
+export function governingToRows(partId: number, points: RdsOnSpecPoint[]): DbRdsOnGoverningRow[] {
+  return governingRdsOnIntervals(points).map((g) => ({ part_id: partId, vgs_from_v: g.vgsFromV, vgs_to_v: g.vgsToV, max_ohm: g.maxOhm }));
 }
 
 export function zthToRows(partId: number, points: ZthPoint[]): DbZthRow[] {
@@ -199,6 +206,7 @@ export function sourceFromRows(row: DbSourceRow, breaks: DbPriceBreakRow[]): Par
     distributor: row.distributor,
     sku: row.sku,
     moq: row.moq,
+    orderMultiple: row.order_multiple,
     leadTimeDays: row.lead_time_days,
     stockQty: row.stock_qty,
     currency: row.currency,

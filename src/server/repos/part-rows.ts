@@ -50,6 +50,14 @@ export interface DbRdsOnRow {
   id_a: number | null;
 }
 
+/** mosfet_rds_on_governing: the governing 25 °C line per VGS interval (src/lib/rdson-governing.ts). */
+export interface DbRdsOnGoverningRow {
+  part_id: number;
+  vgs_from_v: number;
+  vgs_to_v: number | null;
+  max_ohm: number;
+}
+
 export interface DbZthRow {
   id?: number;
   part_id: number;
@@ -110,6 +118,7 @@ export interface DbSourceRow {
   distributor: string;
   sku: string;
   moq: number;
+  order_multiple: number;
   lead_time_days: number;
   stock_qty: number;
   currency: string;

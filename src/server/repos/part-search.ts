@@ -51,9 +51,6 @@ const SORT_COLUMNS: Record<string, string> = {
   stallCurrentA: 'w.stall_current_a',
 };
 
-/** Lines measured at Tj = 25 °C (within a kelvin). */
-const AT_25C = 'tj_c between 24 and 26';
-
 function mosfetFilters(q: Knex.QueryBuilder, f: PartListQuery): void {
   if (f.channel) q.where('m.channel', f.channel);
   if (f.vdsMinV !== undefined) q.where('m.vds_max_v', '>=', f.vdsMinV);
@@ -62,10 +59,16 @@ function mosfetFilters(q: Knex.QueryBuilder, f: PartListQuery): void {
   if (f.qgMaxNc !== undefined) q.where('m.qg_total_nc', '<=', f.qgMaxNc);
   if (f.rdsOnAtVgsV !== undefined && f.rdsOnMaxOhm === undefined) q.where('m.min_rds_on_vgs_v', '<=', f.rdsOnAtVgsV);
   if (f.rdsOnAtVgsV !== undefined && f.rdsOnMaxOhm !== undefined) {
-    q.whereRaw(
-      `exists (select 1 from mosfet_rds_on_points r where r.part_id = parts.id and r.${AT_25C} and r.max_ohm <= ?
-         and r.vgs_v = (select max(r2.vgs_v) from mosfet_rds_on_points r2 where r2.part_id = parts.id and r2.${AT_25C} and r2.vgs_v <= ?))`,
-      [f.rdsOnMaxOhm, f.rdsOnAtVgsV],
+    // The governing line per VGS interval (mosfet_rds_on_governing, src/lib/rdson-governing.ts): at most one
+    // interval of a part holds the drive, so this reads one row by primary key per candidate part.
+    q.whereExists((x) =>
+      x
+        .select(x.client.raw('1'))
+        .from('mosfet_rds_on_governing as gv')
+        .whereRaw('gv.part_id = parts.id')
+        .where('gv.vgs_from_v', '<=', f.rdsOnAtVgsV!)
+        .where((w) => w.whereNull('gv.vgs_to_v').orWhere('gv.vgs_to_v', '>', f.rdsOnAtVgsV!))
+        .where('gv.max_ohm', '<=', f.rdsOnMaxOhm!),
     );
   }
 }
@@ -216,6 +219,27 @@ export async function sortIds(db: Db, f: ScopedPartQuery, ids: number[]): Promis
 export async function filteredTextRows(db: Db, f: ScopedPartQuery, limit: number): Promise<SearchTextRow[]> {
   const q = filteredParts(db, f).select('parts.id', 'parts.manufacturer', 'parts.mpn', 'parts.description');
   return applySort(q, f.sort).limit(limit);
+}
+
+/**
+ * One page of part ids in sort order and the number of parts the filters keep, in one statement (a window
+ * count over the filtered rows, taken before the LIMIT). A page past the end has no row to carry the
+ * count, so only then a second statement counts.
+ */
+export async function filteredPageAndCount(
+  db: Db,
+  f: ScopedPartQuery,
+  offset: number,
+  limit: number,
+): Promise<{ ids: number[]; total: number }> {
+  const rows: { id: number; total: number | string }[] = await applySort(
+    filteredParts(db, f).select('parts.id', db.raw('count(*) over () as total')),
+    f.sort,
+  )
+    .offset(offset)
+    .limit(limit);
+  if (rows.length === 0) return { ids: [], total: offset === 0 ? 0 : await countFiltered(db, f) };
+  return { ids: rows.map((r) => r.id), total: Number(rows[0].total) };
 }
 
 /** One page of part ids in sort order. */

@@ -6,6 +6,7 @@ import { hydrateParts, insertParams, insertSources, type NewPart } from './parts
 
 const PARAM_TABLES = [
   'mosfet_rds_on_points',
+  'mosfet_rds_on_governing',
   'mosfet_zth_points',
   'mosfet_params',
   'driver_params',

@@ -17,6 +17,7 @@ import {
   diodeToRow,
   driverFromRow,
   driverToRow,
+  governingToRows,
   mosfetFromRows,
   mosfetToRow,
   motorFromRow,
@@ -48,6 +49,7 @@ export async function insertSources(db: Db, partId: number, sources: PartSource[
       distributor: s.distributor,
       sku: s.sku,
       moq: s.moq,
+      order_multiple: s.orderMultiple,
       lead_time_days: s.leadTimeDays,
       stock_qty: s.stockQty,
       currency: s.currency,
@@ -63,6 +65,10 @@ export async function insertParams(db: Db, partId: number, part: NewPart): Promi
     case 'mosfet':
       await db('mosfet_params').insert(mosfetToRow(partId, part.params));
       await db('mosfet_rds_on_points').insert(rdsOnToRows(partId, part.params.rdsOn));
+      {
+        const governing = governingToRows(partId, part.params.rdsOn);
+        if (governing.length > 0) await db('mosfet_rds_on_governing').insert(governing);
+      }
       // Zth points are optional (knex refuses an empty insert).
       if (part.params.zthPoints.length > 0) await db('mosfet_zth_points').insert(zthToRows(partId, part.params.zthPoints));
       return;
@@ -217,6 +223,21 @@ export async function recentlyChangedParts(db: Db, category: PartCategory, limit
 }
 
 /** Parts by id (any category), fully hydrated, keyed by id. */
+/**
+ * Motors a design form offers before any search: the first `limit` approved or pending by part number, plus
+ * the ones asked for (a design's own motor, whatever its place in that order), those first.
+ */
+export async function motorsForOptions(db: Db, limit: number, includeIds: number[]): Promise<Part[]> {
+  const rows: DbPartRow[] = await db('parts')
+    .where({ category: 'motor' })
+    .whereIn('review_status', ['approved', 'pending'])
+    .orderBy([{ column: 'mpn' }, { column: 'id' }])
+    .limit(limit);
+  const extra = includeIds.filter((id) => !rows.some((r) => r.id === id));
+  const more: DbPartRow[] = extra.length ? await db('parts').where({ category: 'motor' }).whereIn('id', extra) : [];
+  return hydrateParts(db, [...more, ...rows]);
+}
+
 export async function partsByIds(db: Db, ids: number[]): Promise<Map<number, Part>> {
   if (ids.length === 0) return new Map();
   const rows: DbPartRow[] = await db('parts').whereIn('id', [...new Set(ids)]);

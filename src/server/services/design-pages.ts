@@ -1,33 +1,43 @@
 /** Data the design pages need besides the design itself. */
 import { db } from '../db.ts';
-import { hydrateParts } from '../repos/parts.ts';
-import type { DbPartRow } from '../repos/part-rows.ts';
+import { motorsForOptions } from '../repos/parts.ts';
 import type { DesignInput, MotorOption } from '../../lib/domain/design.ts';
 import { DEFAULT_DESIGN_MARGINS, LOGIC_PRESETS, SUPPLY_PRESETS, motorOptionOf } from '../../lib/domain/design.ts';
 import { supplyFromPreset } from '../../lib/supply-input.ts';
+import type { MotorHandoff } from '../../lib/motor-handoff.ts';
 
 /** Motors offered before any search: the first few by part number, plus the ones asked for (the design's). */
 export const MOTOR_OPTIONS_SHOWN = 20;
 
 export async function motorOptions(includeIds: number[] = []): Promise<MotorOption[]> {
-  const rows: DbPartRow[] = await db()('parts')
-    .where({ category: 'motor' })
-    .whereIn('review_status', ['approved', 'pending'])
-    .orderBy([{ column: 'mpn' }, { column: 'id' }])
-    .limit(MOTOR_OPTIONS_SHOWN);
-  const extra = includeIds.filter((id) => !rows.some((r) => r.id === id));
-  const more: DbPartRow[] = extra.length ? await db()('parts').where({ category: 'motor' }).whereIn('id', extra) : [];
-  return (await hydrateParts(db(), [...more, ...rows])).map(motorOptionOf);
+  return (await motorsForOptions(db(), MOTOR_OPTIONS_SHOWN, includeIds)).map(motorOptionOf);
 }
 
 /** A new design's starting point: 3.3 V logic on a 1S Li-ion pack, on/off, the first catalogue motor. */
-export function newDesignInput(firstMotorId: number | null): DesignInput {
+export function newDesignInput(firstMotorId: number | null, fromCalculator: MotorHandoff | null = null): DesignInput {
   const supply = SUPPLY_PRESETS.find((p) => p.id === '1s-liion')!;
   const logic = LOGIC_PRESETS.find((p) => p.id === '3v3')!;
+  const fromPreset = supplyFromPreset(supply);
   return {
-    name: 'New drive design',
-    motor:
-      firstMotorId != null
+    name: fromCalculator ? 'Drive for the motor from the calculator' : 'New drive design',
+    motor: fromCalculator
+      ? {
+          source: 'manual',
+          label: 'Motor from the calculator',
+          params: {
+            ratedVoltageV: fromCalculator.ratedVoltageV,
+            voltageMinV: null,
+            voltageMaxV: null,
+            noLoadSpeedRpm: fromCalculator.noLoadSpeedRpm,
+            noLoadCurrentA: fromCalculator.noLoadCurrentA,
+            stallTorqueNm: fromCalculator.stallTorqueNm,
+            stallCurrentA: fromCalculator.stallCurrentA,
+            terminalResistanceOhm: null,
+            inductanceH: null,
+            rotorInertiaKgM2: null,
+          },
+        }
+      : firstMotorId != null
         ? { source: 'catalogue', partId: firstMotorId }
         : {
             source: 'manual',
@@ -46,7 +56,19 @@ export function newDesignInput(firstMotorId: number | null): DesignInput {
             },
           },
     // The pack's own figures, R_int included (1S Li-ion: ~0.075 Ω, from memory): a new design judges its start from the first look.
-    supply: supplyFromPreset(supply),
+    // From the calculator: its supply range, no preset and no internal resistance (the calculator had none; enter the source's own).
+    supply: fromCalculator
+      ? {
+          ...fromPreset,
+          preset: null,
+          minV: fromCalculator.supplyMinV,
+          maxV: fromCalculator.supplyMaxV,
+          nomV: Math.min(Math.max(fromCalculator.ratedVoltageV, fromCalculator.supplyMinV), fromCalculator.supplyMaxV),
+          internalResistanceOhm: 0,
+          continuousCurrentA: null,
+          currentLimitA: null,
+        }
+      : fromPreset,
     wiringResistanceOhm: 0.05,
     shuntResistanceOhm: 0,
     logic: {

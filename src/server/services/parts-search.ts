@@ -8,7 +8,14 @@ import Fuse from 'fuse.js';
 import { db } from '../db.ts';
 import type { Part } from '../../lib/domain/parts.ts';
 import type { PartListPage } from '../../lib/schemas/parts.ts';
-import { countFiltered, filteredIdsPage, sortIds, textCandidates, type ScopedPartQuery, type SearchTextRow } from '../repos/part-search.ts';
+import {
+  filteredIdsPage,
+  filteredPageAndCount,
+  sortIds,
+  textCandidates,
+  type ScopedPartQuery,
+  type SearchTextRow,
+} from '../repos/part-search.ts';
 import { loadPartsByIds } from '../repos/part-writes.ts';
 
 /** fuse.js score limit (0 exact … 1 anything): one or two wrong characters in a part number still match. */
@@ -49,7 +56,7 @@ export async function matchingIds(query: ScopedPartQuery, limit?: number): Promi
 export async function searchParts(query: ScopedPartQuery): Promise<PartListPage<Part>> {
   const offset = (query.page - 1) * query.pageSize;
   if (!query.q) {
-    const [total, ids] = await Promise.all([countFiltered(db(), query), filteredIdsPage(db(), query, offset, query.pageSize)]);
+    const { ids, total } = await filteredPageAndCount(db(), query, offset, query.pageSize);
     return { items: await loadPartsByIds(db(), ids), total, page: query.page, pageSize: query.pageSize };
   }
   const ids = await matchingIds(query);

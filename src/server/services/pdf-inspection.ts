@@ -94,12 +94,16 @@ function runWorker(bytes: Uint8Array, budget: typeof PDF_INSPECTION_BUDGET): Pro
       transferList: [copy.buffer],
       resourceLimits: { maxOldGenerationSizeMb: budget.heapMb, maxYoungGenerationSizeMb: 32 },
     });
+    // The answer waits until the worker has ended and given its heap back: otherwise the next inspection
+    // (the slot is freed when this resolves) could start while this one still holds up to heapMb.
     const done = (result: PdfInspection): void => {
       if (settled) return;
       settled = true;
       clearTimeout(timer);
-      void worker.terminate();
-      resolve(result);
+      void worker.terminate().then(
+        () => resolve(result),
+        () => resolve(result),
+      );
     };
     const timer = setTimeout(() => done({ ok: false, reason: 'too-slow' }), budget.deadlineMs);
     worker.on('message', (m: PdfInspection) => done(m));

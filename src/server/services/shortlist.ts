@@ -1,33 +1,21 @@
 /**
- * The buyers' shortlist: every line and alternate of the designs marked ready, with supply facts. Opening
+ * The buyers' shortlist: every BOM line and alternate of the designs marked ready, with the buying figures
+ * at a build quantity (src/lib/shortlist-figures.ts). Opening
  * it re-verifies each ready design at the current catalogue; one that no longer holds goes back to draft
  * through the same service as a part change, and is listed apart with its reason, never as holding.
  */
 import { db } from '../db.ts';
 import type { DesignInput, PartRole } from '../../lib/domain/design.ts';
 import type { Part } from '../../lib/domain/parts.ts';
-import { bestUnitPrice, totalStock } from '../../lib/part-summary.ts';
+import { pullResistorLine } from '../../lib/bom.ts';
+import { shortlistFigures, type LineFigures, type LineInput, type OptionInput, type ShortlistTotals } from '../../lib/shortlist-figures.ts';
+import { appConfig } from '../config.ts';
+import { listCurrencyRates } from '../repos/currency-rates.ts';
 import { pickStatus, reviewWords } from '../../lib/readiness.ts';
 import type { SessionUser } from '../auth/types.ts';
 import { partsByIds } from '../repos/parts.ts';
 import { listReadyDesigns } from '../repos/designs.ts';
 import { reverifyDesigns, type Verification } from './design-status.ts';
-
-export interface ShortlistPart {
-  partId: number;
-  mpn: string;
-  manufacturer: string;
-  lifecycle: Part['lifecycle'];
-  position: number;
-  unitPrice: number | null;
-  currency: string | null;
-  stockQty: number;
-  minLeadTimeDays: number | null;
-  minMoq: number | null;
-  /** Verdict and review status at the current catalogue, in words with the verdict mark. */
-  status: string;
-  holds: boolean;
-}
 
 export interface ShortlistDesign {
   id: number;
@@ -35,8 +23,13 @@ export interface ShortlistDesign {
   revision: number;
   ownerName: string;
   readyAt: string | null;
+  /** The design's own boards per build. */
   boardQuantity: number;
-  lines: { role: PartRole | 'motor'; parts: ShortlistPart[] }[];
+  /** The build quantity the figures are for (the buyer's, else the design's). */
+  boards: number;
+  attritionPct: number;
+  lines: LineFigures[];
+  totals: ShortlistTotals;
 }
 
 export interface Shortlist {
@@ -45,21 +38,23 @@ export interface Shortlist {
   withdrawn: { id: number; name: string; reason: string }[];
 }
 
-function supplyFacts(part: Part, position: number, qty: number, status: { text: string; holds: boolean }): ShortlistPart {
-  const price = bestUnitPrice(part, qty);
+const ROLE_LABEL: Record<PartRole | 'motor', string> = {
+  motor: 'Motor',
+  switch: 'Low-side switch',
+  driver: 'Gate driver',
+  diode: 'Freewheel diode',
+};
+
+function optionOf(part: Part, position: number, status: { text: string; holds: boolean }): OptionInput {
   return {
-    status: status.text,
-    holds: status.holds,
     partId: part.id as number,
     mpn: part.mpn,
     manufacturer: part.manufacturer,
     lifecycle: part.lifecycle,
     position,
-    unitPrice: price?.price ?? null,
-    currency: price?.currency ?? null,
-    stockQty: totalStock(part),
-    minLeadTimeDays: part.sources.length ? Math.min(...part.sources.map((s) => s.leadTimeDays)) : null,
-    minMoq: part.sources.length ? Math.min(...part.sources.map((s) => s.moq)) : null,
+    status: status.text,
+    holds: status.holds,
+    sources: part.sources,
   };
 }
 
@@ -68,26 +63,35 @@ function motorStatus(part: Part): { text: string; holds: boolean } {
   return { text: `${holds ? '✓' : '✕'} ${reviewWords(part.reviewStatus)} · ${part.lifecycle}`, holds };
 }
 
-function linesOf(v: Verification, parts: Map<number, Part>, input: DesignInput): ShortlistDesign['lines'] {
-  const qty = input.boardQuantity;
-  const lines: ShortlistDesign['lines'] = [];
+/** The BOM's lines (src/lib/bom.ts: one of each per board, the pull resistor when the power-on walk sized one). */
+function lineInputs(v: Verification, parts: Map<number, Part>, input: DesignInput): LineInput[] {
+  const base = { perBoard: 1, generic: null, preferredSourceId: null, note: null };
+  const lines: LineInput[] = [];
   if (input.motor.source === 'catalogue' && parts.has(input.motor.partId)) {
     const motor = parts.get(input.motor.partId)!;
-    lines.push({ role: 'motor', parts: [supplyFacts(motor, 0, qty, motorStatus(motor))] });
+    lines.push({ ...base, key: 'motor', label: ROLE_LABEL.motor, options: [optionOf(motor, 0, motorStatus(motor))] });
   }
   for (const role of ['switch', 'driver', 'diode'] as const) {
     const sel = input.selections[role];
     const ordered = [sel.chosenPartId, ...sel.alternatePartIds].filter((id): id is number => id != null && parts.has(id));
     if (ordered.length)
       lines.push({
-        role,
-        parts: ordered.map((id, i) => supplyFacts(parts.get(id)!, i, qty, pickStatus(v.match, role, id, v.parts.get(id)))),
+        ...base,
+        key: role,
+        label: ROLE_LABEL[role],
+        options: ordered.map((id, i) => optionOf(parts.get(id)!, i, pickStatus(v.match, role, id, v.parts.get(id)))),
       });
   }
+  const pull = pullResistorLine(v.match.powerOn?.recommendedPull ?? null);
+  if (pull) lines.push({ ...base, key: 'pull', label: pull.role, options: [], generic: `${pull.partNumber}: ${pull.description}` });
   return lines;
 }
 
-export async function readyShortlist(actor: SessionUser | null): Promise<Shortlist> {
+/**
+ * Every ready design that still holds, with its figures at a build quantity: `boardsFor` gives the buyer's
+ * quantity per design id (absent: the design's own boards per build).
+ */
+export async function readyShortlist(actor: SessionUser | null, boardsFor: ReadonlyMap<number, number> = new Map()): Promise<Shortlist> {
   const heads = await listReadyDesigns(db());
   const outcomes = new Map(
     (
@@ -112,15 +116,22 @@ export async function readyShortlist(actor: SessionUser | null): Promise<Shortli
       ...i.selections[r].alternatePartIds,
     ]),
   ]);
-  const parts = await partsByIds(db(), ids);
-  const designs = held.map(({ head, verification }) => ({
-    id: head.id,
-    name: head.name,
-    revision: head.revision,
-    ownerName: head.ownerName,
-    readyAt: head.readyAt,
-    boardQuantity: verification.input.boardQuantity,
-    lines: linesOf(verification, parts, verification.input),
-  }));
+  const [parts, rates] = await Promise.all([partsByIds(db(), ids), listCurrencyRates(db())]);
+  const { orgCurrency, attritionPct } = appConfig().buying;
+  const designs = held.map(({ head, verification }): ShortlistDesign => {
+    const boards = boardsFor.get(head.id) ?? verification.input.boardQuantity;
+    const figures = shortlistFigures(lineInputs(verification, parts, verification.input), boards, attritionPct, orgCurrency, rates);
+    return {
+      id: head.id,
+      name: head.name,
+      revision: head.revision,
+      ownerName: head.ownerName,
+      readyAt: head.readyAt,
+      boardQuantity: verification.input.boardQuantity,
+      boards,
+      attritionPct,
+      ...figures,
+    };
+  });
   return { designs, withdrawn };
 }
