@@ -97,13 +97,26 @@ function byId<T extends { id?: number }>(parts: T[], id: number | null | undefin
 }
 
 /** The chosen diode's VF, else the lowest VF among passing diodes, else the conservative default. */
-function diodeForwardFor(c: DesignCase, catalogue: DesignCatalogue, picks: DesignPicks, wc0: WorstCase): DesignRanking['diodeForward'] {
+/** Also hands back the diode ranking at `c` when it was worked out (it is the list when VF leaves the case as it is). */
+function diodeForwardFor(
+  c: DesignCase,
+  catalogue: DesignCatalogue,
+  picks: DesignPicks,
+  wc0: WorstCase,
+): { forward: DesignRanking['diodeForward']; rankedAtC: CandidateResult[] | null } {
   const chosen = byId(catalogue.diodes, picks.diodeId);
-  if (chosen) return { voltageV: chosen.params.vfV, basis: 'chosen' };
-  const passing = rankDiodeCandidates(c, catalogue.diodes, wc0).filter((d) => d.verdict !== 'fail');
-  const vfs = passing.map((d) => byId(catalogue.diodes, d.partId)?.params.vfV).filter((v): v is number => v != null);
-  if (vfs.length > 0) return { voltageV: Math.min(...vfs), basis: 'lowest-passing' };
-  return { voltageV: c.diodeForwardV ?? DEFAULT_DIODE_FORWARD_V, basis: 'default' };
+  if (chosen) return { forward: { voltageV: chosen.params.vfV, basis: 'chosen' }, rankedAtC: null };
+  const ranked = rankDiodeCandidates(c, catalogue.diodes, wc0);
+  const vfById = new Map(catalogue.diodes.map((d) => [d.id, d.params.vfV]));
+  const vfs = ranked
+    .filter((d) => d.verdict !== 'fail')
+    .map((d) => (d.partId == null ? undefined : vfById.get(d.partId)))
+    .filter((v): v is number => v != null);
+  const forward: DesignRanking['diodeForward'] =
+    vfs.length > 0
+      ? { voltageV: Math.min(...vfs), basis: 'lowest-passing' }
+      : { voltageV: c.diodeForwardV ?? DEFAULT_DIODE_FORWARD_V, basis: 'default' };
+  return { forward, rankedAtC: ranked };
 }
 
 /** Direct drive: the pin, less what a recommended gate pull-down draws while the pin drives high. */
@@ -204,10 +217,10 @@ export function rankDesign(
   picks: DesignPicks = {},
   wc0: WorstCase = worstCaseOf(c0),
 ): DesignRanking {
-  const diodeForward = diodeForwardFor(c0, catalogue, picks, wc0);
+  const { forward: diodeForward, rankedAtC } = diodeForwardFor(c0, catalogue, picks, wc0);
   const c: DesignCase = diodeForward.voltageV === c0.diodeForwardV ? c0 : { ...c0, diodeForwardV: diodeForward.voltageV };
   const wc = c === c0 ? wc0 : worstCaseOf(c);
-  const diode = rankDiodeCandidates(c, catalogue.diodes, wc);
+  const diode = c === c0 && rankedAtC ? rankedAtC : rankDiodeCandidates(c, catalogue.diodes, wc);
   const direct = directDrive(c, wc, catalogue, picks);
 
   const chosenDriver = byId(catalogue.drivers, picks.driverId);
