@@ -131,10 +131,10 @@ interface PriceRow {
  * (the largest at or below the quantity or the source's MOQ, whichever is higher), sources in id order as
  * the part record has them, so bestUnitPrice at that quantity gives what it gives on the full record.
  */
-async function priceSourcesOf(db: Db, q: Query, qty: number): Promise<Map<number, PriceSource[]>> {
+async function priceSourcesOf(db: Db, q: Query | readonly number[], qty: number): Promise<Map<number, PriceSource[]>> {
   const rows: PriceRow[] = await db('part_sources')
     .join('part_price_breaks', 'part_price_breaks.source_id', 'part_sources.id')
-    .whereIn('part_sources.part_id', idsOf(q))
+    .whereIn('part_sources.part_id', Array.isArray(q) ? q : idsOf(q as Query))
     .where(
       'part_price_breaks.qty',
       db('part_price_breaks as b2')
@@ -180,11 +180,29 @@ function head<C extends PartCategory>(category: C, r: HeadRow, sources: Map<numb
   };
 }
 
+const PRICE_IDS_PER_QUERY = 5000;
+
+/**
+ * The price break that applies at `qty` for each source of the given parts (as loadCandidateParts gives
+ * them), in batches of ids; parts without sources are absent from the map.
+ */
+export async function candidatePriceSources(db: Db, partIds: readonly number[], qty: number): Promise<Map<number, PriceSource[]>> {
+  const out = new Map<number, PriceSource[]>();
+  for (let i = 0; i < partIds.length; i += PRICE_IDS_PER_QUERY) {
+    for (const [id, sources] of await priceSourcesOf(db, partIds.slice(i, i + PRICE_IDS_PER_QUERY), qty)) out.set(id, sources);
+  }
+  return out;
+}
+
+const NO_PRICES: Promise<Map<number, PriceSource[]>> = Promise.resolve(new Map());
+
 /**
  * The candidates as the match ranks them: one SELECT per category for head and parameters, the MOSFETs'
- * RDS(on) and Zth points and everyone's price breaks through the same narrowing (no list of ids sent).
+ * RDS(on) and Zth points and (unless `prices` is false: then every part comes with no sources, for
+ * candidatePriceSources to fill in where a price can show) everyone's price breaks through the same
+ * narrowing (no list of ids sent).
  */
-export async function loadCandidateParts(db: Db, bounds: CandidateBounds, includePending: boolean): Promise<CandidateRows> {
+export async function loadCandidateParts(db: Db, bounds: CandidateBounds, includePending: boolean, prices = true): Promise<CandidateRows> {
   const { mosfetAll, mosfetQ, driverAll, driverQ, diodeAll, diodeQ } = candidateQueries(db, bounds, includePending);
   const [mosfetRows, driverRows, diodeRows, points, zth, mosfetPrices, driverPrices, diodePrices, mosfet, driver, diode] =
     await Promise.all([
@@ -197,9 +215,9 @@ export async function loadCandidateParts(db: Db, bounds: CandidateBounds, includ
       db<DbZthRow>('mosfet_zth_points').whereIn('part_id', idsOf(mosfetQ)).select('part_id', 'pulse_s', 'zth_c_per_w') as Promise<
         DbZthRow[]
       >,
-      priceSourcesOf(db, mosfetQ, bounds.boardQuantity),
-      priceSourcesOf(db, driverQ, bounds.boardQuantity),
-      priceSourcesOf(db, diodeQ, bounds.boardQuantity),
+      prices ? priceSourcesOf(db, mosfetQ, bounds.boardQuantity) : NO_PRICES,
+      prices ? priceSourcesOf(db, driverQ, bounds.boardQuantity) : NO_PRICES,
+      prices ? priceSourcesOf(db, diodeQ, bounds.boardQuantity) : NO_PRICES,
       countOf(mosfetAll),
       countOf(driverAll),
       countOf(diodeAll),
