@@ -21,6 +21,7 @@ import { suggestedDriveRailV } from './mosfet-checks.ts';
 import type { PowerOnResult } from './power-on.ts';
 import { pullDrawCurrentA } from './power-on-advice.ts';
 import {
+  bestCandidate,
   switchEvaluator,
   pinGateDrive,
   rankDiodeCandidates,
@@ -127,7 +128,7 @@ function directDrive(
   picks: DesignPicks,
 ): { drive: GateDrive; list: SwitchCandidateResult[]; draw: number } {
   const bare = catalogue.mosfets.map(switchEvaluator(c, pinGateDrive(c, wc), wc));
-  const reference = byId(catalogue.mosfets, picks.switchId) ?? byId(catalogue.mosfets, sortCandidates(bare)[0]?.partId);
+  const reference = byId(catalogue.mosfets, picks.switchId) ?? byId(catalogue.mosfets, bestCandidate(bare)?.partId);
   const pull = reference ? powerOnForPair(c, null, reference).recommendedPull : null;
   // The same worst case as the power-on advice reports: the pin at its rail, the resistor at −tol.
   const draw = pullDrawCurrentA(pull, c.logic.railV);

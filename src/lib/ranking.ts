@@ -70,6 +70,15 @@ export function sortCandidates<T extends CandidateResult>(results: T[], tiebreak
   );
 }
 
+/** sortCandidates(results)[0] (no tie-breaker) in one pass: the first of equal bests, as the stable sort keeps it. */
+export function bestCandidate<T extends CandidateResult>(results: readonly T[]): T | undefined {
+  let best: T | undefined;
+  for (const r of results) {
+    if (!best || (VERDICT_RANK[r.verdict] - VERDICT_RANK[best.verdict] || best.score - r.score || byMpn(r.mpn, best.mpn)) < 0) best = r;
+  }
+  return best;
+}
+
 /** The switch input of a part's params, worked out once per params object (a match judges each part at up to two drives). */
 const switchInputs = new WeakMap<CandidatePart<'mosfet'>['params'], SwitchMosfetInput>();
 
