@@ -6,7 +6,7 @@
  */
 import { fmt, type Check } from './checks.ts';
 import { avalancheEnergyJ, avalanchePowerW } from './diode-checks.ts';
-import type { PartOf } from './domain/parts.ts';
+import type { CandidatePart } from './domain/parts.ts';
 import {
   describeDriverNeed,
   driverSupplyOf,
@@ -21,7 +21,8 @@ import { suggestedDriveRailV } from './mosfet-checks.ts';
 import type { PowerOnResult } from './power-on.ts';
 import { pullDrawCurrentA } from './power-on-advice.ts';
 import {
-  evaluateSwitchPart,
+  bestCandidate,
+  switchEvaluator,
   pinGateDrive,
   rankDiodeCandidates,
   sortCandidates,
@@ -77,10 +78,11 @@ export interface DesignRanking {
   otherCautions: string[];
 }
 
+/** The candidates ranked: full parts or the lighter rows the match loads (CandidatePart). */
 export interface DesignCatalogue {
-  mosfets: PartOf<'mosfet'>[];
-  drivers: PartOf<'driver'>[];
-  diodes: PartOf<'diode'>[];
+  mosfets: CandidatePart<'mosfet'>[];
+  drivers: CandidatePart<'driver'>[];
+  diodes: CandidatePart<'diode'>[];
 }
 
 /** The designer's picks, when made (ids of catalogue parts). */
@@ -105,13 +107,26 @@ function byId<T extends { id?: number }>(parts: T[], id: number | null | undefin
 }
 
 /** The chosen diode's VF, else the lowest VF among passing diodes, else the conservative default. */
-function diodeForwardFor(c: DesignCase, catalogue: DesignCatalogue, picks: DesignPicks, wc0: WorstCase): DesignRanking['diodeForward'] {
+/** Also hands back the diode ranking at `c` when it was worked out (it is the list when VF leaves the case as it is). */
+function diodeForwardFor(
+  c: DesignCase,
+  catalogue: DesignCatalogue,
+  picks: DesignPicks,
+  wc0: WorstCase,
+): { forward: DesignRanking['diodeForward']; rankedAtC: DiodeCandidateResult[] | null } {
   const chosen = byId(catalogue.diodes, picks.diodeId);
-  if (chosen) return { voltageV: chosen.params.vfV, basis: 'chosen' };
-  const passing = rankDiodeCandidates(c, catalogue.diodes, wc0).filter((d) => d.verdict !== 'fail');
-  const vfs = passing.map((d) => byId(catalogue.diodes, d.partId)?.params.vfV).filter((v): v is number => v != null);
-  if (vfs.length > 0) return { voltageV: Math.min(...vfs), basis: 'lowest-passing' };
-  return { voltageV: c.diodeForwardV ?? DEFAULT_DIODE_FORWARD_V, basis: 'default' };
+  if (chosen) return { forward: { voltageV: chosen.params.vfV, basis: 'chosen' }, rankedAtC: null };
+  const ranked = rankDiodeCandidates(c, catalogue.diodes, wc0);
+  const vfById = new Map(catalogue.diodes.map((d) => [d.id, d.params.vfV]));
+  const vfs = ranked
+    .filter((d) => d.verdict !== 'fail')
+    .map((d) => (d.partId == null ? undefined : vfById.get(d.partId)))
+    .filter((v): v is number => v != null);
+  const forward: DesignRanking['diodeForward'] =
+    vfs.length > 0
+      ? { voltageV: Math.min(...vfs), basis: 'lowest-passing' }
+      : { voltageV: c.diodeForwardV ?? DEFAULT_DIODE_FORWARD_V, basis: 'default' };
+  return { forward, rankedAtC: ranked };
 }
 
 /** Direct drive: the pin, less what a recommended gate pull-down draws while the pin drives high. */
@@ -121,14 +136,14 @@ function directDrive(
   catalogue: DesignCatalogue,
   picks: DesignPicks,
 ): { drive: GateDrive; list: SwitchCandidateResult[]; draw: number } {
-  const bare = catalogue.mosfets.map((m) => evaluateSwitchPart(c, m, pinGateDrive(c, wc), wc));
-  const reference = byId(catalogue.mosfets, picks.switchId) ?? byId(catalogue.mosfets, sortCandidates(bare)[0]?.partId);
+  const bare = catalogue.mosfets.map(switchEvaluator(c, pinGateDrive(c, wc), wc));
+  const reference = byId(catalogue.mosfets, picks.switchId) ?? byId(catalogue.mosfets, bestCandidate(bare)?.partId);
   const pull = reference ? powerOnForPair(c, null, reference).recommendedPull : null;
   // The same worst case as the power-on advice reports: the pin at its rail, the resistor at −tol.
   const draw = pullDrawCurrentA(pull, c.logic.railV);
   if (draw === 0) return { drive: pinGateDrive(c, wc), list: sortCandidates(bare), draw };
   const drive = pinGateDrive(c, wc, draw);
-  return { drive, list: sortCandidates(catalogue.mosfets.map((m) => evaluateSwitchPart(c, m, drive, wc))), draw };
+  return { drive, list: sortCandidates(catalogue.mosfets.map(switchEvaluator(c, drive, wc))), draw };
 }
 
 function failureSummary(list: SwitchCandidateResult[]): string {
@@ -218,7 +233,11 @@ function designCautions(powerOn: PowerOnResult | null, dynamic: DesignCaution[])
 }
 
 /** Power-on walk for a given switch and (optional) driver. */
-export function powerOnFor(c: DesignCase, sw: PartOf<'mosfet'> | undefined, driver: PartOf<'driver'> | undefined): PowerOnResult | null {
+export function powerOnFor(
+  c: DesignCase,
+  sw: CandidatePart<'mosfet'> | undefined,
+  driver: CandidatePart<'driver'> | undefined,
+): PowerOnResult | null {
   return sw == null ? null : powerOnForPair(c, driver ?? null, sw);
 }
 
@@ -232,10 +251,10 @@ export function rankDesign(
   picks: DesignPicks = {},
   wc0: WorstCase = worstCaseOf(c0),
 ): DesignRanking {
-  const diodeForward = diodeForwardFor(c0, catalogue, picks, wc0);
+  const { forward: diodeForward, rankedAtC } = diodeForwardFor(c0, catalogue, picks, wc0);
   const c: DesignCase = diodeForward.voltageV === c0.diodeForwardV ? c0 : { ...c0, diodeForwardV: diodeForward.voltageV };
   const wc = c === c0 ? wc0 : worstCaseOf(c);
-  const diode = rankDiodeCandidates(c, catalogue.diodes, wc);
+  const diode = c === c0 && rankedAtC ? rankedAtC : rankDiodeCandidates(c, catalogue.diodes, wc);
   const direct = directDrive(c, wc, catalogue, picks);
 
   const chosenDriver = byId(catalogue.drivers, picks.driverId);
@@ -243,7 +262,7 @@ export function rankDesign(
   const directPasses = direct.list.some((e) => e.verdict === 'pass');
   const withDriver =
     refDriver && (chosenDriver || !directPasses)
-      ? sortCandidates(catalogue.mosfets.map((m) => evaluateSwitchPart(c, m, gateDriveOfDriver(c, refDriver), wc)))
+      ? sortCandidates(catalogue.mosfets.map(switchEvaluator(c, gateDriveOfDriver(c, refDriver), wc)))
       : [];
   const fixable =
     withDriver.find((e) => e.verdict === 'pass') ??
