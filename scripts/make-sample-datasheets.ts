@@ -4,7 +4,9 @@
  *   npx tsx scripts/make-sample-datasheets.ts
  *
  * Output: data-samples/datasheets/<MPN>.pdf (one MOSFET, one diode, one gate driver). Every page carries a
- * banner saying the part is invented. The generator is exported so tests can build a PDF in memory:
+ * banner saying the part is invented, and the part number and kind of part ("N-channel MOSFET", "Schottky
+ * barrier rectifier", "gate driver"), which the check on attach looks for (src/lib/datasheet-text.ts;
+ * tests/api/datasheets.test.ts attaches each sample to its part without a question). The generator is exported so tests can build a PDF in memory:
  *
  *   import { makeDatasheetPdf } from './make-sample-datasheets';
  *   const bytes = await makeDatasheetPdf(part);

@@ -7,6 +7,7 @@ import { existsSync, mkdirSync, readFileSync, openSync } from 'node:fs';
 import path from 'node:path';
 import { log, fail } from './log.ts';
 import type { Teardown } from './teardown.ts';
+import { readConfig } from '../../src/server/config.ts';
 
 export interface MariaDbInstance {
   dataDir: string;
@@ -14,6 +15,10 @@ export interface MariaDbInstance {
   port: number;
   pidFile: string;
   process: ChildProcess | null;
+  /** Replication role: the private instance is a primary (server id 1, binary log on); a replica has its own id. */
+  serverId: number;
+  /** Extra server options (a replica's read_only and filters). */
+  extraArgs: string[];
 }
 
 function which(cmd: string): boolean {
@@ -50,6 +55,8 @@ export function describeInstance(dataDir: string, port: number): MariaDbInstance
     port,
     pidFile: `${dataDir}.pid`,
     process: null,
+    serverId: 1,
+    extraArgs: [],
   };
 }
 
@@ -109,8 +116,14 @@ export async function startMariaDb(db: MariaDbInstance, teardown: Teardown | nul
       `--log-error=${db.dataDir}.err`,
       '--character-set-server=utf8mb4',
       '--collation-server=utf8mb4_unicode_ci',
-      '--innodb-buffer-pool-size=64M',
+      `--innodb-buffer-pool-size=${readConfig(process.env).dbBufferPoolSize}`,
       '--innodb-log-file-size=16M',
+      // Binary log (row events, GTIDs) so a replica can follow this instance (scripts/stack/replica.ts).
+      `--server-id=${db.serverId}`,
+      `--log-bin=${path.join(db.dataDir, 'binlog')}`,
+      '--binlog-format=ROW',
+      '--binlog-expire-logs-seconds=259200',
+      ...db.extraArgs,
     ],
     { stdio: ['ignore', errLog, errLog], detached: false },
   );

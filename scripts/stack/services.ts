@@ -3,14 +3,21 @@
  * an SMTP sink on 127.0.0.1 (smtp-server) that parses every message (mailparser) and stores it in the
  * captured_mail table, where admins read it on /mail and tests find it. Real mail is configured by
  * setting SMTP_HOST (and MAIL_SINK unset); then no sink starts.
+ * With STORAGE=s3 and no S3_ENDPOINT, a fake S3 (s3rver) on 127.0.0.1 with its files under DATA_DIR/s3
+ * and the bucket created; a real store is configured by setting S3_ENDPOINT, and then no fake starts.
+ * And the local fake distributor (distributor-fake.ts) that the distributor client asks for offers,
+ * unless DISTRIBUTOR_URL names a real one.
  */
+import path from 'node:path';
+import S3rver from 's3rver';
 import { SMTPServer } from 'smtp-server';
 import { simpleParser } from 'mailparser';
 import knexFactory, { type Knex } from 'knex';
 import { knexConfig } from '../../knexfile.ts';
 import { insertCapturedMail } from '../../src/server/repos/captured-mail.ts';
 import { log } from './log.ts';
-import { DEFAULT_SINK_PORT, readConfig } from '../../src/server/config.ts';
+import { DEFAULT_DISTRIBUTOR_FAKE_PORT, DEFAULT_SINK_PORT, readConfig } from '../../src/server/config.ts';
+import { startFakeDistributor } from './distributor-fake.ts';
 
 export interface Services {
   env: Record<string, string>;
@@ -94,8 +101,57 @@ async function startMailSink(env: NodeJS.ProcessEnv): Promise<Services> {
   };
 }
 
+/**
+ * The fake S3 store: s3rver on 127.0.0.1 (S3_FAKE_PORT, or a free port), objects under `directory`, the
+ * bucket made at start. Its access key is s3rver's fixed S3RVER/S3RVER (S3_ACCESS_KEY_ID/… defaults).
+ */
+export async function startS3Fake(directory: string, bucket: string, port = 0): Promise<Services> {
+  const server = new S3rver({ address: '127.0.0.1', port, silent: true, directory, configureBuckets: [{ name: bucket, configs: [] }] });
+  let address: { port: number };
+  try {
+    address = (await server.run()) as unknown as { port: number };
+  } catch (err) {
+    const inUse = (err as NodeJS.ErrnoException).code === 'EADDRINUSE';
+    throw new Error(inUse ? `port ${port} for the fake S3 is in use: set S3_FAKE_PORT to a free one` : (err as Error).message);
+  }
+  log(`fake S3 on 127.0.0.1:${address.port}, bucket ${bucket}, files in ${directory}`);
+  return {
+    env: { S3_ENDPOINT: `http://127.0.0.1:${address.port}` },
+    async close() {
+      await server.close();
+    },
+  };
+}
+
+function combine(parts: Services[]): Services {
+  return {
+    env: Object.assign({}, ...parts.map((p) => p.env)),
+    async close() {
+      for (const p of [...parts].reverse()) await p.close();
+    },
+  };
+}
+
+async function startDistributorFake(env: NodeJS.ProcessEnv): Promise<Services> {
+  const config = readConfig(env);
+  const wanted = config.distributor.fakePort ?? (config.nodeEnv === 'test' ? 0 : DEFAULT_DISTRIBUTOR_FAKE_PORT);
+  const fake = await startFakeDistributor(wanted);
+  log(`fake distributor on ${fake.url} (stands in for a hosted distributor API)`);
+  return { env: { DISTRIBUTOR_URL: fake.url }, close: () => fake.close() };
+}
+
+/** Starts what the configuration leaves to local stand-ins; close() stops them all (also after a half start). */
 export async function startServices(env: NodeJS.ProcessEnv): Promise<Services> {
   const config = readConfig(env);
-  if (env.SMTP_HOST && !config.mail.sinkLocal) return { env: {}, async close() {} };
-  return startMailSink(env);
+  const parts: Services[] = [];
+  try {
+    if (config.storage.kind === 's3' && !config.storage.s3.endpoint)
+      parts.push(await startS3Fake(path.resolve(config.dataDir, 's3'), config.storage.s3.bucket, config.storage.s3.fakePort ?? 0));
+    if (!(env.SMTP_HOST && !config.mail.sinkLocal)) parts.push(await startMailSink(env));
+    if (!config.distributor.url) parts.push(await startDistributorFake(env));
+  } catch (err) {
+    await combine(parts).close();
+    throw err;
+  }
+  return combine(parts);
 }

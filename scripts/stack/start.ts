@@ -28,6 +28,7 @@ import { describeError, log } from './log.ts';
 import { Teardown, stopOnSignals } from './teardown.ts';
 import { demoPeople, DEMO_PASSWORD } from '../../db/seeds/demo.ts';
 import { startServices } from './services.ts';
+import { startReplica } from './replica.ts';
 import { readConfig, resetAppConfig } from '../../src/server/config.ts';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
@@ -72,9 +73,22 @@ async function main(): Promise<void> {
   if (startedDb) superviseMariaDb(db);
   ensureDatabaseAndUser(db, config.db.database, config.db.user, config.db.password);
   await migrateAndSeed(process.env, { seed: true });
+  if (config.dbReplica?.local) {
+    // Loaded afresh from the primary on every start (a dump with the GTID position), then following it.
+    const replica = await startReplica({
+      primary: db,
+      dataDir: path.join(config.dataDir, 'mariadb-replica'),
+      port: config.dbReplica.port,
+      database: config.db.database,
+      user: config.db.user,
+      password: config.db.password,
+      teardown,
+    });
+    log(`read replica on 127.0.0.1:${replica.port} following the primary (search and catalogue reads)`);
+  }
   buildIfChanged(root);
   const services = await startServices(process.env);
-  teardown.add('mail sink', () => services.close());
+  teardown.add('local services (mail sink, fake S3, fake distributor)', () => services.close());
   Object.assign(process.env, services.env);
   resetAppConfig();
   const graceMs = readConfig(process.env).shutdownGraceS * 1000;

@@ -87,7 +87,7 @@ export async function startThrowawayStack(root: string, teardown: Teardown = new
     await migrateAndSeed(env, { seed: true, snapshotTo: env.DB_SNAPSHOT_NAME });
     buildIfChanged(root);
     const services = await startServices(env);
-    teardown.add('mail sink', () => services.close());
+    teardown.add('local services (mail sink, fake S3, fake distributor)', () => services.close());
     Object.assign(env, services.env);
     Object.assign(process.env, services.env);
     resetAppConfig();

@@ -4,9 +4,10 @@
  * against stock. No I/O; the shortlist service feeds it catalogue rows and the rates table.
  */
 import type { PriceBreak } from './domain/parts.ts';
+import { tidy } from './units.ts';
 
 /** Removes floating-point noise before a ceiling: 100 × 1.1 is 110.00000000000001 in binary. */
-const clean = (x: number): number => Number(x.toPrecision(12));
+const clean = tidy;
 
 /**
  * Units needed for a build: per-board quantity × boards, plus attrition (spares for set-up loss and

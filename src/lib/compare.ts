@@ -10,7 +10,7 @@ import type { DesignCase } from './design-case.ts';
 import type { DesignMatch, PreparedCase } from './design-match.ts';
 import { effectiveSwitchList } from './design-match.ts';
 import { checkLabel } from './design-words.ts';
-import type { Lifecycle, Part, PartOf, ReviewStatus } from './domain/parts.ts';
+import type { Lifecycle, Part, ReviewStatus } from './domain/parts.ts';
 import { gateDriveOfDriver, rankDriverCandidates } from './driver-ranking.ts';
 import { bestUnitPrice } from './part-summary.ts';
 import { evaluateDiodePart, evaluateSwitchPart, pinGateDrive, type CandidateResult } from './ranking.ts';
@@ -152,7 +152,7 @@ export function judgeOutside(
   if (role === 'driver' && part.category === 'driver') {
     const effective = effectiveSwitchList(match);
     const byId = (id: number | null | undefined) => (id == null ? undefined : catalogue.mosfets.find((m) => m.id === id));
-    const sw: PartOf<'mosfet'> | undefined = byId(picks.switchId) ?? byId(effective[0]?.partId);
+    const sw: DesignCatalogue['mosfets'][number] | undefined = byId(picks.switchId) ?? byId(effective[0]?.partId);
     if (!sw) return null;
     return rankDriverCandidates(c, [part], sw, wc, picks.resetStartIntended)[0] ?? null;
   }

@@ -28,9 +28,13 @@ export function restoreFormulaText(cell: string): string {
 
 const text = (v: CsvCell): string => (v === null || v === undefined ? '' : String(v));
 
-/** A whole CSV file: header line, one line per row, every line ending in CRLF. */
-export function toCsv(header: readonly string[], rows: readonly (readonly CsvCell[])[]): string {
-  const lines = [header, ...rows].map((r) => r.map((c) => neutraliseFormula(text(c))));
+/**
+ * CSV lines, each ending in CRLF, exactly as they appear inside a file toCsv writes: a file sent in
+ * pieces (the header first, then rows chunk by chunk) is byte for byte the file toCsv would write.
+ */
+export function toCsvLines(rows: readonly (readonly CsvCell[])[]): string {
+  if (rows.length === 0) return '';
+  const lines = rows.map((r) => r.map((c) => neutraliseFormula(text(c))));
   const body = Papa.unparse(lines, {
     delimiter: ',',
     newline: '\r\n',
@@ -40,6 +44,11 @@ export function toCsv(header: readonly string[], rows: readonly (readonly CsvCel
     escapeFormulae: false,
   });
   return `${body}\r\n`;
+}
+
+/** A whole CSV file: header line, one line per row, every line ending in CRLF. */
+export function toCsv(header: readonly string[], rows: readonly (readonly CsvCell[])[]): string {
+  return toCsvLines([header, ...rows]);
 }
 
 export interface CsvRecord {

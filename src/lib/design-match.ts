@@ -4,7 +4,7 @@
  * Pure: the service loads the parts and passes them in.
  */
 import type { DesignInput } from './domain/design.ts';
-import type { Lifecycle, MotorParams, Part, ReviewStatus } from './domain/parts.ts';
+import type { CandidatePart, Lifecycle, MotorParams, ReviewStatus } from './domain/parts.ts';
 import { designCaseOf } from './design-input.ts';
 import { rankDesign, type DesignCatalogue, type DesignRanking } from './rank-design.ts';
 import { worstCaseOf, type DesignCase, type WorstCase } from './design-case.ts';
@@ -64,6 +64,8 @@ export interface DesignMatch {
   /** The source against the motor (start current, current limit, shared logic rail); null until computed. */
   supply: SupplyReport | null;
   cautions: string[];
+  /** The cautions not printed beside their own step in the workspace (see rank-design.ts). */
+  otherCautions: string[];
   /** Candidates left out before ranking because a rating can never pass (or obsolete). */
   excluded: { switch: number; driver: number; diode: number };
 }
@@ -84,7 +86,7 @@ function tiebreak(a: MatchEntry, b: MatchEntry): number {
 
 function decorate<T extends CandidateResult>(
   results: T[],
-  parts: Map<number | undefined, Part>,
+  parts: Map<number | undefined, CandidatePart<'mosfet' | 'driver' | 'diode'>>,
   qty: number,
   chosenId: number | null,
 ): MatchEntry<T>[] {
@@ -131,7 +133,6 @@ export function motorView(label: string, params: MotorParams, input: DesignInput
   };
 }
 
-/** Ranks the catalogue candidates for a design and decorates each with price and lifecycle. */
 /** The design case and its worst case, worked out once per match (the catalogue narrowing uses them too). */
 export interface PreparedCase {
   designCase: DesignCase;
@@ -143,17 +144,11 @@ export function prepareCase(input: DesignInput, motor: MotorParams): PreparedCas
   return { designCase, worstCase: worstCaseOf(designCase) };
 }
 
-export function matchDesign(
-  input: DesignInput,
-  motorLabel: string,
-  motor: MotorParams,
-  catalogue: MatchCatalogue,
-  prepared: PreparedCase = prepareCase(input, motor),
-): DesignMatch {
-  const { designCase } = prepared;
+/** The engine's ranking for a design (no prices: they only break ties when the match is decorated). */
+export function rankForMatch(input: DesignInput, catalogue: DesignCatalogue, prepared: PreparedCase): DesignRanking {
   const sel = input.selections;
-  const ranking = rankDesign(
-    designCase,
+  return rankDesign(
+    prepared.designCase,
     catalogue,
     {
       switchId: sel.switch.chosenPartId,
@@ -163,8 +158,37 @@ export function matchDesign(
     },
     prepared.worstCase,
   );
+}
+
+/** Ranks the catalogue candidates for a design and decorates each with price and lifecycle. */
+export function matchDesign(
+  input: DesignInput,
+  motorLabel: string,
+  motor: MotorParams,
+  catalogue: MatchCatalogue,
+  prepared: PreparedCase = prepareCase(input, motor),
+): DesignMatch {
+  return matchFromRanking(input, motorLabel, motor, catalogue, prepared, rankForMatch(input, catalogue, prepared));
+}
+
+/**
+ * The match from a ranking already made: each entry with price and lifecycle, each list ordered with the
+ * price at the build quantity as the tie-breaker (parts whose sources are not loaded count as unpriced).
+ */
+export function matchFromRanking(
+  input: DesignInput,
+  motorLabel: string,
+  motor: MotorParams,
+  catalogue: MatchCatalogue,
+  prepared: PreparedCase,
+  ranking: DesignRanking,
+): DesignMatch {
+  const { designCase } = prepared;
+  const sel = input.selections;
   const qty = input.boardQuantity;
-  const all = new Map<number | undefined, Part>([...catalogue.mosfets, ...catalogue.drivers, ...catalogue.diodes].map((p) => [p.id, p]));
+  const all = new Map<number | undefined, CandidatePart<'mosfet' | 'driver' | 'diode'>>(
+    [...catalogue.mosfets, ...catalogue.drivers, ...catalogue.diodes].map((p) => [p.id, p]),
+  );
   return {
     worstCase: ranking.worstCase,
     motor: motorView(motorLabel, motor, input),
@@ -181,6 +205,7 @@ export function matchDesign(
     powerOn: ranking.powerOn,
     supply: supplyReportForCase(designCase),
     cautions: ranking.cautions,
+    otherCautions: ranking.otherCautions,
     excluded: catalogue.excluded,
   };
 }
@@ -190,13 +215,15 @@ export function effectiveSwitchList(match: DesignMatch): DesignMatch['switch'] {
   return match.driverNeeded ? match.switchWithDriver : match.switch;
 }
 
+/** Passing parts first; a part marginal only on margins (no hard limit broken) is still a valid pick. */
+export function usableForPick(c: CandidateResult): boolean {
+  return c.verdict === 'pass' || (c.verdict === 'marginal' && c.checks.every((x) => x.ok || x.severity === 'margin'));
+}
+
 /** Default picks: the best passing part per role and up to three further passing parts as alternates. */
 export function suggestSelections(match: DesignMatch): DesignInput['selections'] {
-  // Passing parts first; a part marginal only on margins (no hard limit broken) is still a valid pick.
-  const usable = (c: CandidateResult) =>
-    c.verdict === 'pass' || (c.verdict === 'marginal' && c.checks.every((x) => x.ok || x.severity === 'margin'));
   const pick = (list: CandidateResult[]) => {
-    const passing = list.filter((c) => usable(c) && c.partId != null).map((c) => c.partId as number);
+    const passing = list.filter((c) => usableForPick(c) && c.partId != null).map((c) => c.partId as number);
     return { chosenPartId: passing[0] ?? null, alternatePartIds: passing.slice(1, 4) };
   };
   return {

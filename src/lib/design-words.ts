@@ -8,6 +8,7 @@ import type { StallProtection } from './domain/design.ts';
 import type { WorstCase } from './design-case.ts';
 import type { MotorState } from './power-on.ts';
 import type { SwitchDrive } from './rank-design.ts';
+import { measure, sig } from './units.ts';
 
 const amps = (a: number): string => (Math.abs(a) < 1 ? `${fmt(a * 1000)} mA` : `${fmt(a)} A`);
 
@@ -76,8 +77,13 @@ export function motorStateText(state: MotorState): string {
   return MOTOR_STATE[state];
 }
 
-/** Readable names of the checks a candidate carries; the stable id stays beside them. */
-const CHECK_LABELS: Readonly<Record<string, string>> = {
+/**
+ * Readable names of every check the engines emit (mosfet-checks, diode-checks, driver-checks,
+ * driver-ranking, supply, supply-design): the one table the workspace, the report, the BOM and CSV notes,
+ * the failure summaries and the alert mails read. The stable id stays in the data (and in a tooltip on
+ * screen); tests/unit/check-labels.test.ts fails when an engine emits an id missing here.
+ */
+export const CHECK_LABELS: Readonly<Record<string, string>> = {
   channel: 'Channel type',
   'drain-voltage': 'Drain voltage rating',
   'gate-voltage-rating': 'Gate voltage rating',
@@ -104,13 +110,29 @@ const CHECK_LABELS: Readonly<Record<string, string>> = {
   'paired-switch': 'Paired switch',
   'power-on': 'Power-on state',
   polarity: 'Polarity',
+  'supply-motor-voltage': 'Supply against the motor’s rated voltage',
+  'supply-running-current': 'Running current against the source’s continuous rating',
+  'supply-start-current': 'Start current against the source’s current limit',
+  'logic-brownout': 'Shared controller rail at start (brown-out)',
 };
 
+/** A check's readable name, starting with a capital: "Drain voltage rating". Unknown ids read as words. */
 export function checkLabel(id: string): string {
   const label = CHECK_LABELS[id];
   if (label) return label;
   const words = id.replace(/-/g, ' ');
   return words.charAt(0).toUpperCase() + words.slice(1);
+}
+
+/** The name inside a sentence: "fails drain voltage rating"; a leading abbreviation keeps its case ("RDS(on) …"). */
+export function checkLabelInline(id: string): string {
+  const label = checkLabel(id);
+  return /^[A-Z]{2}/.test(label) ? label : label.charAt(0).toLowerCase() + label.slice(1);
+}
+
+/** Several checks in a sentence, "; " between them since a name may hold a comma. */
+export function checkLabelList(ids: readonly string[]): string {
+  return ids.map(checkLabelInline).join('; ');
 }
 
 export interface FigureRow {
@@ -169,4 +191,13 @@ export function stallRows(wc: WorstCase): FigureRow[] {
   ];
   if (wc.pwmHz != null) rows.push({ label: 'Jammed: diode mean current', value: `${fmt(s.diodeMeanA)} A` });
   return rows;
+}
+
+/**
+ * A check's value or limit as people read it: prefixed SI through `measure`; a dimensionless figure
+ * (the duty error) is a fraction and reads as a percentage ("0.063 %").
+ */
+export function checkFigure(value: number | null, unit: string): string {
+  if (unit === '' && value != null && Number.isFinite(value)) return `${sig(value * 100, 2)} %`;
+  return measure(value, unit);
 }

@@ -175,7 +175,8 @@ function checkReverseRecovery(d: DiodeParams, pwmHz: number | null): Check {
     return makeCheck({
       id: 'reverse-recovery',
       ok: true,
-      value: d.trrNs,
+      // A Schottky has no stored charge: no recovery time to show (a "0" on record reads as a measured 0 ns).
+      value: d.kind === 'schottky' ? null : d.trrNs,
       limit: null,
       unit: 'ns',
       margin: null,

@@ -3,7 +3,7 @@
  * paired with that switch's evaluation at the driver's own real output.
  */
 import { fmt, makeCheck, verdictOf, type Check, type Verdict } from './checks.ts';
-import type { PartOf } from './domain/parts.ts';
+import type { CandidatePart } from './domain/parts.ts';
 import { checkDriver, driverOutputHighV, type SupplyRange } from './driver-checks.ts';
 import { worstCaseOf, type DesignCase, type WorstCase } from './design-case.ts';
 import { walkPowerOn, type PowerOnResult } from './power-on.ts';
@@ -30,7 +30,7 @@ export function driverSupplyOf(c: DesignCase): SupplyRange {
 }
 
 /** The gate drive a real driver delivers: output high at its lowest supply, its rated source and sink currents. */
-export function gateDriveOfDriver(c: DesignCase, driver: PartOf<'driver'>): GateDrive {
+export function gateDriveOfDriver(c: DesignCase, driver: CandidatePart<'driver'>): GateDrive {
   const supply = driverSupplyOf(c);
   return {
     voltageV: driverOutputHighV(driver.params, supply.minV),
@@ -46,7 +46,7 @@ export function gateDriveOfDriver(c: DesignCase, driver: PartOf<'driver'>): Gate
 const STANDALONE = new Set(['driver-supply', 'input-high', 'input-low', 'duty-error']);
 
 /** A driver that holds on its own (no hard failure of the switch-independent checks). */
-export function driverHoldsAlone(c: DesignCase, driver: PartOf<'driver'>, wc: WorstCase): boolean {
+export function driverHoldsAlone(c: DesignCase, driver: CandidatePart<'driver'>, wc: WorstCase): boolean {
   const checks = checkDriver({
     driver: driver.params,
     supply: driverSupplyOf(c),
@@ -63,7 +63,7 @@ export function driverHoldsAlone(c: DesignCase, driver: PartOf<'driver'>, wc: Wo
  * Before a driver is chosen, switches are judged at a real catalogue driver: among those that hold on their own,
  * the one giving the highest output at the lowest driver supply (then the most source current).
  */
-export function provisionalDriver(c: DesignCase, drivers: PartOf<'driver'>[], wc: WorstCase): PartOf<'driver'> | null {
+export function provisionalDriver(c: DesignCase, drivers: CandidatePart<'driver'>[], wc: WorstCase): CandidatePart<'driver'> | null {
   const viable = drivers.filter((d) => driverHoldsAlone(c, d, wc));
   const supply = driverSupplyOf(c);
   viable.sort(
@@ -110,7 +110,7 @@ function powerOnCheck(powerOn: PowerOnResult, startIntended: boolean): Check {
   );
 }
 
-export function powerOnForPair(c: DesignCase, driver: PartOf<'driver'> | null, sw: PartOf<'mosfet'>): PowerOnResult {
+export function powerOnForPair(c: DesignCase, driver: CandidatePart<'driver'> | null, sw: CandidatePart<'mosfet'>): PowerOnResult {
   return walkPowerOn({
     pin: {
       railV: c.logic.railV,
@@ -126,8 +126,8 @@ export function powerOnForPair(c: DesignCase, driver: PartOf<'driver'> | null, s
 
 function evaluateDriverPart(
   c: DesignCase,
-  driver: PartOf<'driver'>,
-  forSwitch: PartOf<'mosfet'>,
+  driver: CandidatePart<'driver'>,
+  forSwitch: CandidatePart<'mosfet'>,
   wc: WorstCase,
   startIntended: boolean,
 ): DriverCandidateResult {
@@ -171,8 +171,8 @@ function evaluateDriverPart(
 /** Drivers ranked for one switch, each paired with that switch's evaluation at the driver's output. */
 export function rankDriverCandidates(
   c: DesignCase,
-  drivers: PartOf<'driver'>[],
-  forSwitch: PartOf<'mosfet'>,
+  drivers: CandidatePart<'driver'>[],
+  forSwitch: CandidatePart<'mosfet'>,
   wc: WorstCase = worstCaseOf(c),
   startIntended = false,
 ): DriverCandidateResult[] {

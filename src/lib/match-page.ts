@@ -6,9 +6,10 @@
  */
 import type { DesignInput } from './domain/design.ts';
 import type { Check, Verdict } from './checks.ts';
-import { checkLabel } from './design-words.ts';
+import { checkLabel, checkLabelInline } from './design-words.ts';
 import { nearMisses, type NearMiss } from './compare.ts';
-import { suggestSelections, type DesignMatch } from './design-match.ts';
+import { suggestSelections, usableForPick, type DesignMatch } from './design-match.ts';
+import type { DesignRanking } from './rank-design.ts';
 import { DEFAULT_MATCH_LIMIT, MAX_MATCH_LIMIT } from './schemas/design.ts';
 
 export const MATCH_LIST_KEYS = ['switch', 'switchWithDriver', 'driver', 'diode'] as const;
@@ -68,7 +69,7 @@ export function summarizeList(
   const head = `${thousands(counts.pass)} pass · ${thousands(counts.marginal)} marginal · ${thousands(counts.fail)} fail`;
   const why = failing
     .slice(0, 4)
-    .map((f) => `${thousands(f.count)} fail ${f.label.toLowerCase()}`)
+    .map((f) => `${thousands(f.count)} fail ${checkLabelInline(f.checkId)}`)
     .join(', ');
   return { total: list.length, offset, limit, counts, failing, summary: why ? `${head} — ${why}` : head, nearMisses: nearMisses(list) };
 }
@@ -122,3 +123,66 @@ export function pageMatch(
     suggested,
   };
 }
+
+/** Runs of equal verdict and score in a ranked list (it is sorted on them): the ties a price can reorder. */
+function tieGroups<T extends { verdict: string; score: number }>(list: readonly T[]): T[][] {
+  const groups: T[][] = [];
+  let last: T | undefined;
+  for (const e of list) {
+    if (last && last.verdict === e.verdict && last.score === e.score) groups[groups.length - 1].push(e);
+    else groups.push([e]);
+    last = e;
+  }
+  return groups;
+}
+
+/**
+ * The parts whose price can show in `pageMatch(…, page)`: price only breaks ties of verdict and score, so
+ * every tie group that reaches the page, holds a pick, or holds one of the parts a suggestion can take
+ * (the groups from the top until four usable parts are in) is priced; any other group stays in its place
+ * whatever its prices, and its own order is never shown. Pure: read off the engine's ranking.
+ */
+export function idsNeedingPrice(
+  ranking: Pick<DesignRanking, MatchListKey>,
+  input: DesignInput,
+  page: { offset: number; limit: number },
+): Set<number> {
+  const out = new Set<number>();
+  const groupsOf = Object.fromEntries(MATCH_LIST_KEYS.map((k) => [k, tieGroups<CandidateLike>(ranking[k])])) as Record<
+    MatchListKey,
+    CandidateLike[][]
+  >;
+  const pins: Record<'switch' | 'driver' | 'diode', Set<number>> = { switch: new Set(), driver: new Set(), diode: new Set() };
+  for (const role of ['switch', 'driver', 'diode'] as const) {
+    const sel = input.selections[role];
+    if (sel.chosenPartId != null) pins[role].add(sel.chosenPartId);
+    for (const id of sel.alternatePartIds) pins[role].add(id);
+  }
+  // Whatever a suggestion may pick (the usable parts in the top groups of a list) is pinned like a pick.
+  for (const k of MATCH_LIST_KEYS) {
+    let usable = 0;
+    for (const g of groupsOf[k]) {
+      if (usable >= 4) break;
+      for (const e of g) {
+        if (!usableForPick(e) || e.partId == null) continue;
+        usable++;
+        pins[roleOf(k)].add(e.partId);
+      }
+    }
+  }
+  for (const k of MATCH_LIST_KEYS) {
+    let start = 0;
+    for (const g of groupsOf[k]) {
+      const end = start + g.length;
+      const onPage = start < page.offset + page.limit && end > page.offset;
+      if (onPage || g.some((e) => e.partId != null && pins[roleOf(k)].has(e.partId))) {
+        for (const e of g) if (e.partId != null) out.add(e.partId);
+      }
+      start = end;
+    }
+  }
+  return out;
+}
+
+type CandidateLike = DesignRanking['switch'][number] | DesignRanking['driver'][number] | DesignRanking['diode'][number];
+const roleOf = (k: MatchListKey): 'switch' | 'driver' | 'diode' => (k === 'switchWithDriver' ? 'switch' : k);

@@ -5,6 +5,7 @@
  */
 import { z } from 'zod';
 import { positiveIn as pos } from './schemas/bounds.ts';
+import { tidy } from './units.ts';
 
 /** Query keys, short so the address stays readable. */
 const KEYS = {
@@ -44,7 +45,7 @@ const handoffSchema = z
 export function motorHandoffHref(m: MotorHandoff): string {
   const q = new URLSearchParams();
   // 12 significant digits: far beyond any datasheet, and no binary tail from unit conversions (3.3953 mN·m → 0.0033953 N·m).
-  for (const [field, key] of Object.entries(KEYS)) q.set(key, String(Number(m[field as keyof MotorHandoff].toPrecision(12))));
+  for (const [field, key] of Object.entries(KEYS)) q.set(key, String(tidy(m[field as keyof MotorHandoff])));
   return `/designs/new?${q.toString()}`;
 }
 

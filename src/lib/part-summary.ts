@@ -3,7 +3,7 @@
  * Pure: used by the catalogue page and by CSV export.
  */
 import { sig } from './units.ts';
-import type { Part, PartCategory } from './domain/parts.ts';
+import type { Part, PartCategory, PriceSource } from './domain/parts.ts';
 
 export interface SummaryColumn {
   key: string;
@@ -120,7 +120,7 @@ export function summarize(part: Part): Record<string, string> {
 /** Units in stock over all of a part's sources. */
 export const totalStock = (part: Pick<Part, 'sources'>): number => part.sources.reduce((sum, src) => sum + src.stockQty, 0);
 
-export function bestUnitPrice(part: Part, qty: number): { price: number; currency: string } | null {
+export function bestUnitPrice(part: { sources: readonly PriceSource[] }, qty: number): { price: number; currency: string } | null {
   let best: { price: number; currency: string } | null = null;
   for (const s of part.sources) {
     const applicable = s.priceBreaks.filter((b) => b.qty <= Math.max(qty, s.moq)).sort((a, b) => b.qty - a.qty)[0];

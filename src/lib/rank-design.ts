@@ -6,7 +6,7 @@
  */
 import { fmt, type Check } from './checks.ts';
 import { avalancheEnergyJ, avalanchePowerW } from './diode-checks.ts';
-import type { PartOf } from './domain/parts.ts';
+import type { CandidatePart } from './domain/parts.ts';
 import {
   describeDriverNeed,
   driverSupplyOf,
@@ -21,11 +21,13 @@ import { suggestedDriveRailV } from './mosfet-checks.ts';
 import type { PowerOnResult } from './power-on.ts';
 import { pullDrawCurrentA } from './power-on-advice.ts';
 import {
-  evaluateSwitchPart,
+  bestCandidate,
+  switchEvaluator,
   pinGateDrive,
   rankDiodeCandidates,
   sortCandidates,
   type CandidateResult,
+  type DiodeCandidateResult,
   type GateDrive,
   type SwitchCandidateResult,
 } from './ranking.ts';
@@ -61,17 +63,26 @@ export interface DesignRanking {
   /** What the effective switch list was judged at. */
   switchDrive: SwitchDrive;
   driver: DriverCandidateResult[];
-  diode: CandidateResult[];
+  diode: DiodeCandidateResult[];
   /** Which diode's VF the currents use. */
   diodeForward: { voltageV: number; basis: 'chosen' | 'lowest-passing' | 'default' };
   powerOn: PowerOnResult | null;
+  /** Every caution for the design (the report prints them all). */
   cautions: string[];
+  /**
+   * The cautions the workspace lists at its foot: those not already printed beside their own step (the
+   * power-on note and the unexpected start with step 7 when the motor can start, the start-up current and
+   * stall heat with the motor and the supply, the PWM frequency and the datasheet check with the motor, the
+   * inductive spike with the diode), so each shows once.
+   */
+  otherCautions: string[];
 }
 
+/** The candidates ranked: full parts or the lighter rows the match loads (CandidatePart). */
 export interface DesignCatalogue {
-  mosfets: PartOf<'mosfet'>[];
-  drivers: PartOf<'driver'>[];
-  diodes: PartOf<'diode'>[];
+  mosfets: CandidatePart<'mosfet'>[];
+  drivers: CandidatePart<'driver'>[];
+  diodes: CandidatePart<'diode'>[];
 }
 
 /** The designer's picks, when made (ids of catalogue parts). */
@@ -96,13 +107,26 @@ function byId<T extends { id?: number }>(parts: T[], id: number | null | undefin
 }
 
 /** The chosen diode's VF, else the lowest VF among passing diodes, else the conservative default. */
-function diodeForwardFor(c: DesignCase, catalogue: DesignCatalogue, picks: DesignPicks, wc0: WorstCase): DesignRanking['diodeForward'] {
+/** Also hands back the diode ranking at `c` when it was worked out (it is the list when VF leaves the case as it is). */
+function diodeForwardFor(
+  c: DesignCase,
+  catalogue: DesignCatalogue,
+  picks: DesignPicks,
+  wc0: WorstCase,
+): { forward: DesignRanking['diodeForward']; rankedAtC: DiodeCandidateResult[] | null } {
   const chosen = byId(catalogue.diodes, picks.diodeId);
-  if (chosen) return { voltageV: chosen.params.vfV, basis: 'chosen' };
-  const passing = rankDiodeCandidates(c, catalogue.diodes, wc0).filter((d) => d.verdict !== 'fail');
-  const vfs = passing.map((d) => byId(catalogue.diodes, d.partId)?.params.vfV).filter((v): v is number => v != null);
-  if (vfs.length > 0) return { voltageV: Math.min(...vfs), basis: 'lowest-passing' };
-  return { voltageV: c.diodeForwardV ?? DEFAULT_DIODE_FORWARD_V, basis: 'default' };
+  if (chosen) return { forward: { voltageV: chosen.params.vfV, basis: 'chosen' }, rankedAtC: null };
+  const ranked = rankDiodeCandidates(c, catalogue.diodes, wc0);
+  const vfById = new Map(catalogue.diodes.map((d) => [d.id, d.params.vfV]));
+  const vfs = ranked
+    .filter((d) => d.verdict !== 'fail')
+    .map((d) => (d.partId == null ? undefined : vfById.get(d.partId)))
+    .filter((v): v is number => v != null);
+  const forward: DesignRanking['diodeForward'] =
+    vfs.length > 0
+      ? { voltageV: Math.min(...vfs), basis: 'lowest-passing' }
+      : { voltageV: c.diodeForwardV ?? DEFAULT_DIODE_FORWARD_V, basis: 'default' };
+  return { forward, rankedAtC: ranked };
 }
 
 /** Direct drive: the pin, less what a recommended gate pull-down draws while the pin drives high. */
@@ -112,14 +136,14 @@ function directDrive(
   catalogue: DesignCatalogue,
   picks: DesignPicks,
 ): { drive: GateDrive; list: SwitchCandidateResult[]; draw: number } {
-  const bare = catalogue.mosfets.map((m) => evaluateSwitchPart(c, m, pinGateDrive(c, wc), wc));
-  const reference = byId(catalogue.mosfets, picks.switchId) ?? byId(catalogue.mosfets, sortCandidates(bare)[0]?.partId);
+  const bare = catalogue.mosfets.map(switchEvaluator(c, pinGateDrive(c, wc), wc));
+  const reference = byId(catalogue.mosfets, picks.switchId) ?? byId(catalogue.mosfets, bestCandidate(bare)?.partId);
   const pull = reference ? powerOnForPair(c, null, reference).recommendedPull : null;
   // The same worst case as the power-on advice reports: the pin at its rail, the resistor at −tol.
   const draw = pullDrawCurrentA(pull, c.logic.railV);
   if (draw === 0) return { drive: pinGateDrive(c, wc), list: sortCandidates(bare), draw };
   const drive = pinGateDrive(c, wc, draw);
-  return { drive, list: sortCandidates(catalogue.mosfets.map((m) => evaluateSwitchPart(c, m, drive, wc))), draw };
+  return { drive, list: sortCandidates(catalogue.mosfets.map(switchEvaluator(c, drive, wc))), draw };
 }
 
 function failureSummary(list: SwitchCandidateResult[]): string {
@@ -151,24 +175,32 @@ function driverNote(
   return describeDriverNeed(c.logic.highV, part.mpn, requiredV, suggestedDriveRailV(requiredV, part.params.vgsMaxV));
 }
 
-function dynamicCautions(c: DesignCase, wc: WorstCase, diode: CandidateResult[]): string[] {
-  const cautions: string[] = [];
+interface DesignCaution {
+  text: string;
+  /** True when the workspace prints it beside its own step. */
+  inPlace: boolean;
+}
+
+function dynamicCautions(c: DesignCase, wc: WorstCase, diode: CandidateResult[]): DesignCaution[] {
+  const cautions: DesignCaution[] = [];
+  const push = (text: string, inPlace = false) => cautions.push({ text, inPlace });
   const consistency = motorConsistencyOf(c);
-  if (consistency.warning) cautions.push(consistency.warning);
-  cautions.push(
+  if (consistency.warning) push(consistency.warning, true);
+  push(
     `Worst-case start-up current is ${fmt(wc.stallCurrentMaxA)} A (stall at ${fmt(wc.supplyMaxV)} V with the winding at ${fmt(wc.windingColdC)} °C): fuse and wiring must carry it.`,
+    true,
   );
   if ((c.stallProtection?.kind ?? 'none') === 'none') {
-    cautions.push(
+    push(
       'No stall protection is set: a jammed shaft holds the switch on at stall current until someone ' +
         'notices. Switch, diode and motor case can exceed 100 °C; consider a current limit or a timed cut-off.',
     );
   }
-  cautions.push('Junction temperatures use the datasheet RθJA from its test board; your board may run hotter or cooler.');
+  push('Junction temperatures use the datasheet RθJA from its test board; your board may run hotter or cooler.');
   if (wc.pwmHz != null && c.motor.inductanceH != null) {
     const tauS = c.motor.inductanceH / motorModelOf(c).resistanceOhm;
     const caution = pwmFrequencyCaution(wc.pwmHz, tauS);
-    if (caution) cautions.push(caution);
+    if (caution) push(caution, true);
   }
   const diodeOk = diode.some((d) => d.verdict !== 'fail');
   if (!diodeOk && c.motor.inductanceH != null) {
@@ -177,15 +209,35 @@ function dynamicCautions(c: DesignCase, wc: WorstCase, diode: CandidateResult[])
       wc.pwmHz != null
         ? `, ${fmt(avalanchePowerW(c.motor.inductanceH, wc.stallCurrentMaxA, wc.pwmHz))} W at ${formatSi(wc.pwmHz, 'Hz', 3)}`
         : '';
-    cautions.push(
+    push(
       `No suitable freewheel diode: without one, ½·L·I² = ${fmt(energyJ * 1000)} mJ avalanches the switch at every turn-off${perCycle}.`,
     );
   }
   return cautions;
 }
 
+/** The standing cautions the workspace prints beside a step: stall heat (motor), inductive spike (diode). */
+const STANDING_IN_PLACE: ReadonlySet<string> = new Set(['stall-heat', 'inductive-spike']);
+
+function designCautions(powerOn: PowerOnResult | null, dynamic: DesignCaution[]): Pick<DesignRanking, 'cautions' | 'otherCautions'> {
+  const canStart = powerOn?.motorCanStart === true;
+  const all: DesignCaution[] = [
+    ...(canStart && powerOn ? [{ text: powerOn.note, inPlace: true }] : []),
+    ...dynamic,
+    ...CAUTIONS.map((x) => ({
+      text: `${x.title}: ${x.text}`,
+      inPlace: STANDING_IN_PLACE.has(x.id) || (x.id === 'unexpected-start' && canStart),
+    })),
+  ];
+  return { cautions: all.map((x) => x.text), otherCautions: [...new Set(all.filter((x) => !x.inPlace).map((x) => x.text))] };
+}
+
 /** Power-on walk for a given switch and (optional) driver. */
-export function powerOnFor(c: DesignCase, sw: PartOf<'mosfet'> | undefined, driver: PartOf<'driver'> | undefined): PowerOnResult | null {
+export function powerOnFor(
+  c: DesignCase,
+  sw: CandidatePart<'mosfet'> | undefined,
+  driver: CandidatePart<'driver'> | undefined,
+): PowerOnResult | null {
   return sw == null ? null : powerOnForPair(c, driver ?? null, sw);
 }
 
@@ -199,10 +251,10 @@ export function rankDesign(
   picks: DesignPicks = {},
   wc0: WorstCase = worstCaseOf(c0),
 ): DesignRanking {
-  const diodeForward = diodeForwardFor(c0, catalogue, picks, wc0);
+  const { forward: diodeForward, rankedAtC } = diodeForwardFor(c0, catalogue, picks, wc0);
   const c: DesignCase = diodeForward.voltageV === c0.diodeForwardV ? c0 : { ...c0, diodeForwardV: diodeForward.voltageV };
   const wc = c === c0 ? wc0 : worstCaseOf(c);
-  const diode = rankDiodeCandidates(c, catalogue.diodes, wc);
+  const diode = c === c0 && rankedAtC ? rankedAtC : rankDiodeCandidates(c, catalogue.diodes, wc);
   const direct = directDrive(c, wc, catalogue, picks);
 
   const chosenDriver = byId(catalogue.drivers, picks.driverId);
@@ -210,7 +262,7 @@ export function rankDesign(
   const directPasses = direct.list.some((e) => e.verdict === 'pass');
   const withDriver =
     refDriver && (chosenDriver || !directPasses)
-      ? sortCandidates(catalogue.mosfets.map((m) => evaluateSwitchPart(c, m, gateDriveOfDriver(c, refDriver), wc)))
+      ? sortCandidates(catalogue.mosfets.map(switchEvaluator(c, gateDriveOfDriver(c, refDriver), wc)))
       : [];
   const fixable =
     withDriver.find((e) => e.verdict === 'pass') ??
@@ -247,7 +299,7 @@ export function rankDesign(
     diode,
     diodeForward,
     powerOn,
-    cautions: [...(powerOn?.motorCanStart ? [powerOn.note] : []), ...dynamicCautions(c, wc, diode), ...STANDING_CAUTIONS],
+    ...designCautions(powerOn, dynamicCautions(c, wc, diode)),
   };
 }
 

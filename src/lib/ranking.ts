@@ -6,7 +6,7 @@
  */
 import { VERDICT_RANK, verdictOf, type Check, type Verdict } from './checks.ts';
 import { checkDiode } from './diode-checks.ts';
-import type { PartOf } from './domain/parts.ts';
+import type { CandidatePart, DiodeParams } from './domain/parts.ts';
 import { marginsOf, worstCaseOf, type DesignCase, type WorstCase } from './design-case.ts';
 import { rdsOnPointsAt25C } from './rdson.ts';
 import { evaluateSwitch, type SwitchEvaluation, type SwitchMosfetInput, type SwitchOperatingInput } from './switch-evaluation.ts';
@@ -18,6 +18,11 @@ export interface CandidateResult {
   verdict: Verdict;
   score: number;
   checks: Check[];
+}
+
+/** A diode's result with the part's own figures the candidate table shows (they vary per row; the design's needs do not). */
+export interface DiodeCandidateResult extends CandidateResult {
+  diode: Pick<DiodeParams, 'kind' | 'vrrmV' | 'ifAvA' | 'vfV' | 'trrNs'>;
 }
 
 export interface SwitchCandidateResult extends CandidateResult {
@@ -61,15 +66,36 @@ export function scoreOf(checks: readonly Check[], verdict: Verdict = verdictOf(c
   return Math.round(Math.min(100, Math.max(0, 100 * smallest)) * 10) / 10;
 }
 
+/** The default-locale comparison of String.prototype.localeCompare, built once (the same order, far cheaper per call). */
+const byMpn = new Intl.Collator().compare;
+
 export function sortCandidates<T extends CandidateResult>(results: T[], tiebreak?: (a: T, b: T) => number): T[] {
   return [...results].sort(
-    (a, b) =>
-      VERDICT_RANK[a.verdict] - VERDICT_RANK[b.verdict] || b.score - a.score || (tiebreak?.(a, b) ?? 0) || a.mpn.localeCompare(b.mpn),
+    (a, b) => VERDICT_RANK[a.verdict] - VERDICT_RANK[b.verdict] || b.score - a.score || (tiebreak?.(a, b) ?? 0) || byMpn(a.mpn, b.mpn),
   );
 }
 
-export function switchInputFromPart(part: PartOf<'mosfet'>): SwitchMosfetInput {
-  const p = part.params;
+/** sortCandidates(results)[0] (no tie-breaker) in one pass: the first of equal bests, as the stable sort keeps it. */
+export function bestCandidate<T extends CandidateResult>(results: readonly T[]): T | undefined {
+  let best: T | undefined;
+  for (const r of results) {
+    if (!best || (VERDICT_RANK[r.verdict] - VERDICT_RANK[best.verdict] || best.score - r.score || byMpn(r.mpn, best.mpn)) < 0) best = r;
+  }
+  return best;
+}
+
+/** The switch input of a part's params, worked out once per params object (a match judges each part at up to two drives). */
+const switchInputs = new WeakMap<CandidatePart<'mosfet'>['params'], SwitchMosfetInput>();
+
+export function switchInputFromPart(part: CandidatePart<'mosfet'>): SwitchMosfetInput {
+  const known = switchInputs.get(part.params);
+  if (known) return known;
+  const input = switchInputOf(part.params);
+  switchInputs.set(part.params, input);
+  return input;
+}
+
+function switchInputOf(p: CandidatePart<'mosfet'>['params']): SwitchMosfetInput {
   return {
     vdsMaxV: p.vdsMaxV,
     vgsMaxV: p.vgsMaxV,
@@ -125,12 +151,27 @@ export function switchOperatingFor(c: DesignCase, wc: WorstCase, drive: GateDriv
 /** Evaluates one MOSFET part for the case at a gate drive; P-channel parts get a failing 'channel' check (low-side design). */
 export function evaluateSwitchPart(
   c: DesignCase,
-  part: PartOf<'mosfet'>,
+  part: CandidatePart<'mosfet'>,
   drive: GateDrive,
   wc: WorstCase = worstCaseOf(c),
 ): SwitchCandidateResult {
+  return switchEvaluator(c, drive, wc)(part);
+}
+
+/** evaluateSwitchPart for many parts at one drive: the design's operating values and margins worked out once. */
+export function switchEvaluator(c: DesignCase, drive: GateDrive, wc: WorstCase = worstCaseOf(c)) {
   const margins = marginsOf(c);
-  const result = evaluateSwitch({ mosfet: switchInputFromPart(part), operating: switchOperatingFor(c, wc, drive), margins });
+  const operating = switchOperatingFor(c, wc, drive);
+  return (part: CandidatePart<'mosfet'>): SwitchCandidateResult => judgeSwitch(part, drive, operating, margins);
+}
+
+function judgeSwitch(
+  part: CandidatePart<'mosfet'>,
+  drive: GateDrive,
+  operating: SwitchOperatingInput,
+  margins: ReturnType<typeof marginsOf>,
+): SwitchCandidateResult {
+  const result = evaluateSwitch({ mosfet: switchInputFromPart(part), operating, margins });
   return {
     partId: part.id ?? null,
     mpn: part.mpn,
@@ -161,15 +202,14 @@ export function evaluateSwitchPart(
 /** Switches ranked at one gate drive for all (the controller pin unless a driver's drive is given). */
 export function rankSwitchCandidates(
   c: DesignCase,
-  mosfets: PartOf<'mosfet'>[],
+  mosfets: CandidatePart<'mosfet'>[],
   drive?: GateDrive,
   wc: WorstCase = worstCaseOf(c),
 ): SwitchCandidateResult[] {
-  const d = drive ?? pinGateDrive(c, wc);
-  return sortCandidates(mosfets.map((m) => evaluateSwitchPart(c, m, d, wc)));
+  return sortCandidates(mosfets.map(switchEvaluator(c, drive ?? pinGateDrive(c, wc), wc)));
 }
 
-export function evaluateDiodePart(c: DesignCase, part: PartOf<'diode'>, wc: WorstCase): CandidateResult {
+export function evaluateDiodePart(c: DesignCase, part: CandidatePart<'diode'>, wc: WorstCase): DiodeCandidateResult {
   const resistanceOhm = c.motor.terminalResistanceOhm ?? c.motor.ratedVoltageV / c.motor.stallCurrentA;
   const checks = checkDiode({
     diode: part.params,
@@ -185,9 +225,22 @@ export function evaluateDiodePart(c: DesignCase, part: PartOf<'diode'>, wc: Wors
     motorResistanceOhm: resistanceOhm,
   });
   const verdict = verdictOf(checks);
-  return { partId: part.id ?? null, mpn: part.mpn, manufacturer: part.manufacturer, verdict, score: scoreOf(checks, verdict), checks };
+  const { kind, vrrmV, ifAvA, vfV, trrNs } = part.params;
+  return {
+    partId: part.id ?? null,
+    mpn: part.mpn,
+    manufacturer: part.manufacturer,
+    verdict,
+    score: scoreOf(checks, verdict),
+    checks,
+    diode: { kind, vrrmV, ifAvA, vfV, trrNs },
+  };
 }
 
-export function rankDiodeCandidates(c: DesignCase, diodes: PartOf<'diode'>[], wc: WorstCase = worstCaseOf(c)): CandidateResult[] {
+export function rankDiodeCandidates(
+  c: DesignCase,
+  diodes: CandidatePart<'diode'>[],
+  wc: WorstCase = worstCaseOf(c),
+): DiodeCandidateResult[] {
   return sortCandidates(diodes.map((d) => evaluateDiodePart(c, d, wc)));
 }

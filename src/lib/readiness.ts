@@ -14,6 +14,7 @@ import type { Check, Verdict } from './checks.ts';
 import type { DesignInput, PartRole } from './domain/design.ts';
 import type { Lifecycle, ReviewStatus } from './domain/parts.ts';
 import { effectiveSwitchList, type DesignMatch, type MatchEntry } from './design-match.ts';
+import { checkLabelInline, checkLabelList } from './design-words.ts';
 import type { MotorState, PowerOnResult } from './power-on.ts';
 
 /** Same shape as the API's issues ({path, message}), so a refusal can carry them as they are. */
@@ -60,7 +61,7 @@ export function reviewWords(status: ReviewStatus): string {
   return `${what[status]} — not approved`;
 }
 
-const checkList = (checks: readonly Check[]): string => checks.map((c) => `${c.id}: ${c.note}`).join('; ');
+const checkList = (checks: readonly Check[]): string => checks.map((c) => `${checkLabelInline(c.id)}: ${c.note}`).join('; ');
 
 /** Why a picked part is not among the candidates, from what the catalogue says of it. */
 function notCandidateReason(facts: PartFacts | undefined): string {
@@ -191,7 +192,7 @@ export function pickStatus(match: DesignMatch, role: PartRole, partId: number, f
   const review = reviewWords(entry.reviewStatus);
   const failing = hardFails(entry.checks).map((c) => c.id);
   const margins = entry.checks.filter((c) => !c.ok && c.severity === 'margin').map((c) => c.id);
-  const detail = failing.length ? ` (${failing.join(', ')})` : margins.length ? ` (margin: ${margins.join(', ')})` : '';
+  const detail = failing.length ? ` (${checkLabelList(failing)})` : margins.length ? ` (margin: ${checkLabelList(margins)})` : '';
   return {
     verdict: entry.verdict,
     reviewStatus: entry.reviewStatus,

@@ -28,6 +28,16 @@ export interface OptionInput {
   status: string;
   holds: boolean;
   sources: BuyingSource[];
+  /** The buyer's preferred source and note for this option, if any. */
+  preference: OptionPreference | null;
+}
+
+/** A buyer's preference on one option: the source by distributor and SKU (null: cheapest), a note, who set it. */
+export interface OptionPreference {
+  source: { distributor: string; sku: string } | null;
+  note: string | null;
+  setByName: string | null;
+  updatedAt: string;
 }
 
 export interface LineInput {
@@ -39,8 +49,6 @@ export interface LineInput {
   options: OptionInput[];
   /** For a generic line: what to buy, in words ("6.8 kΩ ±1 %, 0.1 W"). */
   generic: string | null;
-  preferredSourceId: number | null;
-  note: string | null;
 }
 
 export interface OptionFigures extends Omit<OptionInput, 'sources'> {
@@ -48,6 +56,8 @@ export interface OptionFigures extends Omit<OptionInput, 'sources'> {
   shortfall: number;
   /** The source bought from (the buyer's preferred one when it sells this part, else the cheapest in the organisation currency). */
   quote: SourceQuote | null;
+  /** Whether `quote` is the buyer's preferred source; false when there is none or it is no longer listed. */
+  preferredApplied: boolean;
   /** Every source, quoted at the need, for the order table. */
   quotes: SourceQuote[];
 }
@@ -69,11 +79,27 @@ export interface ShortlistTotals {
   short: string[];
 }
 
-function optionFigures(o: OptionInput, need: number, preferred: number | null, org: string, rates: readonly CurrencyRate[]): OptionFigures {
+/** The id of the listed source the preference names (same distributor and SKU), else null. */
+function preferredSourceId(o: OptionInput): number | null {
+  const want = o.preference?.source;
+  if (!want) return null;
+  return o.sources.find((s) => s.distributor === want.distributor && s.sku === want.sku)?.id ?? null;
+}
+
+function optionFigures(o: OptionInput, need: number, org: string, rates: readonly CurrencyRate[]): OptionFigures {
   const { sources, ...rest } = o;
   const quotes = sources.map((s) => quoteSource(s, need, org, rates));
   const stockQty = sources.reduce((sum, s) => sum + s.stockQty, 0);
-  return { ...rest, stockQty, shortfall: shortfall(need, stockQty), quotes, quote: pickSource(quotes, preferred) };
+  const preferred = preferredSourceId(o);
+  const quote = pickSource(quotes, preferred);
+  return {
+    ...rest,
+    stockQty,
+    shortfall: shortfall(need, stockQty),
+    quotes,
+    quote,
+    preferredApplied: preferred !== null && quote?.source.id === preferred,
+  };
 }
 
 export function shortlistFigures(
@@ -85,7 +111,7 @@ export function shortlistFigures(
 ): { lines: LineFigures[]; totals: ShortlistTotals } {
   const out = lines.map((l) => {
     const need = quantityNeeded(l.perBoard, boards, attritionPct);
-    const options = l.options.map((o) => optionFigures(o, need, l.preferredSourceId, orgCurrency, rates));
+    const options = l.options.map((o) => optionFigures(o, need, orgCurrency, rates));
     return { ...l, need, options };
   });
   let total = 0;

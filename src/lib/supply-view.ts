@@ -4,20 +4,12 @@
  * "not practical" flag [docs/engineering.md §3.3, §3.4]. Pure, browser-safe.
  */
 import type { Check, Verdict } from './checks.ts';
+import { checkLabel } from './design-words.ts';
 import { IMPRACTICAL_BULK_CAPACITANCE_F } from './supply.ts';
 import { formatSi, quantity } from './units.ts';
 
-/** The supply checks in reading order, with the question each one answers. */
-export const SUPPLY_CHECK_TITLES: Readonly<Record<string, string>> = {
-  'supply-motor-voltage': 'Supply against the motor’s rated voltage',
-  'supply-running-current': 'Running current against the source’s continuous rating',
-  'supply-start-current': 'Start current against the source’s current limit',
-  'logic-brownout': 'Shared controller rail at start (brown-out)',
-};
-
-export function supplyCheckTitle(id: string): string {
-  return SUPPLY_CHECK_TITLES[id] ?? id;
-}
+/** @deprecated the one table is design-words' checkLabel; kept so older callers read the same names. */
+export const supplyCheckTitle = checkLabel;
 
 /** One check's own verdict: holds → pass; short only on a margin → marginal; a rating broken → fail. */
 export function checkVerdict(check: Pick<Check, 'ok' | 'severity'>): Verdict {

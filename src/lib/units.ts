@@ -109,6 +109,42 @@ export function quantity(value: number | null | undefined, unit: string, digits 
   return text === '—' ? text : `${text} ${unit}`.trim();
 }
 
+/** Units that take SI prefixes (µs, mA, kΩ); the rest print as plain numbers with their unit. */
+const PREFIXED_UNITS = new Set(['V', 'A', 's', 'W', 'Ω', 'Hz', 'J', 'H', 'N·m']);
+
+/**
+ * A measured or limiting value as an engineer writes it: SI prefix for the prefixable units
+ * (measure(1.54e-8, 's') → "15.4 ns", measure(0.0012, 'A') → "1.20 mA"), plain number otherwise
+ * (measure(61.2, '°C') → "61.2 °C"), scientific below 0.01 (measure(0.000943, 'A²s') → "9.43 × 10⁻⁴ A²s").
+ */
+export function measure(value: number | null | undefined, unit: string, digits = 3): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return '—';
+  if (PREFIXED_UNITS.has(unit) && value !== 0) return formatSi(value, unit, digits);
+  const text = value !== 0 && Math.abs(value) < 0.01 ? scientific(value, digits) : sig(value, digits);
+  return unit ? `${text} ${unit}` : text;
+}
+
+const SUPERSCRIPT: Readonly<Record<string, string>> = {
+  '-': '⁻',
+  '0': '⁰',
+  '1': '¹',
+  '2': '²',
+  '3': '³',
+  '4': '⁴',
+  '5': '⁵',
+  '6': '⁶',
+  '7': '⁷',
+  '8': '⁸',
+  '9': '⁹',
+};
+
+/** Scientific notation as printed in datasheets: scientific(0.000943) → "9.43 × 10⁻⁴". */
+export function scientific(value: number, digits = 3): string {
+  const [mantissa, exponent] = value.toExponential(Math.min(Math.max(Math.round(digits), 1), 15) - 1).split('e');
+  const power = String(Number(exponent)).replace(/./g, (ch) => SUPERSCRIPT[ch] ?? ch);
+  return `${mantissa} × 10${power}`;
+}
+
 /** A fraction as a percentage: percent(0.256) → "26 %", percent(0.256, 1) → "25.6 %". */
 export function percent(fraction: number | null | undefined, decimals = 0): string {
   if (fraction === null || fraction === undefined || !Number.isFinite(fraction)) return '—';
@@ -135,4 +171,30 @@ export function bytes(count: number): string {
 /** Removes floating-point noise from a value converted between units (for inputs): 0.1 × 3 → 0.3. */
 export function tidy(value: number): number {
   return Number(value.toPrecision(12));
+}
+
+/** A count with its noun in the right number: "1 diode", "25,412 diodes", "1 person", "5 people". */
+export function counted(n: number, one: string, many: string): string {
+  return `${count(n)} ${n === 1 ? one : many}`;
+}
+
+/** A whole count with thousands separators: count(1240) → "1,240", count(0) → "0". */
+export function count(value: number | null | undefined): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return '—';
+  const whole = String(Math.round(Math.abs(value))).replace(/\B(?=(\d{3})+(?!\d))/g, ',');
+  return value < 0 ? `-${whole}` : whole;
+}
+
+/**
+ * How long ago, coarsely, rounded down: under a minute "just now", then "12 min ago", "3 h ago" (under
+ * two days), "5 days ago".
+ */
+export function age(ms: number | null | undefined): string {
+  if (ms === null || ms === undefined || !Number.isFinite(ms)) return '—';
+  const minutes = Math.floor(Math.max(0, ms) / 60_000);
+  if (minutes < 1) return 'just now';
+  if (minutes < 60) return `${minutes} min ago`;
+  const hours = Math.floor(minutes / 60);
+  if (hours < 48) return `${hours} h ago`;
+  return `${Math.floor(hours / 24)} days ago`;
 }

@@ -34,7 +34,41 @@ export const CONFIG_KEYS: readonly ConfigKey[] = [
     defaultText: '`30`',
     meaning: 'on SIGTERM/Ctrl-C, how long requests in flight (imports included) may still run before their connections are cut',
   },
+  {
+    key: 'DB_BUFFER_POOL_SIZE',
+    defaultText: '`512M`',
+    meaning:
+      'InnoDB buffer pool of the private MariaDB that `npm start`/`npm test` run (sized so a catalogue of tens of thousands of parts stays in memory); `M` or `G` suffix',
+  },
+  {
+    key: 'DB_REPLICA_HOST',
+    defaultText: 'unset',
+    meaning:
+      'a MariaDB replica of the database (MariaDB replication): when set, search and catalogue reads go to it, writes always to `DB_HOST`; while it does not answer, those reads go to `DB_HOST`. ' +
+      '`local`: `npm start` runs a private replica of its private MariaDB on 127.0.0.1 (data in `DATA_DIR/mariadb-replica`)',
+  },
+  {
+    key: 'DB_REPLICA_PORT',
+    defaultText: '`DB_PORT` (`local`: `DB_PORT` + 1)',
+    meaning: 'port of the replica (same database name, user and password as the primary)',
+  },
   { key: 'DATA_DIR', defaultText: '`.data`', meaning: 'where the private MariaDB and stored datasheets live' },
+  {
+    key: 'STORAGE',
+    defaultText: '`local`',
+    meaning: '`local`: datasheets on disk under `DATA_DIR/datasheets`; `s3`: in an S3-compatible bucket (below)',
+  },
+  {
+    key: 'S3_ENDPOINT',
+    defaultText: 'the local fake',
+    meaning:
+      'address of the S3-compatible store (path-style requests). Unset with `STORAGE=s3`: `npm start`/`npm test` run a local fake (s3rver) on 127.0.0.1 with its files under `DATA_DIR/s3`',
+  },
+  { key: 'S3_FAKE_PORT', defaultText: 'a free port', meaning: 'port of the local fake S3 on 127.0.0.1' },
+  { key: 'S3_BUCKET', defaultText: '`stallpoint-datasheets`', meaning: 'bucket for datasheets (the local fake creates it)' },
+  { key: 'S3_REGION', defaultText: '`us-east-1`', meaning: 'region name sent to the store' },
+  { key: 'S3_ACCESS_KEY_ID', defaultText: "`S3RVER` (the fake's)", meaning: 'access key of the store' },
+  { key: 'S3_SECRET_ACCESS_KEY', defaultText: "`S3RVER` (the fake's)", meaning: 'secret key of the store' },
   {
     key: 'PUBLIC_URL',
     defaultText: '`http://HOST:PORT` under `npm start`',
@@ -72,6 +106,29 @@ export const CONFIG_KEYS: readonly ConfigKey[] = [
     meaning: 'spares added to every shortlist line for set-up loss and rework, in percent of per-board quantity × boards (0–50)',
   },
   {
+    key: 'DISTRIBUTOR_URL',
+    defaultText: 'the local fake',
+    meaning:
+      'base address of the distributor offers API (`GET /v1/offers?mpn=…`); when unset, `npm start`/`npm test` start the local fake distributor on 127.0.0.1 and point here at it',
+  },
+  {
+    key: 'DISTRIBUTOR_FAKE_PORT',
+    defaultText: '`2527` (`npm test`: a free port)',
+    meaning: 'port of the local fake distributor on 127.0.0.1',
+  },
+  { key: 'DISTRIBUTOR_TIMEOUT_MS', defaultText: '`3000`', meaning: 'deadline of one request to the distributor (each retry has its own)' },
+  {
+    key: 'DISTRIBUTOR_RETRIES',
+    defaultText: '`3`',
+    meaning: 'further tries after a 429, a 5xx, a timeout or a dropped connection (0–10), with backoff and Retry-After honoured up to 30 s',
+  },
+  {
+    key: 'DISTRIBUTOR_REFRESH_MIN',
+    defaultText: '`15` (`npm test`: `0`)',
+    meaning:
+      'minutes between scheduled refreshes of the cached distributor offers in each app server (one server at a time, by a lock in the database); `0` turns the schedule off',
+  },
+  {
     key: 'TRUST_PROXY',
     defaultText: 'unset',
     meaning: '`1` behind a reverse proxy you run: client addresses (for the sign-in limit) are then taken from `X-Forwarded-For`',
@@ -98,7 +155,29 @@ const envSchema = z.object({
   DB_POOL_MAX: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).max(500).default(10)),
   DB_QUERY_TIMEOUT_MS: z.preprocess(blankToUndefined, z.coerce.number().int().min(100).max(600_000).default(5_000)),
   SHUTDOWN_GRACE_S: z.preprocess(blankToUndefined, z.coerce.number().min(0).max(3_600).default(30)),
+  DB_BUFFER_POOL_SIZE: z.preprocess(
+    blankToUndefined,
+    z
+      .string()
+      .regex(/^[1-9][0-9]{0,5}[MG]$/, { error: 'DB_BUFFER_POOL_SIZE is a size such as 512M or 2G' })
+      .default('512M'),
+  ),
+  DB_REPLICA_HOST: optionalText,
+  DB_REPLICA_PORT: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).max(65_535).optional()),
   DATA_DIR: text('.data'),
+  STORAGE: z.preprocess(blankToUndefined, z.enum(['local', 's3']).default('local')),
+  S3_ENDPOINT: z.preprocess(blankToUndefined, z.url({ protocol: /^https?$/, error: 'S3_ENDPOINT must be an http(s) address' }).optional()),
+  S3_FAKE_PORT: z.preprocess(blankToUndefined, z.coerce.number().int().min(0).max(65_535).optional()),
+  S3_BUCKET: z.preprocess(
+    blankToUndefined,
+    z
+      .string()
+      .regex(/^[a-z0-9][a-z0-9.-]{1,61}[a-z0-9]$/, { error: 'S3_BUCKET is a bucket name: 3–63 lower-case letters, digits, dots, dashes' })
+      .default('stallpoint-datasheets'),
+  ),
+  S3_REGION: text('us-east-1'),
+  S3_ACCESS_KEY_ID: text('S3RVER'),
+  S3_SECRET_ACCESS_KEY: text('S3RVER'),
   PUBLIC_URL: z.preprocess(
     blankToUndefined,
     z
@@ -125,6 +204,17 @@ const envSchema = z.object({
       .default('EUR'),
   ),
   ATTRITION_PCT: z.preprocess(blankToUndefined, z.coerce.number().min(0).max(50).default(2)),
+  DISTRIBUTOR_URL: z.preprocess(
+    blankToUndefined,
+    z
+      .url({ protocol: /^https?$/, error: 'DISTRIBUTOR_URL must be an http(s) address such as http://127.0.0.1:2527' })
+      .transform((u) => u.replace(/\/+$/, ''))
+      .optional(),
+  ),
+  DISTRIBUTOR_FAKE_PORT: z.preprocess(blankToUndefined, z.coerce.number().int().min(0).max(65_535).optional()),
+  DISTRIBUTOR_TIMEOUT_MS: z.preprocess(blankToUndefined, z.coerce.number().int().min(50).max(120_000).default(3_000)),
+  DISTRIBUTOR_RETRIES: z.preprocess(blankToUndefined, z.coerce.number().int().min(0).max(10).default(3)),
+  DISTRIBUTOR_REFRESH_MIN: z.preprocess(blankToUndefined, z.coerce.number().min(0).max(10_080).optional()),
 });
 
 export interface DbConfig {
@@ -136,6 +226,20 @@ export interface DbConfig {
   poolMax: number;
   /** Deadline of one statement and of getting a connection (src/server/knex-client.ts). */
   queryTimeoutMs: number;
+}
+
+/** Where datasheets are kept. */
+export interface StorageConfig {
+  kind: 'local' | 's3';
+  s3: {
+    /** null: the local fake, started by the scripts, which then set S3_ENDPOINT. */
+    endpoint: string | null;
+    fakePort: number | null;
+    bucket: string;
+    region: string;
+    accessKeyId: string;
+    secretAccessKey: string;
+  };
 }
 
 export interface MailConfig {
@@ -158,12 +262,31 @@ export interface BuyingConfig {
   attritionPct: number;
 }
 
+/** Where the distributor offers come from and how often they are refreshed. */
+export interface DistributorConfig {
+  /** Base address of the offers API; null until the start/test scripts set the local fake's. */
+  url: string | null;
+  /** Port of the local fake; null = the default for the run (2527, or a free one under test). */
+  fakePort: number | null;
+  timeoutMs: number;
+  retries: number;
+  /** Minutes between scheduled refreshes; 0 = no schedule. */
+  refreshMin: number;
+}
+
+export const DEFAULT_DISTRIBUTOR_FAKE_PORT = 2527;
+
 export interface AppConfig {
   nodeEnv: string | null;
   host: string;
   port: number;
   db: DbConfig;
+  /** The read replica (search and catalogue reads), or null when there is none. */
+  dbReplica: { host: string; port: number; /** DB_REPLICA_HOST=local: `npm start` runs it. */ local: boolean } | null;
+  /** innodb_buffer_pool_size of the private MariaDB the scripts run. */
+  dbBufferPoolSize: string;
   dataDir: string;
+  storage: StorageConfig;
   publicUrl: string | null;
   mail: MailConfig;
   /** Port of the local mail sink; null = the default for the run (2526, or a free one under test). */
@@ -175,6 +298,7 @@ export interface AppConfig {
   /** SIGTERM: how long requests in flight may still run. */
   shutdownGraceS: number;
   buying: BuyingConfig;
+  distributor: DistributorConfig;
 }
 
 /** Raised when a variable does not parse; names every bad key. */
@@ -205,7 +329,24 @@ export function readConfig(env: NodeJS.ProcessEnv): AppConfig {
       poolMax: e.DB_POOL_MAX,
       queryTimeoutMs: e.DB_QUERY_TIMEOUT_MS,
     },
+    dbReplica: !e.DB_REPLICA_HOST
+      ? null
+      : e.DB_REPLICA_HOST === 'local'
+        ? { host: '127.0.0.1', port: e.DB_REPLICA_PORT ?? e.DB_PORT + 1, local: true }
+        : { host: e.DB_REPLICA_HOST, port: e.DB_REPLICA_PORT ?? e.DB_PORT, local: false },
+    dbBufferPoolSize: e.DB_BUFFER_POOL_SIZE,
     dataDir: e.DATA_DIR,
+    storage: {
+      kind: e.STORAGE,
+      s3: {
+        endpoint: e.S3_ENDPOINT?.replace(/\/+$/, '') ?? null,
+        fakePort: e.S3_FAKE_PORT ?? null,
+        bucket: e.S3_BUCKET,
+        region: e.S3_REGION,
+        accessKeyId: e.S3_ACCESS_KEY_ID,
+        secretAccessKey: e.S3_SECRET_ACCESS_KEY,
+      },
+    },
     publicUrl: e.PUBLIC_URL ?? null,
     mail: {
       host: e.SMTP_HOST ?? '127.0.0.1',
@@ -222,6 +363,13 @@ export function readConfig(env: NodeJS.ProcessEnv): AppConfig {
     trustProxy: e.TRUST_PROXY === '1',
     shutdownGraceS: e.SHUTDOWN_GRACE_S,
     buying: { orgCurrency: e.ORG_CURRENCY, attritionPct: e.ATTRITION_PCT },
+    distributor: {
+      url: e.DISTRIBUTOR_URL ?? null,
+      fakePort: e.DISTRIBUTOR_FAKE_PORT ?? null,
+      timeoutMs: e.DISTRIBUTOR_TIMEOUT_MS,
+      retries: e.DISTRIBUTOR_RETRIES,
+      refreshMin: e.DISTRIBUTOR_REFRESH_MIN ?? (e.NODE_ENV === 'test' ? 0 : 15),
+    },
   };
 }
 

@@ -2,37 +2,48 @@
  * Datasheet uploads: a real PDF made here with pdf-lib is accepted and downloads back byte for byte;
  * a text file named .pdf, an oversized file (also streamed without a length), an empty file and a
  * name with ../ are refused or sanitised, and nothing is stored for a refused upload.
+ * The text check on attach: a sheet without the part's number, one that names another kind of part, or
+ * one with no text answers 409 asking for confirmation (nothing stored); sent again with confirm=true it
+ * is attached and the audit says it was confirmed. The demo's sample datasheets attach without a question.
  */
 import { createHash } from 'node:crypto';
-import { existsSync, readdirSync } from 'node:fs';
 import http from 'node:http';
-import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { PDFDocument, StandardFonts } from 'pdf-lib';
 import { appDb, appUrl } from '../helpers/stack.ts';
 import { sessionCookie } from '../helpers/session.ts';
 import { numberBomb, spaceBomb } from '../helpers/pdf-bombs.ts';
+import { storedKeys } from '../helpers/datasheet-store.ts';
+import { pdfWithCMapFont } from '../helpers/pdf-cmap-font.ts';
+import { makeDatasheetPdf, sampleDatasheetParts } from '../../scripts/make-sample-datasheets.ts';
 
 const knex = appDb();
-const STORE = path.join(process.env.DATA_DIR ?? '.data', 'datasheets');
 let librarian = '';
 let partId = 0;
+/** The part the uploads go to: an invented N-channel MOSFET of the demo catalogue. */
+const MPN = 'CWN30L02-S3';
 
-async function makePdf(title: string, pages = 2): Promise<Buffer> {
+/** A datasheet of the test part: its part number and kind on every page, then the title. */
+async function makePdf(title: string, pages = 2, heading = `${MPN} N-channel MOSFET`): Promise<Buffer> {
   const doc = await PDFDocument.create();
   const font = await doc.embedFont(StandardFonts.Helvetica);
-  for (let i = 0; i < pages; i++)
-    doc.addPage([595, 842]).drawText(`${title} page ${i + 1} (invented test datasheet)`, { x: 50, y: 780, size: 12, font });
+  for (let i = 0; i < pages; i++) {
+    const page = doc.addPage([595, 842]);
+    page.drawText(heading, { x: 50, y: 800, size: 14, font });
+    page.drawText(`${title} page ${i + 1} (invented test datasheet)`, { x: 50, y: 780, size: 12, font });
+  }
   return Buffer.from(await doc.save());
 }
-const files = (): string[] => (existsSync(STORE) ? readdirSync(STORE).sort() : []);
+/** What the app's store holds (the disk folder, or the bucket when the suite runs with STORAGE=s3). */
+const files = (): Promise<string[]> => storedKeys();
 const rows = async (): Promise<number> => Number((await knex('datasheets').count({ n: '*' }).first())!.n);
 
-function upload(bytes: Buffer, filename: string, cookie = librarian, revision?: string) {
-  const req = request(appUrl()).post(`/api/parts/${partId}/datasheets`).set('Cookie', cookie).set('Origin', appUrl());
+function upload(bytes: Buffer | Uint8Array, filename: string, cookie = librarian, revision?: string, confirm?: string, toPart = partId) {
+  const req = request(appUrl()).post(`/api/parts/${toPart}/datasheets`).set('Cookie', cookie).set('Origin', appUrl());
   if (revision !== undefined) req.field('revision', revision);
-  return req.attach('file', bytes, { filename, contentType: 'application/pdf' });
+  if (confirm !== undefined) req.field('confirm', confirm);
+  return req.attach('file', Buffer.from(bytes), { filename, contentType: 'application/pdf' });
 }
 
 /** Streams a multipart body in chunks without Content-Length; resolves with the status as soon as it arrives. */
@@ -74,7 +85,7 @@ function streamUpload(totalBytes: number, cookie: string): Promise<number> {
 
 beforeAll(async () => {
   librarian = await sessionCookie('librarian');
-  partId = (await knex('parts').where({ mpn: 'CWN30L02-S3' }).first('id')).id;
+  partId = (await knex('parts').where({ mpn: MPN }).first('id')).id;
 });
 afterAll(() => knex.destroy());
 
@@ -92,7 +103,7 @@ describe('POST /api/parts/:id/datasheets', () => {
     });
     const row = await knex('datasheets').where({ id: res.body.id }).first();
     expect(row.storage_key).toMatch(/^[0-9a-f-]{36}\.pdf$/);
-    expect(files()).toContain(row.storage_key);
+    expect(await files()).toContain(row.storage_key);
     const audit = await knex('audit_events')
       .where({ entity_type: 'part', entity_id: partId, action: 'datasheet.add' })
       .orderBy('id', 'desc')
@@ -125,7 +136,7 @@ describe('POST /api/parts/:id/datasheets', () => {
     expect(res.body.originalName).toBe('evil.pdf');
     const row = await knex('datasheets').where({ id: res.body.id }).first();
     expect(row.storage_key).not.toContain('evil');
-    expect(files()).toContain(row.storage_key);
+    expect(await files()).toContain(row.storage_key);
     const odd = await upload(await makePdf('odd'), '..\\..\\windows\\..pdf');
     expect(odd.status).toBe(201);
     expect(odd.body.originalName).toBe('pdf.pdf'); // base name "..pdf": leading dots dropped, extension added
@@ -134,11 +145,11 @@ describe('POST /api/parts/:id/datasheets', () => {
   describe('refusals store nothing', () => {
     let before: { rows: number; files: string[] };
     beforeAll(async () => {
-      before = { rows: await rows(), files: files() };
+      before = { rows: await rows(), files: await files() };
     });
     const unchanged = async () => {
       expect(await rows()).toBe(before.rows);
-      expect(files()).toEqual(before.files);
+      expect(await files()).toEqual(before.files);
     };
 
     it('a text file named .pdf → 415', async () => {
@@ -250,6 +261,112 @@ describe('POST /api/parts/:id/datasheets', () => {
   });
 });
 
+describe('the text check on attach', () => {
+  const latestAudit = async () =>
+    knex('audit_events').where({ entity_type: 'part', entity_id: partId, action: 'datasheet.add' }).orderBy('id', 'desc').first();
+  const remove = (id: number) =>
+    request(appUrl()).delete(`/api/datasheets/${id}`).set('Cookie', librarian).set('Content-Type', 'application/json');
+
+  it("a diode's datasheet on the MOSFET → 409 naming the missing part number and the other kind; confirm=true attaches it, audited", async () => {
+    // Hand-written: an invented rectifier's sheet, as issue 14 met it.
+    const diodeSheet = await makePdf('forward voltage 0.5 V at 2 A', 2, 'ORS20-40-MA Schottky barrier rectifier, 40 V, 2 A');
+    const before = { rows: await rows(), files: await files() };
+    const asked = await upload(diodeSheet, 'ORS20-40-MA.pdf');
+    expect(asked.status, JSON.stringify(asked.body)).toBe(409);
+    expect(asked.body.error).toMatch(/may not be the datasheet of CWN30L02-S3/);
+    expect(asked.body.error).toMatch(/attach it anyway/);
+    expect(asked.body.issues).toEqual([
+      { path: 'file', message: 'the part number CWN30L02-S3 does not occur on pages 1–2' },
+      { path: 'file', message: 'it reads as a diode datasheet (“Schottky”, “rectifier”) and never names a MOSFET' },
+    ]);
+    expect(asked.body.confirmation).toEqual({
+      needed: true,
+      field: 'confirm',
+      problems: ['part-number-missing', 'other-kind'],
+      mpn: MPN,
+      mpnFound: false,
+      textFound: true,
+      pagesRead: 2,
+      otherKind: { category: 'diode', words: ['Schottky', 'rectifier'] },
+    });
+    expect(await rows()).toBe(before.rows);
+    expect(await files()).toEqual(before.files);
+
+    const confirmed = await upload(diodeSheet, 'ORS20-40-MA.pdf', librarian, '', 'true');
+    expect(confirmed.status, JSON.stringify(confirmed.body)).toBe(201);
+    const audit = await latestAudit();
+    expect(JSON.parse(audit.after_json)).toMatchObject({
+      datasheet: { id: confirmed.body.id },
+      textCheck: { confirmed: true, problems: ['part-number-missing', 'other-kind'], mpnFound: false },
+    });
+    expect(audit.note).toBe(
+      'Attached after confirming: the part number CWN30L02-S3 does not occur on pages 1–2; it reads as a diode datasheet (“Schottky”, “rectifier”) and never names a MOSFET',
+    );
+    await remove(confirmed.body.id);
+  });
+
+  it('a PDF with no text (drawings only, as a scan) → 409 "no text found"; confirm=true attaches it', async () => {
+    const doc = await PDFDocument.create();
+    doc.addPage([595, 842]).drawRectangle({ x: 40, y: 40, width: 500, height: 700, borderWidth: 2 });
+    const scan = Buffer.from(await doc.save());
+    const asked = await upload(scan, 'scan.pdf');
+    expect(asked.status, JSON.stringify(asked.body)).toBe(409);
+    expect(asked.body.error).toMatch(/^No text found in this PDF/);
+    expect(asked.body.issues).toEqual([
+      { path: 'file', message: 'no text found on page 1 (a scanned sheet?), so it cannot be checked against CWN30L02-S3' },
+    ]);
+    expect(asked.body.confirmation).toMatchObject({ problems: ['no-text'], textFound: false });
+    const confirmed = await upload(scan, 'scan.pdf', librarian, undefined, 'true');
+    expect(confirmed.status).toBe(201);
+    expect(JSON.parse((await latestAudit()).after_json).textCheck).toMatchObject({ confirmed: true, problems: ['no-text'] });
+    await remove(confirmed.body.id);
+  });
+
+  it('text in a font with a ToUnicode CMap is read: the part number there attaches at once, another one asks', async () => {
+    const own = await pdfWithCMapFont(['cwn30l02 s3', 'N-channel MOSFET, 30 V (invented)']);
+    const ok = await upload(own, 'cmap.pdf');
+    expect(ok.status, JSON.stringify(ok.body)).toBe(201);
+    expect(JSON.parse((await latestAudit()).after_json).textCheck).toEqual({
+      problems: [],
+      confirmed: false,
+      mpnFound: true,
+      textFound: true,
+      pagesRead: 1,
+      otherKind: null,
+    });
+    expect((await latestAudit()).note).toBeNull();
+    await remove(ok.body.id);
+
+    const other = await pdfWithCMapFont(['MQN20T06-S3', 'N-channel MOSFET, 20 V (invented)']);
+    const asked = await upload(other, 'other.pdf');
+    expect(asked.status).toBe(409);
+    expect(asked.body.confirmation.problems).toEqual(['part-number-missing']);
+  });
+
+  it('the part number set with an en dash and in lower case still counts', async () => {
+    const res = await upload(await makePdf('dash', 1, 'cwn30l02\u2013s3 MOSFET'), 'dash.pdf');
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    await remove(res.body.id);
+  });
+
+  it('confirm must be "true", "false" or left out → 400 naming confirm; "false" asks as if left out', async () => {
+    const sheet = await makePdf('unrelated', 1, 'Some other invented sheet');
+    const bad = await upload(sheet, 'x.pdf', librarian, undefined, 'yes please');
+    expect(bad.status).toBe(400);
+    expect(bad.body.issues[0].path).toBe('confirm');
+    expect((await upload(sheet, 'x.pdf', librarian, undefined, 'false')).status).toBe(409);
+  });
+
+  it("the demo's sample datasheets (scripts/make-sample-datasheets.ts) attach to their parts without a question", async () => {
+    for (const part of sampleDatasheetParts()) {
+      const id = (await knex('parts').where({ mpn: part.mpn }).first('id')).id;
+      const res = await upload(await makeDatasheetPdf(part), `${part.mpn}.pdf`, librarian, undefined, undefined, id);
+      expect(res.status, `${part.mpn}: ${JSON.stringify(res.body)}`).toBe(201);
+      await remove(res.body.id);
+    }
+  });
+});
+
 describe('GET and DELETE /api/datasheets/:id', () => {
   it('needs a sign-in to download; librarians remove (record and file), others may not', async () => {
     const created = (await upload(await makePdf('to remove'), 'remove-me.pdf')).body;
@@ -267,7 +384,7 @@ describe('GET and DELETE /api/datasheets/:id', () => {
       (await request(appUrl()).delete(`/api/datasheets/${created.id}`).set('Cookie', librarian).set('Content-Type', 'application/json'))
         .status,
     ).toBe(204);
-    expect(files()).not.toContain(key);
+    expect(await files()).not.toContain(key);
     expect((await request(appUrl()).get(`/api/datasheets/${created.id}`).set('Cookie', librarian)).status).toBe(404);
   });
 });

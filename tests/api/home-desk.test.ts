@@ -81,3 +81,24 @@ describe('home page per role', () => {
     }
   });
 });
+
+describe('the home shortfall counts attrition as the shortlist does', () => {
+  it('flags 505 in stock for the 500-board fan: need 500 × 1.02 = 510 (hand figure, default 2 % attrition)', async () => {
+    const fan = await knex('designs').where({ name: demoDesigns[1].name }).first('id');
+    const switchId = (await knex('design_parts').where({ design_id: fan.id, role: 'switch', position: 0 }).first('part_id')).part_id;
+    const mpn = (await knex('parts').where({ id: switchId }).first('mpn')).mpn;
+    const stock = await knex('part_sources').where({ part_id: switchId }).select('id', 'stock_qty');
+    expect(stock.length, 'the fan switch has a source').toBeGreaterThan(0);
+    await knex('part_sources').where({ part_id: switchId }).update({ stock_qty: 0 });
+    await knex('part_sources').where({ id: stock[0].id }).update({ stock_qty: 505 });
+    try {
+      const html = await home('buyer');
+      expect(html).toMatch(new RegExp(`Short: ${mpn} \\(switch\\) 505 in stock, 510 needed`));
+      // At 510 in stock nothing is missing any more.
+      await knex('part_sources').where({ id: stock[0].id }).update({ stock_qty: 510 });
+      expect(await home('buyer')).not.toMatch(new RegExp(`Short: ${mpn} \\(switch\\)`));
+    } finally {
+      for (const s of stock) await knex('part_sources').where({ id: s.id }).update({ stock_qty: s.stock_qty });
+    }
+  });
+});

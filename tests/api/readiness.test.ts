@@ -211,8 +211,8 @@ describe('the 24 V agitator copied with a 5 V driver supply', () => {
     paths.forEach((path, i) => {
       const issue = issuesOf(refused).find((x) => x.path === path);
       expect(issue?.message, path).toContain(tenVoltOnly[i]);
-      // VGS(th) max 4 V and no RDS(on) line at or below the real drive: the gate-drive check fails.
-      expect(issue?.message, path).toMatch(/gate-drive/);
+      // VGS(th) max 4 V and no RDS(on) line at or below the real drive: the gate-drive check fails, named in words.
+      expect(issue?.message, path).toMatch(/fails gate drive level:/);
     });
     expect((await getDesign(copy.id)).status).toBe('draft');
   });
@@ -295,7 +295,10 @@ describe('changing the RDS(on) lines of a chosen switch', () => {
       expect(design.status).toBe('draft');
       expect(design.statusReason).toContain(before.mpn);
       expect(design.statusReason).toMatch(/was edited/);
-      expect(design.statusReason).toMatch(/junction-temperature|stall-thermal|running-current|stall-current/);
+      // the failing checks by their readable names (src/lib/design-words.ts CHECK_LABELS, hand-copied here)
+      expect(design.statusReason).toMatch(
+        /junction temperature, running|junction temperature, jammed shaft|running current|stall current \(pulse rating\)/,
+      );
       // The long reason (several failing checks) is kept whole on the design and clipped to fit the audit note.
       const audit = await knex('audit_events')
         .where({ entity_type: 'design', entity_id: id, action: 'design.unready' })

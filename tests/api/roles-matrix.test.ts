@@ -130,6 +130,9 @@ const MATRIX: Record<string, string> = {
   'GET /api/designs/[id]/bom.csv': 'saaaa',
   // The shortlist's figures: the same people as the shortlist page
   'GET /api/shortlist': 'safaa',
+  'GET /api/shortlist.csv': 'safaa',
+  // Preferred source and note per shortlist option: buyers set them (designers only read them)
+  'PUT /api/designs/[id]/preferences': 'sffaa',
   // Change alerts: anyone signed in may acknowledge one (who and when are recorded)
   'POST /api/alerts/[id]/acknowledge': 'saaaa',
   // Catalogue: everyone signed in reads; designers propose; librarians curate; buyers keep supply data
@@ -146,6 +149,8 @@ const MATRIX: Record<string, string> = {
   'GET /api/datasheets/[id]': 'saaaa',
   'DELETE /api/datasheets/[id]': 'sfafa',
   'POST /api/imports': 'sfafa',
+  // Distributor offers: buyers and admins refresh the cache now
+  'POST /api/distributor/refresh': 'sffaa',
 };
 
 const ROUTES = routeFiles();

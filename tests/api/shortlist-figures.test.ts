@@ -10,6 +10,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { appDb, appUrl } from '../helpers/stack.ts';
 import { sessionCookie } from '../helpers/session.ts';
+import { readCsvRecords } from '../../src/lib/csv.ts';
 
 const knex = appDb();
 const api = () => request(appUrl());
@@ -254,5 +255,165 @@ describe('shortlist figures at a buyer quantity', () => {
     expect(res.text).toContain('✕ Short by 310: 200 in stock for 510 needed');
     expect(res.text).toContain(`Total of the chosen parts: ${chosen.driver ? '1620.95' : '1212.95'} EUR`);
     expect(res.text).toContain('1 USD = 0.9150 EUR (rate of 2026-12-01)');
+  });
+});
+
+describe('a buyer preferred source and note (last in this file: they change the figures above)', () => {
+  const put = (body: unknown, cookie = buyer) =>
+    api()
+      .put(`/api/designs/${fanId}/preferences`)
+      .set('Cookie', cookie)
+      .set('Origin', appUrl())
+      .send(body as object);
+  const sourceId = async (sku: string): Promise<number> => (await knex('part_sources').where({ sku }).first('id')).id as number;
+  const rows = async () => (await knex('shortlist_preferences').count({ n: '*' }))[0].n;
+  const events = async () => (await knex('audit_events').where({ action: 'shortlist_preference.set' }).count({ n: '*' }))[0].n;
+
+  it('refuses a source of another part with a 409 naming sourceId, and writes nothing', async () => {
+    const [beforeRows, beforeEvents] = [await rows(), await events()];
+    const res = await put({ line: 'switch', partId: chosen.switch, sourceId: await sourceId('TPP-1'), note: null });
+    expect(res.status).toBe(409);
+    expect(res.body.issues.map((i: { path: string }) => i.path)).toEqual(['sourceId']);
+    expect([await rows(), await events()]).toEqual([beforeRows, beforeEvents]);
+  });
+
+  it('refuses a part that is not an option of the line with a 409 naming partId', async () => {
+    const res = await put({ line: 'switch', partId: chosen.diode, sourceId: null, note: 'x' });
+    expect(res.status).toBe(409);
+    expect(res.body.issues.map((i: { path: string }) => i.path)).toEqual(['partId']);
+  });
+
+  it('refuses a note longer than the column (501 characters) with a 400 naming note; 500 is taken', async () => {
+    const long = await put({ line: 'switch', partId: chosen.switch, sourceId: null, note: 'n'.repeat(501) });
+    expect(long.status).toBe(400);
+    expect(long.body.issues.map((i: { path: string }) => i.path)).toEqual(['note']);
+    const fits = await put({ line: 'switch', partId: chosen.switch, sourceId: null, note: 'é'.repeat(500) });
+    expect(fits.status).toBe(200);
+    expect(fits.body.preference.note).toBe('é'.repeat(500));
+  });
+
+  it('refuses a designer (buyers set preferences)', async () => {
+    const res = await put({ line: 'switch', partId: chosen.switch, sourceId: null, note: 'x' }, await sessionCookie('designer'));
+    expect(res.status).toBe(403);
+  });
+
+  it('buys from the preferred reel source: the switch line and the total follow, said "preferred by" the buyer', async () => {
+    const res = await put({
+      line: 'switch',
+      partId: chosen.switch,
+      sourceId: await sourceId('TRH-1'),
+      note: 'Reel for the line; ask for the date code',
+    });
+    expect(res.status, res.text).toBe(200);
+    expect(res.body.preference).toMatchObject({ source: { distributor: 'Test Reel House', sku: 'TRH-1' }, setByName: 'Bea Lindqvist' });
+    const d = await fan();
+    const o = pick(d, 'switch');
+    // TRH-1 by hand (above): 1000 × 0.20 USD = 200.00 USD × 0.915 = 183.00 EUR instead of TSS-1's 127.50 EUR.
+    expect([o.quote?.source.sku, o.quote?.converted?.amount]).toEqual(['TRH-1', 183]);
+    // Total: 1620.95 − 127.50 + 183.00 = 1676.45 EUR (1212.95 − 127.50 + 183.00 = 1268.45 without a driver line).
+    expect(d.totals.totalOrg).toBe(chosen.driver ? 1676.45 : 1268.45);
+    const page = await api()
+      .get(`/shortlist?boards-${fanId}=500`)
+      .set('Cookie', await sessionCookie('designer'));
+    expect(page.text).toContain('Test Reel House TRH-1 · preferred by Bea Lindqvist');
+    expect(page.text).toContain('Note from Bea Lindqvist: Reel for the line; ask for the date code');
+    expect(page.text).not.toContain('data-testid="preference-editor"'); // designers read only
+  });
+
+  it('records the change in the audit trail with the state before and after', async () => {
+    const ev = await knex('audit_events').where({ action: 'shortlist_preference.set' }).orderBy('id', 'desc').first();
+    expect(JSON.parse(ev.before_json)).toMatchObject({ source: null, note: 'é'.repeat(500) });
+    expect(JSON.parse(ev.after_json)).toMatchObject({ source: { sku: 'TRH-1' }, note: 'Reel for the line; ask for the date code' });
+  });
+
+  it('shows the preference read-only on the design page to its designer', async () => {
+    const page = await api()
+      .get(`/designs/${fanId}`)
+      .set('Cookie', await sessionCookie('designer'));
+    expect(page.status).toBe(200);
+    expect(page.text).toContain('Reel for the line; ask for the date code');
+    expect(page.text).toContain('Test Reel House TRH-1');
+  });
+
+  it('keeps the preference when the sources are saved again (new ids, same SKU)', async () => {
+    await setSources(chosen.switch, SWITCH);
+    expect(pick(await fan(), 'switch').quote?.source.sku).toBe('TRH-1');
+  });
+
+  it('clearing source and note removes the row and the cheapest source is bought again', async () => {
+    const res = await put({ line: 'switch', partId: chosen.switch, sourceId: null, note: '' });
+    expect([res.status, res.body.preference]).toEqual([200, null]);
+    expect(pick(await fan(), 'switch').quote?.source.sku).toBe('TSS-1');
+  });
+});
+
+describe('the shortlist CSV (after the preferences above were cleared again)', () => {
+  const csvAt = async (query: string) => {
+    const res = await api().get(`/api/shortlist.csv${query}`).set('Cookie', buyer);
+    expect(res.status, res.text.slice(0, 300)).toBe(200);
+    expect(res.headers['content-type']).toMatch(/^text\/csv/);
+    const [header, ...records] = readCsvRecords(res.text).map((r) => r.cells);
+    const rows = records.map((cells) => Object.fromEntries(header.map((h, i) => [h, cells[i]])));
+    return { text: res.text, fan: rows.filter((r) => r.design_id === String(fanId)) };
+  };
+  const row = (rows: Record<string, string>[], kind: string, label: string, option = 'chosen') =>
+    rows.find((r) => r.row === kind && r.line === label && (kind !== 'line' || r.option === option))!;
+
+  it('has the figures of the hand tables at 500 boards', async () => {
+    const { fan: rows } = await csvAt('');
+    const pickCells = (r: Record<string, string>) => [
+      r.need,
+      r.sku,
+      r.order_qty,
+      r.break_qty,
+      r.unit_price,
+      r.currency,
+      r.extended,
+      r.converted,
+    ];
+    // Same hand figures as the tables above (switch, diode, motor).
+    expect(pickCells(row(rows, 'line', 'Low-side switch'))).toEqual(['510', 'TSS-1', '510', '500', '0.25', 'EUR', '127.50', '127.50']);
+    expect([row(rows, 'line', 'Low-side switch').stock, row(rows, 'line', 'Low-side switch').shortfall]).toEqual(['200', '310']);
+    expect(pickCells(row(rows, 'line', 'Freewheel diode'))).toEqual(['510', 'TPP-1', '750', '100', '0.12', 'GBP', '90.00', '105.48']);
+    expect(pickCells(row(rows, 'line', 'Motor'))).toEqual(['510', 'TMM-1', '510', '250', '2.1', 'USD', '1071.00', '979.97']);
+    const total = row(rows, 'total', 'Total of the chosen parts');
+    expect([total.converted, total.org_currency]).toEqual([chosen.driver ? '1620.95' : '1212.95', 'EUR']);
+    expect(rows.filter((r) => r.row === 'short').map((r) => r.line)).toEqual(['Low-side switch', 'Freewheel diode']);
+    expect(rows.filter((r) => r.row === 'rate').map((r) => [r.currency, r.unit_price, r.note])).toEqual([
+      ['GBP', '1.172', 'rate of 2026-12-01'],
+      ['USD', '0.915', 'rate of 2026-12-01'],
+    ]);
+  });
+
+  it('follows the build quantity: at 1000 boards the diode is 5 reels at the 1000 break', async () => {
+    const { fan: rows } = await csvAt(`?boards-${fanId}=1000`);
+    const diode = row(rows, 'line', 'Freewheel diode');
+    // Hand table above: 1020 → 1250, 112.50 GBP → 131.85 EUR.
+    expect([diode.boards, diode.need, diode.order_qty, diode.extended, diode.converted]).toEqual([
+      '1000',
+      '1020',
+      '1250',
+      '112.50',
+      '131.85',
+    ]);
+  });
+
+  it('writes a note that starts like a formula with a leading apostrophe (OWASP CSV injection)', async () => {
+    const note = '=HYPERLINK("http://example.invalid","x")';
+    const res = await api()
+      .put(`/api/designs/${fanId}/preferences`)
+      .set('Cookie', buyer)
+      .set('Origin', appUrl())
+      .send({ line: 'diode', partId: chosen.diode, sourceId: null, note });
+    expect(res.status, res.text).toBe(200);
+    const { text, fan: rows } = await csvAt('');
+    expect(text).not.toMatch(/,=HYPERLINK|,"=HYPERLINK/);
+    expect(row(rows, 'line', 'Freewheel diode').note).toBe(`'${note}`);
+  });
+
+  it('refuses a bad build quantity with a 400 naming the parameter', async () => {
+    const res = await api().get(`/api/shortlist.csv?boards-${fanId}=0`).set('Cookie', buyer);
+    expect(res.status).toBe(400);
+    expect(res.body.issues.map((i: { path: string }) => i.path)).toEqual([`boards-${fanId}`]);
   });
 });

@@ -1,6 +1,7 @@
 /**
  * In Chromium: a librarian drops a datasheet PDF on a part (the dropzone's file input), sees it listed
- * with its page count, and downloads it back byte for byte.
+ * with its page count, and downloads it back byte for byte. A sheet of another part is questioned
+ * before it attaches, and "Attach anyway" is reached and pressed with the keyboard alone.
  */
 import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -20,13 +21,11 @@ afterAll(async () => {
   await knex.destroy();
 });
 
-async function makePdf(): Promise<Buffer> {
+async function makePdf(mpn = 'PLR1NT15-S5'): Promise<Buffer> {
   const doc = await PDFDocument.create();
   const font = await doc.embedFont(StandardFonts.Helvetica);
   for (const n of [1, 2])
-    doc
-      .addPage([595, 842])
-      .drawText(`PLR1NT15-S5 invented browser-test datasheet, page ${n}, ${Date.now()}`, { x: 40, y: 790, size: 11, font });
+    doc.addPage([595, 842]).drawText(`${mpn} invented browser-test datasheet, page ${n}, ${Date.now()}`, { x: 40, y: 790, size: 11, font });
   return Buffer.from(await doc.save());
 }
 
@@ -64,6 +63,22 @@ describe('datasheet upload on the part page', () => {
       .setInputFiles({ name: 'notes.pdf', mimeType: 'application/pdf', buffer: Buffer.from('plain text, not a PDF') });
     await page.waitForSelector('[data-testid="upload-error"]');
     expect(await page.locator('[data-testid="datasheet-row"]').count()).toBe(before);
+
+    // Another part's sheet: the question names the missing part number; Tab reaches "Attach anyway", Enter attaches.
+    await page
+      .locator('[data-testid="datasheet-input"]')
+      .setInputFiles({ name: 'other part.pdf', mimeType: 'application/pdf', buffer: await makePdf('ORS20-40-MA') });
+    const question = page.getByTestId('datasheet-question');
+    await question.waitFor();
+    await expect(question.textContent()).resolves.toContain('the part number PLR1NT15-S5 does not occur on pages 1–2');
+    expect(await page.evaluate(() => document.activeElement?.getAttribute('data-testid'))).toBe('datasheet-question');
+    await page.screenshot({ path: screenshotPath('part-datasheet-question'), fullPage: false });
+    await page.keyboard.press('Tab');
+    expect(await page.evaluate(() => document.activeElement?.textContent)).toBe('Attach anyway');
+    await page.keyboard.press('Enter');
+    await page.waitForSelector('[data-testid="upload-done"]');
+    await expect(page.getByTestId('upload-done').textContent()).resolves.toContain('confirmed by you');
+    expect(await page.locator('[data-testid="datasheet-row"]').count()).toBe(before + 1);
     expect(errors.filter((e) => !/Failed to load resource/.test(e))).toEqual([]);
     await context.close();
   });

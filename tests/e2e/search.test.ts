@@ -93,4 +93,44 @@ describe('search page', () => {
     expect(await page.locator('[data-testid="search-error"]').textContent()).toContain('rdsOnAtVgsV');
     await context.close();
   });
+
+  // Issue 14 item 5: on a phone the filters fold behind one button (collapsed, with the count of active
+  // filters) so the results come first; on a laptop they stay open beside the results.
+  it.each([
+    [390, false],
+    [1366, true],
+  ])('at %i px the filters are open by default: %s', async (width, openByDefault) => {
+    const context = await browser.newContext({ viewport: { width, height: 844 } });
+    await signInContext(context, 'designer');
+    const page = await context.newPage();
+    // three filters in force (category, VGS(th) bound, lifecycle); the text search and the sort are not filters
+    await page.goto(`${appUrl()}/parts?category=mosfet&vgsThMaxV=1&lifecycle=active&q=MQN&sort=mpn`);
+    await page.waitForSelector('astro-island:not([ssr])');
+    await page.waitForSelector('[data-testid="results-table"] tbody tr');
+    const panel = page.getByTestId('filters-panel');
+    const toggle = page.getByTestId('filters-toggle');
+    await expect(panel.isVisible()).resolves.toBe(openByDefault);
+    await expect(toggle.isVisible()).resolves.toBe(!openByDefault);
+    await page.screenshot({ path: screenshotPath(`search-filters-${width}`), fullPage: false });
+    if (!openByDefault) {
+      await expect(toggle.getAttribute('aria-expanded')).resolves.toBe('false');
+      await expect(page.getByTestId('filters-active').innerText()).resolves.toBe('3 active');
+      // the first result row is on the first screen
+      const firstRowTop = await page
+        .locator('[data-testid="results-table"] tbody tr')
+        .first()
+        .evaluate((tr) => tr.getBoundingClientRect().top);
+      expect(firstRowTop).toBeLessThan(844);
+      // keyboard: focus the button, Enter opens the filters, the first category radio is reachable with Tab
+      await toggle.focus();
+      await page.keyboard.press('Enter');
+      await expect(toggle.getAttribute('aria-expanded')).resolves.toBe('true');
+      await panel.waitFor({ state: 'visible' });
+      await expect(page.getByLabel('VGS(th) max at most').inputValue()).resolves.toBe('1');
+      await page.screenshot({ path: screenshotPath(`search-filters-${width}-open`), fullPage: false });
+      await page.keyboard.press('Space');
+      await panel.waitFor({ state: 'hidden' });
+    }
+    await context.close();
+  });
 });

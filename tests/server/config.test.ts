@@ -36,6 +36,48 @@ describe('readConfig', () => {
     expect(c.trustProxy).toBe(false);
     expect(c.shutdownGraceS).toBe(30);
     expect(c.buying).toEqual({ orgCurrency: 'EUR', attritionPct: 2 });
+    expect(c.dbBufferPoolSize).toBe('512M');
+    expect(c.dbReplica).toBeNull();
+    expect(c.storage).toEqual({
+      kind: 'local',
+      s3: {
+        endpoint: null,
+        fakePort: null,
+        bucket: 'stallpoint-datasheets',
+        region: 'us-east-1',
+        accessKeyId: 'S3RVER',
+        secretAccessKey: 'S3RVER',
+      },
+    });
+    expect(c.distributor).toEqual({ url: null, fakePort: null, timeoutMs: 3000, retries: 3, refreshMin: 15 });
+  });
+
+  it('reads the scale-out keys: S3 store, replica (port defaults to DB_PORT), buffer pool', () => {
+    const c = readConfig({
+      STORAGE: 's3',
+      S3_ENDPOINT: 'http://127.0.0.1:9000/',
+      S3_BUCKET: 'sheets.example',
+      DB_PORT: '3306',
+      DB_REPLICA_HOST: '10.0.0.7',
+      DB_BUFFER_POOL_SIZE: '2G',
+    });
+    expect(c.storage.kind).toBe('s3');
+    expect(c.storage.s3.endpoint).toBe('http://127.0.0.1:9000');
+    expect(c.storage.s3.bucket).toBe('sheets.example');
+    expect(c.dbReplica).toEqual({ host: '10.0.0.7', port: 3306, local: false });
+    expect(readConfig({ DB_REPLICA_HOST: '127.0.0.1', DB_REPLICA_PORT: '3408' }).dbReplica).toEqual({
+      host: '127.0.0.1',
+      port: 3408,
+      local: false,
+    });
+    // `local`: npm start runs it on loopback, one port above the primary's default 3407 unless DB_REPLICA_PORT says otherwise.
+    expect(readConfig({ DB_REPLICA_HOST: 'local' }).dbReplica).toEqual({ host: '127.0.0.1', port: 3408, local: true });
+    expect(c.dbBufferPoolSize).toBe('2G');
+  });
+
+  it('turns the distributor refresh schedule off under test unless asked for', () => {
+    expect(readConfig({ NODE_ENV: 'test' }).distributor.refreshMin).toBe(0);
+    expect(readConfig({ NODE_ENV: 'test', DISTRIBUTOR_REFRESH_MIN: '5' }).distributor.refreshMin).toBe(5);
   });
 
   it('reads set values and treats blank ones as unset', () => {
@@ -83,6 +125,13 @@ describe('readConfig', () => {
     ['ORG_CURRENCY', 'eur'],
     ['ATTRITION_PCT', '-1'],
     ['ATTRITION_PCT', '80'],
+    ['STORAGE', 'cloud'],
+    ['S3_ENDPOINT', 'ftp://files.example.org'],
+    ['S3_BUCKET', 'Upper_Case'],
+    ['S3_FAKE_PORT', '70000'],
+    ['DB_REPLICA_PORT', '0'],
+    ['DB_BUFFER_POOL_SIZE', '512'],
+    ['DB_BUFFER_POOL_SIZE', '1T'],
   ])('refuses %s=%s naming the key', (key, value) => {
     let err: unknown;
     try {

@@ -59,4 +59,10 @@ describe('code shape', () => {
     expect(lib.length).toBeGreaterThan(20);
     expect(offenders(lib, [[/from '(\.\.\/)+server\//, 'server import']])).toEqual([]);
   });
+
+  it('numbers are formatted by src/lib/units.ts only', () => {
+    const sources = [...filesUnder('src', /\.(ts|tsx|astro)$/).filter((f) => f !== path.join('src', 'lib', 'units.ts'))];
+    expect(sources.length).toBeGreaterThan(100);
+    expect(offenders(sources, [[/\.to(Fixed|Precision)\(/, 'hand formatting']])).toEqual([]);
+  });
 });

@@ -119,6 +119,20 @@ describe('common practice: VGS(th) up to 4 V on a 3.3 V logic high', () => {
   it('lists the standing cautions', () => {
     expect(design.cautions.some((x) => /freewheel diode/.test(x))).toBe(true); // docs/engineering.md §11
   });
+
+  it('the workspace foot lists each caution once: none of those printed beside their step, the rest of the standing ones', () => {
+    const other = design.otherCautions;
+    expect(new Set(other).size).toBe(other.length);
+    // printed with the motor, the supply and the diode steps (src/components/workspace), so not at the foot
+    expect(other.some((x) => /^Stall heat:|^Inductive spike:|start-up current/.test(x))).toBe(false);
+    // not printed elsewhere: batteries, low voltage only, engineering aid, the RθJA note (docs/engineering.md §11)
+    for (const words of [/^Batteries:/, /^Low voltage only:/, /^Engineering aid:/, /RθJA/])
+      expect(other.some((x) => words.test(x))).toBe(true);
+    // the motor stays off (pull-down through a non-inverting driver): the unexpected start is not in step 7, so it stays here
+    expect(other.some((x) => /^Unexpected start:/.test(x))).toBe(true);
+    // every one of them is also among all the cautions the report prints
+    for (const x of other) expect(design.cautions).toContain(x);
+  });
 });
 
 describe('design with direct drive', () => {

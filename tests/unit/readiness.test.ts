@@ -42,6 +42,12 @@ function entry(partId: number, mpn: string, verdict: E['verdict'], checks: Check
   } as E;
 }
 
+/** A diode entry: the same fields plus the part's own figures (invented). */
+const asDiode = (e: E): DesignMatch['diode'][number] => ({
+  ...e,
+  diode: { kind: 'schottky', vrrmV: 40, ifAvA: 1, vfV: 0.45, trrNs: null },
+});
+
 const OFF_WALK: PowerOnResult = {
   steps: [{ stage: 'motor', state: 'off', minV: null, maxV: null, note: 'off' }],
   motorCanStart: false,
@@ -147,7 +153,7 @@ describe('readiness rule (hand-written table of the sign-off rule)', () => {
     });
     const issues = readinessIssues(input(), m);
     expect(paths(issues)).toEqual(['selections.switch.chosenPartId']);
-    expect(issues[0].message).toBe('QX11 fails stall-thermal: Tj reaches 450 °C at a jam');
+    expect(issues[0].message).toBe('QX11 fails junction temperature, jammed shaft: Tj reaches 450 °C at a jam');
   });
 
   it('a failing alternate is refused at its own path', () => {
@@ -156,11 +162,11 @@ describe('readiness rule (hand-written table of the sign-off rule)', () => {
     });
     const issues = readinessIssues(input(), m);
     expect(paths(issues)).toEqual(['selections.switch.alternatePartIds.0']);
-    expect(issues[0].message).toMatch(/^QX12 fails drain-voltage: .*30 V exceeds the derated 24 V/);
+    expect(issues[0].message).toMatch(/^QX12 fails drain voltage rating: .*30 V exceeds the derated 24 V/);
   });
 
   it('a pending part (match run with pending parts) is refused', () => {
-    const m = match({ diode: [entry(31, 'DX31', 'pass', [], { reviewStatus: 'pending' })] });
+    const m = match({ diode: [asDiode(entry(31, 'DX31', 'pass', [], { reviewStatus: 'pending' }))] });
     const issues = readinessIssues(input(), m);
     expect(paths(issues)).toEqual(['selections.diode.chosenPartId']);
     expect(issues[0].message).toBe('DX31 is pending review — not approved');
@@ -243,7 +249,9 @@ describe('readiness rule (hand-written table of the sign-off rule)', () => {
       input(),
       match({ supply: supply('fail', [hard('logic-brownout', 'the rail dips to 2.1 V at start')]) }),
     );
-    expect(failing).toEqual([{ path: 'supply', message: 'the supply fails logic-brownout: the rail dips to 2.1 V at start' }]);
+    expect(failing).toEqual([
+      { path: 'supply', message: 'the supply fails shared controller rail at start (brown-out): the rail dips to 2.1 V at start' },
+    ]);
     expect(readinessIssues(input(), match({ supply: supply('marginal', [margin('supply-start-current', 'close')]) }))).toEqual([]);
   });
 
@@ -261,7 +269,7 @@ describe('pick status for BOM and shortlist lines (hand-written table)', () => {
   it.each([
     ['pass, approved', entry(11, 'QX11', 'pass', []), '✓ pass · approved', true],
     ['marginal on a margin', entry(11, 'QX11', 'marginal', [margin('junction', 'm')]), '! marginal (margin: junction) · approved', true],
-    ['fail', entry(11, 'QX11', 'fail', [hard('stall-thermal', 'hot')]), '✕ fail (stall-thermal) · approved', false],
+    ['fail', entry(11, 'QX11', 'fail', [hard('stall-thermal', 'hot')]), '✕ fail (junction temperature, jammed shaft) · approved', false],
     ['pending', entry(11, 'QX11', 'pass', [], { reviewStatus: 'pending' }), '✓ pass · pending review — not approved', false],
   ] as const)('%s', (_name, e, text, holds) => {
     const s = pickStatus(match({ switch: [e] }), 'switch', 11);

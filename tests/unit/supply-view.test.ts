@@ -3,7 +3,7 @@
  * values are written out by hand beside their source, never read back from the code under test.
  */
 import { describe, expect, it } from 'vitest';
-import { bulkCapacitanceView, checkVerdict, limitRelation, quantityText, supplyCheckTitle, torqueText } from '../../src/lib/supply-view.ts';
+import { bulkCapacitanceView, checkVerdict, limitRelation, quantityText, torqueText } from '../../src/lib/supply-view.ts';
 import {
   cellCount,
   defaultSharedSupply,
@@ -31,13 +31,6 @@ describe('a check reads as a verdict (docs/engineering.md §3.3 severities)', ()
     expect(limitRelation('logic-brownout')).toBe('≥');
     expect(limitRelation('supply-start-current')).toBe('≤');
     expect(limitRelation('supply-running-current')).toBe('≤');
-  });
-
-  it('every supply check has a title in words; an unknown id stays readable', () => {
-    for (const id of ['supply-motor-voltage', 'supply-running-current', 'supply-start-current', 'logic-brownout']) {
-      expect(supplyCheckTitle(id)).not.toBe(id);
-    }
-    expect(supplyCheckTitle('something-new')).toBe('something-new');
   });
 });
 

@@ -3,7 +3,22 @@
  * (9th ed., table 7: n, µ, m, k, M); percentages and prices as people write them (common practice).
  */
 import { describe, expect, it } from 'vitest';
-import { bytes, fixed, formatSi, percent, price, quantity, sig, tidy } from '../../src/lib/units.ts';
+import { checkFigure } from '../../src/lib/design-words.ts';
+import {
+  age,
+  bytes,
+  count,
+  counted,
+  fixed,
+  formatSi,
+  measure,
+  percent,
+  price,
+  quantity,
+  scientific,
+  sig,
+  tidy,
+} from '../../src/lib/units.ts';
 
 describe('sig', () => {
   it.each([
@@ -57,4 +72,79 @@ describe('formatSi prefixes', () => {
     [2_000_000, 'Hz', '2.00 MHz'],
     [999.96, 'V', '1.00 kV'],
   ] as const)('%s %s → %s', (v, unit, out) => expect(formatSi(v, unit)).toBe(out));
+});
+
+// Check values and limits as the workspace and the report show them (hand-written: SI prefixes per
+// the SI Brochure, BIPM, 9th edition, table 7; unprefixed units print as plain numbers).
+describe.each([
+  [1.54e-8, 's', '15.4 ns'],
+  [0.00000111, 's', '1.11 µs'],
+  [0.0012, 'A', '1.20 mA'],
+  [0.000943, 'J', '943 µJ'],
+  [0.045, 'Ω', '45.0 mΩ'],
+  [24, 'V', '24.0 V'],
+  [0, 'A', '0 A'],
+  [0.000943, 'A²s', '9.43 × 10⁻⁴ A²s'],
+  [0.0421, 'A²s', '0.0421 A²s'],
+  [1.5, 'K/W', '1.5 K/W'],
+  [61.2, '°C', '61.2 °C'],
+  [null, 'V', '—'],
+  [Number.NaN, 'A', '—'],
+] as const)('measure(%s, %s)', (value, unit, expected) => {
+  it(`reads ${expected}`, () => expect(measure(value, unit)).toBe(expected));
+});
+
+describe.each([
+  [0.000943, '9.43 × 10⁻⁴'],
+  [-0.0000152, '-1.52 × 10⁻⁵'],
+  [12300000, '1.23 × 10⁷'],
+] as const)('scientific(%s)', (value, expected) => {
+  it(`reads ${expected}`, () => expect(scientific(value)).toBe(expected));
+});
+
+// The duty error is a dimensionless fraction: it reads as a percentage (hand-written).
+describe.each([
+  [0.00063, '', '0.063 %'],
+  [0.01, '', '1 %'],
+  [1.54e-8, 's', '15.4 ns'],
+  [null, '', '—'],
+] as const)('checkFigure(%s, %s)', (value, unit, expected) => {
+  it(`reads ${expected}`, () => expect(checkFigure(value, unit)).toBe(expected));
+});
+
+describe('counted: the noun agrees with the count (English grammar)', () => {
+  it.each([
+    [1, 'diode', 'diodes', '1 diode'],
+    [0, 'diode', 'diodes', '0 diodes'],
+    [4, 'person', 'people', '4 people'],
+    [1, 'person', 'people', '1 person'],
+    [25412, 'MOSFET', 'MOSFETs', '25,412 MOSFETs'],
+  ])('%d %s', (n, one, many, text) => {
+    expect(counted(n, one, many)).toBe(text);
+  });
+});
+
+describe('count (thousands separated by commas, common practice in English)', () => {
+  it.each([
+    [0, '0'],
+    [999, '999'],
+    [1240, '1,240'],
+    [1_000_000, '1,000,000'],
+    [-12_500, '-12,500'],
+    [NaN, '—'],
+    [null, '—'],
+  ])('%s → %s', (value, expected) => expect(count(value)).toBe(expected));
+});
+
+describe('age (rounded down to the unit shown)', () => {
+  it.each([
+    [0, 'just now'],
+    [59_999, 'just now'],
+    [60_000, '1 min ago'],
+    [59 * 60_000 + 59_000, '59 min ago'],
+    [3 * 3_600_000 + 20 * 60_000, '3 h ago'], // 3 h 20 min
+    [47 * 3_600_000, '47 h ago'],
+    [48 * 3_600_000, '2 days ago'],
+    [-5_000, 'just now'], // a clock a little ahead
+  ])('%i ms → %s', (ms, expected) => expect(age(ms)).toBe(expected));
 });

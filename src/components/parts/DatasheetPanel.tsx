@@ -1,5 +1,10 @@
-/** Datasheets of a part: download links for everyone; librarians drop a PDF (with upload progress) or remove one. */
-import { useCallback, useState } from 'react';
+/**
+ * Datasheets of a part: download links for everyone; librarians drop a PDF (with upload progress) or remove one.
+ * When the server finds the file's text does not fit the part (its number missing, another kind of part named,
+ * no text at all) it answers 409 with a question: shown here with "Attach anyway" (sends it again with
+ * confirm=true) and "Choose another file"; focus moves to the question, Escape dismisses it.
+ */
+import { useCallback, useEffect, useRef, useState } from 'react';
 import { bytes } from '../../lib/units.ts';
 import { useDropzone } from 'react-dropzone';
 import type { DatasheetView } from '../../lib/schemas/parts.ts';
@@ -14,14 +19,21 @@ interface Props {
 type Upload =
   | { state: 'idle' }
   | { state: 'sending'; name: string; percent: number }
-  | { state: 'done'; name: string }
+  | { state: 'done'; name: string; confirmed?: boolean }
+  | { state: 'confirm'; file: File; message: string; reasons: string[] }
   | { state: 'error'; message: string };
 
 const MAX_BYTES = 20 * 1024 * 1024;
 const size = (b: number): string => bytes(b);
 
 /** A datasheet record, or the error shape. */
-type UploadAnswer = (Partial<DatasheetView> & { error?: string; issues?: { path: string; message: string }[] }) | null;
+type UploadAnswer =
+  | (Partial<DatasheetView> & {
+      error?: string;
+      issues?: { path: string; message: string }[];
+      confirmation?: { needed: boolean; field: string };
+    })
+  | null;
 
 function uploadWithProgress(
   url: string,
@@ -53,16 +65,16 @@ export default function DatasheetPanel({ partId, initial, canManage }: Props) {
   const [revision, setRevision] = useState('');
   const [removeError, setRemoveError] = useState('');
 
-  const onDrop = useCallback(
-    async (accepted: File[], rejected: { file: File; errors: readonly { message: string }[] }[]) => {
-      if (rejected.length > 0) {
-        setUpload({ state: 'error', message: `${rejected[0].file.name}: ${rejected[0].errors.map((e) => e.message).join('; ')}` });
-        return;
-      }
-      const file = accepted[0];
-      if (!file) return;
+  const question = useRef<HTMLDivElement>(null);
+  useEffect(() => {
+    if (upload.state === 'confirm') question.current?.focus();
+  }, [upload.state]);
+
+  const send = useCallback(
+    async (file: File, confirm: boolean) => {
       const form = new FormData();
       form.append('revision', revision);
+      if (confirm) form.append('confirm', 'true');
       form.append('file', file, file.name);
       setUpload({ state: 'sending', name: file.name, percent: 0 });
       const res = await uploadWithProgress(`/api/parts/${partId}/datasheets`, form, (percent) =>
@@ -70,8 +82,15 @@ export default function DatasheetPanel({ partId, initial, canManage }: Props) {
       );
       if (res.status === 201) {
         setSheets((list) => [res.body as DatasheetView, ...list]);
-        setUpload({ state: 'done', name: file.name });
+        setUpload({ state: 'done', name: file.name, confirmed: confirm });
         setRevision('');
+      } else if (res.status === 409 && res.body?.confirmation?.needed) {
+        setUpload({
+          state: 'confirm',
+          file,
+          message: res.body.error ?? 'This file may not be the datasheet of this part.',
+          reasons: (res.body.issues ?? []).map((i) => i.message),
+        });
       } else {
         const detail = res.body?.issues?.[0]?.message;
         setUpload({ state: 'error', message: `${res.body?.error ?? `The server answered ${res.status}.`}${detail ? ` (${detail})` : ''}` });
@@ -80,12 +99,24 @@ export default function DatasheetPanel({ partId, initial, canManage }: Props) {
     [partId, revision],
   );
 
+  const onDrop = useCallback(
+    async (accepted: File[], rejected: { file: File; errors: readonly { message: string }[] }[]) => {
+      if (rejected.length > 0) {
+        setUpload({ state: 'error', message: `${rejected[0].file.name}: ${rejected[0].errors.map((e) => e.message).join('; ')}` });
+        return;
+      }
+      const file = accepted[0];
+      if (file) await send(file, false);
+    },
+    [send],
+  );
+
   const { getRootProps, getInputProps, isDragActive } = useDropzone({
     onDrop,
     multiple: false,
     maxSize: MAX_BYTES,
     accept: { 'application/pdf': ['.pdf'] },
-    disabled: upload.state === 'sending',
+    disabled: upload.state === 'sending' || upload.state === 'confirm',
   });
 
   // react-dropzone hides its input with an inline style, which the Content-Security-Policy refuses; a class does it instead.
@@ -163,8 +194,48 @@ export default function DatasheetPanel({ partId, initial, canManage }: Props) {
             {upload.state === 'done' && (
               <span className="text-ok" data-testid="upload-done">
                 <span aria-hidden="true">✓ </span>
-                {upload.name} attached.
+                {upload.name} attached{upload.confirmed ? ' (confirmed by you; the part history records it)' : ''}.
               </span>
+            )}
+            {upload.state === 'confirm' && (
+              <div
+                ref={question}
+                tabIndex={-1}
+                role="group"
+                aria-labelledby="datasheet-question-title"
+                aria-describedby="datasheet-question-reasons"
+                className="border-2 border-warn rounded p-3 grid gap-2 bg-warn-wash text-ink"
+                data-testid="datasheet-question"
+                onKeyDown={(e) => {
+                  if (e.key === 'Escape') setUpload({ state: 'idle' });
+                }}
+              >
+                <p id="datasheet-question-title" className="font-semibold">
+                  <span aria-hidden="true">⚠ </span>Is {upload.file.name} the datasheet of this part?
+                </p>
+                {upload.reasons.length === 0 ? (
+                  <p id="datasheet-question-reasons">{upload.message}</p>
+                ) : (
+                  <>
+                    <ul id="datasheet-question-reasons" className="list-disc pl-5">
+                      {upload.reasons.map((r) => (
+                        <li key={r}>{r}</li>
+                      ))}
+                    </ul>
+                    <p>
+                      Check the file; attach it anyway only if it is this part&apos;s datasheet. The part history will say you confirmed it.
+                    </p>
+                  </>
+                )}
+                <div className="flex flex-wrap gap-2">
+                  <button type="button" className="btn" onClick={() => void send(upload.file, true)}>
+                    Attach anyway
+                  </button>
+                  <button type="button" className="btn btn-quiet" onClick={() => setUpload({ state: 'idle' })}>
+                    Choose another file
+                  </button>
+                </div>
+              </div>
             )}
             {upload.state === 'error' && (
               <span className="text-bad" role="alert" data-testid="upload-error">

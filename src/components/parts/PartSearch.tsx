@@ -6,7 +6,7 @@ import { useEffect, useMemo, useRef, useState } from 'react';
 import { flexRender, getCoreRowModel, useReactTable, type ColumnDef, type SortingState, type VisibilityState } from '@tanstack/react-table';
 import type { Part, PartCategory } from '../../lib/domain/parts.ts';
 import { CATEGORY_LABELS } from '../../lib/part-summary.ts';
-import { CATEGORY_FIELDS, STATUS_FIELDS, toApi, toDisplay, type FilterField } from './search-fields.ts';
+import { CATEGORY_FIELDS, STATUS_FIELDS, activeFilterCount, toApi, toDisplay, type FilterField } from './search-fields.ts';
 import { columnsFor, type SearchColumn } from './search-columns.tsx';
 import { StatusBadges } from './StatusBadges.tsx';
 import type { SearchNearMiss } from '../../lib/search-near-miss.ts';
@@ -62,6 +62,8 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
   const category = (params.get('category') || null) as PartCategory | null;
   const [visibility, setVisibility] = useState<VisibilityState>(() => defaultVisibility(category));
   const [visibilityLoaded, setVisibilityLoaded] = useState(false);
+  /** Whether the folded filters are open on a narrow screen (a wide one always shows them). */
+  const [filtersOpen, setFiltersOpen] = useState(false);
   const queryString = params.toString();
   const seq = useRef(0);
   const [compareIds, setCompareIds] = useState<number[]>([]);
@@ -197,71 +199,90 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
   const page = data?.page ?? Number(params.get('page') ?? 1);
   const pages = data ? Math.max(1, Math.ceil(data.total / data.pageSize)) : 1;
 
+  const active = activeFilterCount(params);
   return (
     <div className="grid gap-4 lg:grid-cols-[17rem_1fr]">
       <aside className="card p-3 self-start" aria-label="Filters">
-        <fieldset className="mb-3">
-          <legend className="text-sm font-semibold text-ink mb-1">Category</legend>
-          <div className="grid grid-cols-1 gap-0.5 text-sm" role="radiogroup">
-            {CATEGORIES.map((c) => (
-              <label key={c || 'all'} className="flex items-center gap-2 cursor-pointer">
-                <input type="radio" name="category" value={c} checked={(category ?? '') === c} onChange={() => chooseCategory(c)} />
-                {c ? CATEGORY_LABELS[c].many : 'All categories'}
-              </label>
-            ))}
-          </div>
-        </fieldset>
-        {fields.length > 0 && (
-          <fieldset className="grid gap-2 mb-3" data-testid="parameter-filters">
-            <legend className="text-sm font-semibold text-ink mb-1">Parameters</legend>
-            {fields.map((f) => (
+        {/* Below the lg breakpoint the filters fold away behind this button so the results come first; on a desktop they stay open. */}
+        <button
+          type="button"
+          className="btn btn-quiet w-full flex items-center justify-between lg:hidden"
+          aria-expanded={filtersOpen}
+          aria-controls="search-filters"
+          data-testid="filters-toggle"
+          onClick={() => setFiltersOpen((o) => !o)}
+        >
+          <span>
+            <span aria-hidden="true">{filtersOpen ? '▾' : '▸'}</span> Filters
+          </span>
+          <span className="text-ink-soft text-sm" data-testid="filters-active">
+            {active === 0 ? 'none active' : `${active} active`}
+          </span>
+        </button>
+        <div id="search-filters" className={filtersOpen ? 'mt-3 lg:mt-0' : 'hidden lg:block'} data-testid="filters-panel">
+          <fieldset className="mb-3">
+            <legend className="text-sm font-semibold text-ink mb-1">Category</legend>
+            <div className="grid grid-cols-1 gap-0.5 text-sm" role="radiogroup">
+              {CATEGORIES.map((c) => (
+                <label key={c || 'all'} className="flex items-center gap-2 cursor-pointer">
+                  <input type="radio" name="category" value={c} checked={(category ?? '') === c} onChange={() => chooseCategory(c)} />
+                  {c ? CATEGORY_LABELS[c].many : 'All categories'}
+                </label>
+              ))}
+            </div>
+          </fieldset>
+          {fields.length > 0 && (
+            <fieldset className="grid gap-2 mb-3" data-testid="parameter-filters">
+              <legend className="text-sm font-semibold text-ink mb-1">Parameters</legend>
+              {fields.map((f) => (
+                <FilterInput
+                  key={`${category}-${f.key}`}
+                  field={f}
+                  value={params.get(f.key)}
+                  error={fieldError(f.key)}
+                  onChange={(v) => update({ [f.key]: v })}
+                />
+              ))}
+              {category && (packages[category]?.length ?? 0) > 0 && (
+                <label className="field">
+                  Package
+                  <select value={params.get('package') ?? ''} onChange={(e) => update({ package: e.target.value })}>
+                    <option value="">Any</option>
+                    {packages[category].map((p) => (
+                      <option key={p} value={p}>
+                        {p}
+                      </option>
+                    ))}
+                  </select>
+                </label>
+              )}
+            </fieldset>
+          )}
+          <fieldset className="grid gap-2">
+            <legend className="text-sm font-semibold text-ink mb-1">Status</legend>
+            {STATUS_FIELDS.map((f) => (
               <FilterInput
-                key={`${category}-${f.key}`}
+                key={f.key}
                 field={f}
                 value={params.get(f.key)}
                 error={fieldError(f.key)}
                 onChange={(v) => update({ [f.key]: v })}
               />
             ))}
-            {category && (packages[category]?.length ?? 0) > 0 && (
-              <label className="field">
-                Package
-                <select value={params.get('package') ?? ''} onChange={(e) => update({ package: e.target.value })}>
-                  <option value="">Any</option>
-                  {packages[category].map((p) => (
-                    <option key={p} value={p}>
-                      {p}
-                    </option>
-                  ))}
-                </select>
-              </label>
-            )}
           </fieldset>
-        )}
-        <fieldset className="grid gap-2">
-          <legend className="text-sm font-semibold text-ink mb-1">Status</legend>
-          {STATUS_FIELDS.map((f) => (
-            <FilterInput
-              key={f.key}
-              field={f}
-              value={params.get(f.key)}
-              error={fieldError(f.key)}
-              onChange={(v) => update({ [f.key]: v })}
-            />
-          ))}
-        </fieldset>
-        {queryString && (
-          <button
-            type="button"
-            className="btn btn-quiet mt-3 text-sm"
-            onClick={() => {
-              setText('');
-              setParams(new URLSearchParams());
-            }}
-          >
-            Clear every filter
-          </button>
-        )}
+          {queryString && (
+            <button
+              type="button"
+              className="btn btn-quiet mt-3 text-sm"
+              onClick={() => {
+                setText('');
+                setParams(new URLSearchParams());
+              }}
+            >
+              Clear every filter
+            </button>
+          )}
+        </div>
       </aside>
 
       <section aria-label="Results" className="min-w-0">

@@ -125,3 +125,9 @@ export function toApi(field: NumberField, typed: string): string {
   const v = Number(t);
   return Number.isFinite(v) ? String(tidy(v * field.scale)) : t;
 }
+
+/** Filters in force, as the folded panel counts them: every parameter but the text search, the sort and the paging. */
+export function activeFilterCount(params: URLSearchParams): number {
+  const ignored = new Set(['q', 'sort', 'page', 'pageSize']);
+  return new Set([...params.keys()].filter((k) => !ignored.has(k) && params.get(k) !== '')).size;
+}

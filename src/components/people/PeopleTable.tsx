@@ -11,6 +11,7 @@ import {
 import { callJson } from '../auth/json-call.ts';
 import { StatusLine, type Tone } from '../auth/FormParts.tsx';
 import InviteForm from './InviteForm.tsx';
+import { counted } from '../../lib/units.ts';
 import { ROLE_NAMES, STATUS_TEXT, type PersonView, type RoleName } from './people-model.ts';
 import { RolesEditor } from './RolesEditor.tsx';
 
@@ -89,6 +90,9 @@ export default function PeopleTable({ people: initial, selfId }: Props): ReactNo
 
   return (
     <div className="flex flex-col gap-4">
+      <p className="text-ink-soft text-sm" data-testid="people-count">
+        {counted(people.length, 'person', 'people')} · invite, set roles, deactivate
+      </p>
       <InviteForm onInvited={replace} />
       {status && <StatusLine tone={status.tone}>{status.text}</StatusLine>}
       <div className="card overflow-x-auto">

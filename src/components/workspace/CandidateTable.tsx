@@ -4,7 +4,9 @@ import { LIFECYCLE_LABELS } from '../../lib/labels.ts';
 import type { MatchEntry } from '../../lib/design-match.ts';
 import type { CandidateResult } from '../../lib/ranking.ts';
 import type { RoleSelection } from '../../lib/domain/design.ts';
-import { checkLabel } from '../../lib/design-words.ts';
+import { checkFigure } from '../../lib/design-words.ts';
+import CheckName from './CheckName.tsx';
+import { fixed, percent, price } from '../../lib/units.ts';
 import Verdict, { CheckMark } from './Verdict.tsx';
 import { DEFAULT_MATCH_LIMIT } from '../../lib/schemas/design.ts';
 import type { MatchListSummary, Ranked } from '../../lib/match-page.ts';
@@ -35,8 +37,7 @@ interface Props<T extends MatchEntry> {
 
 const MAX_COMPARE = 4;
 
-const fmt = (v: number | null, unit: string): string => (v == null ? '—' : `${Number(v.toPrecision(3))} ${unit}`.trim());
-const margin = (m: number | null): string => (m == null ? '' : `${(m * 100).toFixed(0)} %`);
+const margin = (m: number | null): string => (m == null ? '' : percent(m));
 const LIFE = (l: Lifecycle): string => LIFECYCLE_LABELS[l].short;
 
 /** Marks a part in another package than the chosen one (words and icon). */
@@ -72,11 +73,10 @@ function Reasons({ checks }: { checks: CandidateResult['checks'] }) {
               <CheckMark ok={c.ok} severity={c.severity} />
             </td>
             <td className="pr-2 min-w-36">
-              {checkLabel(c.id)}
-              <span className="block text-ink-faint">{c.id}</span>
+              <CheckName id={c.id} />
             </td>
-            <td className="text-right num whitespace-nowrap">{fmt(c.value, c.unit)}</td>
-            <td className="text-right num whitespace-nowrap">{fmt(c.limit, c.unit)}</td>
+            <td className="text-right num whitespace-nowrap">{checkFigure(c.value, c.unit)}</td>
+            <td className="text-right num whitespace-nowrap">{checkFigure(c.limit, c.unit)}</td>
             <td className="text-right num">{margin(c.margin)}</td>
             <td className="pl-3">{c.note}</td>
           </tr>
@@ -84,6 +84,25 @@ function Reasons({ checks }: { checks: CandidateResult['checks'] }) {
       </tbody>
     </table>
   );
+}
+
+/**
+ * Columns whose cell is the same in every row shown are said once above the table instead of repeated in
+ * each row (a column with nothing in any row is left out); with a single row every column stays.
+ */
+function splitColumns<T>(extra: ExtraColumn<T>[], rows: T[]): { varying: ExtraColumn<T>[]; same: { header: string; value: string }[] } {
+  if (rows.length < 2) return { varying: extra, same: [] };
+  const varying: ExtraColumn<T>[] = [];
+  const same: { header: string; value: string }[] = [];
+  for (const c of extra) {
+    const values = new Set(rows.map((r) => c.cell(r)));
+    if (values.size > 1) varying.push(c);
+    else {
+      const [value] = values;
+      if (value !== '—') same.push({ header: c.header, value });
+    }
+  }
+  return { varying, same };
 }
 
 /** When nothing in the full ranking passes: the closest candidates and what they miss. */
@@ -138,11 +157,17 @@ export default function CandidateTable<T extends MatchEntry>({
     onSelect({ chosenPartId: selection.chosenPartId === id ? null : selection.chosenPartId, alternatePartIds: next });
   };
   if (entries.length === 0) return <p className="text-sm text-ink-soft p-3">No candidates in the catalogue for this line.</p>;
+  const { varying, same } = splitColumns(extra, rows);
   return (
     <div className="overflow-x-auto">
       <p className="text-xs text-ink-soft px-1 pb-1" data-testid={`list-summary-${role}`}>
         Showing {shown.toLocaleString('en-US')} of {summary.total.toLocaleString('en-US')}: {summary.summary}
       </p>
+      {same.length > 0 && (
+        <p className="text-xs text-ink-soft px-1 pb-1" data-testid={`same-for-all-${role}`}>
+          The same for every candidate shown: {same.map((s) => `${s.header} ${s.value}`).join(' · ')}.
+        </p>
+      )}
       <NearMissNote nearMisses={summary.nearMisses ?? []} role={role} />
       {compareHref ? (
         <p className="text-xs px-1 pb-1 flex flex-wrap items-center gap-2">
@@ -164,7 +189,7 @@ export default function CandidateTable<T extends MatchEntry>({
             <th>Part number</th>
             <th>Maker</th>
             <th>Package</th>
-            {extra.map((c) => (
+            {varying.map((c) => (
               <th key={c.header} className="num">
                 {c.header}
               </th>
@@ -201,15 +226,13 @@ export default function CandidateTable<T extends MatchEntry>({
                   </td>
                   <td className="whitespace-nowrap">{e.manufacturer}</td>
                   <td className="whitespace-nowrap">{e.package}</td>
-                  {extra.map((c) => (
+                  {varying.map((c) => (
                     <td key={c.header} className="num whitespace-nowrap">
                       {c.cell(e)}
                     </td>
                   ))}
-                  <td className="num">{e.score.toFixed(0)}</td>
-                  <td className="num whitespace-nowrap">
-                    {e.priceAtQty ? `${e.priceAtQty.unitPrice.toFixed(3)} ${e.priceAtQty.currency}` : '—'}
-                  </td>
+                  <td className="num">{fixed(e.score, 0)}</td>
+                  <td className="num whitespace-nowrap">{e.priceAtQty ? price(e.priceAtQty.unitPrice, e.priceAtQty.currency) : '—'}</td>
                   <td>{LIFE(e.lifecycle)}</td>
                   {!readOnly && (
                     <td>

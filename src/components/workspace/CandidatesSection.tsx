@@ -3,6 +3,7 @@ import type { DesignInput, PartRole, RoleSelection } from '../../lib/domain/desi
 import type { DesignMatchPage } from '../../lib/match-page.ts';
 import { driverSupplyRangeOf } from '../../lib/design-input.ts';
 import { driversRankedForLine, switchDriveLine } from '../../lib/design-words.ts';
+import { counted, measure, quantity } from '../../lib/units.ts';
 import CandidateTable, { type ExtraColumn } from './CandidateTable.tsx';
 
 type StepComponent = ComponentType<{ n: number; title: string; children: ReactNode; testId?: string }>;
@@ -25,8 +26,7 @@ type SwitchEntry = DesignMatch['switch'][number];
 type DriverEntry = DesignMatch['driver'][number];
 type DiodeEntry = DesignMatch['diode'][number];
 
-const n = (v: number | null | undefined, unit: string, scale = 1, d = 3) =>
-  v == null ? '—' : `${Number((v * scale).toPrecision(d))} ${unit}`;
+const n = (v: number | null | undefined, unit: string, scale = 1, d = 3) => (v == null ? '—' : quantity(v * scale, unit, d));
 const checkValue = (e: { checks: { id: string; value: number | null; unit: string }[] }, id: string, scale = 1) => {
   const c = e.checks.find((x) => x.id === id);
   return c ? n(c.value, c.unit === 'A' && scale !== 1 ? 'mA' : c.unit, scale) : '—';
@@ -54,10 +54,24 @@ const DRIVER_COLS: ExtraColumn<DriverEntry>[] = [
   { header: 'Polarity', cell: (e) => (e.pairing.inverting ? 'inverting' : 'non-inverting') },
   { header: 'Paired switch', cell: (e) => `${e.pairing.switchMpn} (${e.pairing.switchVerdict})` },
 ];
+const DIODE_KIND: Readonly<Record<DiodeEntry['diode']['kind'], string>> = {
+  schottky: 'Schottky',
+  ultrafast: 'ultrafast',
+  fast: 'fast recovery',
+  general: 'general purpose',
+};
+/** Reverse recovery: a Schottky has none to speak of (never "0 ns"); a missing figure says so. */
+function trrCell(e: DiodeEntry): string {
+  if (e.diode.kind === 'schottky') return '— (Schottky)';
+  return e.diode.trrNs == null ? 'not on record' : measure(e.diode.trrNs * 1e-9, 's');
+}
+/** The part's own figures (they differ per row); what the design asks of every diode is said once above the table. */
 const DIODE_COLS: ExtraColumn<DiodeEntry>[] = [
-  { header: 'Mean I', cell: (e) => checkValue(e, 'mean-current') },
-  { header: 'trr', cell: (e) => checkValue(e, 'reverse-recovery') },
-  { header: 'VRRM need', cell: (e) => checkValue(e, 'reverse-voltage') },
+  { header: 'Type', cell: (e) => DIODE_KIND[e.diode.kind] },
+  { header: 'VF', cell: (e) => n(e.diode.vfV, 'V') },
+  { header: 'IF(AV)', cell: (e) => n(e.diode.ifAvA, 'A') },
+  { header: 'VRRM', cell: (e) => n(e.diode.vrrmV, 'V') },
+  { header: 'trr', cell: trrCell },
 ];
 
 function Line({ children, testId }: { children: ReactNode; testId: string }) {
@@ -68,13 +82,20 @@ function Line({ children, testId }: { children: ReactNode; testId: string }) {
   );
 }
 
-function Excluded({ count, what }: { count: number; what: string }) {
+function Excluded({ count, one, many }: { count: number; one: string; many: string }) {
   if (!count) return null;
   return (
-    <p className="text-xs text-ink-faint mt-1">
-      {count} {what} left out before ranking: a rating or the gate drive can never pass (or the part is obsolete).
+    <p className="text-xs text-ink-faint mt-1" data-testid="excluded-count">
+      {counted(count, one, many)} left out before ranking: a rating or the gate drive can never pass (or the part is obsolete).
     </p>
   );
+}
+
+/** What the design asks of every diode, said once (the table shows each part's own ratings). */
+function diodeNeedsLine(wc: DesignMatch['worstCase']): string {
+  const block = `Every diode must block up to ${n(wc.supplyMaxV, 'V')}`;
+  if (wc.pwmHz == null) return `${block}; on/off drive leaves it only the brief decay after each turn-off.`;
+  return `${block} and carry ${n(wc.diodeMeanCurrentA, 'A')} mean while running, ${n(wc.stall.diodeMeanA, 'A')} with the shaft jammed.`;
 }
 
 /** Steps 4–6: switch, gate drive, freewheel diode. */
@@ -114,7 +135,7 @@ export default function CandidatesSection({ match, input, onSelect, readOnly, St
             readOnly={readOnly}
             {...compareProps('switch')}
           />
-          <Excluded count={match.excluded.switch} what="MOSFETs" />
+          <Excluded count={match.excluded.switch} one="MOSFET" many="MOSFETs" />
         </div>
       </Step>
       <Step n={5} title="Gate drive" testId="step-gate-drive">
@@ -141,7 +162,7 @@ export default function CandidatesSection({ match, input, onSelect, readOnly, St
               readOnly={readOnly}
               {...compareProps('driver')}
             />
-            <Excluded count={match.excluded.driver} what="drivers" />
+            <Excluded count={match.excluded.driver} one="driver" many="drivers" />
           </div>
         ) : (
           <p className="card p-3 text-sm" data-testid="direct-drive">
@@ -155,6 +176,7 @@ export default function CandidatesSection({ match, input, onSelect, readOnly, St
           <p className="text-xs text-ink-soft px-1 pb-1">
             ⚠ Inductive spike: fit the diode across the motor, cathode to the positive supply. The MOSFET's body diode does not do this job.
           </p>
+          <Line testId="diode-needs">{diodeNeedsLine(match.worstCase)}</Line>
           <CandidateTable
             role="diode"
             caption="Diode candidates"
@@ -167,7 +189,7 @@ export default function CandidatesSection({ match, input, onSelect, readOnly, St
             readOnly={readOnly}
             {...compareProps('diode')}
           />
-          <Excluded count={match.excluded.diode} what="diodes" />
+          <Excluded count={match.excluded.diode} one="diode" many="diodes" />
         </div>
       </Step>
     </>

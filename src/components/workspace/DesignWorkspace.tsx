@@ -1,4 +1,4 @@
-import { useMemo, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import type { DesignInput, DesignStatus, PartRole, RoleSelection } from '../../lib/domain/design.ts';
 import { DEFAULT_MATCH_LIMIT } from '../../lib/schemas/design.ts';
 import { sendJson } from '../api-client.ts';
@@ -44,6 +44,13 @@ export default function DesignWorkspace({ design, initialInput, motors, canEdit 
   const dirty = JSON.stringify(input) !== saved;
   const errors = useMemo(() => ({ ...fieldErrors, ...saveErrors }), [fieldErrors, saveErrors]);
   const readOnly = !canEdit;
+  const statusRef = useRef<HTMLParagraphElement>(null);
+  // Saving disables its own button and Mark ready swaps it for Back to draft: the keyboard focus would fall
+  // back to the page, so it moves to the answer instead (Tab then carries on from the toolbar).
+  useEffect(() => {
+    const el = document.activeElement;
+    if (saveMsg && (el == null || el === document.body || (el as HTMLButtonElement).disabled)) statusRef.current?.focus();
+  }, [saveMsg]);
 
   const select = (role: PartRole) => (sel: RoleSelection) => setInput((i) => ({ ...i, selections: { ...i.selections, [role]: sel } }));
 
@@ -103,7 +110,10 @@ export default function DesignWorkspace({ design, initialInput, motors, canEdit 
 
   return (
     <div data-testid="workspace">
-      <div className="card p-3 mb-4 flex flex-wrap items-end gap-3 sticky top-0 z-10">
+      <div
+        className="card p-3 mb-4 flex flex-wrap items-end gap-3 lg:sticky lg:top-0 z-10 workspace-toolbar"
+        data-testid="workspace-toolbar"
+      >
         <label className="field grow min-w-64">
           Design name
           <input
@@ -166,7 +176,13 @@ export default function DesignWorkspace({ design, initialInput, motors, canEdit 
           ) : null}
         </div>
         {saveMsg ? (
-          <p role="status" className={`w-full text-sm ${saveMsg.tone === 'ok' ? 'text-ok' : 'text-bad'}`}>
+          <p
+            role="status"
+            ref={statusRef}
+            tabIndex={-1}
+            className={`w-full text-sm ${saveMsg.tone === 'ok' ? 'text-ok' : 'text-bad'}`}
+            data-testid="save-status"
+          >
             {saveMsg.tone === 'ok' ? '✓' : '⚠'} {saveMsg.text}
           </p>
         ) : null}
@@ -209,10 +225,11 @@ export default function DesignWorkspace({ design, initialInput, motors, canEdit 
           </Step>
           <section className="card p-3 text-sm" aria-labelledby="ws-cautions">
             <h2 id="ws-cautions" className="font-semibold mb-1">
-              ⚠ Cautions for this design
+              ⚠ More cautions for this design
             </h2>
-            <ul className="list-disc pl-5 grid gap-0.5">
-              {match.cautions.map((c) => (
+            <p className="text-xs text-ink-soft mb-1">The cautions for each step are shown with that step above.</p>
+            <ul className="list-disc pl-5 grid gap-0.5" data-testid="other-cautions">
+              {match.otherCautions.map((c) => (
                 <li key={c}>{c}</li>
               ))}
             </ul>

@@ -1,5 +1,6 @@
 import type { SupplyReport } from '../../lib/supply.ts';
-import { bulkCapacitanceView, checkVerdict, limitRelation, quantityText, supplyCheckTitle, torqueText } from '../../lib/supply-view.ts';
+import { bulkCapacitanceView, checkVerdict, limitRelation, quantityText, torqueText } from '../../lib/supply-view.ts';
+import CheckName from './CheckName.tsx';
 import Verdict from './Verdict.tsx';
 
 /** The checks of a supply report: verdict in words and icon, value against its limit, the note. Shared with the calculators page. */
@@ -17,7 +18,9 @@ export function SupplyChecks({ report, testId }: { report: SupplyReport; testId?
         <li key={c.id} className="card p-2 text-sm" data-testid={`supply-check-${c.id}`} data-verdict={checkVerdict(c)}>
           <div className="flex flex-wrap items-baseline gap-2">
             <Verdict verdict={checkVerdict(c)} />
-            <strong>{supplyCheckTitle(c.id)}</strong>
+            <strong>
+              <CheckName id={c.id} />
+            </strong>
             <span className="num text-ink-soft" data-testid="supply-check-values">
               {quantityText(c.value, c.unit)} (limit {limitRelation(c.id)} {quantityText(c.limit, c.unit)})
             </span>

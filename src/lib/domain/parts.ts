@@ -157,3 +157,16 @@ export type Part =
   | (PartBase & { category: 'diode'; params: DiodeParams });
 
 export type PartOf<C extends PartCategory> = Extract<Part, { category: C }>;
+
+/** What a price at a quantity needs of a source: its MOQ, currency and breaks. */
+export type PriceSource = Pick<PartSource, 'moq' | 'currency' | 'priceBreaks'>;
+
+/**
+ * A catalogue part as the match ranks it: identity, ratings, lifecycle and price breaks (no description,
+ * distributor, stock or lead time). A full Part is one too; the match's loader gives each source only the
+ * break that applies at the design's build quantity.
+ */
+export type CandidatePart<C extends PartCategory> = Pick<
+  PartOf<C>,
+  'id' | 'category' | 'manufacturer' | 'mpn' | 'package' | 'lifecycle' | 'reviewStatus' | 'params'
+> & { sources: PriceSource[] };

@@ -253,6 +253,9 @@ export type LifecycleChange = z.infer<typeof lifecycleChangeSchema>;
 export const sourcesUpdateSchema = z.object({ sources: sourcesSchema, version: versionSchema });
 export type SourcesUpdate = z.infer<typeof sourcesUpdateSchema>;
 
+/** The datasheet upload's "confirm" form field: "true" attaches a file whose text does not fit the part. */
+export const datasheetConfirmSchema = z.enum(['true', 'false', '']);
+
 export const datasheetRevisionSchema = z
   .string()
   .trim()

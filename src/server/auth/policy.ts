@@ -69,6 +69,9 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
   '/api/designs/[id]/report.pdf': { GET: 'signed-in' },
   '/api/designs/[id]/bom.csv': { GET: 'signed-in' },
   '/api/shortlist': { GET: ['buyer', 'designer'] },
+  '/api/shortlist.csv': { GET: ['buyer', 'designer'] },
+  // A buyer's preferred source and note per shortlist option; designers read them on the shortlist and the design.
+  '/api/designs/[id]/preferences': { PUT: ['buyer'] },
   '/api/alerts/[id]/acknowledge': { POST: 'signed-in' },
 
   // Catalogue: everyone signed in reads; designers propose parts (the service makes them pending and lets a
@@ -89,6 +92,8 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
   '/api/parts/[id]/datasheets': { POST: ['librarian'] },
   '/api/datasheets/[id]': { GET: 'signed-in', DELETE: ['librarian'] },
   '/api/imports': { POST: ['librarian'] },
+  // Distributor offers: buyers (and admins) ask for a refresh now; the scheduled one needs nobody.
+  '/api/distributor/refresh': { POST: ['buyer'] },
 };
 
 export type Decision = 'allow' | 'sign-in' | 'forbidden' | 'method-not-allowed';

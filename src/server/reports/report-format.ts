@@ -1,17 +1,14 @@
 /** Text formatting for the design report: values with units, margins, verdicts, prices. */
 import type { Check, Verdict } from '../../lib/checks.ts';
 import type { PriceAtQty } from '../../lib/design-match.ts';
-import { formatSi, percent, price as formatPrice, sig } from '../../lib/units.ts';
+import { checkFigure, checkLabel, checkLabelInline, checkLabelList } from '../../lib/design-words.ts';
+import { measure, percent, price as formatPrice, sig } from '../../lib/units.ts';
 
 export { percent, sig };
 
-/** Units that take SI prefixes (µs, mA, kΩ); the rest print as plain numbers with their unit. */
-const PREFIXED_UNITS = new Set(['V', 'A', 's', 'W', 'Ω', 'Hz', 'J', 'H', 'N·m']);
-
+/** A check's value or limit with an SI prefix where the unit takes one (see units.ts `measure`). */
 export function quantity(value: number | null, unit: string, digits = 3): string {
-  if (value == null || !Number.isFinite(value)) return '—';
-  if (PREFIXED_UNITS.has(unit) && value !== 0) return formatSi(value, unit, digits);
-  return unit ? `${sig(value, digits)} ${unit}` : sig(value, digits);
+  return measure(value, unit, digits);
 }
 
 export function range(min: number, max: number, unit: string): string {
@@ -42,11 +39,8 @@ export function verdictText(verdict: Verdict, fontHasMarks: boolean): string {
 
 export const VERDICT_MARKS = '✓✕';
 
-/** "drain-voltage" → "Drain voltage"; keeps the stable id recognisable. */
-export function checkTitle(id: string): string {
-  const words = id.replace(/-/g, ' ');
-  return words.charAt(0).toUpperCase() + words.slice(1);
-}
+/** @deprecated the one table is design-words' checkLabel; kept so older callers read the same names. */
+export const checkTitle = checkLabel;
 
 export function checkOkText(check: Check): string {
   if (check.ok) return 'yes';
@@ -56,9 +50,9 @@ export function checkOkText(check: Check): string {
 /** One table row per check: check, value, limit, margin, ok, note. */
 export function checkRow(check: Check): string[] {
   return [
-    checkTitle(check.id),
-    quantity(check.value, check.unit),
-    quantity(check.limit, check.unit),
+    checkLabel(check.id),
+    checkFigure(check.value, check.unit),
+    checkFigure(check.limit, check.unit),
     percent(check.margin),
     checkOkText(check),
     check.note,
@@ -68,9 +62,9 @@ export function checkRow(check: Check): string[] {
 /** One line for an alternate: what falls short, or else the tightest margin. */
 export function summaryOf(checks: readonly Check[]): string {
   const failing = checks.filter((c) => !c.ok);
-  if (failing.length > 0) return `Short on ${failing.map((c) => checkTitle(c.id).toLowerCase()).join(', ')}: ${failing[0].note}`;
+  if (failing.length > 0) return `Short on ${checkLabelList(failing.map((c) => c.id))}: ${failing[0].note}`;
   const withMargin = checks.filter((c) => c.margin != null).sort((a, b) => (a.margin as number) - (b.margin as number));
   const tightest = withMargin[0];
   const all = `All ${checks.length} checks hold`;
-  return tightest ? `${all}; tightest is ${checkTitle(tightest.id).toLowerCase()} at ${percent(tightest.margin)} margin.` : `${all}.`;
+  return tightest ? `${all}; tightest is ${checkLabelInline(tightest.id)} at ${percent(tightest.margin)} margin.` : `${all}.`;
 }

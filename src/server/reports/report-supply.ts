@@ -5,7 +5,8 @@
  */
 import type { DesignInput } from '../../lib/domain/design.ts';
 import type { SupplyReport } from '../../lib/supply.ts';
-import { bulkCapacitanceView, checkVerdict, limitRelation, supplyCheckTitle, torqueText } from '../../lib/supply-view.ts';
+import { bulkCapacitanceView, checkVerdict, limitRelation, torqueText } from '../../lib/supply-view.ts';
+import { checkLabel } from '../../lib/design-words.ts';
 import { quantity, sig, verdictText } from './report-format.ts';
 import { MUTED, type ReportLayout } from './report-layout.ts';
 import { drawTable, type TableColumn } from './report-table.ts';
@@ -54,7 +55,7 @@ export function drawSupply(layout: ReportLayout, input: DesignInput, supply: Sup
     layout,
     SUPPLY_CHECK_COLUMNS,
     supply.checks.map((c) => [
-      supplyCheckTitle(c.id),
+      checkLabel(c.id),
       quantity(c.value, c.unit),
       `${limitRelation(c.id)} ${quantity(c.limit, c.unit)}`,
       verdictText(checkVerdict(c), verdictMarks),

@@ -33,16 +33,28 @@ export interface StoredAuditEvent {
   note: string | null;
 }
 
+const auditRow = (e: AuditEventInput) => ({
+  actor_user_id: e.actorUserId,
+  action: e.action,
+  entity_type: e.entityType,
+  entity_id: e.entityId,
+  before_json: e.before === undefined || e.before === null ? null : JSON.stringify(e.before),
+  after_json: e.after === undefined || e.after === null ? null : JSON.stringify(e.after),
+  note: e.note ?? null,
+});
+
 export async function insertAuditEvent(db: Db, e: AuditEventInput): Promise<void> {
-  await db('audit_events').insert({
-    actor_user_id: e.actorUserId,
-    action: e.action,
-    entity_type: e.entityType,
-    entity_id: e.entityId,
-    before_json: e.before === undefined || e.before === null ? null : JSON.stringify(e.before),
-    after_json: e.after === undefined || e.after === null ? null : JSON.stringify(e.after),
-    note: e.note ?? null,
-  });
+  await db('audit_events').insert(auditRow(e));
+}
+
+/** Rows per multi-row INSERT of audit events: a part's after-state is a few kB, so 500 stay far below max_allowed_packet. */
+export const AUDIT_CHUNK_ROWS = 500;
+
+/** Many events with one multi-row INSERT per AUDIT_CHUNK_ROWS (e.g. one per imported part). */
+export async function insertAuditEvents(db: Db, events: readonly AuditEventInput[]): Promise<void> {
+  for (let i = 0; i < events.length; i += AUDIT_CHUNK_ROWS) {
+    await db('audit_events').insert(events.slice(i, i + AUDIT_CHUNK_ROWS).map(auditRow));
+  }
 }
 
 const parse = (json: string | null): unknown => (json === null ? null : JSON.parse(json));

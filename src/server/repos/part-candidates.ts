@@ -5,9 +5,9 @@
  * obsolete parts (not for new designs) and parts not yet approved unless asked for.
  */
 import type { Db } from '../db.ts';
-import type { PartOf } from '../../lib/domain/parts.ts';
-import { hydrateParts } from './parts.ts';
-import type { DbPartRow } from './part-rows.ts';
+import type { CandidatePart, PartCategory, PriceSource } from '../../lib/domain/parts.ts';
+import { diodeFromRow, driverFromRow, mosfetFromRows } from './part-mapping.ts';
+import type { DbDiodeRow, DbDriverRow, DbMosfetRow, DbPartRow, DbRdsOnRow, DbZthRow } from './part-rows.ts';
 
 /** The hard limits a candidate's ratings must reach (from the design's worst case). */
 export interface CandidateBounds {
@@ -26,12 +26,14 @@ export interface CandidateBounds {
   switchGateMaxV: number;
   /** The design's switch picks: ranked whenever their ratings allow, whatever the gate drive. */
   switchPickIds: number[];
+  /** The build quantity: each source comes with the one price break that applies at it. */
+  boardQuantity: number;
 }
 
 export interface CandidateRows {
-  mosfets: PartOf<'mosfet'>[];
-  drivers: PartOf<'driver'>[];
-  diodes: PartOf<'diode'>[];
+  mosfets: CandidatePart<'mosfet'>[];
+  drivers: CandidatePart<'driver'>[];
+  diodes: CandidatePart<'diode'>[];
   /** Eligible parts of each category before the rating bounds (for "n left out"). */
   totals: { mosfet: number; driver: number; diode: number };
 }
@@ -48,7 +50,23 @@ async function countOf(q: ReturnType<typeof eligible>): Promise<number> {
   return Number(n);
 }
 
-/** The three candidate SELECTs (parts rows only; the benchmark times them bare against the whole match). */
+/** The columns of `parts` the match needs (no description, dates or audit columns). */
+const HEAD_COLUMNS = [
+  'parts.id',
+  'parts.category',
+  'parts.manufacturer',
+  'parts.mpn',
+  'parts.package',
+  'parts.lifecycle',
+  'parts.review_status',
+];
+
+type HeadRow = Pick<DbPartRow, 'id' | 'manufacturer' | 'mpn' | 'package' | 'lifecycle' | 'review_status'>;
+
+/**
+ * The three candidate SELECTs: the head columns the match needs and the category's parameter row, one
+ * row per part (the benchmark times them bare against the whole match).
+ */
 export function candidateQueries(db: Db, bounds: CandidateBounds, includePending: boolean) {
   const mosfetAll = eligible(db, 'mosfet', includePending);
   const mosfetQ = mosfetAll
@@ -66,39 +84,153 @@ export function candidateQueries(db: Db, bounds: CandidateBounds, includePending
         )
         .orWhereIn('parts.id', bounds.switchPickIds),
     )
-    .select('parts.*');
+    .select('mosfet_params.*', ...HEAD_COLUMNS)
+    .orderBy('parts.id');
   const driverAll = eligible(db, 'driver', includePending);
   const driverQ = driverAll
     .clone()
     .join('driver_params', 'driver_params.part_id', 'parts.id')
     .where('driver_params.supply_min_v', '<=', bounds.driverSupplyMinV)
     .where('driver_params.supply_max_v', '>=', bounds.driverSupplyMaxV)
-    .select('parts.*');
+    .select('driver_params.*', ...HEAD_COLUMNS)
+    .orderBy('parts.id');
   const diodeAll = eligible(db, 'diode', includePending);
   const diodeQ = diodeAll
     .clone()
     .join('diode_params', 'diode_params.part_id', 'parts.id')
     .where('diode_params.vrrm_v', '>=', bounds.supplyMaxV)
-    .select('parts.*');
+    .select('diode_params.*', ...HEAD_COLUMNS)
+    .orderBy('parts.id');
   return { mosfetAll, mosfetQ, driverAll, driverQ, diodeAll, diodeQ };
 }
 
-export async function loadCandidateParts(db: Db, bounds: CandidateBounds, includePending: boolean): Promise<CandidateRows> {
-  const { mosfetAll, mosfetQ, driverAll, driverQ, diodeAll, diodeQ } = candidateQueries(db, bounds, includePending);
-  const [mosfetRows, driverRows, diodeRows, mosfet, driver, diode] = await Promise.all([
-    mosfetQ,
-    driverQ,
-    diodeQ,
-    countOf(mosfetAll),
-    countOf(driverAll),
-    countOf(diodeAll),
-  ]);
-  // One hydration for all three lists: its queries run once, not once per category.
-  const parts = await hydrateParts(db, [...mosfetRows, ...driverRows, ...diodeRows] as DbPartRow[]);
+type Query = ReturnType<typeof candidateQueries>['mosfetQ'];
+const idsOf = (q: Query) => q.clone().clearSelect().clearOrder().select('parts.id');
+
+function groupBy<T>(rows: T[], key: (r: T) => number): Map<number, T[]> {
+  const map = new Map<number, T[]>();
+  for (const r of rows) {
+    const list = map.get(key(r));
+    if (list) list.push(r);
+    else map.set(key(r), [r]);
+  }
+  return map;
+}
+
+interface PriceRow {
+  part_id: number;
+  source_id: number;
+  moq: number;
+  currency: string;
+  qty: number;
+  unit_price: number | string;
+}
+
+/**
+ * The price of the parts a query selects at a quantity: per source only the break that applies there
+ * (the largest at or below the quantity or the source's MOQ, whichever is higher), sources in id order as
+ * the part record has them, so bestUnitPrice at that quantity gives what it gives on the full record.
+ */
+async function priceSourcesOf(db: Db, q: Query | readonly number[], qty: number): Promise<Map<number, PriceSource[]>> {
+  const rows: PriceRow[] = await db('part_sources')
+    .join('part_price_breaks', 'part_price_breaks.source_id', 'part_sources.id')
+    .whereIn('part_sources.part_id', Array.isArray(q) ? q : idsOf(q as Query))
+    .where(
+      'part_price_breaks.qty',
+      db('part_price_breaks as b2')
+        .max('b2.qty')
+        .whereRaw('b2.source_id = part_sources.id')
+        .whereRaw('b2.qty <= greatest(?, part_sources.moq)', [qty]),
+    )
+    .select(
+      'part_sources.part_id',
+      'part_sources.id as source_id',
+      'part_sources.moq',
+      'part_sources.currency',
+      'part_price_breaks.qty',
+      'part_price_breaks.unit_price',
+    )
+    .orderBy('part_sources.id');
+  const out = new Map<number, PriceSource[]>();
+  let sourceId = -1;
+  let source: PriceSource = { moq: 0, currency: '', priceBreaks: [] };
+  for (const r of rows) {
+    if (r.source_id !== sourceId) {
+      sourceId = r.source_id;
+      source = { moq: r.moq, currency: r.currency, priceBreaks: [] };
+      const list = out.get(r.part_id);
+      if (list) list.push(source);
+      else out.set(r.part_id, [source]);
+    }
+    source.priceBreaks.push({ qty: r.qty, unitPrice: Number(r.unit_price) });
+  }
+  return out;
+}
+
+function head<C extends PartCategory>(category: C, r: HeadRow, sources: Map<number, PriceSource[]>) {
   return {
-    mosfets: parts.filter((p): p is PartOf<'mosfet'> => p.category === 'mosfet'),
-    drivers: parts.filter((p): p is PartOf<'driver'> => p.category === 'driver'),
-    diodes: parts.filter((p): p is PartOf<'diode'> => p.category === 'diode'),
+    id: r.id,
+    category,
+    manufacturer: r.manufacturer,
+    mpn: r.mpn,
+    package: r.package,
+    lifecycle: r.lifecycle,
+    reviewStatus: r.review_status,
+    sources: sources.get(r.id) ?? [],
+  };
+}
+
+const PRICE_IDS_PER_QUERY = 5000;
+
+/**
+ * The price break that applies at `qty` for each source of the given parts (as loadCandidateParts gives
+ * them), in batches of ids; parts without sources are absent from the map.
+ */
+export async function candidatePriceSources(db: Db, partIds: readonly number[], qty: number): Promise<Map<number, PriceSource[]>> {
+  const out = new Map<number, PriceSource[]>();
+  for (let i = 0; i < partIds.length; i += PRICE_IDS_PER_QUERY) {
+    for (const [id, sources] of await priceSourcesOf(db, partIds.slice(i, i + PRICE_IDS_PER_QUERY), qty)) out.set(id, sources);
+  }
+  return out;
+}
+
+const NO_PRICES: Promise<Map<number, PriceSource[]>> = Promise.resolve(new Map());
+
+/**
+ * The candidates as the match ranks them: one SELECT per category for head and parameters, the MOSFETs'
+ * RDS(on) and Zth points and (unless `prices` is false: then every part comes with no sources, for
+ * candidatePriceSources to fill in where a price can show) everyone's price breaks through the same
+ * narrowing (no list of ids sent).
+ */
+export async function loadCandidateParts(db: Db, bounds: CandidateBounds, includePending: boolean, prices = true): Promise<CandidateRows> {
+  const { mosfetAll, mosfetQ, driverAll, driverQ, diodeAll, diodeQ } = candidateQueries(db, bounds, includePending);
+  const [mosfetRows, driverRows, diodeRows, points, zth, mosfetPrices, driverPrices, diodePrices, mosfet, driver, diode] =
+    await Promise.all([
+      mosfetQ as Promise<(HeadRow & DbMosfetRow)[]>,
+      driverQ as Promise<(HeadRow & DbDriverRow)[]>,
+      diodeQ as Promise<(HeadRow & DbDiodeRow)[]>,
+      db<DbRdsOnRow>('mosfet_rds_on_points')
+        .whereIn('part_id', idsOf(mosfetQ))
+        .select('part_id', 'vgs_v', 'tj_c', 'max_ohm', 'typ_ohm', 'id_a') as Promise<DbRdsOnRow[]>,
+      db<DbZthRow>('mosfet_zth_points').whereIn('part_id', idsOf(mosfetQ)).select('part_id', 'pulse_s', 'zth_c_per_w') as Promise<
+        DbZthRow[]
+      >,
+      prices ? priceSourcesOf(db, mosfetQ, bounds.boardQuantity) : NO_PRICES,
+      prices ? priceSourcesOf(db, driverQ, bounds.boardQuantity) : NO_PRICES,
+      prices ? priceSourcesOf(db, diodeQ, bounds.boardQuantity) : NO_PRICES,
+      countOf(mosfetAll),
+      countOf(driverAll),
+      countOf(diodeAll),
+    ]);
+  const pointsById = groupBy(points, (p) => p.part_id);
+  const zthById = groupBy(zth, (p) => p.part_id);
+  return {
+    mosfets: mosfetRows.map((r) => ({
+      ...head('mosfet', r, mosfetPrices),
+      params: mosfetFromRows(r, pointsById.get(r.id) ?? [], zthById.get(r.id) ?? []),
+    })),
+    drivers: driverRows.map((r) => ({ ...head('driver', r, driverPrices), params: driverFromRow(r) })),
+    diodes: diodeRows.map((r) => ({ ...head('diode', r, diodePrices), params: diodeFromRow(r) })),
     totals: { mosfet, driver, diode },
   };
 }

@@ -1,18 +1,29 @@
 /**
  * Datasheet PDFs: checked by their bytes, SHA-256 taken and a duplicate refused before any parsing, then
- * inspected within a budget (worker thread: validity, page count), stored under a generated name in the
- * datasheet store, recorded in the audit trail.
+ * inspected within a budget (worker thread: validity, page count, text of the first pages), checked against
+ * the part (src/lib/datasheet-text.ts: its part number in the text, no other kind of part named instead, any
+ * text at all), stored under a generated name in the datasheet store, recorded in the audit trail.
+ * A file that fails the text check answers 409 asking for confirmation; sent again with confirm=true it is
+ * attached, and the audit records what was confirmed.
  */
 import { createHash, randomUUID } from 'node:crypto';
 import { db } from '../db.ts';
 import type { SessionUser } from '../auth/types.ts';
-import { datasheetRevisionSchema, type DatasheetView } from '../../lib/schemas/parts.ts';
+import { datasheetConfirmSchema, datasheetRevisionSchema, type DatasheetView } from '../../lib/schemas/parts.ts';
 import { deleteDatasheetRow, findDatasheet, findDatasheetBySha, insertDatasheet, type DatasheetRecord } from '../repos/datasheets.ts';
 import { findPartRow } from '../repos/part-writes.ts';
 import { insertAuditEvent } from '../repos/audit.ts';
 import { datasheetStore } from '../storage/index.ts';
 import { notFound, ServiceError } from './errors.ts';
-import { inspectPdf, PDF_INSPECTION_BUDGET } from './pdf-inspection.ts';
+import { inspectPdf, PDF_INSPECTION_BUDGET, type PdfText } from './pdf-inspection.ts';
+import type { DbPartRow } from '../repos/part-rows.ts';
+import {
+  checkDatasheetText,
+  datasheetTextProblems,
+  KIND_NAMES,
+  type DatasheetTextCheck,
+  type DatasheetTextProblem,
+} from '../../lib/datasheet-text.ts';
 
 export const MAX_DATASHEET_BYTES = 20 * 1024 * 1024;
 const PDF_MAGIC = [0x25, 0x50, 0x44, 0x46, 0x2d]; // "%PDF-"
@@ -42,10 +53,10 @@ function checkMagic(bytes: Uint8Array): void {
     ]);
 }
 
-/** The page count from the bounded inspection (src/server/services/pdf-inspection.ts), or a refusal naming the file. */
-async function pageCount(bytes: Uint8Array): Promise<number> {
+/** Page count and text from the bounded inspection (src/server/services/pdf-inspection.ts), or a refusal naming the file. */
+async function inspect(bytes: Uint8Array): Promise<{ pages: number; text: PdfText }> {
   const result = await inspectPdf(bytes);
-  if (result.ok) return result.pages;
+  if (result.ok) return { pages: result.pages, text: result.text };
   const { heapMb, deadlineMs, unpackedBytes } = PDF_INSPECTION_BUDGET;
   switch (result.reason) {
     case 'unpacked-too-large':
@@ -71,13 +82,71 @@ export interface DatasheetUpload {
   name: string;
   bytes: Uint8Array;
   revision: string;
+  /** The form field "confirm": "true" attaches a file whose text does not fit the part. */
+  confirm?: string;
+}
+
+/** What the text check found, as the 409 answer and the audit carry it. */
+interface TextCheckRecord extends DatasheetTextCheck {
+  problems: DatasheetTextProblem[];
+  mpn: string;
+  pagesRead: number;
+  truncated: boolean;
+}
+
+const pagesWord = (n: number): string => (n <= 1 ? 'page 1' : `pages 1–${n}`);
+
+/** One line per problem, naming what was (not) found. */
+function problemLines(part: DbPartRow, check: TextCheckRecord): string[] {
+  const where = pagesWord(check.pagesRead);
+  return check.problems.map((p) => {
+    if (p === 'no-text') return `no text found on ${where} (a scanned sheet?), so it cannot be checked against ${part.mpn}`;
+    if (p === 'part-number-missing') return `the part number ${part.mpn} does not occur on ${where}`;
+    const other = check.otherKind!;
+    return `it reads as a ${KIND_NAMES[other.category]} datasheet (${other.words.map((w) => `“${w}”`).join(', ')}) and never names a ${KIND_NAMES[part.category]}`;
+  });
+}
+
+function textCheck(part: DbPartRow, text: PdfText): TextCheckRecord {
+  const check = checkDatasheetText({ mpn: part.mpn, category: part.category }, text.text);
+  return { ...check, problems: datasheetTextProblems(check), mpn: part.mpn, pagesRead: text.pagesRead, truncated: text.truncated };
+}
+
+function confirmationNeeded(part: DbPartRow, check: TextCheckRecord): ServiceError {
+  const lines = problemLines(part, check);
+  const first = check.problems[0] === 'no-text' ? 'No text found in this PDF' : `This PDF may not be the datasheet of ${part.mpn}`;
+  return new ServiceError(
+    409,
+    `${first}: ${lines.join('; ')}. Check the file; attach it anyway only if it is this ${KIND_NAMES[part.category]}'s datasheet.`,
+    lines.map((message) => ({ path: 'file', message })),
+    {},
+    {
+      confirmation: {
+        needed: true,
+        field: 'confirm',
+        problems: check.problems,
+        mpn: part.mpn,
+        mpnFound: check.mpnFound,
+        textFound: check.hasText,
+        pagesRead: check.pagesRead,
+        otherKind: check.otherKind,
+      },
+    },
+  );
 }
 
 export async function addDatasheet(user: SessionUser, partId: number, upload: DatasheetUpload): Promise<DatasheetView> {
-  if (!(await findPartRow(db(), partId))) throw notFound('The part');
+  const part = await findPartRow(db(), partId);
+  if (!part) throw notFound('The part');
   const revision = datasheetRevisionSchema.safeParse(upload.revision);
   if (!revision.success)
     throw new ServiceError(400, 'The revision label is not valid.', [{ path: 'revision', message: revision.error.issues[0].message }]);
+  const confirm = datasheetConfirmSchema.safeParse(upload.confirm ?? '');
+  if (!confirm.success)
+    throw new ServiceError(400, 'The confirm field is not valid.', [
+      { path: 'confirm', message: 'send "true" to attach anyway, or leave it out' },
+    ]);
+  const confirmed = confirm.data === 'true';
   if (upload.bytes.byteLength === 0) throw new ServiceError(400, 'The file is empty.', [{ path: 'file', message: '0 bytes' }]);
   if (upload.bytes.byteLength > MAX_DATASHEET_BYTES)
     throw new ServiceError(413, 'The file is larger than 20 MB.', [{ path: 'file', message: `at most ${MAX_DATASHEET_BYTES} bytes` }]);
@@ -89,7 +158,10 @@ export async function addDatasheet(user: SessionUser, partId: number, upload: Da
     throw new ServiceError(409, 'This exact file is already attached to the part.', [
       { path: 'file', message: `same SHA-256 as datasheet ${duplicate.id}` },
     ]);
-  const pages = await pageCount(upload.bytes);
+  const { pages, text } = await inspect(upload.bytes);
+  const check = textCheck(part, text);
+  if (check.problems.length > 0 && !confirmed) throw confirmationNeeded(part, check);
+  const confirmedDespite = check.problems.length > 0 ? problemLines(part, check) : [];
   const storageKey = `${randomUUID()}.pdf`;
   await datasheetStore().put(storageKey, upload.bytes);
   try {
@@ -110,7 +182,18 @@ export async function addDatasheet(user: SessionUser, partId: number, upload: Da
         entityType: 'part',
         entityId: partId,
         before: null,
-        after: { datasheet: { id: newId, name: safePdfName(upload.name), revision: revision.data || null, pages, sha256 } },
+        after: {
+          datasheet: { id: newId, name: safePdfName(upload.name), revision: revision.data || null, pages, sha256 },
+          textCheck: {
+            problems: check.problems,
+            confirmed: check.problems.length > 0,
+            mpnFound: check.mpnFound,
+            textFound: check.hasText,
+            pagesRead: check.pagesRead,
+            otherKind: check.otherKind,
+          },
+        },
+        note: confirmedDespite.length > 0 ? `Attached after confirming: ${confirmedDespite.join('; ')}` : undefined,
       });
       return newId;
     });

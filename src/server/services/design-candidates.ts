@@ -2,7 +2,7 @@
 import type { Db } from '../db.ts';
 import type { MatchCatalogue, PreparedCase } from '../../lib/design-match.ts';
 import { driverSupplyOf } from '../../lib/driver-ranking.ts';
-import { loadCandidateParts, type CandidateBounds } from '../repos/part-candidates.ts';
+import { candidatePriceSources, loadCandidateParts, type CandidateBounds } from '../repos/part-candidates.ts';
 
 /**
  * Which gate drive the switch candidates are narrowed for: `direct` keeps only MOSFETs the logic pin
@@ -16,6 +16,7 @@ export function candidateBounds(
   { designCase, worstCase }: PreparedCase,
   phase: SwitchDrivePhase = 'driver',
   switchPickIds: number[] = [],
+  boardQuantity = 1,
 ): CandidateBounds {
   const driverSupply = driverSupplyOf(designCase);
   return {
@@ -26,6 +27,7 @@ export function candidateBounds(
     // A driver's output high is its supply less a drop, so never above the supply's top.
     switchGateMaxV: phase === 'direct' ? worstCase.gateDriveMinV : Math.max(worstCase.gateDriveMinV, driverSupply.maxV),
     switchPickIds,
+    boardQuantity,
   };
 }
 
@@ -35,11 +37,14 @@ export async function loadCandidates(
   includePending: boolean,
   phase: SwitchDrivePhase = 'driver',
   switchPickIds: number[] = [],
+  boardQuantity = 1,
+  prices = true,
 ): Promise<MatchCatalogue> {
   const { mosfets, drivers, diodes, totals } = await loadCandidateParts(
     db,
-    candidateBounds(prepared, phase, switchPickIds),
+    candidateBounds(prepared, phase, switchPickIds, boardQuantity),
     includePending,
+    prices,
   );
   return {
     mosfets,
@@ -47,4 +52,17 @@ export async function loadCandidates(
     diodes,
     excluded: { switch: totals.mosfet - mosfets.length, driver: totals.driver - drivers.length, diode: totals.diode - diodes.length },
   };
+}
+
+/** Fills in the sources (price break at the build quantity) of the given candidates, loaded without prices. */
+export async function priceCandidates(
+  db: Db,
+  catalogue: MatchCatalogue,
+  partIds: ReadonlySet<number>,
+  boardQuantity: number,
+): Promise<void> {
+  const sources = await candidatePriceSources(db, [...partIds], boardQuantity);
+  for (const part of [...catalogue.mosfets, ...catalogue.drivers, ...catalogue.diodes]) {
+    if (part.id != null && partIds.has(part.id)) part.sources = sources.get(part.id) ?? [];
+  }
 }

@@ -5,7 +5,15 @@ import type { Design, DesignInput, DesignSummary } from '../../lib/domain/design
 import type { MatchRequest } from '../../lib/schemas/design.ts';
 import type { MotorParams, Part } from '../../lib/domain/parts.ts';
 import type { SessionUser } from '../auth/types.ts';
-import { matchDesign, prepareCase, type DesignMatch, type MatchCatalogue, type PreparedCase } from '../../lib/design-match.ts';
+import {
+  matchFromRanking,
+  prepareCase,
+  rankForMatch,
+  type DesignMatch,
+  type MatchCatalogue,
+  type PreparedCase,
+} from '../../lib/design-match.ts';
+import type { DesignRanking } from '../../lib/rank-design.ts';
 import {
   findDesignRow,
   insertDesignRow,
@@ -20,8 +28,8 @@ import {
 import { partCategoriesByIds, partsByIds } from '../repos/parts.ts';
 import { insertAuditEvent } from '../repos/audit.ts';
 import { ServiceError, notFound } from './errors.ts';
-import { loadCandidates } from './design-candidates.ts';
-import { pageMatch, type DesignMatchPage } from '../../lib/match-page.ts';
+import { loadCandidates, priceCandidates, type SwitchDrivePhase } from './design-candidates.ts';
+import { idsNeedingPrice, pageMatch, type DesignMatchPage } from '../../lib/match-page.ts';
 import { withMatchSlot } from './match-gate.ts';
 import { withLockedVersion } from '../repos/versioned.ts';
 import { DESIGN_ENTITY, sameDesign } from './design-entity.ts';
@@ -125,13 +133,19 @@ export type ResolvedMotor = Awaited<ReturnType<typeof resolveMotor>>;
  * Ranks the catalogue for a design; pass the motor when the caller has already resolved it, and a
  * transaction when the answer decides a status flip made in it.
  */
+/**
+ * With `page`, only the parts whose price can show on that page (idsNeedingPrice) are priced: the lists
+ * keep their verdicts, counts and every entry pageMatch(…, page) returns, but entries of other tie groups
+ * carry no price and their order among themselves is by lifecycle and MPN. Without it, every part is priced.
+ */
 export async function matchInput(
   input: DesignInput,
   includePending: boolean,
   resolved?: ResolvedMotor,
   k: Knex | Knex.Transaction = db(),
+  page?: { offset: number; limit: number },
 ): Promise<DesignMatch> {
-  return (await matchWithCatalogue(input, includePending, resolved, k)).match;
+  return (await matchWithCatalogue(input, includePending, resolved, k, page)).match;
 }
 
 /** The match with the catalogue it ranked and its prepared case (the comparison judges further parts at them). */
@@ -140,21 +154,28 @@ export async function matchWithCatalogue(
   includePending: boolean,
   resolved?: ResolvedMotor,
   k: Knex | Knex.Transaction = db(),
+  page?: { offset: number; limit: number },
 ): Promise<{ match: DesignMatch; catalogue: MatchCatalogue; prepared: PreparedCase }> {
   const motor = resolved ?? (await resolveMotor(input, k));
   const prepared = prepareCase(input, motor.params);
   const sel = input.selections.switch;
   const switchPicks = [...(sel.chosenPartId != null ? [sel.chosenPartId] : []), ...sel.alternatePartIds];
+  const load = (phase: SwitchDrivePhase) =>
+    loadCandidates(k, prepared, includePending, phase, switchPicks, input.boardQuantity, page == null);
+  const decorate = async (catalogue: MatchCatalogue, ranking: DesignRanking) => {
+    if (page) await priceCandidates(k, catalogue, idsNeedingPrice(ranking, input, page), input.boardQuantity);
+    return { match: matchFromRanking(input, motor.label, motor.params, catalogue, prepared, ranking), catalogue, prepared };
+  };
   // First the switches the logic pin can drive. When one of them passes and no driver is chosen, the
   // engine never looks at the others (they fail gate drive directly and no driver is used), so the
   // answer is the one the whole catalogue gives, less parts that could only fail.
   if (input.selections.driver.chosenPartId == null) {
-    const direct = await loadCandidates(k, prepared, includePending, 'direct', switchPicks);
-    const match = matchDesign(input, motor.label, motor.params, direct, prepared);
-    if (!match.driverNeeded && match.switch.some((e) => e.verdict === 'pass')) return { match, catalogue: direct, prepared };
+    const direct = await load('direct');
+    const ranking = rankForMatch(input, direct, prepared);
+    if (!ranking.driverNeeded && ranking.switch.some((e) => e.verdict === 'pass')) return decorate(direct, ranking);
   }
-  const catalogue = await loadCandidates(k, prepared, includePending, 'driver', switchPicks);
-  return { match: matchDesign(input, motor.label, motor.params, catalogue, prepared), catalogue, prepared };
+  const catalogue = await load('driver');
+  return decorate(catalogue, rankForMatch(input, catalogue, prepared));
 }
 
 export async function designExists(id: number): Promise<boolean> {
@@ -179,7 +200,7 @@ export async function matchRequest(designId: number | null, request: MatchReques
   return withMatchSlot(async () => {
     const input = designId === null ? request.input! : (request.input ?? (await getDesign(designId, request.revision)).input);
     if (designId !== null && request.input) await getDesign(designId);
-    const match = await matchInput(input, request.includePending);
-    return pageMatch(match, input, { limit: request.limit, offset: request.offset });
+    const page = { limit: request.limit, offset: request.offset };
+    return pageMatch(await matchInput(input, request.includePending, undefined, db(), page), input, page);
   });
 }

@@ -6,6 +6,8 @@
 import { db } from '../db.ts';
 import type { DesignSummary } from '../../lib/domain/design.ts';
 import type { SessionUser } from '../auth/types.ts';
+import { quantityNeeded } from '../../lib/buying.ts';
+import { appConfig } from '../config.ts';
 import { listDesignRows, listReadyDesigns, loadRevisionInput } from '../repos/designs.ts';
 import {
   chosenPartStock,
@@ -45,7 +47,11 @@ export interface Desk {
 
 const has = (u: SessionUser, role: SessionUser['roles'][number]) => u.roles.includes(role) || u.roles.includes('admin');
 
-/** Chosen parts whose stock over all sources is below one per board at the design's build quantity. */
+/**
+ * Chosen parts whose stock over all sources is below the need at the design's build quantity: the
+ * shortlist's need (src/lib/buying.ts quantityNeeded), one per board × boards plus the configured
+ * attrition, rounded up, so the home page and the shortlist flag the same lines.
+ */
 async function readyWithShortfalls(): Promise<{ items: ReadyDesignDesk[]; total: number }> {
   const heads = await listReadyDesigns(db());
   const shown = heads.slice(0, LIST);
@@ -56,11 +62,13 @@ async function readyWithShortfalls(): Promise<{ items: ReadyDesignDesk[]; total:
       shown.map((h) => h.id),
     ),
   ]);
+  const { attritionPct } = appConfig().buying;
   const items = shown.map((h, i) => {
     const boards = inputs[i]?.boardQuantity ?? 0;
+    const needed = quantityNeeded(1, boards, attritionPct);
     const shortfalls = stock
-      .filter((s) => s.designId === h.id && s.inStock < boards)
-      .map((s) => ({ mpn: s.mpn, role: s.role, needed: boards, inStock: s.inStock }));
+      .filter((s) => s.designId === h.id && s.inStock < needed)
+      .map((s) => ({ mpn: s.mpn, role: s.role, needed, inStock: s.inStock }));
     return { id: h.id, name: h.name, ownerName: h.ownerName, boards, shortfalls };
   });
   return { items, total: heads.length };

@@ -82,7 +82,16 @@ export const CATEGORY_COLUMNS: Record<PartCategory, readonly string[]> = {
     'rotorInertiaKgM2',
   ],
 };
-export const SOURCE_COLUMNS = ['distributor', 'sku', 'moq', 'leadTimeDays', 'stockQty', 'currency', 'priceBreaks'] as const;
+export const SOURCE_COLUMNS = [
+  'distributor',
+  'sku',
+  'moq',
+  'orderMultiple',
+  'leadTimeDays',
+  'stockQty',
+  'currency',
+  'priceBreaks',
+] as const;
 
 /** Every column, in file order (a column shared by categories, such as kind, appears once). */
 export const CSV_COLUMNS: string[] = [...new Set([...HEAD_COLUMNS, ...Object.values(CATEGORY_COLUMNS).flat(), ...SOURCE_COLUMNS])];

@@ -5,7 +5,8 @@
  * number comes first, fuse.js orders the rest and drops what does not resemble the text; then one page.
  */
 import Fuse from 'fuse.js';
-import { db } from '../db.ts';
+import { onReadDb } from '../db.ts';
+import type { Knex } from 'knex';
 import type { Part } from '../../lib/domain/parts.ts';
 import type { PartListPage } from '../../lib/schemas/parts.ts';
 import {
@@ -41,34 +42,45 @@ export function fuzzyMatch(rows: SearchTextRow[], text: string, keepOrder: boole
   return hits.map((h) => h.item.id);
 }
 
-/** All ids the query selects, in order (text relevance unless a sort was asked for). Without text: every filtered part. */
-export async function matchingIds(query: ScopedPartQuery, limit?: number): Promise<number[]> {
+/**
+ * All ids the query selects, in order (text relevance unless a sort was asked for). Without text: every
+ * filtered part. Read on the replica when there is one (src/server/db.ts onReadDb).
+ */
+export function matchingIds(query: ScopedPartQuery, limit?: number): Promise<number[]> {
+  return onReadDb((k) => matchingIdsOn(k, query, limit));
+}
+
+async function matchingIdsOn(k: Knex, query: ScopedPartQuery, limit?: number): Promise<number[]> {
   if (!query.q) {
-    const ids = await filteredIdsPage(db(), query, 0, limit ?? Number.MAX_SAFE_INTEGER);
+    const ids = await filteredIdsPage(k, query, 0, limit ?? Number.MAX_SAFE_INTEGER);
     return ids;
   }
-  const rows = await textCandidates(db(), query, query.q);
+  const rows = await textCandidates(k, query, query.q);
   const exact = rows.filter((r) => r.exact).map((r) => r.id);
   const exactSet = new Set(exact);
   const fuzzy = fuzzyMatch(rows, query.q, false).filter((id) => !exactSet.has(id));
   const ids = [...exact, ...fuzzy];
-  const ordered = query.sort !== undefined ? await sortIds(db(), query, ids) : ids;
+  const ordered = query.sort !== undefined ? await sortIds(k, query, ids) : ids;
   return limit === undefined ? ordered : ordered.slice(0, limit);
 }
 
-/** The list as the viewer may see it: pass the query with listingScope(user) (services/parts-access.ts). */
+/**
+ * The list as the viewer may see it: pass the query with listingScope(user) (services/parts-access.ts).
+ * Read on the replica when there is one, ids and rows from the same database. When nothing meets every
+ * numeric bound, the answer adds the closest parts and what they miss (nearMissesOf).
+ */
 export async function searchParts(query: ScopedPartQuery): Promise<PartListPage<Part> & { nearMisses?: SearchNearMiss[] }> {
-  const offset = (query.page - 1) * query.pageSize;
-  let page: PartListPage<Part>;
-  if (!query.q) {
-    const { ids, total } = await filteredPageAndCount(db(), query, offset, query.pageSize);
-    page = { items: await loadPartsByIds(db(), ids), total, page: query.page, pageSize: query.pageSize };
-  } else {
-    const ids = await matchingIds(query);
+  const page = await onReadDb(async (k): Promise<PartListPage<Part>> => {
+    const offset = (query.page - 1) * query.pageSize;
+    if (!query.q) {
+      const { ids, total } = await filteredPageAndCount(k, query, offset, query.pageSize);
+      return { items: await loadPartsByIds(k, ids), total, page: query.page, pageSize: query.pageSize };
+    }
+    const ids = await matchingIdsOn(k, query);
     const pageIds = ids.slice(offset, offset + query.pageSize);
-    page = { items: await loadPartsByIds(db(), pageIds), total: ids.length, page: query.page, pageSize: query.pageSize };
-  }
-  if (page.total > 0 || !SEARCH_BOUND_KEYS.some((k) => query[k] !== undefined)) return page;
+    return { items: await loadPartsByIds(k, pageIds), total: ids.length, page: query.page, pageSize: query.pageSize };
+  });
+  if (page.total > 0 || !SEARCH_BOUND_KEYS.some((key) => query[key] !== undefined)) return page;
   return { ...page, nearMisses: await nearMissesOf(query) };
 }
 
@@ -76,9 +88,8 @@ export async function searchParts(query: ScopedPartQuery): Promise<PartListPage<
  * Nothing meets every bound: the closest parts the person may see, with the same text, category and
  * other filters but the numeric bounds left off, and what each misses.
  */
-async function nearMissesOf(query: ScopedPartQuery): Promise<SearchNearMiss[]> {
+function nearMissesOf(query: ScopedPartQuery): Promise<SearchNearMiss[]> {
   const relaxed: ScopedPartQuery = { ...query, rdsOnAtVgsV: undefined, sort: undefined };
-  for (const k of SEARCH_BOUND_KEYS) relaxed[k] = undefined;
-  const ids = await matchingIds(relaxed, NEAR_MISS_POOL);
-  return searchNearMisses(await loadPartsByIds(db(), ids), query);
+  for (const key of SEARCH_BOUND_KEYS) relaxed[key] = undefined;
+  return onReadDb(async (k) => searchNearMisses(await loadPartsByIds(k, await matchingIdsOn(k, relaxed, NEAR_MISS_POOL)), query));
 }

@@ -6,11 +6,14 @@
  * - time: a deadline terminates it;
  * - unpacking: before pdf-lib parses, the streams it would unpack on load (object and cross-reference
  *   streams) are inflated with zlib's maxOutputLength against a total budget.
+ * - text: the first `textPages` pages' text is read (src/server/services/pdf-text-source.ts) from at most
+ *   `textDecodedBytes` of decoded content, up to `textChars` characters, for the datasheet check on attach.
  * The worker is plain CommonJS evaluated from a string (eval: true), so it runs unchanged under tsx /
  * vitest and in the built server bundle; pdf-lib is resolved here and required by absolute path.
  */
 import { Worker } from 'node:worker_threads';
 import { createRequire } from 'node:module';
+import { PDF_TEXT_SOURCE } from './pdf-text-source.ts';
 
 export const PDF_INSPECTION_BUDGET = {
   heapMb: 256,
@@ -19,16 +22,30 @@ export const PDF_INSPECTION_BUDGET = {
   unpackedBytes: 32 * 1024 * 1024,
   /** Inspections at once (each may use up to heapMb); later uploads wait their turn. */
   concurrent: 2,
+  /** Pages whose text is read, decoded content bytes read for it (all pages together), characters kept. */
+  textPages: 3,
+  textDecodedBytes: 4 * 1024 * 1024,
+  textChars: 100_000,
 } as const;
 
+/** The text read from the first pages; `truncated` when a limit (pages, bytes, characters) cut it short. */
+export interface PdfText {
+  text: string;
+  pagesRead: number;
+  truncated: boolean;
+  /** Set when reading the text failed (the file itself loaded): the text is then empty. */
+  error?: string;
+}
+
 export type PdfInspection =
-  | { ok: true; pages: number }
+  | { ok: true; pages: number; text: PdfText }
   | { ok: false; reason: 'unreadable' | 'no-pages' | 'unpacked-too-large' | 'out-of-memory' | 'too-slow'; detail?: string };
 
 const WORKER_SOURCE = String.raw`
 const { parentPort, workerData } = require('node:worker_threads');
 const zlib = require('node:zlib');
-const { bytes, pdfLibPath, unpackedBytes } = workerData;
+const { bytes, pdfLibPath, unpackedBytes, textLimits } = workerData;
+${PDF_TEXT_SOURCE}
 
 /** Inflates every Flate object/xref stream against one budget; false when the budget is exceeded. */
 function unpackedWithinBudget(buf) {
@@ -59,11 +76,18 @@ function unpackedWithinBudget(buf) {
 (async () => {
   const buf = Buffer.from(bytes);
   if (!unpackedWithinBudget(buf)) return parentPort.postMessage({ ok: false, reason: 'unpacked-too-large' });
-  const { PDFDocument } = require(pdfLibPath);
+  const lib = require(pdfLibPath);
   try {
-    const doc = await PDFDocument.load(buf, { ignoreEncryption: true, updateMetadata: false });
+    const doc = await lib.PDFDocument.load(buf, { ignoreEncryption: true, updateMetadata: false });
     const pages = doc.getPageCount();
-    parentPort.postMessage(pages >= 1 ? { ok: true, pages } : { ok: false, reason: 'no-pages' });
+    if (pages < 1) return parentPort.postMessage({ ok: false, reason: 'no-pages' });
+    let text;
+    try {
+      text = extractPdfText(doc, lib, textLimits);
+    } catch (err) {
+      text = { text: '', pagesRead: 0, truncated: false, error: String(err && err.message).slice(0, 200) };
+    }
+    parentPort.postMessage({ ok: true, pages, text });
   } catch (err) {
     parentPort.postMessage({ ok: false, reason: 'unreadable', detail: String(err && err.message).slice(0, 200) });
   }
@@ -90,7 +114,12 @@ function runWorker(bytes: Uint8Array, budget: typeof PDF_INSPECTION_BUDGET): Pro
     let settled = false;
     const worker = new Worker(WORKER_SOURCE, {
       eval: true,
-      workerData: { bytes: copy, pdfLibPath, unpackedBytes: budget.unpackedBytes },
+      workerData: {
+        bytes: copy,
+        pdfLibPath,
+        unpackedBytes: budget.unpackedBytes,
+        textLimits: { pages: budget.textPages, decodedBytes: budget.textDecodedBytes, chars: budget.textChars },
+      },
       transferList: [copy.buffer],
       resourceLimits: { maxOldGenerationSizeMb: budget.heapMb, maxYoungGenerationSizeMb: 32 },
     });

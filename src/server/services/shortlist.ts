@@ -8,7 +8,16 @@ import { db } from '../db.ts';
 import type { DesignInput, PartRole } from '../../lib/domain/design.ts';
 import type { Part } from '../../lib/domain/parts.ts';
 import { pullResistorLine } from '../../lib/bom.ts';
-import { shortlistFigures, type LineFigures, type LineInput, type OptionInput, type ShortlistTotals } from '../../lib/shortlist-figures.ts';
+import {
+  shortlistFigures,
+  type LineFigures,
+  type LineInput,
+  type OptionInput,
+  type OptionPreference,
+  type ShortlistTotals,
+} from '../../lib/shortlist-figures.ts';
+import { listPreferences, type StoredPreference } from '../repos/shortlist-preferences.ts';
+import { shortlistCsv } from '../../lib/shortlist-csv.ts';
 import { appConfig } from '../config.ts';
 import { listCurrencyRates } from '../repos/currency-rates.ts';
 import { pickStatus, reviewWords } from '../../lib/readiness.ts';
@@ -45,8 +54,14 @@ const ROLE_LABEL: Record<PartRole | 'motor', string> = {
   diode: 'Freewheel diode',
 };
 
-function optionOf(part: Part, position: number, status: { text: string; holds: boolean }): OptionInput {
+function optionOf(
+  part: Part,
+  position: number,
+  status: { text: string; holds: boolean },
+  preference: OptionPreference | null,
+): OptionInput {
   return {
+    preference,
     partId: part.id as number,
     mpn: part.mpn,
     manufacturer: part.manufacturer,
@@ -64,12 +79,27 @@ function motorStatus(part: Part): { text: string; holds: boolean } {
 }
 
 /** The BOM's lines (src/lib/bom.ts: one of each per board, the pull resistor when the power-on walk sized one). */
-function lineInputs(v: Verification, parts: Map<number, Part>, input: DesignInput): LineInput[] {
-  const base = { perBoard: 1, generic: null, preferredSourceId: null, note: null };
+function lineInputs(
+  designId: number,
+  v: Verification,
+  parts: Map<number, Part>,
+  input: DesignInput,
+  prefs: readonly StoredPreference[],
+): LineInput[] {
+  const base = { perBoard: 1, generic: null };
+  const pref = (line: string, partId: number): OptionPreference | null => {
+    const p = prefs.find((x) => x.designId === designId && x.line === line && x.partId === partId);
+    return p ? { source: p.source, note: p.note, setByName: p.setByName, updatedAt: p.updatedAt } : null;
+  };
   const lines: LineInput[] = [];
   if (input.motor.source === 'catalogue' && parts.has(input.motor.partId)) {
     const motor = parts.get(input.motor.partId)!;
-    lines.push({ ...base, key: 'motor', label: ROLE_LABEL.motor, options: [optionOf(motor, 0, motorStatus(motor))] });
+    lines.push({
+      ...base,
+      key: 'motor',
+      label: ROLE_LABEL.motor,
+      options: [optionOf(motor, 0, motorStatus(motor), pref('motor', motor.id as number))],
+    });
   }
   for (const role of ['switch', 'driver', 'diode'] as const) {
     const sel = input.selections[role];
@@ -79,7 +109,7 @@ function lineInputs(v: Verification, parts: Map<number, Part>, input: DesignInpu
         ...base,
         key: role,
         label: ROLE_LABEL[role],
-        options: ordered.map((id, i) => optionOf(parts.get(id)!, i, pickStatus(v.match, role, id, v.parts.get(id)))),
+        options: ordered.map((id, i) => optionOf(parts.get(id)!, i, pickStatus(v.match, role, id, v.parts.get(id)), pref(role, id))),
       });
   }
   const pull = pullResistorLine(v.match.powerOn?.recommendedPull ?? null);
@@ -116,11 +146,24 @@ export async function readyShortlist(actor: SessionUser | null, boardsFor: Reado
       ...i.selections[r].alternatePartIds,
     ]),
   ]);
-  const [parts, rates] = await Promise.all([partsByIds(db(), ids), listCurrencyRates(db())]);
+  const [parts, rates, prefs] = await Promise.all([
+    partsByIds(db(), ids),
+    listCurrencyRates(db()),
+    listPreferences(
+      db(),
+      held.map((h) => h.head.id),
+    ),
+  ]);
   const { orgCurrency, attritionPct } = appConfig().buying;
   const designs = held.map(({ head, verification }): ShortlistDesign => {
     const boards = boardsFor.get(head.id) ?? verification.input.boardQuantity;
-    const figures = shortlistFigures(lineInputs(verification, parts, verification.input), boards, attritionPct, orgCurrency, rates);
+    const figures = shortlistFigures(
+      lineInputs(head.id, verification, parts, verification.input, prefs),
+      boards,
+      attritionPct,
+      orgCurrency,
+      rates,
+    );
     return {
       id: head.id,
       name: head.name,
@@ -134,4 +177,14 @@ export async function readyShortlist(actor: SessionUser | null, boardsFor: Reado
     };
   });
   return { designs, withdrawn };
+}
+
+/** The shortlist as a CSV download (src/lib/shortlist-csv.ts): the same designs and figures the page shows. */
+export async function shortlistCsvFile(
+  actor: SessionUser | null,
+  boardsFor: ReadonlyMap<number, number> = new Map(),
+): Promise<{ body: string; fileName: string; rows: number }> {
+  const { designs } = await readyShortlist(actor, boardsFor);
+  const { csv, rows } = shortlistCsv(designs);
+  return { body: csv, rows, fileName: `shortlist-${new Date().toISOString().slice(0, 10)}.csv` };
 }
