@@ -9,7 +9,7 @@ import type { Check, Verdict } from './checks.ts';
 import type { DesignCase } from './design-case.ts';
 import type { DesignMatch, PreparedCase } from './design-match.ts';
 import { effectiveSwitchList } from './design-match.ts';
-import { checkLabel } from './design-words.ts';
+import { checkFigure, checkLabel } from './design-words.ts';
 import type { Lifecycle, Part, ReviewStatus } from './domain/parts.ts';
 import { gateDriveOfDriver, rankDriverCandidates } from './driver-ranking.ts';
 import { bestUnitPrice } from './part-summary.ts';
@@ -83,18 +83,9 @@ export function limitSense(c: Pick<Check, 'value' | 'limit' | 'margin' | 'ok'>):
 }
 
 /** A check's number in the units people read: mA / ns / µs / mΩ through the shared formatter, duty as %. */
-export function checkQuantity(value: number | null, unit: string, id = ''): string {
-  if (value == null || !Number.isFinite(value)) return '—';
-  if (id === 'duty-error' && unit === '') return percent(value, Math.abs(value) < 0.01 ? 2 : 1);
-  if (unit === 'ns') return trimZeros(formatSi(value * 1e-9, 's'));
-  if (unit === 'nC') return trimZeros(formatSi(value * 1e-9, 'C'));
-  if (['V', 'A', 's', 'Ω', 'W', 'Hz', 'H', 'F', 'C'].includes(unit)) return trimZeros(formatSi(value, unit));
-  return quantity(value, unit);
-}
-
-/** "85.0 mΩ" → "85 mΩ", "1.50 A" → "1.5 A" (significant digits kept, trailing zeros dropped). */
-function trimZeros(text: string): string {
-  return text.replace(/(\.\d*?)0+(?= )/, '$1').replace(/\.(?= )/, '');
+/** A check's value or limit as people read it: the shared check formatter (design-words `checkFigure`). */
+export function checkQuantity(value: number | null, unit: string): string {
+  return checkFigure(value, unit);
 }
 
 export function compareCheck(c: Check): CompareCheck {
@@ -114,7 +105,7 @@ export function compareCheck(c: Check): CompareCheck {
 /** "needs ≤ 60 mΩ" / "needs ≥ 12 V" for a check with a limit; null without one. */
 export function needsText(c: Pick<CompareCheck, 'id' | 'limit' | 'unit' | 'sense'>): string | null {
   if (c.limit == null || c.sense == null) return null;
-  return `needs ${c.sense === 'at-most' ? '≤' : '≥'} ${checkQuantity(c.limit, c.unit, c.id)}`;
+  return `needs ${c.sense === 'at-most' ? '≤' : '≥'} ${checkQuantity(c.limit, c.unit)}`;
 }
 
 /** The list of a role the workspace shows (the switch list the design really uses). */
@@ -228,7 +219,7 @@ export function nearMisses(
       const cc = compareCheck(c);
       const shortfall = c.value != null && c.limit != null && c.limit !== 0 ? Math.abs(c.value - c.limit) / Math.abs(c.limit) : null;
       const needs = needsText(cc);
-      const text = needs && c.value != null ? `${cc.label} ${checkQuantity(c.value, c.unit, c.id)}, ${needs}` : `${cc.label}: ${c.note}`;
+      const text = needs && c.value != null ? `${cc.label} ${checkQuantity(c.value, c.unit)}, ${needs}` : `${cc.label}: ${c.note}`;
       return { id: c.id, label: cc.label, text, shortfall };
     });
     // A miss without numbers (wrong channel, no RDS(on) at this drive) counts as far away.

@@ -110,16 +110,26 @@ export function quantity(value: number | null | undefined, unit: string, digits 
 }
 
 /** Units that take SI prefixes (µs, mA, kΩ); the rest print as plain numbers with their unit. */
-const PREFIXED_UNITS = new Set(['V', 'A', 's', 'W', 'Ω', 'Hz', 'J', 'H', 'N·m']);
+const PREFIXED_UNITS = new Set(['V', 'A', 's', 'W', 'Ω', 'Hz', 'J', 'H', 'F', 'C', 'N·m']);
+/** Units the engines state in a prefixed form: rescaled to the SI unit so 2200 ns reads "2.2 µs". */
+const RESCALED_UNITS: Readonly<Record<string, [number, string]>> = { ns: [1e-9, 's'], nC: [1e-9, 'C'] };
+
+/** "85.0 mΩ" → "85 mΩ", "1.50 A" → "1.5 A": significant digits kept, trailing zeros dropped. */
+function trimZeros(text: string): string {
+  return text.replace(/(\.\d*?)0+(?= )/, '$1').replace(/\.(?= )/, '');
+}
 
 /**
- * A measured or limiting value as an engineer writes it: SI prefix for the prefixable units
- * (measure(1.54e-8, 's') → "15.4 ns", measure(0.0012, 'A') → "1.20 mA"), plain number otherwise
- * (measure(61.2, '°C') → "61.2 °C"), scientific below 0.01 (measure(0.000943, 'A²s') → "9.43 × 10⁻⁴ A²s").
+ * A measured or limiting value as an engineer writes it: SI prefix for the prefixable units, trailing
+ * zeros dropped (measure(1.54e-8, 's') → "15.4 ns", measure(0.085, 'Ω') → "85 mΩ", measure(2200, 'ns') →
+ * "2.2 µs"), plain number otherwise (measure(61.2, '°C') → "61.2 °C"), scientific below 0.01 for
+ * unprefixed units (measure(0.000943, 'A²s') → "9.43 × 10⁻⁴ A²s").
  */
 export function measure(value: number | null | undefined, unit: string, digits = 3): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return '—';
-  if (PREFIXED_UNITS.has(unit) && value !== 0) return formatSi(value, unit, digits);
+  const rescaled = RESCALED_UNITS[unit];
+  if (rescaled && value !== 0) return trimZeros(formatSi(value * rescaled[0], rescaled[1], digits));
+  if (PREFIXED_UNITS.has(unit) && value !== 0) return trimZeros(formatSi(value, unit, digits));
   const text = value !== 0 && Math.abs(value) < 0.01 ? scientific(value, digits) : sig(value, digits);
   return unit ? `${text} ${unit}` : text;
 }
