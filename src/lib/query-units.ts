@@ -24,6 +24,7 @@
  *  - A current is at least: MOSFET ID (idMinA), diode IF(AV) (ifAvMinA). Drivers and motors have no
  *    current filter, so a current there stays text.
  *  - Each parameter is taken once; a second value for it stays text.
+ *  - When the text names no category, the one already chosen on the page (context) applies.
  */
 import { prefixFactor, tidy } from './units.ts';
 import type { PartCategory } from './domain/parts.ts';
@@ -224,7 +225,11 @@ const KEY_BASE: Partial<Record<QueryFilterKey, Base>> = {
   ratedVoltageMinV: 'V',
 };
 
-export function parseQueryUnits(query: string): ParsedQuery {
+/**
+ * `context.category` is the category already chosen (the search page passes its current one), used
+ * when the text names none: with MOSFETs chosen, "30 V" alone is VDS ≥ 30 V.
+ */
+export function parseQueryUnits(query: string, context: { category?: PartCategory } = {}): ParsedQuery {
   const words = splitWords(query);
   const filters: QueryFilters = {};
   let category: PartCategory | undefined;
@@ -251,6 +256,7 @@ export function parseQueryUnits(query: string): ParsedQuery {
       if (label && quantityAt(words, i + 1)) category = label.category;
     }
   }
+  category ??= context.category;
 
   // 2. Quantities, read with the words around them.
   if (category) {

@@ -109,6 +109,18 @@ describe('parseQueryUnits: hand-written table', () => {
   });
 });
 
+describe('parseQueryUnits: the category already chosen on the page', () => {
+  it.each([
+    ['30 V', 'mosfet', { category: 'mosfet', vdsMinV: '30' }, ''],
+    ['40 V', 'diode', { category: 'diode', vrrmMinV: '40' }, ''],
+    ['12 V', 'driver', { category: 'driver', supplyV: '12' }, ''],
+    // A category named in the text wins over the chosen one (the page then starts that category afresh).
+    ['schottky 40 V', 'mosfet', { category: 'diode', kind: 'schottky', vrrmMinV: '40' }, ''],
+  ] as const)('%s with %s chosen', (query, category, filters, rest) => {
+    expect(parseQueryUnits(query, { category })).toEqual({ filters, rest });
+  });
+});
+
 describe('filterChips: chip words, hand-written', () => {
   const rows: [string, string[]][] = [
     ['category=mosfet&channel=n&vdsMinV=30&rdsOnAtVgsV=2.5', ['MOSFETs', 'N-channel', 'VDS ≥ 30 V', 'RDS(on) specified at VGS ≤ 2.5 V']],

@@ -9,6 +9,8 @@ import { CATEGORY_LABELS } from '../../lib/part-summary.ts';
 import { CATEGORY_FIELDS, STATUS_FIELDS, activeFilterCount, toApi, toDisplay, type FilterField } from './search-fields.ts';
 import { columnsFor, type SearchColumn } from './search-columns.tsx';
 import { StatusBadges } from './StatusBadges.tsx';
+import { parseQueryUnits } from '../../lib/query-units.ts';
+import { filterChips, type FilterChip } from '../../lib/filter-chips.ts';
 
 interface Props {
   packages: Record<string, string[]>;
@@ -59,6 +61,11 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
   const [filtersOpen, setFiltersOpen] = useState(false);
   const queryString = params.toString();
   const seq = useRef(0);
+  const searchInput = useRef<HTMLInputElement>(null);
+  /** Units in the typed text ("schottky 40 V") that Enter turns into filters; the rest stays text. */
+  const parsed = useMemo(() => parseQueryUnits(text, { category: category ?? undefined }), [text, category]);
+  const pendingFilters = Object.entries(parsed.filters).filter(([k, v]) => params.get(k) !== v);
+  const chips = useMemo(() => filterChips(params), [params]);
 
   /** Applies changes to the latest filter (several fields may fire close together). */
   function update(changes: Record<string, string>, resetPage = true): void {
@@ -83,6 +90,31 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
     setVisibility(savedVisibility(c || null));
   }
 
+  /** Enter in the search box: recognised units become filters (chips), the other words the text. */
+  function applyText(): void {
+    const { filters, rest } = parsed;
+    if (pendingFilters.length === 0) return;
+    const newCategory = filters.category && filters.category !== category ? (filters.category as PartCategory) : null;
+    setParams((prev) => {
+      const next = newCategory ? new URLSearchParams() : new URLSearchParams(prev);
+      if (newCategory) for (const k of ['lifecycle', 'reviewStatus', 'pageSize']) if (prev.get(k)) next.set(k, prev.get(k)!);
+      for (const [k, v] of Object.entries(filters)) next.set(k, v);
+      if (rest.trim()) next.set('q', rest.trim());
+      else next.delete('q');
+      next.delete('page');
+      return next;
+    });
+    setText(rest);
+    if (newCategory) setVisibility(savedVisibility(newCategory));
+  }
+
+  /** A chip's × : its parameters go; the category chip clears that category's filters too, as the radio does. */
+  function removeChip(chip: FilterChip): void {
+    if (chip.keys.includes('category')) chooseCategory('');
+    else update(Object.fromEntries(chip.keys.map((k) => [k, ''])));
+    searchInput.current?.focus();
+  }
+
   // The address bar follows the filter, so the search can be shared or bookmarked.
   useEffect(() => {
     if (window.location.search.replace(/^\?/, '') !== queryString) {
@@ -96,9 +128,11 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
   }, []);
 
   useEffect(() => {
+    // Text with units waits for Enter (the hint below the box says what it becomes); plain text searches as typed.
+    if (pendingFilters.length > 0) return;
     const handle = setTimeout(() => update({ q: text.trim() }), 250);
     return () => clearTimeout(handle);
-  }, [text]);
+  }, [text, pendingFilters.length]);
 
   useEffect(() => {
     const mine = ++seq.current;
@@ -275,16 +309,36 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
 
       <section aria-label="Results" className="min-w-0">
         <div className="flex flex-wrap items-end gap-3 mb-2">
-          <label className="field grow max-w-md">
-            Maker, part number or description (typos are forgiven)
-            <input
-              type="search"
-              value={text}
-              onChange={(e) => setText(e.target.value)}
-              placeholder="e.g. CWN30L01 or schottky 40 V"
-              data-testid="search-text"
-            />
-          </label>
+          <form
+            role="search"
+            className="grow max-w-md"
+            onSubmit={(e) => {
+              e.preventDefault();
+              applyText();
+            }}
+          >
+            <label className="field">
+              Maker, part number or description (typos are forgiven; units such as 40 V become filters)
+              <input
+                ref={searchInput}
+                type="search"
+                value={text}
+                onChange={(e) => setText(e.target.value)}
+                placeholder="e.g. CWN30L01 or schottky 40 V"
+                aria-describedby={pendingFilters.length > 0 ? 'search-units-hint' : undefined}
+                data-testid="search-text"
+              />
+            </label>
+            {pendingFilters.length > 0 && (
+              <p id="search-units-hint" className="text-xs text-ink-soft mt-1" data-testid="units-hint">
+                <span aria-hidden="true">↵ </span>Press Enter to search with{' '}
+                {filterChips(new URLSearchParams(parsed.filters))
+                  .map((c) => c.label)
+                  .join(' · ')}
+                {parsed.rest ? ` and the text “${parsed.rest}”` : ''}.
+              </p>
+            )}
+          </form>
           <details className="relative text-sm">
             <summary className="btn btn-quiet cursor-pointer">Columns</summary>
             <div className="card absolute right-0 z-10 mt-1 p-2 grid gap-1 w-56 shadow" role="group" aria-label="Visible columns">
@@ -312,6 +366,25 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
             </a>
           )}
         </div>
+
+        {chips.length > 0 && (
+          <ul className="flex flex-wrap gap-1.5 mb-2" aria-label="Filters in force" data-testid="filter-chips">
+            {chips.map((c) => (
+              <li key={c.keys.join('+')}>
+                <button
+                  type="button"
+                  className="chip"
+                  aria-label={`Remove filter ${c.label}`}
+                  title={c.keys.includes('category') ? 'Removes the category and its parameter filters' : 'Remove this filter'}
+                  data-testid="filter-chip"
+                  onClick={() => removeChip(c)}
+                >
+                  {c.label} <span aria-hidden="true">×</span>
+                </button>
+              </li>
+            ))}
+          </ul>
+        )}
 
         <p className="text-sm text-ink-soft mb-1" aria-live="polite" data-testid="result-count">
           {loading && (
@@ -459,6 +532,10 @@ function FilterInput({
 }) {
   const id = `filter-${field.key}`;
   const [typed, setTyped] = useState(field.type === 'number' ? toDisplay(field, value) : (value ?? ''));
+  // The value changed elsewhere (a chip removed, units typed in the search box): show it.
+  useEffect(() => {
+    if (field.type === 'number' && toApi(field, typed) !== (value ?? '')) setTyped(toDisplay(field, value));
+  }, [value]);
   useEffect(() => {
     if (field.type !== 'number') return;
     const handle = setTimeout(() => {
