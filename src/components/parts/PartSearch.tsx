@@ -318,7 +318,7 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
             }}
           >
             <label className="field">
-              Maker, part number or description (typos are forgiven; units such as 40 V become filters)
+              Maker, part number or description (typos are forgiven)
               <input
                 ref={searchInput}
                 type="search"
