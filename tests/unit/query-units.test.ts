@@ -5,6 +5,7 @@
  * be a valid GET /api/parts query (partListQuerySchema), so the parser speaks the API's language.
  * Rows marked "stays text" check that part numbers and number-bearing words never become filters.
  */
+import { all, create } from 'mathjs';
 import { describe, expect, it } from 'vitest';
 import { parseQueryUnits, type QueryFilters } from '../../src/lib/query-units.ts';
 import { filterChips } from '../../src/lib/filter-chips.ts';
@@ -118,6 +119,26 @@ describe('parseQueryUnits: the category already chosen on the page', () => {
     ['schottky 40 V', 'mosfet', { category: 'diode', kind: 'schottky', vrrmMinV: '40' }, ''],
   ] as const)('%s with %s chosen', (query, category, filters, rest) => {
     expect(parseQueryUnits(query, { category })).toEqual({ filters, rest });
+  });
+});
+
+// Second method for the prefix arithmetic: mathjs converts each typed quantity to SI.
+const math = create(all);
+describe('typed quantities against mathjs', () => {
+  it.each([
+    ['mosfet 500 mA', 'idMinA', '500 mA', 'A'],
+    ['mosfet 0.5A', 'idMinA', '0.5 A', 'A'],
+    ['mosfet 12.5 A', 'idMinA', '12.5 A', 'A'],
+    ['mosfet 10mΩ', 'rdsOnMaxOhm', '10 mohm', 'ohm'],
+    ['mosfet 4.7 mohm', 'rdsOnMaxOhm', '4.7 mohm', 'ohm'],
+    ['mosfet 0.25 ohm', 'rdsOnMaxOhm', '0.25 ohm', 'ohm'],
+    ['mosfet 2,5 mΩ', 'rdsOnMaxOhm', '2.5 mohm', 'ohm'],
+    ['schottky 45 V', 'vrrmMinV', '45 V', 'V'],
+    ['diode 1.2 kV', 'vrrmMinV', '1.2 kV', 'V'],
+    ['gate driver 4500 mV', 'supplyV', '4500 mV', 'V'],
+  ] as const)('%s', (query, key, typed, si) => {
+    const value = Number(parseQueryUnits(query).filters[key]);
+    expect(value).toBeCloseTo(math.unit(typed).toNumber(si), 12); // mathjs cross-check
   });
 });
 
