@@ -89,6 +89,9 @@ export function filterChips(params: URLSearchParams): FilterChip[] {
       } else {
         chips.push({ label: `RDS(on) ≤ ${get('rdsOnMaxOhm')} Ω (no drive given)`, keys: ['rdsOnMaxOhm'] });
       }
+    } else if ((key === 'ratedVoltageMinV' || key === 'ratedVoltageMaxV') && get('ratedVoltageMinV') === get('ratedVoltageMaxV')) {
+      done.add('ratedVoltageMinV').add('ratedVoltageMaxV');
+      chips.push({ label: `Rated voltage ${n !== null ? bound(n, 'V') : value}`, keys: ['ratedVoltageMinV', 'ratedVoltageMaxV'] });
     } else if (NUMERIC[key] && n !== null) {
       chips.push({ label: NUMERIC[key](n), keys: [key] });
     } else {

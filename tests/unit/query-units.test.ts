@@ -149,6 +149,8 @@ describe('filterChips: chip words, hand-written', () => {
     ['category=diode&kind=schottky&vrrmMinV=40&q=sot', ['Diodes', 'Schottky', 'VRRM ≥ 40 V']],
     ['ifAvMinA=0.5&sort=mpn&page=2', ['IF(AV) ≥ 500 mA']],
     ['category=driver&supplyV=12&logicRailV=3.3', ['Gate drivers and level shifters', 'Supply 12 V', 'Logic input at 3.3 V']],
+    ['category=motor&ratedVoltageMinV=12&ratedVoltageMaxV=12', ['Motors', 'Rated voltage 12 V']],
+    ['ratedVoltageMinV=6&ratedVoltageMaxV=12', ['Rated voltage ≥ 6 V', 'Rated voltage ≤ 12 V']],
   ];
   it.each(rows)('%s', (query, labels) => {
     expect(filterChips(new URLSearchParams(query)).map((c) => c.label)).toEqual(labels);

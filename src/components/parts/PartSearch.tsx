@@ -128,11 +128,12 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
   }, []);
 
   useEffect(() => {
-    // Text with units waits for Enter (the hint below the box says what it becomes); plain text searches as typed.
+    // Text with new units waits for Enter (the hint below the box says what it becomes); other text searches
+    // as typed, less any words already in force as filters ("schottky" with the Schottky chip on).
     if (pendingFilters.length > 0) return;
-    const handle = setTimeout(() => update({ q: text.trim() }), 250);
+    const handle = setTimeout(() => update({ q: parsed.rest.trim() }), 250);
     return () => clearTimeout(handle);
-  }, [text, pendingFilters.length]);
+  }, [text, pendingFilters.length, parsed.rest]);
 
   useEffect(() => {
     const mine = ++seq.current;
