@@ -2,8 +2,8 @@
  * In Chromium: a buyer types "schottky 40 V" and presses Enter; the units become filter chips
  * (Diodes, Schottky, VRRM ≥ 40 V), the text box empties, the address bar carries the API filters, and
  * the table shows the approved seed Schottky diodes with VRRM ≥ 40 V (hand list from
- * db/seeds/data/diodes.ts). Removing the VRRM chip with the keyboard, then the Schottky chip with a
- * click, widens the list each time.
+ * db/seeds/data/diodes.ts). Removing the VRRM chip with Enter, the Schottky chip with a click and the
+ * Diodes chip with Space widens the list each time.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
@@ -85,6 +85,13 @@ describe('unit queries as filter chips', () => {
     await page.waitForFunction(() => !/kind=/.test(location.search));
     await page.waitForSelector(`[data-mpn="${ULTRAFAST}"]`);
     expect(await chipLabels(page)).toEqual(['Remove filter Diodes']);
+
+    // The last chip, with Space: no filter left, the address bar is bare, focus is back in the search box.
+    await page.getByRole('button', { name: 'Remove filter Diodes' }).focus();
+    await page.keyboard.press('Space');
+    await page.waitForFunction(() => location.search === '');
+    await expect(page.getByTestId('filter-chip').count()).resolves.toBe(0);
+    await expect(page.evaluate(() => document.activeElement?.getAttribute('data-testid'))).resolves.toBe('search-text');
     expect(errors).toEqual([]);
     await context.close();
   });
