@@ -4,7 +4,21 @@
  */
 import { describe, expect, it } from 'vitest';
 import { checkFigure } from '../../src/lib/design-words.ts';
-import { bytes, counted, fixed, formatSi, measure, percent, price, quantity, scientific, sig, tidy } from '../../src/lib/units.ts';
+import {
+  bound,
+  bytes,
+  counted,
+  fixed,
+  formatSi,
+  measure,
+  percent,
+  prefixFactor,
+  price,
+  quantity,
+  scientific,
+  sig,
+  tidy,
+} from '../../src/lib/units.ts';
 
 describe('sig', () => {
   it.each([
@@ -107,5 +121,35 @@ describe('counted: the noun agrees with the count (English grammar)', () => {
     [25412, 'MOSFET', 'MOSFETs', '25,412 MOSFETs'],
   ])('%d %s', (n, one, many, text) => {
     expect(counted(n, one, many)).toBe(text);
+  });
+});
+
+describe('bound: chip numbers, hand-written', () => {
+  it.each([
+    [30, 'V', '30 V'],
+    [2.5, 'V', '2.5 V'],
+    [0.01, 'Ω', '10 mΩ'],
+    [0.0045, 'Ω', '4.5 mΩ'],
+    [0.5, 'A', '500 mA'],
+    [1234, 'V', '1.23 kV'],
+    [0, 'V', '0 V'],
+    [Number.NaN, 'V', '— V'],
+  ])('bound(%d, %s) → %s', (value, unit, text) => {
+    expect(bound(value, unit)).toBe(text);
+  });
+});
+
+describe('prefixFactor: SI prefixes as typed', () => {
+  it.each([
+    ['', 1],
+    ['m', 1e-3],
+    ['µ', 1e-6],
+    ['u', 1e-6],
+    ['k', 1e3],
+  ])('%s → %d', (prefix, factor) => {
+    expect(prefixFactor(prefix)).toBe(factor);
+  });
+  it('an unknown prefix has no factor', () => {
+    expect(prefixFactor('x')).toBeUndefined();
   });
 });
