@@ -208,3 +208,18 @@ export function age(ms: number | null | undefined): string {
   if (hours < 48) return `${hours} h ago`;
   return `${Math.floor(hours / 24)} days ago`;
 }
+
+/** Factor of an SI prefix as people type it ('' 1, 'm' 10⁻³, 'µ'/'u' 10⁻⁶, 'k' 10³); undefined for anything else. */
+export function prefixFactor(prefix: string): number | undefined {
+  const found = SI_PREFIXES.find((p) => p.symbol === (prefix === 'u' ? 'µ' : prefix));
+  return found ? 10 ** found.exponent : undefined;
+}
+
+/** A bound as a chip shows it: SI prefix, at most three significant digits, no trailing zeros ("30 V", "10 mΩ", "500 mA"). */
+export function bound(value: number, unit: string): string {
+  if (!Number.isFinite(value)) return `— ${unit}`;
+  if (value === 0) return `0 ${unit}`;
+  const rounded = roundSignificant(value, 3);
+  const prefix = prefixFor(Math.abs(rounded));
+  return `${sig(rounded / 10 ** prefix.exponent)} ${prefix.symbol}${unit}`;
+}

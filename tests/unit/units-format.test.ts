@@ -8,11 +8,13 @@ import {
   age,
   bytes,
   count,
+  bound,
   counted,
   fixed,
   formatSi,
   measure,
   percent,
+  prefixFactor,
   price,
   quantity,
   scientific,
@@ -148,4 +150,33 @@ describe('age (rounded down to the unit shown)', () => {
     [48 * 3_600_000, '2 days ago'],
     [-5_000, 'just now'], // a clock a little ahead
   ])('%i ms → %s', (ms, expected) => expect(age(ms)).toBe(expected));
+
+describe('bound: chip numbers, hand-written', () => {
+  it.each([
+    [30, 'V', '30 V'],
+    [2.5, 'V', '2.5 V'],
+    [0.01, 'Ω', '10 mΩ'],
+    [0.0045, 'Ω', '4.5 mΩ'],
+    [0.5, 'A', '500 mA'],
+    [1234, 'V', '1.23 kV'],
+    [0, 'V', '0 V'],
+    [Number.NaN, 'V', '— V'],
+  ])('bound(%d, %s) → %s', (value, unit, text) => {
+    expect(bound(value, unit)).toBe(text);
+  });
+});
+
+describe('prefixFactor: SI prefixes as typed', () => {
+  it.each([
+    ['', 1],
+    ['m', 1e-3],
+    ['µ', 1e-6],
+    ['u', 1e-6],
+    ['k', 1e3],
+  ])('%s → %d', (prefix, factor) => {
+    expect(prefixFactor(prefix)).toBe(factor);
+  });
+  it('an unknown prefix has no factor', () => {
+    expect(prefixFactor('x')).toBeUndefined();
+  });
 });

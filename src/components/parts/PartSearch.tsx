@@ -11,6 +11,8 @@ import { columnsFor, type SearchColumn } from './search-columns.tsx';
 import { StatusBadges } from './StatusBadges.tsx';
 import type { SearchNearMiss } from '../../lib/search-near-miss.ts';
 import CompareBar from './CompareBar.tsx';
+import { parseQueryUnits } from '../../lib/query-units.ts';
+import { filterChips, type FilterChip } from '../../lib/filter-chips.ts';
 
 interface Props {
   packages: Record<string, string[]>;
@@ -71,6 +73,11 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
   useEffect(() => setCompareIds([]), [category]);
   const toggleCompare = (id: number) =>
     setCompareIds((ids) => (ids.includes(id) ? ids.filter((x) => x !== id) : ids.length < MAX_COMPARE ? [...ids, id] : ids));
+  const searchInput = useRef<HTMLInputElement>(null);
+  /** Units in the typed text ("schottky 40 V") that Enter turns into filters; the rest stays text. */
+  const parsed = useMemo(() => parseQueryUnits(text, { category: category ?? undefined }), [text, category]);
+  const pendingFilters = Object.entries(parsed.filters).filter(([k, v]) => params.get(k) !== v);
+  const chips = useMemo(() => filterChips(params), [params]);
 
   /** Applies changes to the latest filter (several fields may fire close together). */
   function update(changes: Record<string, string>, resetPage = true): void {
@@ -95,6 +102,31 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
     setVisibility(savedVisibility(c || null));
   }
 
+  /** Enter in the search box: recognised units become filters (chips), the other words the text. */
+  function applyText(): void {
+    const { filters, rest } = parsed;
+    if (pendingFilters.length === 0) return;
+    const newCategory = filters.category && filters.category !== category ? (filters.category as PartCategory) : null;
+    setParams((prev) => {
+      const next = newCategory ? new URLSearchParams() : new URLSearchParams(prev);
+      if (newCategory) for (const k of ['lifecycle', 'reviewStatus', 'pageSize']) if (prev.get(k)) next.set(k, prev.get(k)!);
+      for (const [k, v] of Object.entries(filters)) next.set(k, v);
+      if (rest.trim()) next.set('q', rest.trim());
+      else next.delete('q');
+      next.delete('page');
+      return next;
+    });
+    setText(rest);
+    if (newCategory) setVisibility(savedVisibility(newCategory));
+  }
+
+  /** A chip's × : its parameters go; the category chip clears that category's filters too, as the radio does. */
+  function removeChip(chip: FilterChip): void {
+    if (chip.keys.includes('category')) chooseCategory('');
+    else update(Object.fromEntries(chip.keys.map((k) => [k, ''])));
+    searchInput.current?.focus();
+  }
+
   // The address bar follows the filter, so the search can be shared or bookmarked.
   useEffect(() => {
     if (window.location.search.replace(/^\?/, '') !== queryString) {
@@ -108,9 +140,12 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
   }, []);
 
   useEffect(() => {
-    const handle = setTimeout(() => update({ q: text.trim() }), 250);
+    // Text with new units waits for Enter (the hint below the box says what it becomes); other text searches
+    // as typed, less any words already in force as filters ("schottky" with the Schottky chip on).
+    if (pendingFilters.length > 0) return;
+    const handle = setTimeout(() => update({ q: parsed.rest.trim() }), 250);
     return () => clearTimeout(handle);
-  }, [text]);
+  }, [text, pendingFilters.length, parsed.rest]);
 
   useEffect(() => {
     const mine = ++seq.current;
@@ -287,16 +322,36 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
 
       <section aria-label="Results" className="min-w-0">
         <div className="flex flex-wrap items-end gap-3 mb-2">
-          <label className="field grow max-w-md">
-            Maker, part number or description (typos are forgiven)
-            <input
-              type="search"
-              value={text}
-              onChange={(e) => setText(e.target.value)}
-              placeholder="e.g. CWN30L01 or schottky 40 V"
-              data-testid="search-text"
-            />
-          </label>
+          <form
+            role="search"
+            className="grow max-w-md"
+            onSubmit={(e) => {
+              e.preventDefault();
+              applyText();
+            }}
+          >
+            <label className="field">
+              Maker, part number or description (typos are forgiven)
+              <input
+                ref={searchInput}
+                type="search"
+                value={text}
+                onChange={(e) => setText(e.target.value)}
+                placeholder="e.g. CWN30L01 or schottky 40 V"
+                aria-describedby={pendingFilters.length > 0 ? 'search-units-hint' : undefined}
+                data-testid="search-text"
+              />
+            </label>
+            {pendingFilters.length > 0 && (
+              <p id="search-units-hint" className="text-xs text-ink-soft mt-1" data-testid="units-hint">
+                <span aria-hidden="true">↵ </span>Press Enter to search with{' '}
+                {filterChips(new URLSearchParams(parsed.filters))
+                  .map((c) => c.label)
+                  .join(' · ')}
+                {parsed.rest ? ` and the text “${parsed.rest}”` : ''}.
+              </p>
+            )}
+          </form>
           <details className="relative text-sm">
             <summary className="btn btn-quiet cursor-pointer">Columns</summary>
             <div className="card absolute right-0 z-10 mt-1 p-2 grid gap-1 w-56 shadow" role="group" aria-label="Visible columns">
@@ -324,6 +379,25 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
             </a>
           )}
         </div>
+
+        {chips.length > 0 && (
+          <ul className="flex flex-wrap gap-1.5 mb-2" aria-label="Filters in force" data-testid="filter-chips">
+            {chips.map((c) => (
+              <li key={c.keys.join('+')}>
+                <button
+                  type="button"
+                  className="chip"
+                  aria-label={`Remove filter ${c.label}`}
+                  title={c.keys.includes('category') ? 'Removes the category and its parameter filters' : 'Remove this filter'}
+                  data-testid="filter-chip"
+                  onClick={() => removeChip(c)}
+                >
+                  {c.label} <span aria-hidden="true">×</span>
+                </button>
+              </li>
+            ))}
+          </ul>
+        )}
 
         <p className="text-sm text-ink-soft mb-1" aria-live="polite" data-testid="result-count">
           {loading && (
@@ -498,6 +572,10 @@ function FilterInput({
 }) {
   const id = `filter-${field.key}`;
   const [typed, setTyped] = useState(field.type === 'number' ? toDisplay(field, value) : (value ?? ''));
+  // The value changed elsewhere (a chip removed, units typed in the search box): show it.
+  useEffect(() => {
+    if (field.type === 'number' && toApi(field, typed) !== (value ?? '')) setTyped(toDisplay(field, value));
+  }, [value]);
   useEffect(() => {
     if (field.type !== 'number') return;
     const handle = setTimeout(() => {
