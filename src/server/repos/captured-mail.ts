@@ -9,6 +9,8 @@ export interface CapturedMailRow {
   subject: string;
   text_body: string | null;
   html_body: string | null;
+  /** JSON [{filename, contentType, text}]; null: no attachment. */
+  attachments_json?: string | null;
   message_id: string | null;
   size_bytes: number;
 }
