@@ -22,7 +22,9 @@ export async function up(knex: Knex): Promise<void> {
     t.increments('id').primary().comment('Surrogate key (the audit trail refers to it)');
     t.integer('contact_id').unsigned().notNullable().references('supplier_contacts.id').onDelete('RESTRICT').comment('Who it went to');
     t.enu('state', ['sent', 'answered', 'closed']).notNullable().comment('sent → answered → closed');
-    t.string('idempotency_key', 100).notNullable().comment("The sender's key: a repeated send with it returns this request, no second mail");
+    t.string('idempotency_key', 100)
+      .notNullable()
+      .comment("The sender's key: a repeated send with it returns this request, no second mail");
     t.string('notes', 1000).nullable().comment('Notes for the supplier, in the mail and the CSV');
     t.date('wanted_by').nullable().comment('Date the parts are wanted by');
     t.integer('created_by').unsigned().nullable().references('users.id').onDelete('SET NULL').comment('Buyer who sent it');
@@ -50,7 +52,12 @@ export async function up(knex: Knex): Promise<void> {
     t.integer('moq').unsigned().nullable().comment('Answer: minimum order quantity');
     t.integer('lead_time_days').unsigned().nullable().comment('Answer: lead time, days');
     t.date('valid_until').nullable().comment('Answer: the offer holds until this date');
-    t.integer('source_id').unsigned().nullable().references('part_sources.id').onDelete('SET NULL').comment('The part source made from the answer');
+    t.integer('source_id')
+      .unsigned()
+      .nullable()
+      .references('part_sources.id')
+      .onDelete('SET NULL')
+      .comment('The part source made from the answer');
     t.unique(['quote_request_id', 'line_no'], { indexName: 'quote_request_lines_no_uq' });
   });
 }

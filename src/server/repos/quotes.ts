@@ -83,7 +83,9 @@ export async function insertContact(trx: Db, c: { name: string; company: string;
 }
 
 export async function updateContact(trx: Db, id: number, c: { name: string; company: string; email: string }): Promise<void> {
-  await trx('supplier_contacts').where({ id }).update({ ...c, updated_at: trx.fn.now(3) });
+  await trx('supplier_contacts')
+    .where({ id })
+    .update({ ...c, updated_at: trx.fn.now(3) });
 }
 
 const quoteColumns = (db: Db) => [

@@ -110,6 +110,10 @@ export async function quoteRequest(id: number): Promise<QuoteRequestDetail> {
   return q;
 }
 
+export async function quoteRequestOrNull(id: number): Promise<QuoteRequestDetail | null> {
+  return findQuote(db(), id);
+}
+
 function requestMessage(
   id: number,
   contact: SupplierContact,
@@ -136,7 +140,10 @@ function requestMessage(
       {
         filename: quoteFileName(id),
         contentType: 'text/csv; charset=utf-8',
-        content: quoteCsv(lines.map((l, i) => ({ lineNo: i + 1, ...l })), input.wantedBy),
+        content: quoteCsv(
+          lines.map((l, i) => ({ lineNo: i + 1, ...l })),
+          input.wantedBy,
+        ),
       },
     ],
   };
