@@ -126,7 +126,7 @@ describe('sending a request for quotation', () => {
   it('refuses bad bodies with 400 naming the field, sends no mail and writes nothing', async () => {
     const before = await counts();
     const good = sendBody('bad-bodies-0001');
-    const cases: [unknown, string][] = [
+    const cases: [object, string][] = [
       [{ ...good, contactId: undefined }, 'contactId'],
       [{ ...good, idempotencyKey: 'x' }, 'idempotencyKey'],
       [{ ...good, wantedBy: '2027-02-30' }, 'wantedBy'],
@@ -207,7 +207,7 @@ describe('answering and closing', () => {
     const q = (await api().get(`/api/quotes/${quoteId}`).set('Cookie', buyer)).body.quote;
     const before = await counts();
     const good = { lineId: q.lines[0].id, unitPrice: 0.21, currency: 'EUR', moq: 500, leadTimeDays: 20, validUntil: '2027-02-01' };
-    const cases: [unknown, string][] = [
+    const cases: [object, string][] = [
       [{ lines: [{ ...good, currency: 'EU' }] }, 'lines.0.currency'],
       [{ lines: [{ ...good, unitPrice: -1 }] }, 'lines.0.unitPrice'],
       [{ lines: [{ ...good, validUntil: 'soon' }] }, 'lines.0.validUntil'],
