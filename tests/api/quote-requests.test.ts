@@ -184,6 +184,11 @@ describe('sending a request for quotation', () => {
     );
     const audit = await knex('audit_events').where({ entity_type: 'quote_request', entity_id: quoteId }).select('action');
     expect(audit.map((x) => x.action)).toEqual(['quote_request.send']);
+    // Admins see the attachment on the mail-sink page.
+    const sinkPage = await api()
+      .get('/mail')
+      .set('Cookie', await sessionCookie('admin'));
+    expect(sinkPage.text).toContain(`Attachment quote-request-Q-${quoteId}.csv`);
   });
 
   it('lists the request as sent, with its two lines', async () => {

@@ -23,6 +23,8 @@ export interface CapturedMail {
   subject: string;
   text: string;
   html: string;
+  /** Attachments as the sink stored them: name, type and the content as UTF-8 text. */
+  attachments: { filename: string; contentType: string; text: string }[];
 }
 
 export type NewCapturedMail = Omit<CapturedMailRow, 'id'>;
@@ -41,6 +43,7 @@ function toCaptured(row: CapturedMailRow): CapturedMail {
     subject: row.subject,
     text: row.text_body ?? '',
     html: row.html_body ?? '',
+    attachments: row.attachments_json ? JSON.parse(row.attachments_json) : [],
   };
 }
 
