@@ -291,6 +291,27 @@ describe('answering and closing', () => {
     expect(page.text).toContain('Closed');
   });
 
+  it('an answer whose offer has run out (valid until 2020-01-01) is not offered on the shortlist', async () => {
+    const body = sendBody('expired-offer-0001');
+    const sent = await api()
+      .post('/api/quotes')
+      .set('Cookie', buyer)
+      .send({ ...body, lines: [body.lines[0]] });
+    expect(sent.status, sent.text).toBe(201);
+    const second = sent.body.quote;
+    const res = await api()
+      .post(`/api/quotes/${second.id}/answer`)
+      .set('Cookie', buyer)
+      .send({
+        lines: [{ lineId: second.lines[0].id, unitPrice: 0.1, currency: 'EUR', moq: 1, leadTimeDays: 3, validUntil: '2020-01-01' }],
+      });
+    expect(res.status, res.text).toBe(200);
+    const o = await fanSwitch();
+    // 510 × 0.10 = 51.00 EUR would be the cheapest, but the offer ran out: still the first quote at 107.10 EUR.
+    expect(o.quotes.map((x) => x.source.sku).sort()).toEqual([`Q${quoteId}-1`, 'TSS-1'].sort());
+    expect([o.quote?.source.sku, o.quote?.extendedCost]).toEqual([`Q${quoteId}-1`, 107.1]);
+  });
+
   it('an unknown request is a 404', async () => {
     const res = await api().post('/api/quotes/99999999/close').set('Cookie', buyer).send({});
     expect(res.status).toBe(404);

@@ -263,3 +263,14 @@ export async function setQuoteState(trx: Db, id: number, state: 'answered' | 'cl
     .where({ id })
     .update(state === 'answered' ? { state, answered_at: trx.fn.now(3) } : { state, closed_at: trx.fn.now(3) });
 }
+
+/** Sources made from quote answers whose offer has run out (valid until before `today`, YYYY-MM-DD), among these parts. */
+export async function expiredQuotedSourceIds(db: Db, partIds: readonly number[], today: string): Promise<Set<number>> {
+  if (partIds.length === 0) return new Set();
+  const rows: { source_id: number }[] = await db('quote_request_lines')
+    .whereIn('part_id', [...new Set(partIds)])
+    .whereNotNull('source_id')
+    .where('valid_until', '<', today)
+    .select('source_id');
+  return new Set(rows.map((r) => r.source_id));
+}
