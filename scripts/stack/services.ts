@@ -47,6 +47,11 @@ async function store(knex: Knex, raw: Buffer, from: string, to: string[]): Promi
     subject: (parsed.subject ?? '').slice(0, 500),
     text_body: parsed.text ?? null,
     html_body: typeof parsed.html === 'string' ? parsed.html : null,
+    attachments_json: parsed.attachments.length
+      ? JSON.stringify(
+          parsed.attachments.map((a) => ({ filename: a.filename ?? '', contentType: a.contentType, text: a.content.toString('utf8') })),
+        )
+      : null,
     message_id: parsed.messageId?.slice(0, 300) ?? null,
     size_bytes: raw.length,
   });

@@ -88,6 +88,8 @@ const MATRIX: Record<string, string> = {
   'GET /parts/import': 'sfafa',
   'GET /parts/new': 'saafa',
   'GET /people': 'sfffa',
+  'GET /quotes': 'sffaa',
+  'GET /quotes/[id]': 'sffaa',
   'GET /rates': 'sfffa',
   'GET /reset': 'aaaaa',
   'GET /review': 'sfafa',
@@ -133,6 +135,15 @@ const MATRIX: Record<string, string> = {
   'GET /api/shortlist.csv': 'safaa',
   // Preferred source and note per shortlist option: buyers set them (designers only read them)
   'PUT /api/designs/[id]/preferences': 'sffaa',
+  // Requests for quotation and supplier contacts: buyers (and admins) alone
+  'GET /api/suppliers': 'sffaa',
+  'POST /api/suppliers': 'sffaa',
+  'PUT /api/suppliers/[id]': 'sffaa',
+  'GET /api/quotes': 'sffaa',
+  'POST /api/quotes': 'sffaa',
+  'GET /api/quotes/[id]': 'sffaa',
+  'POST /api/quotes/[id]/answer': 'sffaa',
+  'POST /api/quotes/[id]/close': 'sffaa',
   // Change alerts: anyone signed in may acknowledge one (who and when are recorded)
   'POST /api/alerts/[id]/acknowledge': 'saaaa',
   // Catalogue: everyone signed in reads; designers propose; librarians curate; buyers keep supply data

@@ -53,7 +53,7 @@ const PAGES: Record<DemoRole | 'anonymous', string[]> = {
   anonymous: ['/signin', '/calculators', '/reset', '/no/such/page'],
   designer: ['/', '/parts', '/parts/{part}', '/designs', '/designs/{design}', '/designs/new', '/shortlist', '/account', '/calculators'],
   librarian: ['/', '/parts/{part}', '/parts/{part}/edit', '/parts/new', '/parts/import', '/review'],
-  buyer: ['/', '/shortlist', '/parts/{part}'],
+  buyer: ['/', '/shortlist', '/quotes', '/parts/{part}'],
   admin: ['/people', '/mail', '/designs/{design}'],
 };
 

@@ -22,6 +22,7 @@ const NAV: readonly NavEntry[] = [
   { href: '/review', label: 'Review' },
   { href: '/designs', label: 'Designs' },
   { href: '/shortlist', label: 'Shortlist' },
+  { href: '/quotes', label: 'Quote requests' },
   { href: '/calculators', label: 'Calculators' },
   { href: '/people', label: 'People' },
   { href: '/rates', label: 'Exchange rates' },

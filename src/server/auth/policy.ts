@@ -73,6 +73,15 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
   // A buyer's preferred source and note per shortlist option; designers read them on the shortlist and the design.
   '/api/designs/[id]/preferences': { PUT: ['buyer'] },
   '/api/alerts/[id]/acknowledge': { POST: 'signed-in' },
+  // Requests for quotation and the supplier contacts they go to: buyers alone (and admins).
+  '/quotes': ['buyer'],
+  '/quotes/[id]': ['buyer'],
+  '/api/suppliers': { GET: ['buyer'], POST: ['buyer'] },
+  '/api/suppliers/[id]': { PUT: ['buyer'] },
+  '/api/quotes': { GET: ['buyer'], POST: ['buyer'] },
+  '/api/quotes/[id]': { GET: ['buyer'] },
+  '/api/quotes/[id]/answer': { POST: ['buyer'] },
+  '/api/quotes/[id]/close': { POST: ['buyer'] },
 
   // Catalogue: everyone signed in reads; designers propose parts (the service makes them pending and lets a
   // proposer revise only their own); librarians curate parts, datasheets, imports, review and lifecycle;

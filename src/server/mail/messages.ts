@@ -2,10 +2,17 @@
  * The e-mail Stallpoint sends: plain text and simple HTML, the product name, the link written out in
  * full, no images, no tracking pixels, no link rewriting.
  */
+export interface MailAttachment {
+  filename: string;
+  contentType: string;
+  content: string;
+}
+
 export interface MailMessage {
   subject: string;
   text: string;
   html: string;
+  attachments?: MailAttachment[];
 }
 
 function escapeHtml(s: string): string {

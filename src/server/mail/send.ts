@@ -24,7 +24,14 @@ function transport(): Transporter {
 }
 
 export async function sendMail(to: string, message: MailMessage): Promise<void> {
-  await transport().sendMail({ from: mailConfigFromEnv().from, to, subject: message.subject, text: message.text, html: message.html });
+  await transport().sendMail({
+    from: mailConfigFromEnv().from,
+    to,
+    subject: message.subject,
+    text: message.text,
+    html: message.html,
+    attachments: message.attachments?.map((a) => ({ filename: a.filename, contentType: a.contentType, content: a.content })),
+  });
 }
 
 /** For messages whose sending must not change how long the request takes (password reset). */

@@ -9,6 +9,8 @@ export interface CapturedMailRow {
   subject: string;
   text_body: string | null;
   html_body: string | null;
+  /** JSON [{filename, contentType, text}]; null: no attachment. */
+  attachments_json?: string | null;
   message_id: string | null;
   size_bytes: number;
 }
@@ -21,6 +23,8 @@ export interface CapturedMail {
   subject: string;
   text: string;
   html: string;
+  /** Attachments as the sink stored them: name, type and the content as UTF-8 text. */
+  attachments: { filename: string; contentType: string; text: string }[];
 }
 
 export type NewCapturedMail = Omit<CapturedMailRow, 'id'>;
@@ -39,6 +43,7 @@ function toCaptured(row: CapturedMailRow): CapturedMail {
     subject: row.subject,
     text: row.text_body ?? '',
     html: row.html_body ?? '',
+    attachments: row.attachments_json ? JSON.parse(row.attachments_json) : [],
   };
 }
 

@@ -24,6 +24,7 @@ import { pickStatus, reviewWords } from '../../lib/readiness.ts';
 import type { SessionUser } from '../auth/types.ts';
 import { partsByIds } from '../repos/parts.ts';
 import { listReadyDesigns } from '../repos/designs.ts';
+import { expiredQuotedSourceIds } from '../repos/quotes.ts';
 import { reverifyDesigns, type Verification } from './design-status.ts';
 
 export interface ShortlistDesign {
@@ -146,14 +147,22 @@ export async function readyShortlist(actor: SessionUser | null, boardsFor: Reado
       ...i.selections[r].alternatePartIds,
     ]),
   ]);
-  const [parts, rates, prefs] = await Promise.all([
+  const [loaded, expired, rates, prefs] = await Promise.all([
     partsByIds(db(), ids),
+    // A supplier's quoted price counts only while its offer holds (quote requests, valid until).
+    expiredQuotedSourceIds(db(), ids, new Date().toISOString().slice(0, 10)),
     listCurrencyRates(db()),
     listPreferences(
       db(),
       held.map((h) => h.head.id),
     ),
   ]);
+  const parts = new Map(
+    [...loaded].map(([id, part]) => [
+      id,
+      expired.size ? { ...part, sources: part.sources.filter((src) => !expired.has(src.id ?? 0)) } : part,
+    ]),
+  );
   const { orgCurrency, attritionPct } = appConfig().buying;
   const designs = held.map(({ head, verification }): ShortlistDesign => {
     const boards = boardsFor.get(head.id) ?? verification.input.boardQuantity;
