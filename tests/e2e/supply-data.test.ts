@@ -4,12 +4,15 @@
  * the change in the part's history in words. The expected history line is written by hand.
  * The part, its distributor and SKU are invented.
  */
+import { createRequire } from 'node:module';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import request from 'supertest';
 import { launchBrowser, screenshotPath } from '../helpers/browser.ts';
 import { appDb, appUrl } from '../helpers/stack.ts';
 import { sessionCookie, signInContext } from '../helpers/session.ts';
+
+const AXE_PATH = createRequire(import.meta.url).resolve('axe-core/axe.min.js');
 
 let browser: Browser;
 const knex = appDb();
@@ -82,7 +85,7 @@ describe('supply data form on the part page', () => {
     expect(await page.locator('#sources\\.0\\.priceBreaks\\.1\\.unitPrice-error').textContent()).toContain('Unit price must be');
     expect(writes).toEqual([]);
 
-    // The keyboard only: Shift+Tab from the price goes back to the break's quantity; the fields are typed into.
+    // Typed with the keyboard into the focused fields; Enter in a field saves the form.
     await stock.focus();
     await page.keyboard.press('Control+A');
     await page.keyboard.type('1240');
@@ -102,6 +105,33 @@ describe('supply data form on the part page', () => {
     expect(await page.getByTestId('sources').textContent()).toContain('1,240');
     await page.screenshot({ path: screenshotPath('part-supply-history'), fullPage: false });
     expect(errors).toEqual([]);
+    await context.close();
+  });
+
+  it('the open form has no serious or critical WCAG 2.1 A/AA violation (axe-core, as in a11y.test.ts)', async () => {
+    const id = await freshPart();
+    // axe is injected as a script: like a11y.test.ts this context bypasses the page's CSP.
+    const context = await browser.newContext({ viewport: { width: 1366, height: 900 }, bypassCSP: true });
+    await signInContext(context, 'buyer');
+    const page = await context.newPage();
+    await page.goto(`${appUrl()}/parts/${id}`);
+    await page.getByText('Edit supply data').click();
+    await page.waitForSelector('astro-island:not([ssr]) [data-testid="supply-editor"]');
+    await page.getByRole('button', { name: 'Add a price break to Fenwick Row Electronics FRE-E2E' }).press('Enter');
+    await page.locator('input[name="sources.0.priceBreaks.2.unitPrice"]').waitFor();
+    expect(await page.evaluate(() => document.activeElement?.getAttribute('name'))).toBe('sources.0.priceBreaks.2.unitPrice');
+    await page.addScriptTag({ path: AXE_PATH });
+    const violations = await page.evaluate(async () => {
+      const axe = (
+        window as unknown as {
+          axe: { run: (ctx: Element, opts: object) => Promise<{ violations: { id: string; impact: string | null }[] }> };
+        }
+      ).axe;
+      const form = document.querySelector('[data-testid="supply-editor"]')!;
+      const result = await axe.run(form, { runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'] } });
+      return result.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => v.id);
+    });
+    expect(violations).toEqual([]);
     await context.close();
   });
 });
