@@ -117,7 +117,7 @@ describe('supply data form on the part page', () => {
     await page.goto(`${appUrl()}/parts/${id}`);
     await page.getByText('Edit supply data').click();
     await page.waitForSelector('astro-island:not([ssr]) [data-testid="supply-editor"]');
-    await page.getByRole('button', { name: 'Add a price break to Fenwick Row Electronics FRE-E2E' }).press('Enter');
+    await page.getByRole('button', { name: 'Add price break to Fenwick Row Electronics FRE-E2E' }).press('Enter');
     await page.locator('input[name="sources.0.priceBreaks.2.unitPrice"]').waitFor();
     expect(await page.evaluate(() => document.activeElement?.getAttribute('name'))).toBe('sources.0.priceBreaks.2.unitPrice');
     await page.addScriptTag({ path: AXE_PATH });

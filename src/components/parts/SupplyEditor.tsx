@@ -229,13 +229,12 @@ export default function SupplyEditor({ partId, version, sources, currencies }: S
                           : '—'}
                       </td>
                       <td>
-                        <button
-                          type="button"
-                          className="btn btn-quiet"
-                          onClick={() => removeBreak(i, j)}
-                          aria-label={`Remove break ${j + 1} of ${label}`}
-                        >
-                          <span aria-hidden="true">✕</span> Remove
+                        <button type="button" className="btn btn-quiet" onClick={() => removeBreak(i, j)}>
+                          <span aria-hidden="true">✕ </span>Remove
+                          <span className="sr-only">
+                            {' '}
+                            break {j + 1} of {label}
+                          </span>
                         </button>
                       </td>
                     </tr>
@@ -250,16 +249,11 @@ export default function SupplyEditor({ partId, version, sources, currencies }: S
               </p>
             )}
             <div className="flex flex-wrap gap-2">
-              <button type="button" className="btn btn-quiet" onClick={() => addBreak(i)} aria-label={`Add a price break to ${label}`}>
-                <span aria-hidden="true">＋</span> Add price break
+              <button type="button" className="btn btn-quiet" onClick={() => addBreak(i)}>
+                <span aria-hidden="true">＋ </span>Add price break<span className="sr-only"> to {label}</span>
               </button>
-              <button
-                type="button"
-                className="btn btn-quiet ml-auto"
-                onClick={() => removeSource(i)}
-                aria-label={`Remove the source ${label}`}
-              >
-                <span aria-hidden="true">✕</span> Remove source
+              <button type="button" className="btn btn-quiet ml-auto" onClick={() => removeSource(i)}>
+                <span aria-hidden="true">✕ </span>Remove source<span className="sr-only"> {label}</span>
               </button>
             </div>
           </fieldset>
