@@ -93,6 +93,9 @@ describe('supply data form on the part page', () => {
     await page.keyboard.press('Control+A');
     await page.keyboard.type('0.22');
     expect(await page.locator('[data-testid="supply-break-0-1"]').textContent()).toContain('100+ at 0.2200 EUR');
+    // The fixed price loses its refusal as soon as it is typed (the form re-checks with the shared schema).
+    expect(await price.getAttribute('aria-invalid')).toBe('false');
+    expect(await page.getByTestId('supply-error').count()).toBe(0);
     await page.screenshot({ path: screenshotPath('part-supply-form'), fullPage: false });
     await Promise.all([page.waitForEvent('load'), price.press('Enter')]);
     expect(writes.length).toBe(1);

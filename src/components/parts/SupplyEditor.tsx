@@ -4,7 +4,7 @@
  * (PUT /api/parts/:id/sources), so a refusal shows at its field before and after the round trip.
  * Plain inputs and buttons only: everything is reachable with Tab, Enter and Space.
  */
-import { useRef, useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import type { PartSource } from '../../lib/domain/parts.ts';
 import { sourcesUpdateSchema } from '../../lib/schemas/parts.ts';
 import { issuesOf } from '../../lib/schemas/issues.ts';
@@ -84,6 +84,16 @@ export default function SupplyEditor({ partId, version, sources, currencies }: S
   const [error, setError] = useState('');
   const [busy, setBusy] = useState(false);
   const form = useRef<HTMLFormElement>(null);
+
+  // Once a refusal is shown, each edit re-checks with the shared schema, so a fixed field loses its ✕ at once.
+  const shown = issues.length > 0;
+  useEffect(() => {
+    if (!shown) return;
+    const checked = sourcesUpdateSchema.safeParse(bodyOf(drafts, version));
+    setIssues(checked.success ? [] : issuesOf(checked.error));
+    if (checked.success) setError('');
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- only edits re-check; a server refusal stays until the next edit
+  }, [drafts]);
 
   const issue = (path: string): string | undefined => issues.find((i) => i.path === path)?.message;
   /** Moves focus to a field once React has drawn it (after adding a source or a break). */
@@ -250,7 +260,7 @@ export default function SupplyEditor({ partId, version, sources, currencies }: S
             )}
             <div className="flex flex-wrap gap-2">
               <button type="button" className="btn btn-quiet" onClick={() => addBreak(i)}>
-                <span aria-hidden="true">＋ </span>Add price break<span className="sr-only"> to {label}</span>
+                <span aria-hidden="true">+ </span>Add price break<span className="sr-only"> to {label}</span>
               </button>
               <button type="button" className="btn btn-quiet ml-auto" onClick={() => removeSource(i)}>
                 <span aria-hidden="true">✕ </span>Remove source<span className="sr-only"> {label}</span>
@@ -267,7 +277,7 @@ export default function SupplyEditor({ partId, version, sources, currencies }: S
       )}
       <div className="flex flex-wrap gap-2 items-center">
         <button type="button" className="btn btn-quiet" onClick={addSource}>
-          <span aria-hidden="true">＋</span> Add source
+          <span aria-hidden="true">+</span> Add source
         </button>
         <button type="submit" className="btn" disabled={busy} data-testid="supply-save">
           {busy ? 'Saving…' : 'Save supply data'}
