@@ -5,7 +5,7 @@
  */
 import type { Part, PartSource, RdsOnSpecPoint, ZthPoint } from './domain/parts.ts';
 import { LIFECYCLE_LABELS, REVIEW_LABELS } from './labels.ts';
-import { price, quantity, sig } from './units.ts';
+import { price, quantity, sig, whole } from './units.ts';
 
 export interface PartChangeGroup {
   title: 'Record' | 'Parameters' | 'Sources and prices';
@@ -153,8 +153,28 @@ function zthChanges(before: ZthPoint[], after: ZthPoint[]): string[] {
 }
 
 const breaks = (s: PartSource): string =>
-  (s.priceBreaks ?? []).length === 0 ? 'none' : s.priceBreaks.map((b) => `${b.qty}+: ${price(b.unitPrice, s.currency)}`).join(' · ');
+  (s.priceBreaks ?? []).length === 0 ? 'none' : s.priceBreaks.map((b) => `${whole(b.qty)}+: ${price(b.unitPrice, s.currency)}`).join(' · ');
 const sourceName = (s: PartSource): string => `${s.distributor} ${s.sku}`;
+const days = (n: number): string => `${whole(n)} ${n === 1 ? 'day' : 'days'}`;
+
+/**
+ * Price breaks of one source in one currency, break by break: "break 100: 0.2500 → 0.2200 EUR",
+ * "added break 500: 0.2000 EUR", "removed break 1,000". A change of currency restates the whole list.
+ */
+function breakChanges(b: PartSource, a: PartSource): string[] {
+  if (b.currency !== a.currency) return [`currency ${b.currency} → ${a.currency}`, ...arrow('prices', breaks(b), breaks(a))];
+  const amount = (x: number): string => price(x, '').trim();
+  const out: string[] = [];
+  const old = new Map((b.priceBreaks ?? []).map((x) => [x.qty, x.unitPrice]));
+  const now = new Map((a.priceBreaks ?? []).map((x) => [x.qty, x.unitPrice]));
+  for (const [qty, unitPrice] of old) if (!now.has(qty)) out.push(`removed break ${whole(qty)} (was ${price(unitPrice, b.currency)})`);
+  for (const [qty, unitPrice] of now) {
+    const was = old.get(qty);
+    if (was === undefined) out.push(`added break ${whole(qty)}: ${price(unitPrice, a.currency)}`);
+    else if (amount(was) !== amount(unitPrice)) out.push(`break ${whole(qty)}: ${amount(was)} → ${price(unitPrice, a.currency)}`);
+  }
+  return out;
+}
 
 function sourceChanges(before: PartSource[], after: PartSource[]): string[] {
   return keyedChanges(
@@ -162,18 +182,18 @@ function sourceChanges(before: PartSource[], after: PartSource[]): string[] {
     after,
     (s) => `${s.distributor}|${s.sku}`,
     (s) =>
-      `added source ${sourceName(s)}: stock ${s.stockQty}, MOQ ${s.moq}, order multiple ${s.orderMultiple ?? 1}, ${s.leadTimeDays} days, prices ${breaks(s)}`,
+      `added source ${sourceName(s)}: stock ${whole(s.stockQty)}, MOQ ${whole(s.moq)}, order multiple ${whole(s.orderMultiple ?? 1)}, lead time ${days(s.leadTimeDays)}, prices ${breaks(s)}`,
     (s) => `removed source ${sourceName(s)}`,
     (b, a) => {
       const parts = [
-        ...arrow('stock', String(b.stockQty), String(a.stockQty)),
-        ...arrow('MOQ', String(b.moq), String(a.moq)),
+        ...arrow('stock', whole(b.stockQty), whole(a.stockQty)),
+        ...arrow('MOQ', whole(b.moq), whole(a.moq)),
         // Versions stored before order multiples existed had none: that was "any quantity" (1).
-        ...arrow('order multiple', String(b.orderMultiple ?? 1), String(a.orderMultiple ?? 1)),
-        ...arrow('lead time', `${b.leadTimeDays} days`, `${a.leadTimeDays} days`),
-        ...arrow('prices', breaks(b), breaks(a)),
+        ...arrow('order multiple', whole(b.orderMultiple ?? 1), whole(a.orderMultiple ?? 1)),
+        ...arrow('lead time', days(b.leadTimeDays), days(a.leadTimeDays)),
+        ...breakChanges(b, a),
       ];
-      return parts.length ? [`${sourceName(a)}: ${parts.join(', ')}`] : [];
+      return parts.length ? [`${sourceName(a)}: ${parts.join('; ')}`] : [];
     },
   );
 }

@@ -183,6 +183,12 @@ export function tidy(value: number): number {
   return Number(value.toPrecision(12));
 }
 
+/** A whole count with thousands separators: whole(1240) → "1,240" (stock, quantities). */
+export function whole(count: number | null | undefined): string {
+  if (count === null || count === undefined || !Number.isFinite(count)) return '—';
+  return count.toLocaleString('en-US', { maximumFractionDigits: 0 });
+}
+
 /** A count with its noun in the right number: "1 diode", "25,412 diodes", "1 person", "5 people". */
 export function counted(n: number, one: string, many: string): string {
   return `${count(n)} ${n === 1 ? one : many}`;

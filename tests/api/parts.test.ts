@@ -106,7 +106,7 @@ describe('POST /api/parts', () => {
           },
         ],
       },
-      'sources.0.priceBreaks',
+      'sources.0.priceBreaks.1.qty',
     ],
   ])('refuses %s with 400 naming the field', async (_n, override, field) => {
     const res = await send('post', '/api/parts', 'librarian', newDiode(override));

@@ -147,8 +147,41 @@ describe('describePartChanges', () => {
         {
           title: 'Sources and prices',
           lines: [
-            'Fenwick Row Electronics FRE-1: stock 100 → 40, order multiple 1 → 25, prices 1+: 0.3000 USD · 100+: 0.1200 USD → 1+: 0.3000 USD · 100+: 0.1000 USD',
-            'added source Kelderhaus Bauteile KB-7: stock 30, MOQ 5, order multiple 10, 10 days, prices none',
+            'Fenwick Row Electronics FRE-1: stock 100 → 40; order multiple 1 → 25; break 100: 0.1200 → 0.1000 USD',
+            'added source Kelderhaus Bauteile KB-7: stock 30, MOQ 5, order multiple 10, lead time 10 days, prices none',
+          ],
+        },
+      ],
+    ],
+    [
+      'supply data: stock past a thousand, a break added and one removed, lead time (texts written by hand)',
+      (p) => {
+        p.sources[0].stockQty = 1240;
+        p.sources[0].leadTimeDays = 1;
+        p.sources[0].priceBreaks = [
+          { qty: 1, unitPrice: 0.3 },
+          { qty: 1000, unitPrice: 0.095 },
+        ];
+      },
+      [
+        {
+          title: 'Sources and prices',
+          lines: [
+            'Fenwick Row Electronics FRE-1: stock 100 → 1,240; lead time 5 days → 1 day; removed break 100 (was 0.1200 USD); added break 1,000: 0.0950 USD',
+          ],
+        },
+      ],
+    ],
+    [
+      'supply data: a currency change restates the whole price list',
+      (p) => {
+        p.sources[0].currency = 'EUR';
+      },
+      [
+        {
+          title: 'Sources and prices',
+          lines: [
+            'Fenwick Row Electronics FRE-1: currency USD → EUR; prices 1+: 0.3000 USD · 100+: 0.1200 USD → 1+: 0.3000 EUR · 100+: 0.1200 EUR',
           ],
         },
       ],

@@ -150,6 +150,7 @@ describe('age (rounded down to the unit shown)', () => {
     [48 * 3_600_000, '2 days ago'],
     [-5_000, 'just now'], // a clock a little ahead
   ])('%i ms → %s', (ms, expected) => expect(age(ms)).toBe(expected));
+});
 
 describe('bound: chip numbers, hand-written', () => {
   it.each([

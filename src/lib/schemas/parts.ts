@@ -168,8 +168,26 @@ export const motorParamsSchema = z
 
 export const priceBreakSchema = z.object({
   qty: countIn(1, 'Quantity'),
-  unitPrice: pos('Unit price', 'unitPrice'),
+  // DECIMAL(12,5): a sixth decimal would be rounded away on save, so it is refused instead of changed silently.
+  unitPrice: pos('Unit price', 'unitPrice').refine((v) => Math.abs(v * 1e5 - Math.round(v * 1e5)) < 1e-6, {
+    error: 'Unit price: at most 5 decimals',
+  }),
 });
+
+/**
+ * ISO 4217 codes the runtime knows (Intl, the same list in the browser and on the server), so a typo such as
+ * "EUO" is refused at the field; the rates table's currencies are all among them.
+ */
+const ISO_4217: ReadonlySet<string> = new Set(typeof Intl.supportedValuesOf === 'function' ? Intl.supportedValuesOf('currency') : []);
+export const isIsoCurrency = (code: string): boolean => /^[A-Z]{3}$/.test(code) && (ISO_4217.size === 0 || ISO_4217.has(code));
+
+export const currencyCodeSchema = z
+  .string({ error: 'Currency is a three-letter ISO 4217 code such as EUR' })
+  .regex(/^[A-Z]{3}$/, { error: 'Currency is a three-letter ISO 4217 code in capitals', abort: true })
+  .refine(isIsoCurrency, { error: 'Currency is not an ISO 4217 code (use one such as EUR, USD, GBP)' });
+
+/** Lead time: whole days, at most 1000 (about three years; the column is INT UNSIGNED). */
+export const MAX_LEAD_TIME_DAYS = 1000;
 
 export const partSourceSchema = z
   .object({
@@ -177,18 +195,32 @@ export const partSourceSchema = z
     sku: text('SKU', 80),
     moq: countIn(1, 'MOQ').default(1),
     orderMultiple: countIn(1, 'Order multiple').default(1),
-    leadTimeDays: z.number({ error: 'Lead time must be a number' }).int().min(0).max(1000).default(0),
+    leadTimeDays: countIn(0, 'Lead time (days)', MAX_LEAD_TIME_DAYS).default(0),
     stockQty: countIn(0, 'Stock').default(0),
-    currency: z
-      .string()
-      .regex(/^[A-Z]{3}$/, { error: 'Currency is a three-letter ISO 4217 code' })
-      .default('USD'),
-    priceBreaks: z.array(priceBreakSchema).max(12).default([]),
+    currency: currencyCodeSchema.default('USD'),
+    priceBreaks: z.array(priceBreakSchema).max(12, { error: 'At most 12 price breaks per source' }).default([]),
   })
   .superRefine((s, ctx) => {
-    const qtys = s.priceBreaks.map((b) => b.qty);
-    if (new Set(qtys).size !== qtys.length)
-      ctx.addIssue({ code: 'custom', path: ['priceBreaks'], message: 'Two price breaks at the same quantity' });
+    // Breaks climb in quantity: each one starts above the one before it (the price at a quantity is the last break at or below it).
+    s.priceBreaks.forEach((b, i) => {
+      const prev = s.priceBreaks[i - 1];
+      if (prev && b.qty <= prev.qty)
+        ctx.addIssue({
+          code: 'custom',
+          path: ['priceBreaks', i, 'qty'],
+          message:
+            b.qty === prev.qty
+              ? `Two price breaks at the same quantity (${b.qty})`
+              : `Price breaks go up in quantity: ${b.qty} comes after ${prev.qty}`,
+        });
+    });
+    const first = s.priceBreaks[0];
+    if (first && s.moq > first.qty)
+      ctx.addIssue({
+        code: 'custom',
+        path: ['moq'],
+        message: `MOQ ${s.moq} is above the first price break (${first.qty}): nobody can buy ${first.qty}. Lower the MOQ or start the breaks at ${s.moq}`,
+      });
   });
 
 export const sourcesSchema = z

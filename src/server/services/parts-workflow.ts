@@ -1,7 +1,7 @@
 /** Review decisions, lifecycle moves and supply-data updates: each one locked, versioned and audited. */
 import { db } from '../db.ts';
 import type { SessionUser } from '../auth/types.ts';
-import type { Part } from '../../lib/domain/parts.ts';
+import type { Part, PartSource } from '../../lib/domain/parts.ts';
 import type { LifecycleChange, ReviewDecision, SourcesUpdate } from '../../lib/schemas/parts.ts';
 import { replaceSources, setLifecycle, setReview, touchPart } from '../repos/part-writes.ts';
 import { findPerson, lastEditors, PART_CONTENT_ACTIONS } from '../repos/audit.ts';
@@ -76,13 +76,17 @@ export async function changeLifecycle(user: SessionUser, id: number, change: Lif
   return part;
 }
 
+/** The supply data without row ids, for comparing two snapshots. */
+const supplyKey = (sources: PartSource[]): string => JSON.stringify(sources.map(({ id: _id, ...rest }) => rest));
+const sameSources = (a: PartSource[], b: PartSource[]): boolean => supplyKey(a) === supplyKey(b);
+
 /**
  * Replaces the sources and price breaks of a part (buyers and curators). Supply data is part of the record
  * the match reads (price at the build quantity), so ready designs using the part are re-verified right after
  * the change commits, as after every other part change.
  */
 export async function updateSources(user: SessionUser, id: number, update: SourcesUpdate): Promise<Part> {
-  const { after } = await withLockedVersion(PART_ENTITY, {
+  const { after, unchanged } = await withLockedVersion(PART_ENTITY, {
     id,
     expectedVersion: update.version,
     actorUserId: user.id,
@@ -91,8 +95,11 @@ export async function updateSources(user: SessionUser, id: number, update: Sourc
       await replaceSources(trx, id, update.sources);
       await touchPart(trx, id);
     },
+    // Saving the sources as loaded (new row ids do not count) writes nothing: no version, no audit row.
+    unchanged: (before, after) => !!before && !!after && sameSources(before.sources, after.sources),
   });
   const part = after!;
+  if (unchanged) return part;
   await afterPartChange(user, part, `${part.mpn} (part ${id}) supply data was changed`);
   return part;
 }
