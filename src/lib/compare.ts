@@ -15,7 +15,6 @@ import { gateDriveOfDriver, rankDriverCandidates } from './driver-ranking.ts';
 import { bestUnitPrice } from './part-summary.ts';
 import { evaluateDiodePart, evaluateSwitchPart, pinGateDrive, type CandidateResult } from './ranking.ts';
 import type { DesignCatalogue } from './rank-design.ts';
-import { formatSi, percent, quantity } from './units.ts';
 
 export const COMPARE_ROLES = ['switch', 'driver', 'diode'] as const;
 export type CompareRole = (typeof COMPARE_ROLES)[number];
