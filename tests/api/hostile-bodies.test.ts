@@ -23,6 +23,11 @@ let designId = 0;
 let designInput: Record<string, unknown> = {};
 let designVersion = 1;
 let personId = 0;
+let switchPartId = 0;
+let fanId = 0;
+let contactId = 0;
+let quoteId = 0;
+let quoteLineId = 0;
 
 /** Counts and version sums of the tables a write touches, in one query. */
 async function snapshot(): Promise<string> {
@@ -37,7 +42,13 @@ async function snapshot(): Promise<string> {
     (select count(*) from user_roles) roles,
     (select count(*) from audit_events) audit,
     (select count(*) from import_requests) imports,
-    (select count(*) from account_tokens) tokens`);
+    (select count(*) from account_tokens) tokens,
+    (select count(*) from currency_rates) rates,
+    (select count(*) from shortlist_preferences) preferences,
+    (select count(*) from supplier_contacts) contacts,
+    (select concat(count(*), ':', group_concat(state order by id)) from quote_requests) quotes,
+    (select count(*) from quote_request_lines) quote_lines,
+    (select count(*) from captured_mail) mail`);
   return JSON.stringify(rows[0]);
 }
 
@@ -155,6 +166,43 @@ const ENDPOINTS: Endpoint[] = [
   { method: 'post', path: () => `/api/people/${personId}/invite`, role: 'admin', base: () => ({ x: 1 }) },
   { method: 'post', path: () => `/api/people/${personId}/deactivate`, role: 'admin', base: () => ({ x: 1 }) },
   { method: 'post', path: () => `/api/people/${personId}/reactivate`, role: 'admin', base: () => ({ x: 1 }) },
+  { method: 'put', path: () => '/api/rates', role: 'admin', base: () => ({ currency: 'USD', rateToOrg: 0.915, asOf: '2026-12-01' }) },
+  {
+    method: 'put',
+    path: () => `/api/designs/${fanId}/preferences`,
+    role: 'buyer',
+    base: () => ({ line: 'switch', partId: switchPartId, sourceId: null, note: 'generated' }),
+  },
+  {
+    method: 'post',
+    path: () => '/api/suppliers',
+    role: 'buyer',
+    base: () => ({ name: 'Gen Erated', company: 'Generated Supply', email: 'gen@supply.example' }),
+  },
+  {
+    method: 'put',
+    path: () => `/api/suppliers/${contactId}`,
+    role: 'buyer',
+    base: () => ({ name: 'Gen Erated', company: 'Generated Supply', email: 'gen@supply.example' }),
+  },
+  {
+    method: 'post',
+    path: () => '/api/quotes',
+    role: 'buyer',
+    base: () => ({
+      contactId,
+      idempotencyKey: 'hostile-bodies-1',
+      lines: [{ designId: fanId, line: 'switch', partId: switchPartId, quantityNeeded: 10, orderQuantity: 10 }],
+    }),
+  },
+  {
+    method: 'post',
+    path: () => `/api/quotes/${quoteId}/answer`,
+    role: 'buyer',
+    base: () => ({ lines: [{ lineId: quoteLineId, unitPrice: 0.2, currency: 'EUR', moq: 1, leadTimeDays: 10, validUntil: '2027-06-30' }] }),
+  },
+  // POST /api/quotes/:id/close reads no body (the state move is the whole request): not listed here.
+  { method: 'post', path: () => '/api/distributor/refresh', role: 'buyer', base: () => ({}) },
 ];
 
 beforeAll(async () => {
@@ -171,6 +219,26 @@ beforeAll(async () => {
   designInput = got.input;
   designVersion = got.version;
   personId = await createPerson(knex, { email: uniqueEmail('hostile'), password: 'a long test passphrase', roles: ['buyer'] });
+  // The demo's ready fan design and its chosen switch: the design the quote and preference bodies refer to.
+  fanId = (await knex('designs').where({ name: 'BF-12 bench fan, 12 V, on/off from 3.3 V logic' }).first('id')).id;
+  switchPartId = (await knex('design_parts').where({ design_id: fanId, role: 'switch', position: 0 }).first('part_id')).part_id;
+  const contact = await request(appUrl())
+    .post('/api/suppliers')
+    .set('Cookie', cookies.buyer)
+    .set('Origin', appUrl())
+    .send({ name: 'Hostile Test', company: 'Hostile Supply', email: 'hostile@supply.example' });
+  contactId = contact.body.contact.id;
+  const quote = await request(appUrl())
+    .post('/api/quotes')
+    .set('Cookie', cookies.buyer)
+    .set('Origin', appUrl())
+    .send({
+      contactId,
+      idempotencyKey: 'hostile-bodies-setup',
+      lines: [{ designId: fanId, line: 'switch', partId: switchPartId, quantityNeeded: 10, orderQuantity: 10 }],
+    });
+  quoteId = quote.body.quote.id;
+  quoteLineId = (await request(appUrl()).get(`/api/quotes/${quoteId}`).set('Cookie', cookies.buyer)).body.quote.lines[0].id;
 });
 afterAll(() => knex.destroy());
 
