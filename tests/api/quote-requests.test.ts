@@ -199,6 +199,16 @@ describe('sending a request for quotation', () => {
     expect(page.status).toBe(200);
     expect(page.text).toContain('Sent, awaiting the answer');
   });
+
+  it("the buyer's home page counts the one request awaiting an answer; a designer's home has no such card", async () => {
+    // This file's database starts from the seeded snapshot, which holds no quote request: one was sent above.
+    const home = await api().get('/').set('Cookie', buyer);
+    expect(home.status).toBe(200);
+    expect(home.text).toContain('Quotes awaiting answers');
+    expect(home.text).toContain('1 request was sent and not answered yet.');
+    const designerHome = await api().get('/').set('Cookie', designer);
+    expect(designerHome.text).not.toContain('Quotes awaiting answers');
+  });
 });
 
 describe('answering and closing', () => {

@@ -1,6 +1,7 @@
 /**
  * The home page per role: designers their designs; librarians the review queue, recent imports and parts
- * without a datasheet; buyers the ready designs with stock shortfalls at their build quantity; admins the
+ * without a datasheet; buyers the ready designs with stock shortfalls at their build quantity and the quote
+ * requests awaiting an answer; admins the
  * same plus people. Open change alerts show above it (components/alerts). Every list is short and bounded.
  */
 import { db } from '../db.ts';
@@ -18,6 +19,7 @@ import {
   type DeskImport,
   type DeskPart,
 } from '../repos/desk.ts';
+import { countQuotesInState } from '../repos/quotes.ts';
 
 const LIST = 5;
 
@@ -42,6 +44,8 @@ export interface Desk {
   missingDatasheets?: { items: DeskPart[]; total: number };
   imports?: DeskImport[];
   shortlists?: { items: ReadyDesignDesk[]; total: number };
+  /** Quote requests sent and not yet answered (buyers). */
+  quotesAwaiting?: number;
   people?: { active: number; invited: number };
 }
 
@@ -84,7 +88,10 @@ export async function deskFor(user: SessionUser): Promise<Desk> {
     work.push(partsMissingDatasheets(db(), LIST).then((r) => void (desk.missingDatasheets = r)));
     work.push(recentImports(db(), LIST).then((r) => void (desk.imports = r)));
   }
-  if (has(user, 'buyer')) work.push(readyWithShortfalls().then((r) => void (desk.shortlists = r)));
+  if (has(user, 'buyer')) {
+    work.push(readyWithShortfalls().then((r) => void (desk.shortlists = r)));
+    work.push(countQuotesInState(db(), 'sent').then((n) => void (desk.quotesAwaiting = n)));
+  }
   if (user.roles.includes('admin')) work.push(peopleCounts(db()).then((r) => void (desk.people = r)));
   await Promise.all(work);
   return desk;
