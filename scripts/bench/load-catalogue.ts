@@ -50,6 +50,8 @@ for (const t of [
 const sample: { category: string; mpn: string }[] = await knex('parts')
   .select('category', 'mpn')
   .whereRaw("mpn regexp '^[A-Z]{2}[NP][0-9]'")
+  // The bench searches as a designer, who sees approved parts only (and their own proposals): sample those.
+  .where({ review_status: 'approved' })
   .orderByRaw('rand(7)')
   .limit(40);
 await knex.destroy();
