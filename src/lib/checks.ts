@@ -40,13 +40,34 @@ export function marginAbove(value: number, limit: number): number | null {
   return limit !== 0 && Number.isFinite(value) && Number.isFinite(limit) ? (value - limit) / Math.abs(limit) : null;
 }
 
-/** Builds a check; severity is set only on failures. */
+/** Builds a check from a fresh object literal (it becomes the check); severity is set only on failures. */
 export function makeCheck(fields: Omit<Check, 'severity'>, failSeverity: 'hard' | 'margin' = 'hard'): Check {
-  return fields.ok ? { ...fields } : { ...fields, severity: failSeverity };
+  if (!fields.ok) (fields as Check).severity = failSeverity;
+  return fields;
+}
+
+/** False while a ranking judges candidates it only counts (withoutNotes): their notes are never read. */
+let notesWanted = true;
+
+/**
+ * Runs `fn` with every check note's numbers left out (fmt gives ''): the verdicts, values, limits and
+ * margins are the same, only the sentences are not worked out. A match judges tens of thousands of
+ * candidates and shows a page of them; the page's entries are judged again with their notes. Synchronous
+ * only, and the previous state comes back however `fn` ends.
+ */
+export function withoutNotes<T>(fn: () => T): T {
+  const before = notesWanted;
+  notesWanted = false;
+  try {
+    return fn();
+  } finally {
+    notesWanted = before;
+  }
 }
 
 /** A number for notes: three significant digits, no exponent for everyday magnitudes. */
 export function fmt(value: number, digits = 3): string {
+  if (!notesWanted) return '';
   if (!Number.isFinite(value)) return String(value);
   return sig(value, digits);
 }

@@ -207,34 +207,50 @@ export interface NearMiss {
  * part number. A failing part lists
  * the limits it breaks; a marginal one the margins it eats into. Empty when something passes.
  */
-export function nearMisses(
-  list: readonly { partId: number | null; mpn: string; verdict: Verdict; checks: readonly Check[] }[],
-  count = 3,
-): NearMiss[] {
+export function nearMisses(list: readonly NearMissEntry[], count = 3, inFull: (e: NearMissEntry) => NearMissEntry = (e) => e): NearMiss[] {
   if (list.length === 0 || list.some((e) => e.verdict === 'pass')) return [];
-  const misses = list.map((e): NearMiss => {
-    const missed = e.checks.filter((c) => (e.verdict === 'fail' ? hardFail(c) : !c.ok));
-    const failing = missed.map((c) => {
-      const cc = compareCheck(c);
-      const shortfall = c.value != null && c.limit != null && c.limit !== 0 ? Math.abs(c.value - c.limit) / Math.abs(c.limit) : null;
-      const needs = needsText(cc);
-      const text = needs && c.value != null ? `${cc.label} ${checkQuantity(c.value, c.unit)}, ${needs}` : `${cc.label}: ${c.note}`;
-      return { id: c.id, label: cc.label, text, shortfall };
-    });
+  // Ranked on numbers alone; the words are worked out for the few shown (`inFull` gives an entry whose
+  // checks carry their notes when the list holds lean entries).
+  const missedOf = (e: NearMissEntry) => e.checks.filter((c) => (e.verdict === 'fail' ? hardFail(c) : !c.ok));
+  const shortfallOf = (c: Check) =>
+    c.value != null && c.limit != null && c.limit !== 0 ? Math.abs(c.value - c.limit) / Math.abs(c.limit) : null;
+  const keyed = list.map((e) => {
+    const missed = missedOf(e);
     // A miss without numbers (wrong channel, no RDS(on) at this drive) counts as far away.
-    const worst = failing.reduce((m, f) => Math.max(m, f.shortfall ?? Infinity), 0);
-    return { partId: e.partId, mpn: e.mpn, verdict: e.verdict, misses: failing, worstShortfall: worst };
+    const worst = missed.reduce((m, c) => Math.max(m, shortfallOf(c) ?? Infinity), 0);
+    return { e, worst, misses: missed.length };
   });
   const rank = (v: Verdict) => (v === 'marginal' ? 0 : 1);
-  return misses
-    .sort(
-      (a, b) =>
-        rank(a.verdict) - rank(b.verdict) ||
-        a.worstShortfall - b.worstShortfall ||
-        a.misses.length - b.misses.length ||
-        a.mpn.localeCompare(b.mpn),
-    )
-    .slice(0, count);
+  const before = (a: (typeof keyed)[number], b: (typeof keyed)[number]) =>
+    rank(a.e.verdict) - rank(b.e.verdict) || a.worst - b.worst || a.misses - b.misses || a.e.mpn.localeCompare(b.e.mpn);
+  // The first `count` in that order (a stable selection: equal keys keep the list's order, as a stable sort does).
+  const best: (typeof keyed)[number][] = [];
+  for (const k of keyed) {
+    let at = best.length;
+    while (at > 0 && before(k, best[at - 1]) < 0) at--;
+    if (at < count) {
+      best.splice(at, 0, k);
+      if (best.length > count) best.pop();
+    }
+  }
+  return best.map(({ e, worst }) => {
+    const full = inFull(e);
+    const failing = missedOf(full).map((c) => {
+      const cc = compareCheck(c);
+      const needs = needsText(cc);
+      const text = needs && c.value != null ? `${cc.label} ${checkQuantity(c.value, c.unit)}, ${needs}` : `${cc.label}: ${c.note}`;
+      return { id: c.id, label: cc.label, text, shortfall: shortfallOf(c) };
+    });
+    return { partId: e.partId, mpn: e.mpn, verdict: e.verdict, misses: failing, worstShortfall: worst };
+  });
+}
+
+/** What nearMisses reads of a list entry. */
+export interface NearMissEntry {
+  partId: number | null;
+  mpn: string;
+  verdict: Verdict;
+  checks: readonly Check[];
 }
 
 /** One line for a hint: "closest: X — Junction temperature, running 162 °C, needs ≤ 125 °C". */

@@ -6,7 +6,7 @@
 import type { DesignInput } from './domain/design.ts';
 import type { CandidatePart, Lifecycle, MotorParams, ReviewStatus } from './domain/parts.ts';
 import { designCaseOf } from './design-input.ts';
-import { rankDesign, type DesignCatalogue, type DesignRanking } from './rank-design.ts';
+import { rankDesign, rankDesignLean, type DesignCatalogue, type DesignRanking, type RankingJudges } from './rank-design.ts';
 import { worstCaseOf, type DesignCase, type WorstCase } from './design-case.ts';
 import { SCORE_EXPLANATION, sortCandidates, type CandidateResult } from './ranking.ts';
 import { bestUnitPrice } from './part-summary.ts';
@@ -84,25 +84,70 @@ function tiebreak(a: MatchEntry, b: MatchEntry): number {
   return (pa === pb ? 0 : pa < pb ? -1 : 1) || LIFECYCLE_RANK[a.lifecycle] - LIFECYCLE_RANK[b.lifecycle];
 }
 
+type AnyCandidatePart = CandidatePart<'mosfet' | 'driver' | 'diode'>;
+
+/** One result with its part's catalogue facts: package, lifecycle, review, price at `qty`, footprint change. */
+export function decorateEntry<T extends CandidateResult>(
+  r: T,
+  part: AnyCandidatePart | undefined,
+  qty: number,
+  chosenId: number | null,
+  chosenPackage: string | null,
+): MatchEntry<T> {
+  const price = part ? bestUnitPrice(part, qty) : null;
+  return {
+    ...r,
+    package: part?.package ?? '',
+    lifecycle: part?.lifecycle ?? 'active',
+    reviewStatus: part?.reviewStatus ?? 'approved',
+    priceAtQty: price ? { qty, unitPrice: price.price, currency: price.currency } : null,
+    footprintChange: chosenPackage != null && r.partId !== chosenId && (part?.package ?? '') !== chosenPackage,
+  };
+}
+
+/** The package of the chosen part of a line (null when none is chosen). */
+export function chosenPackageOf(parts: Map<number | undefined, AnyCandidatePart>, chosenId: number | null): string | null {
+  return chosenId == null ? null : (parts.get(chosenId)?.package ?? null);
+}
+
+/**
+ * The order the match lists take: the engine's (verdict, score, MPN) with price at the build quantity,
+ * then lifecycle, breaking ties of verdict and score (the same as sorting on all of them at once).
+ */
+export function matchOrder<T extends CandidateResult>(
+  ranked: readonly T[],
+  parts: Map<number | undefined, AnyCandidatePart>,
+  qty: number,
+): T[] {
+  const out: T[] = [];
+  const priceOf = (e: T) => {
+    const part = e.partId == null ? undefined : parts.get(e.partId);
+    return (part && part.sources.length > 0 ? bestUnitPrice(part, qty)?.price : undefined) ?? Infinity;
+  };
+  const lifecycleOf = (e: T) => LIFECYCLE_RANK[(e.partId == null ? undefined : parts.get(e.partId))?.lifecycle ?? 'active'];
+  for (let i = 0; i < ranked.length;) {
+    let j = i + 1;
+    while (j < ranked.length && ranked[j].verdict === ranked[i].verdict && ranked[j].score === ranked[i].score) j++;
+    if (j - i === 1) out.push(ranked[i]);
+    else {
+      const group = ranked.slice(i, j).map((e) => ({ e, price: priceOf(e), life: lifecycleOf(e) }));
+      // Stable: within equal price and lifecycle the engine's MPN order stays.
+      group.sort((a, b) => (a.price === b.price ? 0 : a.price < b.price ? -1 : 1) || a.life - b.life);
+      for (const g of group) out.push(g.e);
+    }
+    i = j;
+  }
+  return out;
+}
+
 function decorate<T extends CandidateResult>(
   results: T[],
-  parts: Map<number | undefined, CandidatePart<'mosfet' | 'driver' | 'diode'>>,
+  parts: Map<number | undefined, AnyCandidatePart>,
   qty: number,
   chosenId: number | null,
 ): MatchEntry<T>[] {
-  const chosenPackage = chosenId == null ? null : (parts.get(chosenId)?.package ?? null);
-  const entries = results.map((r) => {
-    const part = r.partId == null ? undefined : parts.get(r.partId);
-    const price = part ? bestUnitPrice(part, qty) : null;
-    return {
-      ...r,
-      package: part?.package ?? '',
-      lifecycle: part?.lifecycle ?? 'active',
-      reviewStatus: part?.reviewStatus ?? 'approved',
-      priceAtQty: price ? { qty, unitPrice: price.price, currency: price.currency } : null,
-      footprintChange: chosenPackage != null && r.partId !== chosenId && (part?.package ?? '') !== chosenPackage,
-    };
-  });
+  const chosenPackage = chosenPackageOf(parts, chosenId);
+  const entries = results.map((r) => decorateEntry(r, r.partId == null ? undefined : parts.get(r.partId), qty, chosenId, chosenPackage));
   return sortCandidates(entries, tiebreak);
 }
 
@@ -160,6 +205,26 @@ export function rankForMatch(input: DesignInput, catalogue: DesignCatalogue, pre
   );
 }
 
+/** rankForMatch kept lean (rankDesignLean): for the match pages, which judge in full only what they show. */
+export function rankForMatchLean(
+  input: DesignInput,
+  catalogue: DesignCatalogue,
+  prepared: PreparedCase,
+): { ranking: DesignRanking; judges: RankingJudges } {
+  const sel = input.selections;
+  return rankDesignLean(
+    prepared.designCase,
+    catalogue,
+    {
+      switchId: sel.switch.chosenPartId,
+      driverId: sel.driver.chosenPartId,
+      diodeId: sel.diode.chosenPartId,
+      resetStartIntended: input.resetStartIntent != null,
+    },
+    prepared.worstCase,
+  );
+}
+
 /** Ranks the catalogue candidates for a design and decorates each with price and lifecycle. */
 export function matchDesign(
   input: DesignInput,
@@ -183,27 +248,45 @@ export function matchFromRanking(
   prepared: PreparedCase,
   ranking: DesignRanking,
 ): DesignMatch {
-  const { designCase } = prepared;
   const sel = input.selections;
   const qty = input.boardQuantity;
-  const all = new Map<number | undefined, CandidatePart<'mosfet' | 'driver' | 'diode'>>(
+  const all = catalogueParts(catalogue);
+  return {
+    ...matchHead(input, motorLabel, motor, catalogue, prepared, ranking),
+    switch: decorate(ranking.switch, all, qty, sel.switch.chosenPartId),
+    switchWithDriver: decorate(ranking.switchWithDriver, all, qty, sel.switch.chosenPartId),
+    driver: decorate(ranking.driver, all, qty, sel.driver.chosenPartId),
+    diode: decorate(ranking.diode, all, qty, sel.diode.chosenPartId),
+  };
+}
+
+/** Every candidate of a catalogue by id. */
+export function catalogueParts(catalogue: DesignCatalogue): Map<number | undefined, AnyCandidatePart> {
+  return new Map<number | undefined, AnyCandidatePart>(
     [...catalogue.mosfets, ...catalogue.drivers, ...catalogue.diodes].map((p) => [p.id, p]),
   );
+}
+
+/** Everything in a match besides its four lists. */
+export function matchHead(
+  input: DesignInput,
+  motorLabel: string,
+  motor: MotorParams,
+  catalogue: MatchCatalogue,
+  prepared: PreparedCase,
+  ranking: DesignRanking,
+): Omit<DesignMatch, 'switch' | 'switchWithDriver' | 'driver' | 'diode'> {
   return {
     worstCase: ranking.worstCase,
     motor: motorView(motorLabel, motor, input),
-    switch: decorate(ranking.switch, all, qty, sel.switch.chosenPartId),
     driverNeeded: ranking.driverNeeded,
     driverNeededNote: ranking.driverNeededNote,
     requiredGateDriveV: ranking.requiredGateDriveV,
-    switchWithDriver: decorate(ranking.switchWithDriver, all, qty, sel.switch.chosenPartId),
     switchDrive: ranking.switchDrive,
-    driver: decorate(ranking.driver, all, qty, sel.driver.chosenPartId),
-    diode: decorate(ranking.diode, all, qty, sel.diode.chosenPartId),
     diodeForward: ranking.diodeForward,
     scoreExplanation: SCORE_EXPLANATION,
     powerOn: ranking.powerOn,
-    supply: supplyReportForCase(designCase),
+    supply: supplyReportForCase(prepared.designCase),
     cautions: ranking.cautions,
     otherCautions: ranking.otherCautions,
     excluded: catalogue.excluded,
@@ -220,14 +303,23 @@ export function usableForPick(c: CandidateResult): boolean {
   return c.verdict === 'pass' || (c.verdict === 'marginal' && c.checks.every((x) => x.ok || x.severity === 'margin'));
 }
 
+/** The four lists of a match as suggestSelections reads them (full or lean entries). */
+export interface MatchLists {
+  driverNeeded: boolean;
+  switch: readonly CandidateResult[];
+  switchWithDriver: readonly CandidateResult[];
+  driver: readonly CandidateResult[];
+  diode: readonly CandidateResult[];
+}
+
 /** Default picks: the best passing part per role and up to three further passing parts as alternates. */
-export function suggestSelections(match: DesignMatch): DesignInput['selections'] {
-  const pick = (list: CandidateResult[]) => {
+export function suggestSelections(match: MatchLists): DesignInput['selections'] {
+  const pick = (list: readonly CandidateResult[]) => {
     const passing = list.filter((c) => usableForPick(c) && c.partId != null).map((c) => c.partId as number);
     return { chosenPartId: passing[0] ?? null, alternatePartIds: passing.slice(1, 4) };
   };
   return {
-    switch: pick(effectiveSwitchList(match)),
+    switch: pick(match.driverNeeded ? match.switchWithDriver : match.switch),
     driver: match.driverNeeded ? pick(match.driver) : { chosenPartId: null, alternatePartIds: [] },
     diode: pick(match.diode),
   };

@@ -8,7 +8,7 @@ import { checkDriver, driverOutputHighV, type SupplyRange } from './driver-check
 import { worstCaseOf, type DesignCase, type WorstCase } from './design-case.ts';
 import { walkPowerOn, type PowerOnResult } from './power-on.ts';
 import { lowestSpecVgsV, rdsOnPointsAt25C } from './rdson.ts';
-import { evaluateSwitchPart, scoreOf, sortCandidates, type CandidateResult, type GateDrive } from './ranking.ts';
+import { evaluateSwitchPart, judgedAs, scoreOf, sortCandidates, type CandidateResult, type GateDrive, type Keep } from './ranking.ts';
 import { switchingChargeNc } from './switching.ts';
 
 export interface DriverPairing {
@@ -124,7 +124,8 @@ export function powerOnForPair(c: DesignCase, driver: CandidatePart<'driver'> | 
   });
 }
 
-function evaluateDriverPart(
+/** One driver for one switch: its checks, the switch judged at its output, and the power-on walk. */
+export function evaluateDriverPart(
   c: DesignCase,
   driver: CandidatePart<'driver'>,
   forSwitch: CandidatePart<'mosfet'>,
@@ -175,8 +176,9 @@ export function rankDriverCandidates(
   forSwitch: CandidatePart<'mosfet'>,
   wc: WorstCase = worstCaseOf(c),
   startIntended = false,
+  keep: Keep = 'full',
 ): DriverCandidateResult[] {
-  return sortCandidates(drivers.map((d) => evaluateDriverPart(c, d, forSwitch, wc, startIntended)));
+  return sortCandidates(drivers.map((d) => judgedAs(keep, () => evaluateDriverPart(c, d, forSwitch, wc, startIntended))));
 }
 
 export function describeDriverNeed(logicHighV: number, mpn: string, requiredV: number, railV: number | null): string {

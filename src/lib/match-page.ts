@@ -7,9 +7,21 @@
 import type { DesignInput } from './domain/design.ts';
 import type { Check, Verdict } from './checks.ts';
 import { checkLabel, checkLabelInline } from './design-words.ts';
-import { nearMisses, type NearMiss } from './compare.ts';
-import { suggestSelections, usableForPick, type DesignMatch } from './design-match.ts';
-import type { DesignRanking } from './rank-design.ts';
+import { nearMisses, type NearMiss, type NearMissEntry } from './compare.ts';
+import {
+  catalogueParts,
+  chosenPackageOf,
+  decorateEntry,
+  matchHead,
+  matchOrder,
+  suggestSelections,
+  usableForPick,
+  type DesignMatch,
+  type MatchCatalogue,
+  type PreparedCase,
+} from './design-match.ts';
+import type { MotorParams } from './domain/parts.ts';
+import type { DesignRanking, RankingJudges } from './rank-design.ts';
 import { DEFAULT_MATCH_LIMIT, MAX_MATCH_LIMIT } from './schemas/design.ts';
 
 export const MATCH_LIST_KEYS = ['switch', 'switchWithDriver', 'driver', 'diode'] as const;
@@ -55,6 +67,7 @@ export function summarizeList(
   list: readonly { partId: number | null; mpn: string; verdict: Verdict; checks: readonly Check[] }[],
   offset: number,
   limit: number,
+  inFull?: (e: NearMissEntry) => NearMissEntry,
 ): MatchListSummary {
   const counts = { pass: 0, marginal: 0, fail: 0 };
   const byCheck = new Map<string, number>();
@@ -71,7 +84,15 @@ export function summarizeList(
     .slice(0, 4)
     .map((f) => `${thousands(f.count)} fail ${checkLabelInline(f.checkId)}`)
     .join(', ');
-  return { total: list.length, offset, limit, counts, failing, summary: why ? `${head} — ${why}` : head, nearMisses: nearMisses(list) };
+  return {
+    total: list.length,
+    offset,
+    limit,
+    counts,
+    failing,
+    summary: why ? `${head} — ${why}` : head,
+    nearMisses: nearMisses(list, 3, inFull),
+  };
 }
 
 function cut<T extends { partId?: number | null }>(
@@ -88,13 +109,8 @@ function cut<T extends { partId?: number | null }>(
   return out;
 }
 
-/** The answer of the match routes: `limit` entries per list from `offset`, plus every pick. */
-export function pageMatch(
-  match: DesignMatch,
-  input: DesignInput,
-  { limit = DEFAULT_MATCH_LIMIT, offset = 0 }: { limit?: number; offset?: number } = {},
-): DesignMatchPage {
-  const suggested = suggestSelections(match);
+/** The parts a page carries whatever their rank: the designer's picks and the suggested ones, per list. */
+function pinsOf(input: DesignInput, suggested: DesignInput['selections']): Record<MatchListKey, Set<number>> {
   const idsOf = (role: 'switch' | 'driver' | 'diode') => {
     const ids = new Set<number>();
     for (const sel of [input.selections[role], suggested[role]]) {
@@ -103,12 +119,17 @@ export function pageMatch(
     }
     return ids;
   };
-  const pins: Record<MatchListKey, Set<number>> = {
-    switch: idsOf('switch'),
-    switchWithDriver: idsOf('switch'),
-    driver: idsOf('driver'),
-    diode: idsOf('diode'),
-  };
+  return { switch: idsOf('switch'), switchWithDriver: idsOf('switch'), driver: idsOf('driver'), diode: idsOf('diode') };
+}
+
+/** The answer of the match routes: `limit` entries per list from `offset`, plus every pick. */
+export function pageMatch(
+  match: DesignMatch,
+  input: DesignInput,
+  { limit = DEFAULT_MATCH_LIMIT, offset = 0 }: { limit?: number; offset?: number } = {},
+): DesignMatchPage {
+  const suggested = suggestSelections(match);
+  const pins = pinsOf(input, suggested);
   const summaries = Object.fromEntries(MATCH_LIST_KEYS.map((k) => [k, summarizeList(match[k], offset, limit)])) as Record<
     MatchListKey,
     MatchListSummary
@@ -120,6 +141,78 @@ export function pageMatch(
     driver: cut(match.driver, offset, limit, pins.driver),
     diode: cut(match.diode, offset, limit, pins.diode),
     lists: summaries,
+    suggested,
+  };
+}
+
+/**
+ * The answer of the match routes from a lean ranking (rankDesignLean): the same as
+ * pageMatch(matchFromRanking(the full ranking), input, page), with only the entries the page carries
+ * (its slice, the picks, the suggestions, the closest misses) judged again in full and decorated. Counts,
+ * failure summaries, order and suggestions read the lean entries (verdict, score, failing checks), which
+ * the full ranking has the same. Prices: whatever the catalogue's parts carry (see idsNeedingPrice).
+ */
+export function leanMatchPage(
+  input: DesignInput,
+  motorLabel: string,
+  motor: MotorParams,
+  catalogue: MatchCatalogue,
+  prepared: PreparedCase,
+  { ranking, judges }: { ranking: DesignRanking; judges: RankingJudges },
+  { limit = DEFAULT_MATCH_LIMIT, offset = 0 }: { limit?: number; offset?: number } = {},
+): DesignMatchPage {
+  const qty = input.boardQuantity;
+  const parts = catalogueParts(catalogue);
+  const ordered = {
+    switch: matchOrder(ranking.switch, parts, qty),
+    switchWithDriver: matchOrder(ranking.switchWithDriver, parts, qty),
+    driver: matchOrder(ranking.driver, parts, qty),
+    diode: matchOrder(ranking.diode, parts, qty),
+  };
+  const suggested = suggestSelections({ driverNeeded: ranking.driverNeeded, ...ordered });
+  const pins = pinsOf(input, suggested);
+  const sel = input.selections;
+  const chosen: Record<MatchListKey, number | null> = {
+    switch: sel.switch.chosenPartId,
+    switchWithDriver: sel.switch.chosenPartId,
+    driver: sel.driver.chosenPartId,
+    diode: sel.diode.chosenPartId,
+  };
+  // The entry as the full ranking has it: judged again with every check and note, at the list's drive.
+  const full = {
+    switch: (e: DesignRanking['switch'][number]) => fullOf(e, judges.switch),
+    switchWithDriver: (e: DesignRanking['switch'][number]) => fullOf(e, judges.switchWithDriver),
+    driver: (e: DesignRanking['driver'][number]) => fullOf(e, judges.driver),
+    diode: (e: DesignRanking['diode'][number]) => fullOf(e, judges.diode),
+  };
+  function fullOf<E extends { partId: number | null }, P>(e: E, judge: (part: P) => E): E {
+    const part = e.partId == null ? undefined : parts.get(e.partId);
+    return part ? judge(part as P) : e;
+  }
+  function pageOf<K extends MatchListKey>(k: K): Lists[K] {
+    const list = ordered[k] as readonly DesignRanking[K][number][];
+    const inFull = full[k] as (e: DesignRanking[K][number]) => DesignRanking[K][number];
+    const chosenPackage = chosenPackageOf(parts, chosen[k]);
+    const out: Lists[K][number][] = [];
+    list.forEach((e, i) => {
+      const inPage = i >= offset && i < offset + limit;
+      if (!inPage && !(e.partId != null && pins[k].has(e.partId))) return;
+      const part = e.partId == null ? undefined : parts.get(e.partId);
+      const entry = decorateEntry(inFull(e), part, qty, chosen[k], chosenPackage);
+      out.push({ ...entry, rank: i + 1, pinned: !inPage } as unknown as Lists[K][number]);
+    });
+    return out as Lists[K];
+  }
+  const lists = Object.fromEntries(
+    MATCH_LIST_KEYS.map((k) => [k, summarizeList(ordered[k], offset, limit, full[k] as unknown as (e: NearMissEntry) => NearMissEntry)]),
+  ) as Record<MatchListKey, MatchListSummary>;
+  return {
+    ...matchHead(input, motorLabel, motor, catalogue, prepared, ranking),
+    switch: pageOf('switch'),
+    switchWithDriver: pageOf('switchWithDriver'),
+    driver: pageOf('driver'),
+    diode: pageOf('diode'),
+    lists,
     suggested,
   };
 }

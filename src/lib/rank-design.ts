@@ -13,6 +13,7 @@ import {
   gateDriveOfDriver,
   powerOnForPair,
   provisionalDriver,
+  evaluateDriverPart,
   rankDriverCandidates,
   type DriverCandidateResult,
 } from './driver-ranking.ts';
@@ -24,8 +25,10 @@ import {
   bestCandidate,
   switchEvaluator,
   pinGateDrive,
+  diodeEvaluator,
   rankDiodeCandidates,
   sortCandidates,
+  type Keep,
   type CandidateResult,
   type DiodeCandidateResult,
   type GateDrive,
@@ -113,10 +116,11 @@ function diodeForwardFor(
   catalogue: DesignCatalogue,
   picks: DesignPicks,
   wc0: WorstCase,
+  keep: Keep,
 ): { forward: DesignRanking['diodeForward']; rankedAtC: DiodeCandidateResult[] | null } {
   const chosen = byId(catalogue.diodes, picks.diodeId);
   if (chosen) return { forward: { voltageV: chosen.params.vfV, basis: 'chosen' }, rankedAtC: null };
-  const ranked = rankDiodeCandidates(c, catalogue.diodes, wc0);
+  const ranked = rankDiodeCandidates(c, catalogue.diodes, wc0, keep);
   const vfById = new Map(catalogue.diodes.map((d) => [d.id, d.params.vfV]));
   const vfs = ranked
     .filter((d) => d.verdict !== 'fail')
@@ -135,15 +139,16 @@ function directDrive(
   wc: WorstCase,
   catalogue: DesignCatalogue,
   picks: DesignPicks,
+  keep: Keep,
 ): { drive: GateDrive; list: SwitchCandidateResult[]; draw: number } {
-  const bare = catalogue.mosfets.map(switchEvaluator(c, pinGateDrive(c, wc), wc));
+  const bare = catalogue.mosfets.map(switchEvaluator(c, pinGateDrive(c, wc), wc, keep));
   const reference = byId(catalogue.mosfets, picks.switchId) ?? byId(catalogue.mosfets, bestCandidate(bare)?.partId);
   const pull = reference ? powerOnForPair(c, null, reference).recommendedPull : null;
   // The same worst case as the power-on advice reports: the pin at its rail, the resistor at −tol.
   const draw = pullDrawCurrentA(pull, c.logic.railV);
   if (draw === 0) return { drive: pinGateDrive(c, wc), list: sortCandidates(bare), draw };
   const drive = pinGateDrive(c, wc, draw);
-  return { drive, list: sortCandidates(catalogue.mosfets.map(switchEvaluator(c, drive, wc))), draw };
+  return { drive, list: sortCandidates(catalogue.mosfets.map(switchEvaluator(c, drive, wc, keep))), draw };
 }
 
 function failureSummary(list: SwitchCandidateResult[]): string {
@@ -242,6 +247,17 @@ export function powerOnFor(
 }
 
 /**
+ * How to judge one part of each list again in full, exactly as the ranking judged it (the same case,
+ * worst case and drive): a lean ranking's page entries get their checks and notes from it.
+ */
+export interface RankingJudges {
+  switch: (part: CandidatePart<'mosfet'>) => SwitchCandidateResult;
+  switchWithDriver: (part: CandidatePart<'mosfet'>) => SwitchCandidateResult;
+  driver: (part: CandidatePart<'driver'>) => DriverCandidateResult;
+  diode: (part: CandidatePart<'diode'>) => DiodeCandidateResult;
+}
+
+/**
  * `wc0`: the worst case of `c0` when the caller already has it (the match computes it once for the SQL
  * narrowing and the ranking). It is worked out again only when the diode's VF changes the case.
  */
@@ -251,19 +267,42 @@ export function rankDesign(
   picks: DesignPicks = {},
   wc0: WorstCase = worstCaseOf(c0),
 ): DesignRanking {
-  const { forward: diodeForward, rankedAtC } = diodeForwardFor(c0, catalogue, picks, wc0);
+  return rankWith(c0, catalogue, picks, wc0, 'full').ranking;
+}
+
+/**
+ * rankDesign with every list entry kept lean (verdict, score and failing checks without notes; see Keep):
+ * the same order, counts, failures, picks and suggestions, far less work and memory on a large catalogue;
+ * `judges` gives any entry in full.
+ */
+export function rankDesignLean(
+  c0: DesignCase,
+  catalogue: DesignCatalogue,
+  picks: DesignPicks = {},
+  wc0: WorstCase = worstCaseOf(c0),
+): { ranking: DesignRanking; judges: RankingJudges } {
+  return rankWith(c0, catalogue, picks, wc0, 'lean');
+}
+
+function rankWith(
+  c0: DesignCase,
+  catalogue: DesignCatalogue,
+  picks: DesignPicks,
+  wc0: WorstCase,
+  keep: Keep,
+): { ranking: DesignRanking; judges: RankingJudges } {
+  const { forward: diodeForward, rankedAtC } = diodeForwardFor(c0, catalogue, picks, wc0, keep);
   const c: DesignCase = diodeForward.voltageV === c0.diodeForwardV ? c0 : { ...c0, diodeForwardV: diodeForward.voltageV };
   const wc = c === c0 ? wc0 : worstCaseOf(c);
-  const diode = c === c0 && rankedAtC ? rankedAtC : rankDiodeCandidates(c, catalogue.diodes, wc);
-  const direct = directDrive(c, wc, catalogue, picks);
+  const diode = c === c0 && rankedAtC ? rankedAtC : rankDiodeCandidates(c, catalogue.diodes, wc, keep);
+  const direct = directDrive(c, wc, catalogue, picks, keep);
 
   const chosenDriver = byId(catalogue.drivers, picks.driverId);
   const refDriver = chosenDriver ?? provisionalDriver(c, catalogue.drivers, wc);
   const directPasses = direct.list.some((e) => e.verdict === 'pass');
+  const driverDrive = refDriver ? gateDriveOfDriver(c, refDriver) : null;
   const withDriver =
-    refDriver && (chosenDriver || !directPasses)
-      ? sortCandidates(catalogue.mosfets.map(switchEvaluator(c, gateDriveOfDriver(c, refDriver), wc)))
-      : [];
+    driverDrive && (chosenDriver || !directPasses) ? sortCandidates(catalogue.mosfets.map(switchEvaluator(c, driverDrive, wc, keep))) : [];
   const fixable =
     withDriver.find((e) => e.verdict === 'pass') ??
     direct.list.find((e) => hardFails(e.checks).length > 0 && hardFails(e.checks).every((x) => DRIVER_FIXABLE.has(x.id)));
@@ -272,14 +311,14 @@ export function rankDesign(
 
   const effective = usesDriver ? withDriver : direct.list;
   const switchPart = byId(catalogue.mosfets, picks.switchId) ?? byId(catalogue.mosfets, effective[0]?.partId);
-  const driver =
-    usesDriver && switchPart ? rankDriverCandidates(c, catalogue.drivers, switchPart, wc, picks.resetStartIntended === true) : [];
+  const startIntended = picks.resetStartIntended === true;
+  const driver = usesDriver && switchPart ? rankDriverCandidates(c, catalogue.drivers, switchPart, wc, startIntended, keep) : [];
   const walkDriver = usesDriver
     ? (chosenDriver ?? byId(catalogue.drivers, driver.find((d) => d.verdict !== 'fail')?.partId ?? driver[0]?.partId))
     : undefined;
   const powerOn = powerOnFor(c, switchPart, walkDriver);
-  const drive = usesDriver && refDriver ? gateDriveOfDriver(c, refDriver) : direct.drive;
-  return {
+  const drive = usesDriver && driverDrive ? driverDrive : direct.drive;
+  const ranking: DesignRanking = {
     worstCase: wc,
     switch: direct.list,
     driverNeeded: usesDriver,
@@ -287,7 +326,7 @@ export function rankDesign(
     requiredGateDriveV: switchPart ? lowestSpecVgsV(rdsOnPointsAt25C(switchPart.params.rdsOn)) : null,
     switchWithDriver: usesDriver ? withDriver : [],
     switchDrive: {
-      by: usesDriver && refDriver ? 'driver' : 'pin',
+      by: usesDriver && driverDrive ? 'driver' : 'pin',
       gateV: drive.voltageV,
       sourceCurrentA: drive.sourceCurrentA,
       driverPartId: drive.driverPartId ?? null,
@@ -301,6 +340,16 @@ export function rankDesign(
     powerOn,
     ...designCautions(powerOn, dynamicCautions(c, wc, diode)),
   };
+  const noList = (): never => {
+    throw new Error('this list is empty in the ranking: nothing to judge');
+  };
+  const judges: RankingJudges = {
+    switch: switchEvaluator(c, direct.drive, wc),
+    switchWithDriver: driverDrive ? switchEvaluator(c, driverDrive, wc) : noList,
+    driver: switchPart ? (d) => evaluateDriverPart(c, d, switchPart, wc, startIntended) : noList,
+    diode: diodeEvaluator(c, wc),
+  };
+  return { ranking, judges };
 }
 
 export { driverSupplyOf };

@@ -4,7 +4,7 @@
  * One score for every role, 0–100: 100 × the smallest headroom among the part's rated checks (each headroom a
  * fraction of the limit it is judged against), clamped to 0–100; a failing part scores 0 [docs/engineering.md §10].
  */
-import { VERDICT_RANK, verdictOf, type Check, type Verdict } from './checks.ts';
+import { VERDICT_RANK, verdictOf, withoutNotes, type Check, type Verdict } from './checks.ts';
 import { checkDiode } from './diode-checks.ts';
 import type { CandidatePart, DiodeParams } from './domain/parts.ts';
 import { marginsOf, worstCaseOf, type DesignCase, type WorstCase } from './design-case.ts';
@@ -158,16 +158,43 @@ export function evaluateSwitchPart(
   return switchEvaluator(c, drive, wc)(part);
 }
 
+/**
+ * How a ranking keeps a candidate's result: `full` with every check and its note; `lean` (a candidate the
+ * match only counts) with the verdict, score and evaluation as in full, but only the checks that fail,
+ * their notes empty. Judging a lean entry again in full gives the same verdict, score and failing checks.
+ */
+export type Keep = 'full' | 'lean';
+
+/** The failing checks, for a lean entry (verdict, score and the failure counts read only these). */
+export const failingOnly = (checks: Check[]): Check[] => checks.filter((x) => !x.ok);
+
+/** Runs `judge` as `keep` says: in lean, without notes and with only the failing checks kept. */
+export function judgedAs<T extends { checks: Check[] }>(keep: Keep, judge: () => T): T {
+  if (keep === 'full') return judge();
+  const result = withoutNotes(judge);
+  result.checks = failingOnly(result.checks);
+  return result;
+}
+
 /** evaluateSwitchPart for many parts at one drive: the design's operating values and margins worked out once. */
-export function switchEvaluator(c: DesignCase, drive: GateDrive, wc: WorstCase = worstCaseOf(c)) {
+export function switchEvaluator(c: DesignCase, drive: GateDrive, wc: WorstCase = worstCaseOf(c), keep: Keep = 'full') {
   const margins = marginsOf(c);
   const operating = switchOperatingFor(c, wc, drive);
-  return (part: CandidatePart<'mosfet'>): SwitchCandidateResult => judgeSwitch(part, drive, operating, margins);
+  const shown: SwitchCandidateResult['drive'] = {
+    gateV: drive.voltageV,
+    sourceCurrentA: drive.sourceCurrentA,
+    sinkCurrentA: drive.sinkCurrentA,
+    by: drive.driverPartId != null ? 'driver' : 'pin',
+    driverPartId: drive.driverPartId ?? null,
+    driverMpn: drive.driverMpn ?? null,
+  };
+  return (part: CandidatePart<'mosfet'>): SwitchCandidateResult =>
+    judgedAs(keep, () => judgeSwitch(part, keep === 'full' ? { ...shown } : shown, operating, margins));
 }
 
 function judgeSwitch(
   part: CandidatePart<'mosfet'>,
-  drive: GateDrive,
+  drive: SwitchCandidateResult['drive'],
   operating: SwitchOperatingInput,
   margins: ReturnType<typeof marginsOf>,
 ): SwitchCandidateResult {
@@ -188,14 +215,7 @@ function judgeSwitch(
       stallJunctionC: result.stallJunctionC,
       stallCurrentRmsA: result.stallCurrentRmsA,
     },
-    drive: {
-      gateV: drive.voltageV,
-      sourceCurrentA: drive.sourceCurrentA,
-      sinkCurrentA: drive.sinkCurrentA,
-      by: drive.driverPartId != null ? 'driver' : 'pin',
-      driverPartId: drive.driverPartId ?? null,
-      driverMpn: drive.driverMpn ?? null,
-    },
+    drive,
   };
 }
 
@@ -209,10 +229,9 @@ export function rankSwitchCandidates(
   return sortCandidates(mosfets.map(switchEvaluator(c, drive ?? pinGateDrive(c, wc), wc)));
 }
 
-export function evaluateDiodePart(c: DesignCase, part: CandidatePart<'diode'>, wc: WorstCase): DiodeCandidateResult {
-  const resistanceOhm = c.motor.terminalResistanceOhm ?? c.motor.ratedVoltageV / c.motor.stallCurrentA;
-  const checks = checkDiode({
-    diode: part.params,
+/** The diode inputs of a case that are the same for every part (worked out once per list). */
+function diodeCaseOf(c: DesignCase, wc: WorstCase) {
+  return {
     supplyMaxV: wc.supplyMaxV,
     meanCurrentA: wc.diodeMeanCurrentA,
     // Under PWM the turn-off current recurs every cycle; for on/off it is the one-off current after a jam.
@@ -222,8 +241,12 @@ export function evaluateDiodePart(c: DesignCase, part: CandidatePart<'diode'>, w
     pwmHz: wc.pwmHz,
     voltageDerating: marginsOf(c).voltageDerating,
     motorInductanceH: c.motor.inductanceH,
-    motorResistanceOhm: resistanceOhm,
-  });
+    motorResistanceOhm: c.motor.terminalResistanceOhm ?? c.motor.ratedVoltageV / c.motor.stallCurrentA,
+  };
+}
+
+function judgeDiode(part: CandidatePart<'diode'>, diodeCase: ReturnType<typeof diodeCaseOf>): DiodeCandidateResult {
+  const checks = checkDiode({ diode: part.params, ...diodeCase });
   const verdict = verdictOf(checks);
   const { kind, vrrmV, ifAvA, vfV, trrNs } = part.params;
   return {
@@ -237,10 +260,21 @@ export function evaluateDiodePart(c: DesignCase, part: CandidatePart<'diode'>, w
   };
 }
 
+/** evaluateDiodePart for many parts: the case's diode inputs worked out once. */
+export function diodeEvaluator(c: DesignCase, wc: WorstCase = worstCaseOf(c), keep: Keep = 'full') {
+  const diodeCase = diodeCaseOf(c, wc);
+  return (part: CandidatePart<'diode'>): DiodeCandidateResult => judgedAs(keep, () => judgeDiode(part, diodeCase));
+}
+
+export function evaluateDiodePart(c: DesignCase, part: CandidatePart<'diode'>, wc: WorstCase): DiodeCandidateResult {
+  return diodeEvaluator(c, wc)(part);
+}
+
 export function rankDiodeCandidates(
   c: DesignCase,
   diodes: CandidatePart<'diode'>[],
   wc: WorstCase = worstCaseOf(c),
+  keep: Keep = 'full',
 ): DiodeCandidateResult[] {
-  return sortCandidates(diodes.map((d) => evaluateDiodePart(c, d, wc)));
+  return sortCandidates(diodes.map(diodeEvaluator(c, wc, keep)));
 }

@@ -31,8 +31,19 @@ export function rdsOnPointsAt25C(points: readonly RdsOnSpecPoint[], alphaPerC = 
   return [...at25, ...others].map((p) => ({ vgsV: p.vgsV, ohms: p.maxOhm, testCurrentA: p.idA }));
 }
 
-/** Ascending by VGS; duplicate VGS keep the larger (conservative) resistance. */
+/** normalise's answer per points array (a match reads each part's lines at one or two drives, several times). */
+const normalised = new WeakMap<readonly RdsOnPoint[], RdsOnPoint[]>();
+
+/** Ascending by VGS; duplicate VGS keep the larger (conservative) resistance (the same array for the same input array). */
 function normalise(points: readonly RdsOnPoint[]): RdsOnPoint[] {
+  const known = normalised.get(points);
+  if (known) return known;
+  const sorted = normaliseOnce(points);
+  normalised.set(points, sorted);
+  return sorted;
+}
+
+function normaliseOnce(points: readonly RdsOnPoint[]): RdsOnPoint[] {
   const byVgs = new Map<number, number>();
   for (const p of points) {
     if (p.vgsV > 0 && p.ohms > 0) byVgs.set(p.vgsV, Math.max(byVgs.get(p.vgsV) ?? 0, p.ohms));

@@ -3,13 +3,14 @@
  * candidates as full part records (every source and every price break, hydrated as the part pages load
  * them) ranked and decorated by the engine with all prices, then cut to the same page. Both give the same
  * page (entries, order, ranks, prices, pins), the same counts and failure summary, and the same suggestions,
- * on every demo design, for small pages across every list and with a pick deep in the ranking.
+ * on every demo design, for small pages across every list and with a pick deep in the ranking; the routes'
+ * lean page (matchPageOf) gives the same.
  */
 import { afterAll, describe, expect, it } from 'vitest';
 import { appDb } from '../helpers/stack.ts';
 import { hydrateParts } from '../../src/server/repos/parts.ts';
 import { loadCandidates } from '../../src/server/services/design-candidates.ts';
-import { matchInput } from '../../src/server/services/designs.ts';
+import { matchInput, matchPageOf } from '../../src/server/services/designs.ts';
 import { matchDesign, prepareCase, type MatchCatalogue } from '../../src/lib/design-match.ts';
 import { MATCH_LIST_KEYS, pageMatch } from '../../src/lib/match-page.ts';
 import { loadDesign } from '../../src/server/repos/designs.ts';
@@ -63,8 +64,10 @@ describe.each(demoDesigns.map((d) => d.name))('priced pages of "%s"', (name) => 
     for (const limit of [3, 25]) {
       for (let offset = 0; offset < longest; offset += limit) {
         const page = { offset, limit };
-        const got = pageMatch(await matchInput(input, false, undefined, knex, page), input, page);
-        expect(got).toEqual(pageMatch(whole, input, page));
+        const want = pageMatch(whole, input, page);
+        expect(pageMatch(await matchInput(input, false, undefined, knex, page), input, page)).toEqual(want);
+        // The routes' lean page (only the page's entries judged in full) is the same answer.
+        expect(await matchPageOf(input, false, page, knex)).toEqual(want);
       }
     }
   });
@@ -83,6 +86,7 @@ describe.each(demoDesigns.map((d) => d.name))('priced pages of "%s"', (name) => 
     const page = { offset: 0, limit: 2 };
     const got = pageMatch(await matchInput(input, false, undefined, knex, page), input, page);
     expect(got).toEqual(pageMatch(whole, input, page));
+    expect(await matchPageOf(input, false, page, knex)).toEqual(got);
     expect(got.diode.some((e) => e.partId === last.partId && e.pinned)).toBe(true);
   });
 });
