@@ -141,12 +141,16 @@ function directDrive(
   picks: DesignPicks,
   keep: Keep,
 ): { drive: GateDrive; list: SwitchCandidateResult[]; draw: number } {
-  const bare = catalogue.mosfets.map(switchEvaluator(c, pinGateDrive(c, wc), wc, keep));
-  const reference = byId(catalogue.mosfets, picks.switchId) ?? byId(catalogue.mosfets, bestCandidate(bare)?.partId);
+  const atPin = () => catalogue.mosfets.map(switchEvaluator(c, pinGateDrive(c, wc), wc, keep));
+  // The reference part for the pull-down advice: the chosen switch, else the best at the bare pin (only
+  // then is the list at the bare pin needed before the draw is known).
+  const chosen = byId(catalogue.mosfets, picks.switchId);
+  const bare = chosen ? null : atPin();
+  const reference = chosen ?? byId(catalogue.mosfets, bestCandidate(bare ?? [])?.partId);
   const pull = reference ? powerOnForPair(c, null, reference).recommendedPull : null;
   // The same worst case as the power-on advice reports: the pin at its rail, the resistor at −tol.
   const draw = pullDrawCurrentA(pull, c.logic.railV);
-  if (draw === 0) return { drive: pinGateDrive(c, wc), list: sortCandidates(bare), draw };
+  if (draw === 0) return { drive: pinGateDrive(c, wc), list: sortCandidates(bare ?? atPin()), draw };
   const drive = pinGateDrive(c, wc, draw);
   return { drive, list: sortCandidates(catalogue.mosfets.map(switchEvaluator(c, drive, wc, keep))), draw };
 }
