@@ -134,10 +134,18 @@ describe('the scheduled refresh on two app server processes', () => {
     expect(next.holder, 'the other process took the lock').not.toBeNull();
     expect(pidOf(next.holder!)).toBe(survivor.pid);
     expect(next.startedAt!.getTime()).toBeGreaterThanOrEqual(held.lockedUntil!.getTime());
-    const takeover = (await requestLog()).slice(logAtKill);
+    // The survivor holds the lock now; its first request follows once it has read the parts.
+    let takeover = (await requestLog()).slice(logAtKill);
+    for (let i = 0; i < 100 && takeover.length === 0; i++) {
+      await pause(50);
+      takeover = (await requestLog()).slice(logAtKill);
+    }
     expect(takeover.length).toBeGreaterThan(0);
     // Nothing asked the distributor between the kill and the expiry of the dead holder's lock.
     expect(takeover[0].at - killedAt).toBeGreaterThanOrEqual(held.leftMs! - 100);
+    console.log(
+      `killed pid ${victim.pid} with ${Math.round(held.leftMs!)} ms of its lock left; pid ${survivor.pid} asked again ${takeover[0].at - killedAt} ms after the kill`,
+    );
     await fetch(`${fake.url}/control`, { method: 'POST', body: JSON.stringify({ mode: 'slow', delayMs: DELAY_MS }) });
     for (let i = 0; i < 200; i++) {
       const row = (await knex('distributor_refresh').where({ job: 'offers' }).first()) as { holder: string | null; last_ok: number | null };
