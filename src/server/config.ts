@@ -129,6 +129,18 @@ export const CONFIG_KEYS: readonly ConfigKey[] = [
       'minutes between scheduled refreshes of the cached distributor offers in each app server (one server at a time, by a lock in the database); `0` turns the schedule off',
   },
   {
+    key: 'DISTRIBUTOR_LOCK_S',
+    defaultText: '`600`',
+    meaning:
+      'seconds the refresh lock is held at most: when the server holding it dies mid-refresh, another takes it over once this has passed (keep it above the longest refresh)',
+  },
+  {
+    key: 'ALERT_SWEEP_S',
+    defaultText: '`60` (`npm test`: `0`)',
+    meaning:
+      'seconds between sweeps of change alerts not yet mailed (after a mail failure, or a server that stopped mid-way) in each app server; each alert is mailed once however many servers sweep; `0` turns the sweep off',
+  },
+  {
     key: 'TRUST_PROXY',
     defaultText: 'unset',
     meaning: '`1` behind a reverse proxy you run: client addresses (for the sign-in limit) are then taken from `X-Forwarded-For`',
@@ -215,6 +227,8 @@ const envSchema = z.object({
   DISTRIBUTOR_TIMEOUT_MS: z.preprocess(blankToUndefined, z.coerce.number().int().min(50).max(120_000).default(3_000)),
   DISTRIBUTOR_RETRIES: z.preprocess(blankToUndefined, z.coerce.number().int().min(0).max(10).default(3)),
   DISTRIBUTOR_REFRESH_MIN: z.preprocess(blankToUndefined, z.coerce.number().min(0).max(10_080).optional()),
+  DISTRIBUTOR_LOCK_S: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).max(86_400).default(600)),
+  ALERT_SWEEP_S: z.preprocess(blankToUndefined, z.coerce.number().min(0).max(86_400).optional()),
 });
 
 export interface DbConfig {
@@ -272,6 +286,8 @@ export interface DistributorConfig {
   retries: number;
   /** Minutes between scheduled refreshes; 0 = no schedule. */
   refreshMin: number;
+  /** Longest hold of the refresh lock, s (a dead holder's lock frees itself after this). */
+  lockS: number;
 }
 
 export const DEFAULT_DISTRIBUTOR_FAKE_PORT = 2527;
@@ -298,6 +314,8 @@ export interface AppConfig {
   /** SIGTERM: how long requests in flight may still run. */
   shutdownGraceS: number;
   buying: BuyingConfig;
+  /** Seconds between sweeps of unsent change alerts in each app server; 0 = none. */
+  alertSweepS: number;
   distributor: DistributorConfig;
 }
 
@@ -369,7 +387,9 @@ export function readConfig(env: NodeJS.ProcessEnv): AppConfig {
       timeoutMs: e.DISTRIBUTOR_TIMEOUT_MS,
       retries: e.DISTRIBUTOR_RETRIES,
       refreshMin: e.DISTRIBUTOR_REFRESH_MIN ?? (e.NODE_ENV === 'test' ? 0 : 15),
+      lockS: e.DISTRIBUTOR_LOCK_S,
     },
+    alertSweepS: e.ALERT_SWEEP_S ?? (e.NODE_ENV === 'test' ? 0 : 60),
   };
 }
 

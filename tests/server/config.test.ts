@@ -49,7 +49,7 @@ describe('readConfig', () => {
         secretAccessKey: 'S3RVER',
       },
     });
-    expect(c.distributor).toEqual({ url: null, fakePort: null, timeoutMs: 3000, retries: 3, refreshMin: 15 });
+    expect(c.distributor).toEqual({ url: null, fakePort: null, timeoutMs: 3000, retries: 3, refreshMin: 15, lockS: 600 });
   });
 
   it('reads the scale-out keys: S3 store, replica (port defaults to DB_PORT), buffer pool', () => {
@@ -78,6 +78,14 @@ describe('readConfig', () => {
   it('turns the distributor refresh schedule off under test unless asked for', () => {
     expect(readConfig({ NODE_ENV: 'test' }).distributor.refreshMin).toBe(0);
     expect(readConfig({ NODE_ENV: 'test', DISTRIBUTOR_REFRESH_MIN: '5' }).distributor.refreshMin).toBe(5);
+  });
+
+  it('sweeps unsent change alerts every 60 s, not under test unless asked for (README defaults)', () => {
+    expect(readConfig({}).alertSweepS).toBe(60);
+    expect(readConfig({ NODE_ENV: 'test' }).alertSweepS).toBe(0);
+    expect(readConfig({ NODE_ENV: 'test', ALERT_SWEEP_S: '0.5' }).alertSweepS).toBe(0.5);
+    expect(readConfig({ NODE_ENV: 'test', DISTRIBUTOR_LOCK_S: '3' }).distributor.lockS).toBe(3);
+    expect(() => readConfig({ DISTRIBUTOR_LOCK_S: '0' })).toThrow(/DISTRIBUTOR_LOCK_S/);
   });
 
   it('reads set values and treats blank ones as unset', () => {

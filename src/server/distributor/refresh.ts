@@ -28,6 +28,8 @@ export interface RefreshDeps {
   batchSize?: number;
   /** The lock frees itself after this long even if this server dies holding it, s. */
   lockTtlS?: number;
+  /** Skip (ran: false) when any server started a refresh less than this long ago, s (the schedule's rounds). */
+  minGapS?: number;
   log?: (line: string) => void;
 }
 
@@ -42,7 +44,7 @@ export async function refreshOffers(deps: RefreshDeps): Promise<RefreshOutcome> 
   const log = deps.log ?? ((line: string) => console.warn(`[distributor] ${line}`));
   const holder = `${os.hostname()}:${process.pid}:${randomUUID().slice(0, 8)}`.slice(0, 120);
   const outcome: RefreshOutcome = { ran: false, parts: 0, batches: 0, failedBatches: 0, offersWritten: 0, offersRejected: 0, errors: [] };
-  if (!(await tryLockRefresh(deps.db, holder, deps.lockTtlS ?? 600))) return outcome;
+  if (!(await tryLockRefresh(deps.db, holder, deps.lockTtlS ?? 600, deps.minGapS ?? 0))) return outcome;
   outcome.ran = true;
   try {
     const parts = await partsToRefresh(deps.db);

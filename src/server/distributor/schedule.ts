@@ -1,7 +1,8 @@
 /**
  * The scheduled distributor refresh inside an app server: every DISTRIBUTOR_REFRESH_MIN minutes (off at
  * 0, the default under test), one refresh; when several app servers run, the lock in MariaDB lets one of
- * them do it each time. The timer never keeps the process alive; stop() waits for a refresh in flight.
+ * them do it each time, and a server skips a round another one started less than 0.9 intervals ago, so the
+ * distributor is asked once per interval however many servers there are. The timer never keeps the process alive; stop() waits for a refresh in flight.
  */
 import type { AppConfig } from '../config.ts';
 import { db } from '../db.ts';
@@ -19,7 +20,13 @@ export function startDistributorSchedule(config: AppConfig, intervalMs = config.
   let running: Promise<unknown> | null = null;
   let stopped = false;
   const tick = (): void => {
-    running = refreshOffers({ db: db(), client: clientOptions(url, config) })
+    // A round another server started less than 0.9 intervals ago counts as this one's (timers drift apart).
+    running = refreshOffers({
+      db: db(),
+      client: clientOptions(url, config),
+      lockTtlS: config.distributor.lockS,
+      minGapS: (0.9 * intervalMs) / 1000,
+    })
       .catch((err: Error) => console.warn(`[distributor] scheduled refresh failed: ${err.message}`))
       .finally(() => {
         running = null;

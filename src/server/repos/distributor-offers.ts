@@ -126,17 +126,24 @@ const JOB = 'offers';
 
 /**
  * Takes the refresh lock for `ttlS` seconds when it is free or expired: one atomic UPDATE, so of two
- * servers asking at once exactly one gets it. True when this holder now has it.
+ * servers asking at once exactly one gets it. With `minGapS`, also only when no refresh started within
+ * that many seconds (a scheduled round already done by another server). True when this holder now has it.
  */
-export async function tryLockRefresh(db: Db, holder: string, ttlS: number): Promise<boolean> {
-  const changed = await db('distributor_refresh')
+export async function tryLockRefresh(db: Db, holder: string, ttlS: number, minGapS = 0): Promise<boolean> {
+  const q = db('distributor_refresh')
     .where({ job: JOB })
-    .where((q) => q.whereNull('locked_until').orWhere('locked_until', '<', db.fn.now(3)))
-    .update({
-      holder,
-      locked_until: db.raw('NOW(3) + INTERVAL ? SECOND', [ttlS]),
-      last_started_at: db.fn.now(3),
-    });
+    .where((w) => w.whereNull('locked_until').orWhere('locked_until', '<', db.fn.now(3)));
+  if (minGapS > 0)
+    q.where((w) =>
+      w
+        .whereNull('last_started_at')
+        .orWhere('last_started_at', '<=', db.raw('NOW(3) - INTERVAL ? MICROSECOND', [Math.round(minGapS * 1e6)])),
+    );
+  const changed = await q.update({
+    holder,
+    locked_until: db.raw('NOW(3) + INTERVAL ? SECOND', [ttlS]),
+    last_started_at: db.fn.now(3),
+  });
   return changed === 1;
 }
 

@@ -68,7 +68,7 @@ export async function refreshNow(): Promise<RefreshNowResult> {
   const config = appConfig();
   const url = config.distributor.url;
   if (!url) throw new ServiceError(503, 'No distributor is configured: set DISTRIBUTOR_URL.');
-  const outcome = await refreshOffers({ db: db(), client: clientOptions(url, config) });
+  const outcome = await refreshOffers({ db: db(), client: clientOptions(url, config), lockTtlS: config.distributor.lockS });
   const message = !outcome.ran
     ? 'Another refresh is running; its figures appear when it ends.'
     : outcome.failedBatches > 0
