@@ -12,7 +12,7 @@ import type { SessionUser } from '../auth/types.ts';
 import { loadRevisionInput, lockDesignRow, readyDesignIdsUsingParts, writeDesignStatus, type DbDesignRow } from '../repos/designs.ts';
 import { insertAuditEvent } from '../repos/audit.ts';
 import { ServiceError, notFound } from './errors.ts';
-import { canEditDesign, getDesign, matchInput, resolveMotor } from './designs.ts';
+import { canEditDesign, getDesign, matchPageOf, resolveMotor } from './designs.ts';
 import { withLockedVersion } from '../repos/versioned.ts';
 import { DESIGN_ENTITY, sameDesign } from './design-entity.ts';
 import { partsByIds } from '../repos/parts.ts';
@@ -37,10 +37,19 @@ const pickIds = (input: DesignInput): number[] =>
     ...input.selections[r].alternatePartIds,
   ]);
 
-/** Runs the full match for an input and applies the readiness rule to it. */
+/**
+ * The entries a verification keeps of each list: the first page (the best parts, which the alerts offer as
+ * alternates and the report reads the paired driver from) besides every pick, which always travels with it.
+ */
+const VERIFY_PAGE = { offset: 0, limit: 25 };
+
+/**
+ * Runs the match for an input (the whole catalogue ranked; the first page and every pick judged in full,
+ * as the match routes do) and applies the readiness rule to it.
+ */
 export async function verifyInput(input: DesignInput, includePending: boolean, k: Db = db()): Promise<Verification> {
   const motor = await resolveMotor(input, k);
-  const [match, byId] = await Promise.all([matchInput(input, includePending, motor, k), partsByIds(k, pickIds(input))]);
+  const [match, byId] = await Promise.all([matchPageOf(input, includePending, VERIFY_PAGE, k, motor), partsByIds(k, pickIds(input))]);
   const parts = new Map<number, PartFacts>(
     [...byId].map(([id, p]) => [id, { mpn: p.mpn, lifecycle: p.lifecycle, reviewStatus: p.reviewStatus }]),
   );

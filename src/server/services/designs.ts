@@ -203,8 +203,9 @@ export async function matchPageOf(
   includePending: boolean,
   page: { offset: number; limit: number },
   k: Knex | Knex.Transaction = db(),
+  resolved?: ResolvedMotor,
 ): Promise<DesignMatchPage> {
-  const motor = await resolveMotor(input, k);
+  const motor = resolved ?? (await resolveMotor(input, k));
   const prepared = prepareCase(input, motor.params);
   const { catalogue, ranked } = await rankInPhases(
     input,
