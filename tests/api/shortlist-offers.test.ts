@@ -183,7 +183,7 @@ describe('the shortlist page and CSV show them', () => {
     expect(row('switch')).not.toContain('line-offer-warning');
     expect(row('diode')).toContain('✓ 5,000 in stock · 0.0900 USD at 500+ (45.90 USD for 510) · lead time not stated');
     expect(row('diode')).toContain('Last fetch failed 12 min ago (answered 500 (4 attempts)); the figure fetched 26 h ago is kept.');
-    expect(row('motor')).toContain('— no distributor figure cached');
+    expect(row('motor')).toContain('— none cached');
   });
 
   it('writes an offer row after the option in the CSV, with fetched_at and the error', async () => {
