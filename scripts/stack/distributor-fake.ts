@@ -6,7 +6,9 @@
  *
  *   GET  /v1/offers?mpn=A&mpn=B   → {distributor, offers: [{mpn, sku, stock, moq, currency, leadTimeDays, priceBreaks}]}
  *   POST /control {mode, times?, delayMs?, retryAfter?}   switch how the next answers fail (tests)
- *   GET  /control/log             → {requests: [{at, path, mode, status}]}  (at = ms since the epoch)
+ *   GET  /control/log             → {requests: [{at, path, mode, status}], pending, answered}  (at = ms since the
+ *                                   epoch, logged on arrival; pending = offer requests held unanswered now (slow
+ *                                   mode), answered = offer answers sent since the last reset)
  *   POST /control/reset           back to normal, log cleared
  *
  * Modes: normal; slow (waits delayMs before answering); 429 (with Retry-After: retryAfter, seconds or an
@@ -25,6 +27,13 @@ export interface FakeLogEntry {
   path: string;
   mode: FakeMode;
   status: number;
+}
+
+/** GET /control/log. */
+export interface FakeLog {
+  requests: FakeLogEntry[];
+  pending: number;
+  answered: number;
 }
 
 export interface FakeDistributor {
@@ -125,6 +134,7 @@ export async function startFakeDistributor(port = 0, options: { seed?: string; c
   const clock = options.clock ?? Date.now;
   let state: ModeState = { mode: 'normal', times: null, delayMs: 5_000, retryAfter: '1' };
   let log: FakeLogEntry[] = [];
+  let answered = 0;
   const pending = new Set<NodeJS.Timeout>();
 
   function offers(url: URL): FakeOffer[] {
@@ -139,7 +149,10 @@ export async function startFakeDistributor(port = 0, options: { seed?: string; c
   function answerOffers(url: URL, res: http.ServerResponse): void {
     const mode = state.mode;
     if (state.times !== null && --state.times <= 0) state = { ...state, mode: 'normal', times: null };
-    const record = (status: number): void => void log.push({ at: clock(), path: url.pathname + url.search, mode, status });
+    const record = (status: number): void => {
+      log.push({ at: clock(), path: url.pathname + url.search, mode, status });
+      if (mode !== 'slow') answered++;
+    };
     if (mode === '429') {
       record(429);
       return send(res, 429, { error: 'Too many requests' }, { 'Retry-After': state.retryAfter });
@@ -165,7 +178,9 @@ export async function startFakeDistributor(port = 0, options: { seed?: string; c
       record(200);
       const t = setTimeout(() => {
         pending.delete(t);
-        if (!res.destroyed) send(res, 200, body);
+        if (res.destroyed) return;
+        answered++;
+        send(res, 200, body);
       }, state.delayMs);
       pending.add(t);
       res.on('close', () => {
@@ -199,10 +214,11 @@ export async function startFakeDistributor(port = 0, options: { seed?: string; c
     const url = new URL(req.url ?? '/', 'http://127.0.0.1');
     if (req.method === 'GET' && url.pathname === '/v1/offers') return answerOffers(url, res);
     if (req.method === 'POST' && url.pathname === '/control') return void control(req, res);
-    if (req.method === 'GET' && url.pathname === '/control/log') return send(res, 200, { requests: log });
+    if (req.method === 'GET' && url.pathname === '/control/log') return send(res, 200, { requests: log, pending: pending.size, answered });
     if (req.method === 'POST' && url.pathname === '/control/reset') {
       state = { mode: 'normal', times: null, delayMs: 5_000, retryAfter: '1' };
       log = [];
+      answered = 0;
       return send(res, 200, { mode: 'normal' });
     }
     send(res, 404, { error: 'not found' });

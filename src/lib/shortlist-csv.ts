@@ -1,14 +1,17 @@
 /**
  * The shortlist as a CSV file, pure: the lines and figures the screen shows, one row per option (chosen
- * part and alternates) and per generic line, then per design its total of the chosen parts, the short
- * lines and the rates used with their dates. The first column says what a row is (line, total, short,
- * rate) so a spreadsheet can filter. Written through the one CSV writer (src/lib/csv.ts), which
+ * part and alternates) and per generic line, each option followed by its cached distributor offers
+ * (row "offer": that distributor's stock, price at the need and lead time, with when it was fetched and
+ * the error of the last fetch when it failed, the figure kept), then per design its total of the chosen parts, the short
+ * lines and the rates used with their dates. The first column says what a row is (line, offer, total,
+ * short, rate) so a spreadsheet can filter. Written through the one CSV writer (src/lib/csv.ts), which
  * neutralises cells a spreadsheet would run as formulas (a buyer's note may start with "=").
  * Money to the cent; unit prices and rates as stored; empty cells where the screen shows "—".
  */
 import { toCsv, type CsvCell } from './csv.ts';
 import { fixed } from './units.ts';
 import type { LineFigures, OptionFigures, ShortlistTotals } from './shortlist-figures.ts';
+import type { CachedOfferFigures } from './cached-offer-figures.ts';
 
 export interface ShortlistCsvDesign {
   id: number;
@@ -50,6 +53,8 @@ export const SHORTLIST_CSV_HEADER = [
   'lifecycle',
   'check',
   'note',
+  'fetched_at',
+  'fetch_error',
 ] as const;
 
 const money = (v: number | null | undefined): string => (v === null || v === undefined ? '' : fixed(v, 2));
@@ -86,7 +91,34 @@ function optionRow(d: ShortlistCsvDesign, l: LineFigures, o: OptionFigures): Csv
     o.lifecycle,
     o.status,
     o.preference?.note,
+    '',
+    '',
   ];
+}
+
+/** A cached distributor offer of an option: its own stock and price at the line's need, not in the total. */
+function offerRow(d: ShortlistCsvDesign, l: LineFigures, o: OptionFigures, f: CachedOfferFigures): CsvCell[] {
+  return designRow(d, 'offer', {
+    line: l.label,
+    option: o.position === 0 ? 'chosen' : `alternate ${o.position}`,
+    manufacturer: o.manufacturer,
+    part_number: o.mpn,
+    need: l.need,
+    distributor: f.distributor,
+    sku: f.sku,
+    order_qty: f.orderQty,
+    break_qty: f.breakQty,
+    unit_price: f.unitPrice,
+    currency: f.currency,
+    extended: money(f.extendedCost),
+    stock: f.stockQty,
+    shortfall: f.shortfall,
+    lead_time_days: f.leadTimeDays,
+    moq: f.moq,
+    check: 'cached distributor offer: not in the total',
+    fetched_at: f.fetchedAt,
+    fetch_error: f.lastError,
+  });
 }
 
 /** A row with the design columns filled, the given columns set by header name. */
@@ -116,7 +148,7 @@ export function shortlistRows(designs: readonly ShortlistCsvDesign[]): CsvCell[]
               check: 'not in the catalogue: not priced',
             }),
           ]
-        : l.options.map((o) => optionRow(d, l, o)),
+        : l.options.flatMap((o) => [optionRow(d, l, o), ...o.distributorOffers.map((f) => offerRow(d, l, o, f))]),
     ),
     designRow(d, 'total', {
       line: 'Total of the chosen parts',

@@ -16,6 +16,7 @@ import {
   type CurrencyRate,
   type SourceQuote,
 } from './buying.ts';
+import { cachedOfferAtNeed, type CachedOfferFigures, type CachedOfferInput } from './cached-offer-figures.ts';
 
 export interface OptionInput {
   partId: number;
@@ -30,6 +31,8 @@ export interface OptionInput {
   sources: BuyingSource[];
   /** The buyer's preferred source and note for this option, if any. */
   preference: OptionPreference | null;
+  /** The distributor offers cached for this part (absent: none, or not shown to this person). */
+  offers?: readonly CachedOfferInput[];
 }
 
 /** A buyer's preference on one option: the source by distributor and SKU (null: cheapest), a note, who set it. */
@@ -51,7 +54,7 @@ export interface LineInput {
   generic: string | null;
 }
 
-export interface OptionFigures extends Omit<OptionInput, 'sources'> {
+export interface OptionFigures extends Omit<OptionInput, 'sources' | 'offers'> {
   stockQty: number;
   shortfall: number;
   /** The source bought from (the buyer's preferred one when it sells this part, else the cheapest in the organisation currency). */
@@ -60,6 +63,8 @@ export interface OptionFigures extends Omit<OptionInput, 'sources'> {
   preferredApplied: boolean;
   /** Every source, quoted at the need, for the order table. */
   quotes: SourceQuote[];
+  /** The cached distributor offers at the need; shown beside the sources, not bought from nor totalled. */
+  distributorOffers: CachedOfferFigures[];
 }
 
 export interface LineFigures extends Omit<LineInput, 'options'> {
@@ -87,7 +92,7 @@ function preferredSourceId(o: OptionInput): number | null {
 }
 
 function optionFigures(o: OptionInput, need: number, org: string, rates: readonly CurrencyRate[]): OptionFigures {
-  const { sources, ...rest } = o;
+  const { sources, offers = [], ...rest } = o;
   const quotes = sources.map((s) => quoteSource(s, need, org, rates));
   const stockQty = sources.reduce((sum, s) => sum + s.stockQty, 0);
   const preferred = preferredSourceId(o);
@@ -99,6 +104,7 @@ function optionFigures(o: OptionInput, need: number, org: string, rates: readonl
     quotes,
     quote,
     preferredApplied: preferred !== null && quote?.source.id === preferred,
+    distributorOffers: offers.map((offer) => cachedOfferAtNeed(offer, need)),
   };
 }
 

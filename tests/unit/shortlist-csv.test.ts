@@ -112,3 +112,59 @@ describe('the shortlist CSV rows', () => {
     ]);
   });
 });
+
+describe('a cached distributor offer in the shortlist CSV', () => {
+  const cached = {
+    distributor: 'Invented Parts Depot',
+    sku: 'IPD-77',
+    stockQty: 150,
+    moq: 10,
+    currency: 'EUR',
+    priceBreaks: [
+      { qty: 1, unitPrice: 0.31 },
+      { qty: 100, unitPrice: 0.25 },
+    ],
+    leadTimeDays: 2,
+    fetchedAt: '2026-12-03T09:00:00.000Z',
+    checkedAt: '2026-12-03T11:53:00.000Z',
+    lastError: 'answered 500 (4 attempts)',
+    stale: true,
+  };
+  const withOffer: LineInput = { ...line(null), options: [{ ...option(null), offers: [cached] }] };
+  const { lines, totals } = shortlistFigures([withOffer], 200, 5, 'EUR', RATES);
+  const records = readCsvRecords(shortlistCsv([{ id: 3, name: 'Fan', revision: 2, boards: 200, attritionPct: 5, lines, totals }]).csv).map(
+    (r) => r.cells,
+  );
+  const byName = (cells: string[]) => Object.fromEntries(SHORTLIST_CSV_HEADER.map((h, i) => [h, cells[i]]));
+
+  it('follows its option as an "offer" row with the figure at the need, when it was fetched and the last error', () => {
+    // No rate row: without a preference the EUR strip is bought, so no USD amount is converted.
+    expect(records.slice(1).map((r) => r[0])).toEqual(['line', 'offer', 'total', 'short']);
+    const r = byName(records[2]);
+    // Need 210 (200 × 1.05) ≥ MOQ 10: 210 at the 100 break, 210 × 0.25 = 52.50 EUR; 210 − 150 = 60 short.
+    expect([r.option, r.part_number, r.need, r.sku, r.order_qty, r.break_qty, r.unit_price, r.extended, r.stock, r.shortfall]).toEqual([
+      'chosen',
+      'INV-Q1',
+      '210',
+      'IPD-77',
+      '210',
+      '100',
+      '0.25',
+      '52.50',
+      '150',
+      '60',
+    ]);
+    expect([r.lead_time_days, r.moq, r.converted, r.fetched_at, r.fetch_error]).toEqual([
+      '2',
+      '10',
+      '',
+      '2026-12-03T09:00:00.000Z',
+      'answered 500 (4 attempts)',
+    ]);
+  });
+
+  it('leaves the total to the catalogue sources (the offer is not bought from)', () => {
+    // Strip: 210 × 0.50 = 105.00 EUR, as in the first table above.
+    expect(byName(records[3]).converted).toBe('105.00');
+  });
+});

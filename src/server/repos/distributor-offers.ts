@@ -65,6 +65,16 @@ export async function listPartOffers(db: Db, partId: number): Promise<CachedOffe
   return rows.map(fromRow);
 }
 
+/** The cached offers of several parts, by part id then distributor (parts without one are absent). */
+export async function listOffersOfParts(db: Db, partIds: readonly number[]): Promise<Map<number, CachedOffer[]>> {
+  const byPart = new Map<number, CachedOffer[]>();
+  const ids = [...new Set(partIds)];
+  if (ids.length === 0) return byPart;
+  const rows = (await db('distributor_offers').whereIn('part_id', ids).orderBy(['part_id', 'distributor'])) as DbOfferRow[];
+  for (const offer of rows.map(fromRow)) byPart.set(offer.partId, [...(byPart.get(offer.partId) ?? []), offer]);
+  return byPart;
+}
+
 /** What the refresh asks for: every approved part's id and part number. */
 export async function partsToRefresh(db: Db): Promise<{ id: number; mpn: string }[]> {
   return db('parts').select('id', 'mpn').where({ review_status: 'approved' }).orderBy('id');

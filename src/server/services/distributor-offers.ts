@@ -5,7 +5,8 @@
 import { db } from '../db.ts';
 import { appConfig } from '../config.ts';
 import type { SessionUser } from '../auth/types.ts';
-import { listPartOffers, refreshState } from '../repos/distributor-offers.ts';
+import { listPartOffers, refreshState, type CachedOffer } from '../repos/distributor-offers.ts';
+import type { CachedOfferInput } from '../../lib/cached-offer-figures.ts';
 import { clientOptions } from '../distributor/options.ts';
 import { refreshOffers, type RefreshOutcome } from '../distributor/refresh.ts';
 import { canManageSupply } from './parts-access.ts';
@@ -34,13 +35,35 @@ export interface PartOffersView {
 
 const DAY_MS = 24 * 3_600_000;
 
+/** How old a cached figure may be before it is called stale: two refresh intervals, or a day without a schedule. */
+export function offerStaleAfterMs(): number {
+  const refreshMin = appConfig().distributor.refreshMin;
+  return refreshMin > 0 ? 2 * refreshMin * 60_000 : DAY_MS;
+}
+
+/** A cached offer for the shortlist's figures (src/lib/cached-offer-figures.ts), its staleness judged at `nowMs`. */
+export function cachedOfferInput(o: CachedOffer, nowMs: number, staleAfterMs = offerStaleAfterMs()): CachedOfferInput {
+  return {
+    distributor: o.distributor,
+    sku: o.sku,
+    stockQty: o.stockQty,
+    moq: o.moq,
+    currency: o.currency,
+    priceBreaks: o.priceBreaks,
+    leadTimeDays: o.leadTimeDays,
+    fetchedAt: o.fetchedAt.toISOString(),
+    checkedAt: o.checkedAt.toISOString(),
+    lastError: o.lastError,
+    stale: nowMs - o.fetchedAt.getTime() > staleAfterMs || o.lastError !== null,
+  };
+}
+
 /** The cached offers of a part for buyers and librarians (null for others: they see the curated sources). */
 export async function partOffersView(partId: number, user: SessionUser | null, nowMs = Date.now()): Promise<PartOffersView | null> {
   if (!canManageSupply(user)) return null;
   const k = db();
   const [offers, state] = await Promise.all([listPartOffers(k, partId), refreshState(k)]);
-  const refreshMin = appConfig().distributor.refreshMin;
-  const staleAfterMs = refreshMin > 0 ? 2 * refreshMin * 60_000 : DAY_MS;
+  const staleAfterMs = offerStaleAfterMs();
   return {
     offers: offers.map((o) => {
       const ageMs = nowMs - o.fetchedAt.getTime();

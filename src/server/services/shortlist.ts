@@ -3,6 +3,8 @@
  * at a build quantity (src/lib/shortlist-figures.ts). Opening
  * it re-verifies each ready design at the current catalogue; one that no longer holds goes back to draft
  * through the same service as a part change, and is listed apart with its reason, never as holding.
+ * Buyers and librarians also get each option's cached distributor offers, read from the offers cache
+ * only: a slow or failing distributor never holds the shortlist up.
  */
 import { db } from '../db.ts';
 import type { DesignInput, PartRole } from '../../lib/domain/design.ts';
@@ -26,6 +28,10 @@ import { partsByIds } from '../repos/parts.ts';
 import { listReadyDesigns } from '../repos/designs.ts';
 import { expiredQuotedSourceIds } from '../repos/quotes.ts';
 import { reverifyDesigns, type Verification } from './design-status.ts';
+import { listOffersOfParts, type CachedOffer } from '../repos/distributor-offers.ts';
+import type { CachedOfferInput } from '../../lib/cached-offer-figures.ts';
+import { cachedOfferInput, offerStaleAfterMs } from './distributor-offers.ts';
+import { canManageSupply } from './parts-access.ts';
 
 export interface ShortlistDesign {
   id: number;
@@ -60,9 +66,11 @@ function optionOf(
   position: number,
   status: { text: string; holds: boolean },
   preference: OptionPreference | null,
+  offers: readonly CachedOfferInput[],
 ): OptionInput {
   return {
     preference,
+    offers,
     partId: part.id as number,
     mpn: part.mpn,
     manufacturer: part.manufacturer,
@@ -86,6 +94,7 @@ function lineInputs(
   parts: Map<number, Part>,
   input: DesignInput,
   prefs: readonly StoredPreference[],
+  offersOf: (partId: number) => readonly CachedOfferInput[],
 ): LineInput[] {
   const base = { perBoard: 1, generic: null };
   const pref = (line: string, partId: number): OptionPreference | null => {
@@ -99,7 +108,7 @@ function lineInputs(
       ...base,
       key: 'motor',
       label: ROLE_LABEL.motor,
-      options: [optionOf(motor, 0, motorStatus(motor), pref('motor', motor.id as number))],
+      options: [optionOf(motor, 0, motorStatus(motor), pref('motor', motor.id as number), offersOf(motor.id as number))],
     });
   }
   for (const role of ['switch', 'driver', 'diode'] as const) {
@@ -110,7 +119,9 @@ function lineInputs(
         ...base,
         key: role,
         label: ROLE_LABEL[role],
-        options: ordered.map((id, i) => optionOf(parts.get(id)!, i, pickStatus(v.match, role, id, v.parts.get(id)), pref(role, id))),
+        options: ordered.map((id, i) =>
+          optionOf(parts.get(id)!, i, pickStatus(v.match, role, id, v.parts.get(id)), pref(role, id), offersOf(id)),
+        ),
       });
   }
   const pull = pullResistorLine(v.match.powerOn?.recommendedPull ?? null);
@@ -147,7 +158,7 @@ export async function readyShortlist(actor: SessionUser | null, boardsFor: Reado
       ...i.selections[r].alternatePartIds,
     ]),
   ]);
-  const [loaded, expired, rates, prefs] = await Promise.all([
+  const [loaded, expired, rates, prefs, cached] = await Promise.all([
     partsByIds(db(), ids),
     // A supplier's quoted price counts only while its offer holds (quote requests, valid until).
     expiredQuotedSourceIds(db(), ids, new Date().toISOString().slice(0, 10)),
@@ -156,7 +167,12 @@ export async function readyShortlist(actor: SessionUser | null, boardsFor: Reado
       db(),
       held.map((h) => h.head.id),
     ),
+    // Distributor figures from the offers cache only (never the distributor itself), for those who see them on the part page.
+    canManageSupply(actor) ? listOffersOfParts(db(), ids) : Promise.resolve(new Map<number, CachedOffer[]>()),
   ]);
+  const nowMs = Date.now();
+  const staleAfterMs = offerStaleAfterMs();
+  const offersOf = (partId: number): CachedOfferInput[] => (cached.get(partId) ?? []).map((o) => cachedOfferInput(o, nowMs, staleAfterMs));
   const parts = new Map(
     [...loaded].map(([id, part]) => [
       id,
@@ -167,7 +183,7 @@ export async function readyShortlist(actor: SessionUser | null, boardsFor: Reado
   const designs = held.map(({ head, verification }): ShortlistDesign => {
     const boards = boardsFor.get(head.id) ?? verification.input.boardQuantity;
     const figures = shortlistFigures(
-      lineInputs(head.id, verification, parts, verification.input, prefs),
+      lineInputs(head.id, verification, parts, verification.input, prefs, offersOf),
       boards,
       attritionPct,
       orgCurrency,
