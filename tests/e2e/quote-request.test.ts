@@ -7,8 +7,8 @@
  * 510 × 0.21 = 107.10 EUR, the cheaper, so the shortlist picks it.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, screenshotPath } from '../helpers/browser.ts';
+import type { Browser } from 'playwright-core';
+import { launchBrowser, screenshotPath, watchErrors } from '../helpers/browser.ts';
 import { signInContext } from '../helpers/session.ts';
 import { appDb, appUrl } from '../helpers/stack.ts';
 
@@ -41,13 +41,6 @@ afterAll(async () => {
   await browser?.close();
   await knex.destroy();
 });
-
-function watchErrors(page: Page): string[] {
-  const errors: string[] = [];
-  page.on('console', (m) => m.type() === 'error' && errors.push(m.text()));
-  page.on('pageerror', (e) => errors.push(e.message));
-  return errors;
-}
 
 describe('a buyer requests a quote for a shortlist line', () => {
   it('sends it, enters the answer, and the shortlist buys from the quote', async () => {

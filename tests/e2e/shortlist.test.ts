@@ -7,8 +7,8 @@
  */
 import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, screenshotPath } from '../helpers/browser.ts';
+import type { Browser } from 'playwright-core';
+import { launchBrowser, screenshotPath, watchErrors } from '../helpers/browser.ts';
 import { signInContext } from '../helpers/session.ts';
 import { appDb, appUrl } from '../helpers/stack.ts';
 import { readCsvRecords } from '../../src/lib/csv.ts';
@@ -55,13 +55,6 @@ afterAll(async () => {
   await browser?.close();
   await knex.destroy();
 });
-
-function watchErrors(page: Page): string[] {
-  const errors: string[] = [];
-  page.on('console', (m) => m.type() === 'error' && errors.push(m.text()));
-  page.on('pageerror', (e) => errors.push(e.message));
-  return errors;
-}
 
 describe('a buyer at the shortlist for 500 boards', () => {
   it('prefers a source with a note, sees the shortfall in words and downloads the CSV; the designer reads the note', async () => {

@@ -6,8 +6,8 @@
  * torque is Kt·(0.5 − 0.2) = 0.637 mN·m: below a 1 mN·m load it never starts [docs/engineering.md §3.3].
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, screenshotPath } from '../helpers/browser.ts';
+import type { Browser } from 'playwright-core';
+import { launchBrowser, screenshotPath, watchErrors } from '../helpers/browser.ts';
 import { signInContext } from '../helpers/session.ts';
 import { appUrl } from '../helpers/stack.ts';
 
@@ -18,13 +18,6 @@ beforeAll(async () => {
 afterAll(async () => {
   await browser?.close();
 });
-
-function watchErrors(page: Page): string[] {
-  const errors: string[] = [];
-  page.on('console', (m) => m.type() === 'error' && errors.push(m.text()));
-  page.on('pageerror', (e) => errors.push(e.message));
-  return errors;
-}
 
 describe('calculators: supply form', () => {
   it('a 1 mN·m load on a USB 2.0 port never starts: the start check reads Fail with its icon; a bad field is named by the API', async () => {
