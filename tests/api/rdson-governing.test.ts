@@ -101,6 +101,25 @@ describe('RDS(on) filter on the governing line per VGS interval', () => {
     expect(await names({ rdsOnAtVgsV: vgsV, rdsOnMaxOhm: maxOhm })).toEqual(expected);
   });
 
+  it('pages of the bound with other filters, as a designer sees them, add up to the whole list and its count', async () => {
+    // By hand from the table: at 10 V every part's governing line is ≤ 25 mΩ (A 20, B 18, C 10, D 15 at
+    // 10 V; E's 4.5 V line 12 mΩ), all are N-channel 30 V and approved; in part-number order A…E.
+    // VDS ≥ 31 V leaves none (all are 30 V parts).
+    const designer = await sessionCookie('designer');
+    const page = async (n: number, vdsMinV: number) => {
+      const res = await request(appUrl())
+        .get('/api/parts')
+        .query({ category: 'mosfet', package: PACKAGE, channel: 'n', vdsMinV, rdsOnAtVgsV: 10, rdsOnMaxOhm: 0.025, pageSize: 2, page: n })
+        .set('Cookie', designer);
+      expect(res.status, JSON.stringify(res.body)).toBe(200);
+      return res.body as { total: number; items: { id: number }[] };
+    };
+    const pages = [await page(1, 30), await page(2, 30), await page(3, 30), await page(4, 30)];
+    expect(pages.map((p) => p.total)).toEqual([5, 5, 5, 5]);
+    expect(pages.flatMap((p) => p.items.map((x) => x.id))).toEqual(['A', 'B', 'C', 'D', 'E'].map((n) => idOf[n]));
+    expect((await page(1, 31)).total).toBe(0);
+  });
+
   it('a drive alone keeps the parts characterised at or below it', async () => {
     expect(await names({ rdsOnAtVgsV: 4.5 })).toEqual(['A', 'B', 'D', 'E']);
   });

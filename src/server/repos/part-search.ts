@@ -51,25 +51,30 @@ const SORT_COLUMNS: Record<string, string> = {
   stallCurrentA: 'w.stall_current_a',
 };
 
-function mosfetFilters(q: Knex.QueryBuilder, f: PartListQuery): void {
+/** Both halves of the RDS(on) bound are given (the filter that reads mosfet_rds_on_governing). */
+const hasRdsOnBound = (f: PartListQuery): boolean => f.category === 'mosfet' && f.rdsOnAtVgsV !== undefined && f.rdsOnMaxOhm !== undefined;
+
+/** The one governing interval of a part that holds the drive, with its maximum within the bound. */
+function governingHoldsDrive(q: Knex.QueryBuilder, f: PartListQuery): void {
+  q.where('gv.vgs_from_v', '<=', f.rdsOnAtVgsV!)
+    .where((w) => w.whereNull('gv.vgs_to_v').orWhere('gv.vgs_to_v', '>', f.rdsOnAtVgsV!))
+    .where('gv.max_ohm', '<=', f.rdsOnMaxOhm!);
+}
+
+function mosfetFilters(q: Knex.QueryBuilder, f: PartListQuery, governingJoined: boolean): void {
   if (f.channel) q.where('m.channel', f.channel);
   if (f.vdsMinV !== undefined) q.where('m.vds_max_v', '>=', f.vdsMinV);
   if (f.vgsThMaxV !== undefined) q.where('m.vgs_th_max_v', '<=', f.vgsThMaxV);
   if (f.idMinA !== undefined) q.where('m.id_continuous_a', '>=', f.idMinA);
   if (f.qgMaxNc !== undefined) q.where('m.qg_total_nc', '<=', f.qgMaxNc);
   if (f.rdsOnAtVgsV !== undefined && f.rdsOnMaxOhm === undefined) q.where('m.min_rds_on_vgs_v', '<=', f.rdsOnAtVgsV);
-  if (f.rdsOnAtVgsV !== undefined && f.rdsOnMaxOhm !== undefined) {
+  if (hasRdsOnBound(f) && !governingJoined) {
     // The governing line per VGS interval (mosfet_rds_on_governing, src/lib/rdson-governing.ts): at most one
     // interval of a part holds the drive, so this reads one row by primary key per candidate part.
-    q.whereExists((x) =>
-      x
-        .select(x.client.raw('1'))
-        .from('mosfet_rds_on_governing as gv')
-        .whereRaw('gv.part_id = parts.id')
-        .where('gv.vgs_from_v', '<=', f.rdsOnAtVgsV!)
-        .where((w) => w.whereNull('gv.vgs_to_v').orWhere('gv.vgs_to_v', '>', f.rdsOnAtVgsV!))
-        .where('gv.max_ohm', '<=', f.rdsOnMaxOhm!),
-    );
+    q.whereExists((x) => {
+      x.select(x.client.raw('1')).from('mosfet_rds_on_governing as gv').whereRaw('gv.part_id = parts.id');
+      governingHoldsDrive(x, f);
+    });
   }
 }
 
@@ -115,13 +120,32 @@ export interface PartScope {
 /** A list query with the viewer's scope (services/parts-access.ts listingScope). */
 export type ScopedPartQuery = PartListQuery & PartScope;
 
-/** parts joined to the category table (when a category is chosen), with every filter of the query applied. */
-export function filteredParts(db: Db, f: ScopedPartQuery): Knex.QueryBuilder {
-  const q = db('parts');
-  if (f.category) {
+/**
+ * parts joined to the category table (when a category is chosen), with every filter of the query applied.
+ * `driveFromRdsOn` (the plain parameter list, no text): with an RDS(on) bound the statement starts from
+ * the governing intervals that hold the drive within the bound (a covering index range, rds_gov_cover_idx)
+ * and then reads the MOSFET and the part by primary key, in that order (STRAIGHT_JOIN: the optimizer
+ * cannot estimate the interval condition and would otherwise read every MOSFET of the channel and voltage
+ * first, about five times the rows at catalogue size; measured in scripts/bench/profile-search.ts). The
+ * intervals of a part do not overlap, so the join yields each part at most once, as the EXISTS form does.
+ * Not for text search: there FULLTEXT must lead.
+ */
+export function filteredParts(db: Db, f: ScopedPartQuery, options: { driveFromRdsOn?: boolean } = {}): Knex.QueryBuilder {
+  const governingJoined = options.driveFromRdsOn === true && hasRdsOnBound(f);
+  const q = governingJoined
+    ? db('mosfet_rds_on_governing as gv')
+        .joinRaw('straight_join mosfet_params as m on m.part_id = gv.part_id')
+        .joinRaw('straight_join parts on parts.id = gv.part_id')
+        .where('parts.category', 'mosfet')
+    : db('parts');
+  if (governingJoined) {
+    governingHoldsDrive(q, f);
+    mosfetFilters(q, f, true);
+  } else if (f.category) {
     const { table, alias } = PARAM_TABLE[f.category];
     q.join(`${table} as ${alias}`, `${alias}.part_id`, 'parts.id').where('parts.category', f.category);
-    ({ mosfet: mosfetFilters, driver: driverFilters, diode: diodeFilters, motor: motorFilters })[f.category](q, f);
+    if (f.category === 'mosfet') mosfetFilters(q, f, false);
+    else ({ driver: driverFilters, diode: diodeFilters, motor: motorFilters })[f.category](q, f);
   }
   if (f.lifecycle?.length) q.whereIn('parts.lifecycle', f.lifecycle);
   if (f.reviewStatus?.length) q.whereIn('parts.review_status', f.reviewStatus);
@@ -141,7 +165,7 @@ export function applySort(q: Knex.QueryBuilder, sort: string | undefined): Knex.
 }
 
 export async function countFiltered(db: Db, f: ScopedPartQuery): Promise<number> {
-  const row = await filteredParts(db, f).count({ n: 'parts.id' }).first();
+  const row = await filteredParts(db, f, { driveFromRdsOn: true }).count({ n: 'parts.id' }).first();
   return Number(row?.n ?? 0);
 }
 
@@ -233,7 +257,7 @@ export async function filteredPageAndCount(
   limit: number,
 ): Promise<{ ids: number[]; total: number }> {
   const rows: { id: number; total: number | string }[] = await applySort(
-    filteredParts(db, f).select('parts.id', db.raw('count(*) over () as total')),
+    filteredParts(db, f, { driveFromRdsOn: true }).select('parts.id', db.raw('count(*) over () as total')),
     f.sort,
   )
     .offset(offset)
@@ -244,7 +268,9 @@ export async function filteredPageAndCount(
 
 /** One page of part ids in sort order. */
 export async function filteredIdsPage(db: Db, f: ScopedPartQuery, offset: number, limit: number): Promise<number[]> {
-  const rows: { id: number }[] = await applySort(filteredParts(db, f).select('parts.id'), f.sort).offset(offset).limit(limit);
+  const rows: { id: number }[] = await applySort(filteredParts(db, f, { driveFromRdsOn: true }).select('parts.id'), f.sort)
+    .offset(offset)
+    .limit(limit);
   return rows.map((r) => r.id);
 }
 

@@ -129,14 +129,18 @@ async function loadSources(db: Db, partIds: number[]): Promise<Map<number, PartS
 export async function hydrateParts(db: Db, rows: DbPartRow[]): Promise<Part[]> {
   if (rows.length === 0) return [];
   const ids = rows.map((r) => r.id);
+  // Each parameter table only for the parts of its category: a page of one category sends three statements fewer.
+  const idsOf = (category: PartCategory) => rows.filter((r) => r.category === category).map((r) => r.id);
+  const [mosfetIds, driverIds, diodeIds, motorIds] = [idsOf('mosfet'), idsOf('driver'), idsOf('diode'), idsOf('motor')];
+  const rowsOf = async <T>(table: string, partIds: number[]): Promise<T[]> => (partIds.length ? db(table).whereIn('part_id', partIds) : []);
   const [sources, mosfets, points, zthPoints, drivers, diodes, motors] = await Promise.all([
     loadSources(db, ids),
-    db<DbMosfetRow>('mosfet_params').whereIn('part_id', ids),
-    db<DbRdsOnRow>('mosfet_rds_on_points').whereIn('part_id', ids),
-    db<DbZthRow>('mosfet_zth_points').whereIn('part_id', ids),
-    db<DbDriverRow>('driver_params').whereIn('part_id', ids),
-    db<DbDiodeRow>('diode_params').whereIn('part_id', ids),
-    db<DbMotorRow>('motor_params').whereIn('part_id', ids),
+    rowsOf<DbMosfetRow>('mosfet_params', mosfetIds),
+    rowsOf<DbRdsOnRow>('mosfet_rds_on_points', mosfetIds),
+    rowsOf<DbZthRow>('mosfet_zth_points', mosfetIds),
+    rowsOf<DbDriverRow>('driver_params', driverIds),
+    rowsOf<DbDiodeRow>('diode_params', diodeIds),
+    rowsOf<DbMotorRow>('motor_params', motorIds),
   ]);
   const byId = <T extends { part_id: number }>(list: T[]) => new Map(list.map((r) => [r.part_id, r]));
   const mosfetById = byId(mosfets);
