@@ -15,8 +15,8 @@ export interface FilterChip {
   keys: string[];
 }
 
-/** Parameters that are not filters: the text (it stays in the search box), sorting, paging, format. */
-const NOT_FILTERS = new Set(['q', 'sort', 'page', 'pageSize', 'format']);
+/** Parameters that are not filters: the text (it stays in the search box) and its reading, sorting, paging, format. */
+const NOT_FILTERS = new Set(['q', 'units', 'sort', 'page', 'pageSize', 'format']);
 
 const KIND_LABELS: Record<string, string> = {
   schottky: 'Schottky',

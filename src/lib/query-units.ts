@@ -330,3 +330,36 @@ function orderedFilters(filters: QueryFilters): QueryFilters {
   for (const k of ORDER) if (filters[k] !== undefined) out[k] = filters[k];
   return out;
 }
+
+/** What the API understood in `q`: the filters taken from it (only those not also given explicitly). */
+export interface ExpandedQuery {
+  /** The request's parameters with those filters added and `q` left with the words that stay text. */
+  params: URLSearchParams;
+  understood: QueryFilters;
+}
+
+/**
+ * The search API's reading of its `q` parameter, the same as the search page's: quantities with units
+ * become filters ("schottky 40 V" → diodes, Schottky, VRRM ≥ 40 V) and the rest stays text. A filter given
+ * explicitly wins over the one read from the text; `units=off` leaves the text as it is.
+ */
+export function expandQueryText(input: URLSearchParams): ExpandedQuery {
+  const params = new URLSearchParams(input);
+  const q = params.get('q');
+  if (params.get('units') === 'off' || !q) return { params, understood: {} };
+  const chosen = params.get('category');
+  const known: readonly PartCategory[] = ['motor', 'mosfet', 'driver', 'diode'];
+  const context = known.includes(chosen as PartCategory) ? { category: chosen as PartCategory } : {};
+  const parsed = parseQueryUnits(q, context);
+  const understood: QueryFilters = {};
+  for (const [key, value] of Object.entries(parsed.filters) as [QueryFilterKey, string][]) {
+    if (params.has(key)) continue;
+    params.set(key, value);
+    understood[key] = value;
+  }
+  if (Object.keys(parsed.filters).length > 0) {
+    if (parsed.rest) params.set('q', parsed.rest);
+    else params.delete('q');
+  }
+  return { params, understood };
+}

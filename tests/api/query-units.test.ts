@@ -87,3 +87,49 @@ describe('other unit queries are accepted by the API as they are', () => {
     },
   );
 });
+
+describe('units in q= read by the API itself', () => {
+  const seedMpns = new Set(demoDiodes.map((d) => d.mpn));
+  const seedOnly = (items: Part[]) =>
+    items
+      .map((p) => p.mpn)
+      .filter((m) => seedMpns.has(m))
+      .sort();
+
+  it('"schottky 40 V" as text gives the same parts as the filters, and says what it understood', async () => {
+    const res = await request(appUrl()).get('/api/parts').query({ q: 'schottky 40 V', pageSize: 200 }).set('Cookie', librarian);
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(seedOnly(res.body.items)).toEqual(SCHOTTKY_40V_ALL);
+    expect(res.body.understood.filters).toEqual({ category: 'diode', kind: 'schottky', vrrmMinV: '40' });
+    // Hand-written chip labels, as the search page shows them.
+    expect(res.body.understood.chips.map((c: { label: string }) => c.label)).toEqual(['Diodes', 'Schottky', 'VRRM ≥ 40 V']);
+    expect(res.body.understood.q).toBeNull();
+  });
+
+  it('an explicit filter wins over the one in the text: VRRM ≥ 60 V keeps the 60 and 100 V Schottky parts', async () => {
+    const res = await request(appUrl())
+      .get('/api/parts')
+      .query({ q: 'schottky 40 V', vrrmMinV: '60', pageSize: 200 })
+      .set('Cookie', librarian);
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    // Hand list from db/seeds/data/diodes.ts: the Schottky diodes rated 60 V and 100 V.
+    expect(seedOnly(res.body.items)).toEqual(['ORS10-100-MA', 'ORS20-60-MA', 'ORS30-100-MB']);
+    expect(res.body.understood.filters).toEqual({ category: 'diode', kind: 'schottky' });
+  });
+
+  it('units=off keeps the words as text (no filter understood), and a bad value names the field', async () => {
+    const off = await request(appUrl()).get('/api/parts').query({ q: 'schottky 40 V', units: 'off' }).set('Cookie', librarian);
+    expect(off.status).toBe(200);
+    expect(off.body.understood).toEqual({ filters: {}, chips: [], q: 'schottky 40 V' });
+    const bad = await request(appUrl()).get('/api/parts').query({ q: 'schottky 40 V', units: 'maybe' }).set('Cookie', librarian);
+    expect(bad.status).toBe(400);
+    expect(bad.body.issues.map((i: { path: string }) => i.path)).toContain('units');
+  });
+
+  it('a part number stays text: QX-like words are not read as quantities', async () => {
+    const res = await request(appUrl()).get('/api/parts').query({ q: 'ORS20-40-MA' }).set('Cookie', librarian);
+    expect(res.status).toBe(200);
+    expect(res.body.understood.filters).toEqual({});
+    expect(res.body.items[0]?.mpn).toBe('ORS20-40-MA');
+  });
+});

@@ -151,7 +151,8 @@ export default function PartSearch({ packages, canCreate, initialQuery }: Props)
     const mine = ++seq.current;
     setLoad((l) => (l.state === 'ready' ? l : { state: 'loading' }));
     setLoading(true);
-    fetch(`/api/parts?${queryString}`, { headers: { Accept: 'application/json' } })
+    // The page reads units in its text itself (on Enter, as chips); the API is asked to leave them.
+    fetch(`/api/parts?${queryString ? `${queryString}&` : ''}units=off`, { headers: { Accept: 'application/json' } })
       .then(async (res) => {
         const body = await res.json().catch(() => ({ error: `The server answered ${res.status}.`, issues: [] }));
         if (mine !== seq.current) return;

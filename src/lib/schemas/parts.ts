@@ -354,6 +354,7 @@ export const partListQuerySchema = z
     {
       category: z.preprocess(blankToUndefined, z.enum(PART_CATEGORIES, { error: 'Category is motor, mosfet, driver or diode' }).optional()),
       q: z.preprocess(blankToUndefined, z.string().trim().max(100, { error: 'Search text: at most 100 characters' }).optional()),
+      units: z.preprocess(blankToUndefined, z.enum(['on', 'off'], { error: 'Units in the search text: on or off' }).optional()),
       page: z.preprocess(
         blankToUndefined,
         z.coerce
