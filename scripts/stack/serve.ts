@@ -3,7 +3,8 @@
  * security headers, and a graceful close (in-flight requests finish within a grace, then the app's knex
  * pool closes). `npm start` runs it in a supervised child process (app-server.ts); `npm test` in-process.
  * Each server also runs the scheduled distributor refresh (src/server/distributor/schedule.ts; off under
- * test unless DISTRIBUTOR_REFRESH_MIN is set), stopped before the pool closes.
+ * test unless DISTRIBUTOR_REFRESH_MIN is set) and the outbox runs (src/server/outbox/schedule.ts; off under
+ * test unless OUTBOX_INTERVAL_S is set), stopped before the pool closes.
  */
 import http from 'node:http';
 import { createReadStream, existsSync, statSync } from 'node:fs';
@@ -13,6 +14,7 @@ import { securityHeaders } from '../../src/server/http/security-headers.ts';
 import { readConfig } from '../../src/server/config.ts';
 import { closeWhenClosing, gracefulClose } from './graceful.ts';
 import { startDistributorSchedule } from '../../src/server/distributor/schedule.ts';
+import { startOutboxSchedule } from '../../src/server/outbox/schedule.ts';
 
 const TYPES: Record<string, string> = {
   '.js': 'text/javascript; charset=utf-8',
@@ -107,12 +109,14 @@ export async function startHttpServer(distDir: string, host: string, port: numbe
   const address = server.address();
   const actualPort = typeof address === 'object' && address ? address.port : port;
   const schedule = startDistributorSchedule(readConfig(process.env));
+  const outbox = startOutboxSchedule(readConfig(process.env));
   return {
     server,
     url: `http://${host}:${actualPort}`,
     async close(graceMs = readConfig(process.env).shutdownGraceS * 1000) {
       const allFinished = await gracefulClose(server, graceMs, closing.begin);
       await schedule.stop();
+      await outbox.stop();
       const shutdown = (globalThis as Record<symbol, unknown>)[Symbol.for('stallpoint.shutdown')];
       if (typeof shutdown === 'function') await (shutdown as () => Promise<void>)();
       return allFinished;

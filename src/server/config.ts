@@ -129,6 +129,22 @@ export const CONFIG_KEYS: readonly ConfigKey[] = [
       'minutes between scheduled refreshes of the cached distributor offers in each app server (one server at a time, by a lock in the database); `0` turns the schedule off',
   },
   {
+    key: 'OUTBOX_INTERVAL_S',
+    defaultText: '`15` (`npm test`: `0`)',
+    meaning:
+      'seconds between background runs in each app server that deliver e-mail still pending (requests for quotation) and delete datasheet objects still to be deleted; `0` turns the runs off (a send or removal still tries once at once)',
+  },
+  {
+    key: 'OUTBOX_RETRY_BASE_S',
+    defaultText: '`30`',
+    meaning: 'wait before the first retry of a failed mail delivery or object deletion; doubled after each further failure, up to 1 hour',
+  },
+  {
+    key: 'OUTBOX_MAIL_ATTEMPTS',
+    defaultText: '`8`',
+    meaning: 'tries of one pending e-mail before it is marked failed (shown to the buyer); object deletions are retried until they succeed',
+  },
+  {
     key: 'TRUST_PROXY',
     defaultText: 'unset',
     meaning: '`1` behind a reverse proxy you run: client addresses (for the sign-in limit) are then taken from `X-Forwarded-For`',
@@ -215,6 +231,9 @@ const envSchema = z.object({
   DISTRIBUTOR_TIMEOUT_MS: z.preprocess(blankToUndefined, z.coerce.number().int().min(50).max(120_000).default(3_000)),
   DISTRIBUTOR_RETRIES: z.preprocess(blankToUndefined, z.coerce.number().int().min(0).max(10).default(3)),
   DISTRIBUTOR_REFRESH_MIN: z.preprocess(blankToUndefined, z.coerce.number().min(0).max(10_080).optional()),
+  OUTBOX_INTERVAL_S: z.preprocess(blankToUndefined, z.coerce.number().min(0).max(86_400).optional()),
+  OUTBOX_RETRY_BASE_S: z.preprocess(blankToUndefined, z.coerce.number().min(0.1).max(86_400).default(30)),
+  OUTBOX_MAIL_ATTEMPTS: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).max(100).default(8)),
 });
 
 export interface DbConfig {
@@ -276,6 +295,16 @@ export interface DistributorConfig {
 
 export const DEFAULT_DISTRIBUTOR_FAKE_PORT = 2527;
 
+/** The background runs that finish side effects after their transaction committed (mail, object deletions). */
+export interface OutboxConfig {
+  /** Seconds between runs; 0 = no background runs. */
+  intervalS: number;
+  /** Wait before the first retry, seconds (doubled per failure, capped at an hour). */
+  retryBaseS: number;
+  /** Tries of one e-mail before it is marked failed. */
+  mailAttempts: number;
+}
+
 export interface AppConfig {
   nodeEnv: string | null;
   host: string;
@@ -299,6 +328,7 @@ export interface AppConfig {
   shutdownGraceS: number;
   buying: BuyingConfig;
   distributor: DistributorConfig;
+  outbox: OutboxConfig;
 }
 
 /** Raised when a variable does not parse; names every bad key. */
@@ -369,6 +399,11 @@ export function readConfig(env: NodeJS.ProcessEnv): AppConfig {
       timeoutMs: e.DISTRIBUTOR_TIMEOUT_MS,
       retries: e.DISTRIBUTOR_RETRIES,
       refreshMin: e.DISTRIBUTOR_REFRESH_MIN ?? (e.NODE_ENV === 'test' ? 0 : 15),
+    },
+    outbox: {
+      intervalS: e.OUTBOX_INTERVAL_S ?? (e.NODE_ENV === 'test' ? 0 : 15),
+      retryBaseS: e.OUTBOX_RETRY_BASE_S,
+      mailAttempts: e.OUTBOX_MAIL_ATTEMPTS,
     },
   };
 }
