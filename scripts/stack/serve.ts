@@ -3,8 +3,9 @@
  * security headers, and a graceful close (in-flight requests finish within a grace, then the app's knex
  * pool closes). `npm start` runs it in a supervised child process (app-server.ts); `npm test` in-process.
  * Each server also runs the scheduled distributor refresh (src/server/distributor/schedule.ts; off under
- * test unless DISTRIBUTOR_REFRESH_MIN is set) and the sweep of unsent change alerts (src/server/alert-sweep.ts;
- * off under test unless ALERT_SWEEP_S is set), both stopped before the pool closes.
+ * test unless DISTRIBUTOR_REFRESH_MIN is set), the sweep of unsent change alerts (src/server/alert-sweep.ts;
+ * off under test unless ALERT_SWEEP_S is set) and the outbox runs (src/server/outbox/schedule.ts; off under
+ * test unless OUTBOX_INTERVAL_S is set), all stopped before the pool closes.
  */
 import http from 'node:http';
 import { createReadStream, existsSync, statSync } from 'node:fs';
@@ -15,6 +16,7 @@ import { readConfig } from '../../src/server/config.ts';
 import { closeWhenClosing, gracefulClose } from './graceful.ts';
 import { startDistributorSchedule } from '../../src/server/distributor/schedule.ts';
 import { startAlertSweep } from '../../src/server/alert-sweep.ts';
+import { startOutboxSchedule } from '../../src/server/outbox/schedule.ts';
 
 const TYPES: Record<string, string> = {
   '.js': 'text/javascript; charset=utf-8',
@@ -110,12 +112,13 @@ export async function startHttpServer(distDir: string, host: string, port: numbe
   const actualPort = typeof address === 'object' && address ? address.port : port;
   const schedule = startDistributorSchedule(readConfig(process.env));
   const sweep = startAlertSweep(readConfig(process.env));
+  const outbox = startOutboxSchedule(readConfig(process.env));
   return {
     server,
     url: `http://${host}:${actualPort}`,
     async close(graceMs = readConfig(process.env).shutdownGraceS * 1000) {
       const allFinished = await gracefulClose(server, graceMs, closing.begin);
-      await Promise.all([schedule.stop(), sweep.stop()]);
+      await Promise.all([schedule.stop(), sweep.stop(), outbox.stop()]);
       const shutdown = (globalThis as Record<symbol, unknown>)[Symbol.for('stallpoint.shutdown')];
       if (typeof shutdown === 'function') await (shutdown as () => Promise<void>)();
       return allFinished;

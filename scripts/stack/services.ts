@@ -79,7 +79,7 @@ function createSink(knex: Knex): SMTPServer {
   });
 }
 
-async function startMailSink(env: NodeJS.ProcessEnv): Promise<Services> {
+export async function startMailSink(env: NodeJS.ProcessEnv): Promise<Services> {
   const knex = knexFactory(knexConfig(env));
   const sink = createSink(knex);
   const config = readConfig(env);

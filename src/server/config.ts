@@ -141,6 +141,22 @@ export const CONFIG_KEYS: readonly ConfigKey[] = [
       'seconds between sweeps of change alerts not yet mailed (after a mail failure, or a server that stopped mid-way) in each app server; each alert is mailed once however many servers sweep; `0` turns the sweep off',
   },
   {
+    key: 'OUTBOX_INTERVAL_S',
+    defaultText: '`15` (`npm test`: `0`)',
+    meaning:
+      'seconds between background runs in each app server that deliver e-mail still pending (requests for quotation) and delete datasheet objects still to be deleted; `0` turns the runs off (a send or removal still tries once at once)',
+  },
+  {
+    key: 'OUTBOX_RETRY_BASE_S',
+    defaultText: '`30`',
+    meaning: 'wait before the first retry of a failed mail delivery or object deletion; doubled after each further failure, up to 1 hour',
+  },
+  {
+    key: 'OUTBOX_MAIL_ATTEMPTS',
+    defaultText: '`8`',
+    meaning: 'tries of one pending e-mail before it is marked failed (shown to the buyer); object deletions are retried until they succeed',
+  },
+  {
     key: 'TRUST_PROXY',
     defaultText: 'unset',
     meaning: '`1` behind a reverse proxy you run: client addresses (for the sign-in limit) are then taken from `X-Forwarded-For`',
@@ -229,6 +245,9 @@ const envSchema = z.object({
   DISTRIBUTOR_REFRESH_MIN: z.preprocess(blankToUndefined, z.coerce.number().min(0).max(10_080).optional()),
   DISTRIBUTOR_LOCK_S: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).max(86_400).default(600)),
   ALERT_SWEEP_S: z.preprocess(blankToUndefined, z.coerce.number().min(0).max(86_400).optional()),
+  OUTBOX_INTERVAL_S: z.preprocess(blankToUndefined, z.coerce.number().min(0).max(86_400).optional()),
+  OUTBOX_RETRY_BASE_S: z.preprocess(blankToUndefined, z.coerce.number().min(0.1).max(86_400).default(30)),
+  OUTBOX_MAIL_ATTEMPTS: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).max(100).default(8)),
 });
 
 export interface DbConfig {
@@ -292,6 +311,16 @@ export interface DistributorConfig {
 
 export const DEFAULT_DISTRIBUTOR_FAKE_PORT = 2527;
 
+/** The background runs that finish side effects after their transaction committed (mail, object deletions). */
+export interface OutboxConfig {
+  /** Seconds between runs; 0 = no background runs. */
+  intervalS: number;
+  /** Wait before the first retry, seconds (doubled per failure, capped at an hour). */
+  retryBaseS: number;
+  /** Tries of one e-mail before it is marked failed. */
+  mailAttempts: number;
+}
+
 export interface AppConfig {
   nodeEnv: string | null;
   host: string;
@@ -317,6 +346,7 @@ export interface AppConfig {
   /** Seconds between sweeps of unsent change alerts in each app server; 0 = none. */
   alertSweepS: number;
   distributor: DistributorConfig;
+  outbox: OutboxConfig;
 }
 
 /** Raised when a variable does not parse; names every bad key. */
@@ -390,6 +420,11 @@ export function readConfig(env: NodeJS.ProcessEnv): AppConfig {
       lockS: e.DISTRIBUTOR_LOCK_S,
     },
     alertSweepS: e.ALERT_SWEEP_S ?? (e.NODE_ENV === 'test' ? 0 : 60),
+    outbox: {
+      intervalS: e.OUTBOX_INTERVAL_S ?? (e.NODE_ENV === 'test' ? 0 : 15),
+      retryBaseS: e.OUTBOX_RETRY_BASE_S,
+      mailAttempts: e.OUTBOX_MAIL_ATTEMPTS,
+    },
   };
 }
 

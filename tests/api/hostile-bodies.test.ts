@@ -48,7 +48,9 @@ async function snapshot(): Promise<string> {
     (select count(*) from supplier_contacts) contacts,
     (select concat(count(*), ':', group_concat(state order by id)) from quote_requests) quotes,
     (select count(*) from quote_request_lines) quote_lines,
-    (select count(*) from captured_mail) mail`);
+    (select count(*) from captured_mail) mail,
+    (select count(*) from mail_outbox) outbox,
+    (select count(*) from blob_deletions) blob_deletions`);
   return JSON.stringify(rows[0]);
 }
 

@@ -1,35 +1,44 @@
-/** Sends e-mail through nodemailer's SMTP transport, configured from the environment. */
+/** Sends e-mail through nodemailer's SMTP transport, configured from the environment (or a given MailConfig). */
 import nodemailer, { type Transporter } from 'nodemailer';
-import { mailConfigFromEnv } from './config.ts';
+import { mailConfigFromEnv, type MailConfig } from './config.ts';
 import type { MailMessage } from './messages.ts';
 
-let transporter: Transporter | null = null;
-let transporterKey = '';
+const transporters = new Map<string, Transporter>();
 
-function transport(): Transporter {
-  const config = mailConfigFromEnv();
+function transport(config: MailConfig): Transporter {
   const key = JSON.stringify(config);
-  if (!transporter || key !== transporterKey) {
-    transporter = nodemailer.createTransport({
+  let t = transporters.get(key);
+  if (!t) {
+    t = nodemailer.createTransport({
       host: config.host,
       port: config.port,
       secure: config.secure,
       auth: config.user ? { user: config.user, pass: config.password ?? '' } : undefined,
       connectionTimeout: 10_000,
       greetingTimeout: 10_000,
+      socketTimeout: 30_000,
     });
-    transporterKey = key;
+    transporters.set(key, t);
   }
-  return transporter;
+  return t;
 }
 
-export async function sendMail(to: string, message: MailMessage): Promise<void> {
-  await transport().sendMail({
-    from: mailConfigFromEnv().from,
+export interface SendOptions {
+  /** SMTP settings; the process's configuration when left out. */
+  config?: MailConfig;
+  /** A stable Message-ID (outbox mail: the same on every retry, so a receiver can drop a repeat). */
+  messageId?: string;
+}
+
+export async function sendMail(to: string, message: MailMessage, options: SendOptions = {}): Promise<void> {
+  const config = options.config ?? mailConfigFromEnv();
+  await transport(config).sendMail({
+    from: config.from,
     to,
     subject: message.subject,
     text: message.text,
     html: message.html,
+    ...(options.messageId ? { messageId: options.messageId } : {}),
     attachments: message.attachments?.map((a) => ({ filename: a.filename, contentType: a.contentType, content: a.content })),
   });
 }

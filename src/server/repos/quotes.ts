@@ -5,6 +5,9 @@ import { isoDate } from './part-mapping.ts';
 
 export type QuoteState = 'sent' | 'answered' | 'closed';
 
+/** mail_outbox.kind of the mail that carries a request for quotation (ref_id = quote_requests.id). */
+export const QUOTE_MAIL_KIND = 'quote_request';
+
 export interface SupplierContact {
   id: number;
   name: string;
@@ -48,6 +51,8 @@ export interface QuoteRequest {
   answeredAt: string | null;
   closedAt: string | null;
   lineCount: number;
+  /** The request's e-mail: pending until the SMTP server took it, delivered, or failed after the last try. */
+  mail: { state: 'pending' | 'delivered' | 'failed'; attempts: number; deliveredAt: string | null; lastError: string | null } | null;
 }
 
 export interface QuoteRequestDetail extends QuoteRequest {
@@ -95,6 +100,10 @@ const quoteColumns = (db: Db) => [
   'c.company as c_company',
   'c.email as c_email',
   'c.updated_at as c_updated_at',
+  'o.state as mail_state',
+  'o.attempts as mail_attempts',
+  'o.delivered_at as mail_delivered_at',
+  'o.last_error as mail_last_error',
   db.raw('(select count(*) from quote_request_lines l where l.quote_request_id = q.id) as line_count'),
 ];
 
@@ -110,6 +119,14 @@ function quoteFromRow(r: any): QuoteRequest {
     answeredAt: iso(r.answered_at),
     closedAt: iso(r.closed_at),
     lineCount: Number(r.line_count),
+    mail: r.mail_state
+      ? {
+          state: r.mail_state,
+          attempts: r.mail_attempts,
+          deliveredAt: iso(r.mail_delivered_at),
+          lastError: r.mail_state === 'delivered' ? null : (r.mail_last_error ?? null),
+        }
+      : null,
   };
 }
 
@@ -145,6 +162,7 @@ const quoteQuery = (db: Db) =>
   db('quote_requests as q')
     .join('supplier_contacts as c', 'c.id', 'q.contact_id')
     .leftJoin('users as u', 'u.id', 'q.created_by')
+    .leftJoin('mail_outbox as o', (j) => j.on('o.ref_id', 'q.id').andOn('o.kind', db.raw('?', [QUOTE_MAIL_KIND])))
     .select(quoteColumns(db));
 
 /** Every request, newest first. */

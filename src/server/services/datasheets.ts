@@ -14,6 +14,9 @@ import { deleteDatasheetRow, findDatasheet, findDatasheetBySha, insertDatasheet,
 import { findPartRow } from '../repos/part-writes.ts';
 import { insertAuditEvent } from '../repos/audit.ts';
 import { datasheetStore } from '../storage/index.ts';
+import { appConfig } from '../config.ts';
+import { insertBlobDeletion } from '../repos/blob-deletions.ts';
+import { deletePendingBlobs } from './outbox.ts';
 import { notFound, ServiceError } from './errors.ts';
 import { inspectPdf, PDF_INSPECTION_BUDGET, type PdfText } from './pdf-inspection.ts';
 import type { DbPartRow } from '../repos/part-rows.ts';
@@ -206,11 +209,19 @@ export async function addDatasheet(user: SessionUser, partId: number, upload: Da
   }
 }
 
+/**
+ * Removes the datasheet's record and, in the same transaction, records its object as still to be deleted
+ * (blob_deletions). After the commit the object is deleted at once; when the store does not answer the
+ * record stays and the background outbox run retries (src/server/services/outbox.ts), so the removal
+ * answers either way and no object is left without a record of it.
+ */
 export async function removeDatasheet(user: SessionUser, id: number): Promise<void> {
   const sheet = await findDatasheet(db(), id);
   if (!sheet) throw notFound('The datasheet');
+  let deletionId = 0;
   await db().transaction(async (trx) => {
     await deleteDatasheetRow(trx, id);
+    deletionId = await insertBlobDeletion(trx, appConfig().storage.kind, sheet.storageKey);
     await insertAuditEvent(trx, {
       actorUserId: user.id,
       action: 'datasheet.remove',
@@ -220,7 +231,9 @@ export async function removeDatasheet(user: SessionUser, id: number): Promise<vo
       after: null,
     });
   });
-  await datasheetStore().delete(sheet.storageKey);
+  await deletePendingBlobs({ onlyId: deletionId }).catch((err: unknown) =>
+    console.error(`[stallpoint] deleting datasheet object ${sheet.storageKey} failed: ${err instanceof Error ? err.message : String(err)}`),
+  );
 }
 
 export async function datasheetFile(id: number): Promise<{ name: string; bytes: Uint8Array }> {

@@ -4,9 +4,13 @@
  * answer per line, and closes the request. States: sent → answered → closed, or sent → closed; any other
  * move is a 409. Each answered line becomes a source of its part (distributor = the contact's company,
  * SKU Q<request>-<line>), so the shortlist prices it like any other source. Every write leaves an audit
- * event. The send is idempotent on the client's key: the mail goes out inside the transaction that writes
- * the request, and a second send with the same key waits on the key's unique index and then returns the
- * first request, so a double click sends one mail.
+ * event. The send is idempotent on the client's key: a second send with the same key waits on the key's
+ * unique index and then returns the first request, so a double click makes one request and one mail.
+ * The mail is never sent inside the transaction: the transaction that records the request as sent also
+ * writes the whole mail (text, HTML, CSV) into the outbox (mail_outbox), and only after the commit does
+ * this request try to deliver it (src/server/services/outbox.ts). A rolled-back send leaves no outbox row,
+ * so no mail; a mail server that does not answer leaves the row pending for the background retries, and
+ * the request shows "mail pending" until the mail server has taken it.
  */
 import { db } from '../db.ts';
 import type { SessionUser } from '../auth/types.ts';
@@ -25,6 +29,7 @@ import {
   listQuotes,
   lockQuoteState,
   partName,
+  QUOTE_MAIL_KIND,
   quoteIdByKey,
   setLineAnswer,
   setQuoteState,
@@ -34,8 +39,9 @@ import {
   type QuoteState,
   type SupplierContact,
 } from '../repos/quotes.ts';
-import { sendMail } from '../mail/send.ts';
 import type { MailMessage } from '../mail/messages.ts';
+import { insertOutboxMail } from '../repos/mail-outbox.ts';
+import { deliverPendingMail } from './outbox.ts';
 import { notFound, ServiceError } from './errors.ts';
 
 export type { QuoteRequest, QuoteRequestDetail, SupplierContact, QuoteState } from '../repos/quotes.ts';
@@ -157,6 +163,7 @@ export async function sendQuoteRequest(
   const earlier = await quoteIdByKey(db(), input.idempotencyKey);
   if (earlier !== null) return { quote: await quoteRequest(earlier), repeated: true };
   let id = 0;
+  let outboxId = 0;
   try {
     await db().transaction(async (trx) => {
       const contact = await findContact(trx, input.contactId);
@@ -191,14 +198,14 @@ export async function sendQuoteRequest(
         before: null,
         after: { state: 'sent', contactId: contact.id, to: contact.email, wantedBy: input.wantedBy, notes: input.notes, lines },
       });
-      try {
-        await sendMail(contact.email, requestMessage(id, contact, actor, input, lines));
-      } catch (err) {
-        console.error(`[stallpoint] could not send quote request Q-${id}: ${err instanceof Error ? err.message : String(err)}`);
-        throw new ServiceError(503, 'The mail server did not take the request for quotation; nothing was sent or saved. Try again.', [], {
-          'Retry-After': '30',
-        });
-      }
+      // Last write of the transaction: the mail itself, delivered only once all of this has committed.
+      outboxId = await insertOutboxMail(trx, {
+        idempotencyKey: `${QUOTE_MAIL_KIND}:${input.idempotencyKey}`,
+        kind: QUOTE_MAIL_KIND,
+        refId: id,
+        to: contact.email,
+        message: requestMessage(id, contact, actor, input, lines),
+      });
     });
   } catch (err) {
     if (isDuplicate(err)) {
@@ -207,7 +214,21 @@ export async function sendQuoteRequest(
     }
     throw err;
   }
+  await deliverSoon(outboxId);
   return { quote: await quoteRequest(id), repeated: false };
+}
+
+/** How long a send waits for its own mail before it answers "mail pending" (the try goes on in the background). */
+export const SEND_WAIT_MS = 3_000;
+
+/** One delivery try of the mail just committed, waited for up to SEND_WAIT_MS; failures stay in the outbox. */
+async function deliverSoon(outboxId: number): Promise<void> {
+  const attempt = deliverPendingMail({ onlyId: outboxId }).catch((err: unknown) =>
+    console.error(`[stallpoint] delivering quote mail ${outboxId} failed: ${err instanceof Error ? err.message : String(err)}`),
+  );
+  let timer: NodeJS.Timeout | undefined;
+  await Promise.race([attempt, new Promise<void>((resolve) => (timer = setTimeout(resolve, SEND_WAIT_MS).unref()))]);
+  clearTimeout(timer);
 }
 
 const wrongState = (id: number, state: QuoteState, wanted: string) =>
