@@ -216,6 +216,14 @@ export async function matchPageOf(
   return leanMatchPage(input, motor.label, motor.params, catalogue, prepared, ranked, page);
 }
 
+/**
+ * A client that has gone away (request.signal aborted) gets no ranking: checked before a match slot is
+ * taken and again before the catalogue is loaded. Work already ranking is not stopped yet (issue 12).
+ */
+function stopIfAborted(signal: AbortSignal | undefined): void {
+  if (signal?.aborted) throw new ServiceError(503, 'The match was cancelled: the client closed the request.');
+}
+
 export async function designExists(id: number): Promise<boolean> {
   return (await findDesignRow(db(), id)) !== undefined;
 }
@@ -227,7 +235,7 @@ export async function designExists(id: number): Promise<boolean> {
  * suggestions come from the full ranking); the answer carries `limit` entries per list from `offset`
  * plus the picks. At most MATCH_CONCURRENCY run at once (429 beyond).
  */
-export async function matchRequest(designId: number | null, request: MatchRequest): Promise<DesignMatchPage> {
+export async function matchRequest(designId: number | null, request: MatchRequest, signal?: AbortSignal): Promise<DesignMatchPage> {
   if (designId === null) {
     if (!request.input) throw new ServiceError(400, 'Send the design input to rank.', [{ path: 'input', message: 'required' }]);
     if (request.revision !== undefined)
@@ -235,9 +243,11 @@ export async function matchRequest(designId: number | null, request: MatchReques
   } else if (request.input && request.revision !== undefined) {
     throw new ServiceError(400, 'Send either unsaved input or a revision, not both.', [{ path: 'revision', message: 'not with input' }]);
   }
+  stopIfAborted(signal);
   return withMatchSlot(async () => {
     const input = designId === null ? request.input! : (request.input ?? (await getDesign(designId, request.revision)).input);
     if (designId !== null && request.input) await getDesign(designId);
+    stopIfAborted(signal);
     const page = { limit: request.limit, offset: request.offset };
     return matchPageOf(input, request.includePending, page);
   });

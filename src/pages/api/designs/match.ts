@@ -5,5 +5,5 @@ import { readJson } from '../../../server/http/request.ts';
 
 /** POST /api/designs/match {includePending?, input}: the same pipeline for a design not saved yet. */
 export const POST: APIRoute = async ({ request }) => {
-  return Response.json(await matchRequest(null, await readJson(request, matchRequestSchema)));
+  return Response.json(await matchRequest(null, await readJson(request, matchRequestSchema), request.signal));
 };

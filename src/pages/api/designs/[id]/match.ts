@@ -9,5 +9,5 @@ import { readJson, routeId } from '../../../../server/http/request.ts';
  */
 export const POST: APIRoute = async ({ params, request }) => {
   const id = routeId(params.id, 'The design');
-  return Response.json(await matchRequest(id, await readJson(request, matchRequestSchema)));
+  return Response.json(await matchRequest(id, await readJson(request, matchRequestSchema), request.signal));
 };
