@@ -159,14 +159,41 @@ async function rankInPhases<R extends { ranking: DesignRanking }>(
   input: DesignInput,
   load: (phase: SwitchDrivePhase) => Promise<MatchCatalogue>,
   rank: (catalogue: MatchCatalogue) => R,
+  watch: MatchWatch = {},
 ): Promise<{ catalogue: MatchCatalogue; ranked: R }> {
+  const step = (name: MatchStep) => checkpoint(watch, name);
   if (input.selections.driver.chosenPartId == null) {
     const direct = await load('direct');
+    await step('loaded-direct');
     const ranked = rank(direct);
+    await step('ranked-direct');
     if (!ranked.ranking.driverNeeded && ranked.ranking.switch.some((e) => e.verdict === 'pass')) return { catalogue: direct, ranked };
   }
   const catalogue = await load('driver');
-  return { catalogue, ranked: rank(catalogue) };
+  await step('loaded-driver');
+  const ranked = rank(catalogue);
+  await step('ranked-driver');
+  return { catalogue, ranked };
+}
+
+/** The points between the steps of a match where a client that has gone away stops it. */
+export type MatchStep = 'loaded-direct' | 'ranked-direct' | 'loaded-driver' | 'ranked-driver' | 'priced';
+
+/** What a match run listens to: the request's abort signal, and an observer of the steps it reaches (tests, tracing). */
+export interface MatchWatch {
+  signal?: AbortSignal;
+  onStep?: (step: MatchStep) => void;
+}
+
+/**
+ * Lets pending I/O run (a closed socket aborts the request's signal there), then stops the match if the
+ * client has gone: the catalogue loads, rankings, pricing and page after this point never run.
+ */
+async function checkpoint(watch: MatchWatch, step: MatchStep): Promise<void> {
+  watch.onStep?.(step);
+  if (!watch.signal) return;
+  await new Promise<void>((resolve) => setImmediate(resolve));
+  stopIfAborted(watch.signal);
 }
 
 const switchPicksOf = (input: DesignInput): number[] => {
@@ -204,6 +231,7 @@ export async function matchPageOf(
   page: { offset: number; limit: number },
   k: Knex | Knex.Transaction = db(),
   resolved?: ResolvedMotor,
+  watch: MatchWatch = {},
 ): Promise<DesignMatchPage> {
   const motor = resolved ?? (await resolveMotor(input, k));
   const prepared = prepareCase(input, motor.params);
@@ -211,14 +239,17 @@ export async function matchPageOf(
     input,
     (phase) => loadCandidates(k, prepared, includePending, phase, switchPicksOf(input), input.boardQuantity, false),
     (c) => rankForMatchLean(input, c, prepared),
+    watch,
   );
   await priceCandidates(k, catalogue, idsNeedingPrice(ranked.ranking, input, page), input.boardQuantity);
+  await checkpoint(watch, 'priced');
   return leanMatchPage(input, motor.label, motor.params, catalogue, prepared, ranked, page);
 }
 
 /**
  * A client that has gone away (request.signal aborted) gets no ranking: checked before a match slot is
- * taken and again before the catalogue is loaded. Work already ranking is not stopped yet (issue 12).
+ * taken, before the catalogue is loaded, and between the match's steps (checkpoint). A ranking already
+ * running finishes its list; the steps after it do not run.
  */
 function stopIfAborted(signal: AbortSignal | undefined): void {
   if (signal?.aborted) throw new ServiceError(503, 'The match was cancelled: the client closed the request.');
@@ -249,6 +280,6 @@ export async function matchRequest(designId: number | null, request: MatchReques
     if (designId !== null && request.input) await getDesign(designId);
     stopIfAborted(signal);
     const page = { limit: request.limit, offset: request.offset };
-    return matchPageOf(input, request.includePending, page);
+    return matchPageOf(input, request.includePending, page, db(), undefined, { signal });
   });
 }
