@@ -6,7 +6,14 @@
 import type { DesignInput } from './domain/design.ts';
 import type { CandidatePart, Lifecycle, MotorParams, ReviewStatus } from './domain/parts.ts';
 import { designCaseOf } from './design-input.ts';
-import { rankDesign, rankDesignLean, type DesignCatalogue, type DesignRanking, type RankingJudges } from './rank-design.ts';
+import {
+  rankDesign,
+  rankDesignLean,
+  type DesignCatalogue,
+  type DesignPicks,
+  type DesignRanking,
+  type RankingJudges,
+} from './rank-design.ts';
 import { worstCaseOf, type DesignCase, type WorstCase } from './design-case.ts';
 import { SCORE_EXPLANATION, sortCandidates, type CandidateResult } from './ranking.ts';
 import { bestUnitPrice } from './part-summary.ts';
@@ -191,18 +198,18 @@ export function prepareCase(input: DesignInput, motor: MotorParams): PreparedCas
 
 /** The engine's ranking for a design (no prices: they only break ties when the match is decorated). */
 export function rankForMatch(input: DesignInput, catalogue: DesignCatalogue, prepared: PreparedCase): DesignRanking {
+  return rankDesign(prepared.designCase, catalogue, picksOf(input), prepared.worstCase);
+}
+
+/** The designer's picks as the ranking takes them. */
+function picksOf(input: DesignInput): DesignPicks {
   const sel = input.selections;
-  return rankDesign(
-    prepared.designCase,
-    catalogue,
-    {
-      switchId: sel.switch.chosenPartId,
-      driverId: sel.driver.chosenPartId,
-      diodeId: sel.diode.chosenPartId,
-      resetStartIntended: input.resetStartIntent != null,
-    },
-    prepared.worstCase,
-  );
+  return {
+    switchId: sel.switch.chosenPartId,
+    driverId: sel.driver.chosenPartId,
+    diodeId: sel.diode.chosenPartId,
+    resetStartIntended: input.resetStartIntent != null,
+  };
 }
 
 /** rankForMatch kept lean (rankDesignLean): for the match pages, which judge in full only what they show. */
@@ -211,18 +218,7 @@ export function rankForMatchLean(
   catalogue: DesignCatalogue,
   prepared: PreparedCase,
 ): { ranking: DesignRanking; judges: RankingJudges } {
-  const sel = input.selections;
-  return rankDesignLean(
-    prepared.designCase,
-    catalogue,
-    {
-      switchId: sel.switch.chosenPartId,
-      driverId: sel.driver.chosenPartId,
-      diodeId: sel.diode.chosenPartId,
-      resetStartIntended: input.resetStartIntent != null,
-    },
-    prepared.worstCase,
-  );
+  return rankDesignLean(prepared.designCase, catalogue, picksOf(input), prepared.worstCase);
 }
 
 /** Ranks the catalogue candidates for a design and decorates each with price and lifecycle. */

@@ -9,17 +9,9 @@ export interface PriceBreakRow {
   unitPrice: number;
 }
 
-export interface CachedOffer {
+/** A cached offer: the figures as fetched, with when they were fetched and the last fetch's error. */
+export interface CachedOffer extends FetchedOffer {
   id: number;
-  partId: number;
-  mpn: string;
-  distributor: string;
-  sku: string;
-  stockQty: number;
-  moq: number;
-  currency: string;
-  priceBreaks: PriceBreakRow[];
-  leadTimeDays: number | null;
   fetchedAt: Date;
   checkedAt: Date;
   lastError: string | null;
