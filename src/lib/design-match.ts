@@ -86,9 +86,24 @@ const LIFECYCLE_RANK: Readonly<Record<Lifecycle, number>> = { active: 0, nrnd: 1
 
 /** Ties on verdict and score: the lower price at the build quantity first, then the healthier lifecycle. */
 function tiebreak(a: MatchEntry, b: MatchEntry): number {
-  const pa = a.priceAtQty?.unitPrice ?? Infinity;
-  const pb = b.priceAtQty?.unitPrice ?? Infinity;
-  return (pa === pb ? 0 : pa < pb ? -1 : 1) || LIFECYCLE_RANK[a.lifecycle] - LIFECYCLE_RANK[b.lifecycle];
+  return cheaperThenHealthier(a.priceAtQty?.unitPrice ?? Infinity, a.lifecycle, b.priceAtQty?.unitPrice ?? Infinity, b.lifecycle);
+}
+
+/** The tie-break itself: the lower unit price first (unpriced = Infinity, last), then the healthier lifecycle. */
+function cheaperThenHealthier(pa: number, la: Lifecycle, pb: number, lb: Lifecycle): number {
+  return (pa === pb ? 0 : pa < pb ? -1 : 1) || LIFECYCLE_RANK[la] - LIFECYCLE_RANK[lb];
+}
+
+/** Runs of equal verdict and score in a ranked list (it is sorted on them): the ties a price can reorder. */
+export function tieGroups<T extends { verdict: string; score: number }>(list: readonly T[]): T[][] {
+  const groups: T[][] = [];
+  let last: T | undefined;
+  for (const e of list) {
+    if (last && last.verdict === e.verdict && last.score === e.score) groups[groups.length - 1].push(e);
+    else groups.push([e]);
+    last = e;
+  }
+  return groups;
 }
 
 type AnyCandidatePart = CandidatePart<'mosfet' | 'driver' | 'diode'>;
@@ -126,25 +141,18 @@ export function matchOrder<T extends CandidateResult>(
   parts: Map<number | undefined, AnyCandidatePart>,
   qty: number,
 ): T[] {
-  const out: T[] = [];
   const priceOf = (e: T) => {
     const part = e.partId == null ? undefined : parts.get(e.partId);
     return (part && part.sources.length > 0 ? bestUnitPrice(part, qty)?.price : undefined) ?? Infinity;
   };
-  const lifecycleOf = (e: T) => LIFECYCLE_RANK[(e.partId == null ? undefined : parts.get(e.partId))?.lifecycle ?? 'active'];
-  for (let i = 0; i < ranked.length;) {
-    let j = i + 1;
-    while (j < ranked.length && ranked[j].verdict === ranked[i].verdict && ranked[j].score === ranked[i].score) j++;
-    if (j - i === 1) out.push(ranked[i]);
-    else {
-      const group = ranked.slice(i, j).map((e) => ({ e, price: priceOf(e), life: lifecycleOf(e) }));
-      // Stable: within equal price and lifecycle the engine's MPN order stays.
-      group.sort((a, b) => (a.price === b.price ? 0 : a.price < b.price ? -1 : 1) || a.life - b.life);
-      for (const g of group) out.push(g.e);
-    }
-    i = j;
-  }
-  return out;
+  const lifecycleOf = (e: T): Lifecycle => (e.partId == null ? undefined : parts.get(e.partId))?.lifecycle ?? 'active';
+  return tieGroups(ranked).flatMap((group) => {
+    if (group.length === 1) return group;
+    const keyed = group.map((e) => ({ e, price: priceOf(e), life: lifecycleOf(e) }));
+    // Stable: within equal price and lifecycle the engine's MPN order stays.
+    keyed.sort((a, b) => cheaperThenHealthier(a.price, a.life, b.price, b.life));
+    return keyed.map((k) => k.e);
+  });
 }
 
 function decorate<T extends CandidateResult>(

@@ -15,6 +15,7 @@ import {
   matchHead,
   matchOrder,
   suggestSelections,
+  tieGroups,
   usableForPick,
   type DesignMatch,
   type MatchCatalogue,
@@ -215,18 +216,6 @@ export function leanMatchPage(
     lists,
     suggested,
   };
-}
-
-/** Runs of equal verdict and score in a ranked list (it is sorted on them): the ties a price can reorder. */
-function tieGroups<T extends { verdict: string; score: number }>(list: readonly T[]): T[][] {
-  const groups: T[][] = [];
-  let last: T | undefined;
-  for (const e of list) {
-    if (last && last.verdict === e.verdict && last.score === e.score) groups[groups.length - 1].push(e);
-    else groups.push([e]);
-    last = e;
-  }
-  return groups;
 }
 
 /**

@@ -16,6 +16,7 @@ import { canEditDesign, getDesign, matchPageOf, resolveMotor } from './designs.t
 import { withLockedVersion } from '../repos/versioned.ts';
 import { DESIGN_ENTITY, sameDesign } from './design-entity.ts';
 import { partsByIds } from '../repos/parts.ts';
+import { DEFAULT_MATCH_LIMIT } from '../../lib/schemas/design.ts';
 
 /** designs.status_reason is VARCHAR(2000). */
 const REASON_MAX_CHARS = 2000;
@@ -41,7 +42,7 @@ const pickIds = (input: DesignInput): number[] =>
  * The entries a verification keeps of each list: the first page (the best parts, which the alerts offer as
  * alternates and the report reads the paired driver from) besides every pick, which always travels with it.
  */
-const VERIFY_PAGE = { offset: 0, limit: 25 };
+const VERIFY_PAGE = { offset: 0, limit: DEFAULT_MATCH_LIMIT };
 
 /**
  * Runs the match for an input (the whole catalogue ranked; the first page and every pick judged in full,
