@@ -123,6 +123,8 @@ export async function startMariaDb(db: MariaDbInstance, teardown: Teardown | nul
       `--log-bin=${path.join(db.dataDir, 'binlog')}`,
       '--binlog-format=ROW',
       '--binlog-expire-logs-seconds=259200',
+      // The catalogue-version triggers (db/migrations/…_create_catalogue_version.ts) with the binary log on.
+      '--log-bin-trust-function-creators=1',
       ...db.extraArgs,
     ],
     { stdio: ['ignore', errLog, errLog], detached: false },
@@ -168,6 +170,8 @@ export function ensureDatabaseAndUser(db: MariaDbInstance, name: string, user: s
       `ALTER USER '${ident(user)}'@'127.0.0.1' IDENTIFIED BY '${pw}';`,
       `GRANT ALL PRIVILEGES ON \`${ident(name)}\`.* TO '${ident(user)}'@'127.0.0.1';`,
       'FLUSH PRIVILEGES;',
+      // An instance started earlier without the flag (reused): the catalogue-version triggers need it.
+      'SET GLOBAL log_bin_trust_function_creators = 1;',
     ].join(' '),
   );
 }

@@ -17,6 +17,7 @@ import { closeWhenClosing, gracefulClose } from './graceful.ts';
 import { startDistributorSchedule } from '../../src/server/distributor/schedule.ts';
 import { startAlertSweep } from '../../src/server/alert-sweep.ts';
 import { startOutboxSchedule } from '../../src/server/outbox/schedule.ts';
+import { warmCandidates } from '../../src/server/services/candidate-cache.ts';
 
 const TYPES: Record<string, string> = {
   '.js': 'text/javascript; charset=utf-8',
@@ -113,6 +114,8 @@ export async function startHttpServer(distDir: string, host: string, port: numbe
   const schedule = startDistributorSchedule(readConfig(process.env));
   const sweep = startAlertSweep(readConfig(process.env));
   const outbox = startOutboxSchedule(readConfig(process.env));
+  // The match's in-memory candidates, read in the background so the first match does not wait for them.
+  warmCandidates();
   return {
     server,
     url: `http://${host}:${actualPort}`,

@@ -96,6 +96,12 @@ export const CONFIG_KEYS: readonly ConfigKey[] = [
   { key: 'CALC_RATE_LIMIT_PER_MIN', defaultText: '`600`', meaning: 'calculator requests per client address per minute (per app server)' },
   { key: 'MATCH_CONCURRENCY', defaultText: '`4`', meaning: 'design matches ranked at once per app server; more get 429 with Retry-After' },
   {
+    key: 'MATCH_CACHE',
+    defaultText: '`on`',
+    meaning:
+      '`on` keeps the match candidates in memory, reloaded when the catalogue version changes (about 150 MB at 67,000 parts); `off` reads them from the database on every match',
+  },
+  {
     key: 'ORG_CURRENCY',
     defaultText: '`EUR`',
     meaning: "the organisation's currency (ISO 4217): shortlist totals are converted into it with the rates an admin keeps on `/rates`",
@@ -223,6 +229,7 @@ const envSchema = z.object({
   SMTP_SINK_PORT: z.preprocess(blankToUndefined, z.coerce.number().int().min(0).max(65_535).optional()),
   CALC_RATE_LIMIT_PER_MIN: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).default(600)),
   MATCH_CONCURRENCY: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).max(64).default(4)),
+  MATCH_CACHE: z.preprocess(blankToUndefined, z.enum(['on', 'off']).default('on')),
   TRUST_PROXY: z.preprocess(blankToUndefined, z.enum(['0', '1']).default('0')),
   ORG_CURRENCY: z.preprocess(
     blankToUndefined,
@@ -339,6 +346,7 @@ export interface AppConfig {
   calcRateLimitPerMin: number;
   /** Design matches ranked at once per app server. */
   matchConcurrency: number;
+  matchCache: 'on' | 'off';
   trustProxy: boolean;
   /** SIGTERM: how long requests in flight may still run. */
   shutdownGraceS: number;
@@ -408,6 +416,7 @@ export function readConfig(env: NodeJS.ProcessEnv): AppConfig {
     sinkPort: e.SMTP_SINK_PORT ?? null,
     calcRateLimitPerMin: e.CALC_RATE_LIMIT_PER_MIN,
     matchConcurrency: e.MATCH_CONCURRENCY,
+    matchCache: e.MATCH_CACHE,
     trustProxy: e.TRUST_PROXY === '1',
     shutdownGraceS: e.SHUTDOWN_GRACE_S,
     buying: { orgCurrency: e.ORG_CURRENCY, attritionPct: e.ATTRITION_PCT },

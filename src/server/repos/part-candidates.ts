@@ -234,3 +234,92 @@ export async function loadCandidateParts(db: Db, bounds: CandidateBounds, includ
     totals: { mosfet, driver, diode },
   };
 }
+
+/** A source with every price break, as the in-memory candidates keep it (breaks by rising quantity). */
+export interface SourceBreaks {
+  moq: number;
+  currency: string;
+  breaks: { qty: number; unitPrice: number }[];
+}
+
+/** Every part the match may rank, whatever the design: MOSFETs, drivers and diodes not obsolete, approved or pending. */
+export interface WholeCandidateRows {
+  mosfets: { part: CandidatePart<'mosfet'>; minRdsOnVgsV: number }[];
+  drivers: CandidatePart<'driver'>[];
+  diodes: CandidatePart<'diode'>[];
+  /** Sources per part id, in source id order. */
+  sources: Map<number, SourceBreaks[]>;
+}
+
+function wholeOf(db: Db, category: string) {
+  return db<DbPartRow>('parts')
+    .where('parts.category', category)
+    .whereIn('parts.review_status', ['approved', 'pending'])
+    .whereNot('parts.lifecycle', 'obsolete');
+}
+
+/**
+ * The whole candidate catalogue, read in the caller's transaction (one snapshot, with the version read
+ * there too) for the match's in-memory candidates. Parts come with no sources; `sources` has them all.
+ */
+export async function loadWholeCandidateRows(trx: Db): Promise<WholeCandidateRows> {
+  const ids = (category: string) => wholeOf(trx, category).select('parts.id');
+  const mosfetRows = (await wholeOf(trx, 'mosfet')
+    .join('mosfet_params', 'mosfet_params.part_id', 'parts.id')
+    .select('mosfet_params.*', ...HEAD_COLUMNS)
+    .orderBy('parts.id')) as (HeadRow & DbMosfetRow)[];
+  const points = (await trx<DbRdsOnRow>('mosfet_rds_on_points')
+    .whereIn('part_id', ids('mosfet'))
+    .select('part_id', 'vgs_v', 'tj_c', 'max_ohm', 'typ_ohm', 'id_a')) as DbRdsOnRow[];
+  const zth = (await trx<DbZthRow>('mosfet_zth_points')
+    .whereIn('part_id', ids('mosfet'))
+    .select('part_id', 'pulse_s', 'zth_c_per_w')) as DbZthRow[];
+  const driverRows = (await wholeOf(trx, 'driver')
+    .join('driver_params', 'driver_params.part_id', 'parts.id')
+    .select('driver_params.*', ...HEAD_COLUMNS)
+    .orderBy('parts.id')) as (HeadRow & DbDriverRow)[];
+  const diodeRows = (await wholeOf(trx, 'diode')
+    .join('diode_params', 'diode_params.part_id', 'parts.id')
+    .select('diode_params.*', ...HEAD_COLUMNS)
+    .orderBy('parts.id')) as (HeadRow & DbDiodeRow)[];
+  const breakRows: PriceRow[] = await trx('part_sources')
+    .join('part_price_breaks', 'part_price_breaks.source_id', 'part_sources.id')
+    .join('parts', 'parts.id', 'part_sources.part_id')
+    .whereIn('parts.category', ['mosfet', 'driver', 'diode'])
+    .whereIn('parts.review_status', ['approved', 'pending'])
+    .whereNot('parts.lifecycle', 'obsolete')
+    .select(
+      'part_sources.part_id',
+      'part_sources.id as source_id',
+      'part_sources.moq',
+      'part_sources.currency',
+      'part_price_breaks.qty',
+      'part_price_breaks.unit_price',
+    )
+    .orderBy([{ column: 'part_sources.id' }, { column: 'part_price_breaks.qty' }]);
+  const sources = new Map<number, SourceBreaks[]>();
+  let sourceId = -1;
+  let source: SourceBreaks = { moq: 0, currency: '', breaks: [] };
+  for (const r of breakRows) {
+    if (r.source_id !== sourceId) {
+      sourceId = r.source_id;
+      source = { moq: r.moq, currency: r.currency, breaks: [] };
+      const list = sources.get(r.part_id);
+      if (list) list.push(source);
+      else sources.set(r.part_id, [source]);
+    }
+    source.breaks.push({ qty: r.qty, unitPrice: Number(r.unit_price) });
+  }
+  const none = new Map<number, PriceSource[]>();
+  const pointsById = groupBy(points, (p) => p.part_id);
+  const zthById = groupBy(zth, (p) => p.part_id);
+  return {
+    mosfets: mosfetRows.map((r) => ({
+      part: { ...head('mosfet', r, none), params: mosfetFromRows(r, pointsById.get(r.id) ?? [], zthById.get(r.id) ?? []) },
+      minRdsOnVgsV: r.min_rds_on_vgs_v,
+    })),
+    drivers: driverRows.map((r) => ({ ...head('driver', r, none), params: driverFromRow(r) })),
+    diodes: diodeRows.map((r) => ({ ...head('diode', r, none), params: diodeFromRow(r) })),
+    sources,
+  };
+}

@@ -1,8 +1,13 @@
 /** The catalogue a design is ranked against: the bounds from its worst case, the parts from the repo. */
 import type { Db } from '../db.ts';
 import type { MatchCatalogue, PreparedCase } from '../../lib/design-match.ts';
+import type { PriceSource } from '../../lib/domain/parts.ts';
 import { driverSupplyOf } from '../../lib/driver-ranking.ts';
 import { candidatePriceSources, loadCandidateParts, type CandidateBounds } from '../repos/part-candidates.ts';
+import { candidatesOf, currentCandidates, priceSourcesFrom, type CandidateSnapshot } from './candidate-cache.ts';
+
+/** The in-memory snapshot a match's catalogue came from, so its pricing reads the same one. */
+const snapshotOf = new WeakMap<MatchCatalogue, CandidateSnapshot>();
 
 /**
  * Which gate drive the switch candidates are narrowed for: `direct` keeps only MOSFETs the logic pin
@@ -40,18 +45,31 @@ export async function loadCandidates(
   boardQuantity = 1,
   prices = true,
 ): Promise<MatchCatalogue> {
-  const { mosfets, drivers, diodes, totals } = await loadCandidateParts(
-    db,
-    candidateBounds(prepared, phase, switchPickIds, boardQuantity),
-    includePending,
-    prices,
-  );
-  return {
+  const bounds = candidateBounds(prepared, phase, switchPickIds, boardQuantity);
+  const snapshot = await currentCandidates(db);
+  const { mosfets, drivers, diodes, totals } = snapshot
+    ? candidatesOf(snapshot, bounds, includePending)
+    : await loadCandidateParts(db, bounds, includePending, prices);
+  const catalogue: MatchCatalogue = {
     mosfets,
     drivers,
     diodes,
     excluded: { switch: totals.mosfet - mosfets.length, driver: totals.driver - drivers.length, diode: totals.diode - diodes.length },
   };
+  if (snapshot) {
+    snapshotOf.set(catalogue, snapshot);
+    if (prices) fillSources(catalogue, priceSourcesFrom(snapshot, idsOf(catalogue), boardQuantity), null);
+  }
+  return catalogue;
+}
+
+const idsOf = (catalogue: MatchCatalogue): number[] =>
+  [...catalogue.mosfets, ...catalogue.drivers, ...catalogue.diodes].flatMap((p) => (p.id == null ? [] : [p.id]));
+
+function fillSources(catalogue: MatchCatalogue, sources: Map<number, PriceSource[]>, only: ReadonlySet<number> | null): void {
+  for (const part of [...catalogue.mosfets, ...catalogue.drivers, ...catalogue.diodes]) {
+    if (part.id != null && (only == null || only.has(part.id))) part.sources = sources.get(part.id) ?? [];
+  }
 }
 
 /** Fills in the sources (price break at the build quantity) of the given candidates, loaded without prices. */
@@ -61,8 +79,9 @@ export async function priceCandidates(
   partIds: ReadonlySet<number>,
   boardQuantity: number,
 ): Promise<void> {
-  const sources = await candidatePriceSources(db, [...partIds], boardQuantity);
-  for (const part of [...catalogue.mosfets, ...catalogue.drivers, ...catalogue.diodes]) {
-    if (part.id != null && partIds.has(part.id)) part.sources = sources.get(part.id) ?? [];
-  }
+  const snapshot = snapshotOf.get(catalogue);
+  const sources = snapshot
+    ? priceSourcesFrom(snapshot, partIds, boardQuantity)
+    : await candidatePriceSources(db, [...partIds], boardQuantity);
+  fillSources(catalogue, sources, partIds);
 }
