@@ -9,12 +9,14 @@ import { designCaseOf } from './design-input.ts';
 import {
   rankDesign,
   rankDesignLean,
+  rankDesignLeanSteps,
   type DesignCatalogue,
   type DesignPicks,
   type DesignRanking,
   type RankingJudges,
 } from './rank-design.ts';
 import { worstCaseOf, type DesignCase, type WorstCase } from './design-case.ts';
+import type { Steps } from './slices.ts';
 import { SCORE_EXPLANATION, sortCandidates, type CandidateResult } from './ranking.ts';
 import { bestUnitPrice } from './part-summary.ts';
 import { calcMotor, type CalcMotorResponse } from './calc.ts';
@@ -218,6 +220,15 @@ function picksOf(input: DesignInput): DesignPicks {
     diodeId: sel.diode.chosenPartId,
     resetStartIntended: input.resetStartIntent != null,
   };
+}
+
+/** rankForMatchLean in slices (rankDesignLeanSteps): the match pages run it pausing between slices. */
+export function rankForMatchLeanSteps(
+  input: DesignInput,
+  catalogue: DesignCatalogue,
+  prepared: PreparedCase,
+): Steps<{ ranking: DesignRanking; judges: RankingJudges }> {
+  return rankDesignLeanSteps(prepared.designCase, catalogue, picksOf(input), prepared.worstCase);
 }
 
 /** rankForMatch kept lean (rankDesignLean): for the match pages, which judge in full only what they show. */

@@ -178,7 +178,18 @@ export function rankDriverCandidates(
   startIntended = false,
   keep: Keep = 'full',
 ): DriverCandidateResult[] {
-  return sortCandidates(drivers.map((d) => judgedAs(keep, () => evaluateDriverPart(c, d, forSwitch, wc, startIntended))));
+  return sortCandidates(drivers.map(judgeDriverFor(c, forSwitch, wc, startIntended, keep)));
+}
+
+/** evaluateDriverPart for many drivers and one switch, kept as `keep` says. */
+export function judgeDriverFor(
+  c: DesignCase,
+  forSwitch: CandidatePart<'mosfet'>,
+  wc: WorstCase,
+  startIntended: boolean,
+  keep: Keep,
+): (driver: CandidatePart<'driver'>) => DriverCandidateResult {
+  return (d) => judgedAs(keep, () => evaluateDriverPart(c, d, forSwitch, wc, startIntended));
 }
 
 export function describeDriverNeed(logicHighV: number, mpn: string, requiredV: number, railV: number | null): string {

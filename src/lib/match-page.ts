@@ -24,6 +24,7 @@ import {
 import type { MotorParams } from './domain/parts.ts';
 import type { DesignRanking, RankingJudges } from './rank-design.ts';
 import { DEFAULT_MATCH_LIMIT, MAX_MATCH_LIMIT } from './schemas/design.ts';
+import { runSteps, type Steps } from './slices.ts';
 
 export const MATCH_LIST_KEYS = ['switch', 'switchWithDriver', 'driver', 'diode'] as const;
 export type MatchListKey = (typeof MATCH_LIST_KEYS)[number];
@@ -159,17 +160,30 @@ export function leanMatchPage(
   motor: MotorParams,
   catalogue: MatchCatalogue,
   prepared: PreparedCase,
+  lean: { ranking: DesignRanking; judges: RankingJudges },
+  page: { limit?: number; offset?: number } = {},
+): DesignMatchPage {
+  return runSteps(leanMatchPageSteps(input, motorLabel, motor, catalogue, prepared, lean, page));
+}
+
+/** leanMatchPage pausing after each list is put in match order and before the page is cut (src/lib/slices.ts). */
+export function* leanMatchPageSteps(
+  input: DesignInput,
+  motorLabel: string,
+  motor: MotorParams,
+  catalogue: MatchCatalogue,
+  prepared: PreparedCase,
   { ranking, judges }: { ranking: DesignRanking; judges: RankingJudges },
   { limit = DEFAULT_MATCH_LIMIT, offset = 0 }: { limit?: number; offset?: number } = {},
-): DesignMatchPage {
+): Steps<DesignMatchPage> {
   const qty = input.boardQuantity;
   const parts = catalogueParts(catalogue);
-  const ordered = {
-    switch: matchOrder(ranking.switch, parts, qty),
-    switchWithDriver: matchOrder(ranking.switchWithDriver, parts, qty),
-    driver: matchOrder(ranking.driver, parts, qty),
-    diode: matchOrder(ranking.diode, parts, qty),
-  };
+  yield;
+  const ordered = {} as { [K in MatchListKey]: DesignRanking[K] };
+  for (const k of MATCH_LIST_KEYS) {
+    (ordered as Record<MatchListKey, unknown>)[k] = matchOrder(ranking[k] as CandidateLike[], parts, qty);
+    yield;
+  }
   const suggested = suggestSelections({ driverNeeded: ranking.driverNeeded, ...ordered });
   const pins = pinsOf(input, suggested);
   const sel = input.selections;
@@ -207,6 +221,7 @@ export function leanMatchPage(
   const lists = Object.fromEntries(
     MATCH_LIST_KEYS.map((k) => [k, summarizeList(ordered[k], offset, limit, full[k] as unknown as (e: NearMissEntry) => NearMissEntry)]),
   ) as Record<MatchListKey, MatchListSummary>;
+  yield;
   return {
     ...matchHead(input, motorLabel, motor, catalogue, prepared, ranking),
     switch: pageOf('switch'),

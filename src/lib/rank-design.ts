@@ -14,7 +14,7 @@ import {
   powerOnForPair,
   provisionalDriver,
   evaluateDriverPart,
-  rankDriverCandidates,
+  judgeDriverFor,
   type DriverCandidateResult,
 } from './driver-ranking.ts';
 import { DEFAULT_DIODE_FORWARD_V, motorConsistencyOf, motorModelOf, worstCaseOf, type DesignCase, type WorstCase } from './design-case.ts';
@@ -26,7 +26,6 @@ import {
   switchEvaluator,
   pinGateDrive,
   diodeEvaluator,
-  rankDiodeCandidates,
   sortCandidates,
   type Keep,
   type CandidateResult,
@@ -38,6 +37,7 @@ import { lowestSpecVgsV, rdsOnPointsAt25C } from './rdson.ts';
 import { pwmFrequencyCaution } from './ripple.ts';
 import { formatSi } from './units.ts';
 import { CAUTIONS } from './safety-notes.ts';
+import { mapInSlices, runSteps, SLICE_PARTS, type Steps } from './slices.ts';
 
 /** The drive the switch list was judged at. */
 export interface SwitchDrive {
@@ -111,16 +111,17 @@ function byId<T extends { id?: number }>(parts: T[], id: number | null | undefin
 
 /** The chosen diode's VF, else the lowest VF among passing diodes, else the conservative default. */
 /** Also hands back the diode ranking at `c` when it was worked out (it is the list when VF leaves the case as it is). */
-function diodeForwardFor(
+function* diodeForwardFor(
   c: DesignCase,
   catalogue: DesignCatalogue,
   picks: DesignPicks,
   wc0: WorstCase,
   keep: Keep,
-): { forward: DesignRanking['diodeForward']; rankedAtC: DiodeCandidateResult[] | null } {
+  slice: number,
+): Steps<{ forward: DesignRanking['diodeForward']; rankedAtC: DiodeCandidateResult[] | null }> {
   const chosen = byId(catalogue.diodes, picks.diodeId);
   if (chosen) return { forward: { voltageV: chosen.params.vfV, basis: 'chosen' }, rankedAtC: null };
-  const ranked = rankDiodeCandidates(c, catalogue.diodes, wc0, keep);
+  const ranked = yield* rankDiodesSliced(c, catalogue.diodes, wc0, keep, slice);
   const vfById = new Map(catalogue.diodes.map((d) => [d.id, d.params.vfV]));
   const vfs = ranked
     .filter((d) => d.verdict !== 'fail')
@@ -133,26 +134,62 @@ function diodeForwardFor(
   return { forward, rankedAtC: ranked };
 }
 
+/** Diodes ranked as rankDiodeCandidates ranks them, in slices. */
+function* rankDiodesSliced(
+  c: DesignCase,
+  diodes: CandidatePart<'diode'>[],
+  wc: WorstCase,
+  keep: Keep,
+  slice: number,
+): Steps<DiodeCandidateResult[]> {
+  const judged = yield* mapInSlices(diodes, diodeEvaluator(c, wc, keep), slice);
+  yield;
+  return sortCandidates(judged);
+}
+
+/** Switches judged at one drive and sorted, in slices (a pause before the sort too). */
+function* rankSwitchesSliced(
+  c: DesignCase,
+  mosfets: CandidatePart<'mosfet'>[],
+  drive: GateDrive,
+  wc: WorstCase,
+  keep: Keep,
+  slice: number,
+): Steps<SwitchCandidateResult[]> {
+  const judged = yield* mapInSlices(mosfets, switchEvaluator(c, drive, wc, keep), slice);
+  yield;
+  return sortCandidates(judged);
+}
+
 /** Direct drive: the pin, less what a recommended gate pull-down draws while the pin drives high. */
-function directDrive(
+function* directDrive(
   c: DesignCase,
   wc: WorstCase,
   catalogue: DesignCatalogue,
   picks: DesignPicks,
   keep: Keep,
-): { drive: GateDrive; list: SwitchCandidateResult[]; draw: number } {
-  const atPin = () => catalogue.mosfets.map(switchEvaluator(c, pinGateDrive(c, wc), wc, keep));
+  slice: number,
+): Steps<{ drive: GateDrive; list: SwitchCandidateResult[]; draw: number }> {
   // The reference part for the pull-down advice: the chosen switch, else the best at the bare pin (only
   // then is the list at the bare pin needed before the draw is known).
   const chosen = byId(catalogue.mosfets, picks.switchId);
-  const bare = chosen ? null : atPin();
+  const bare = chosen ? null : yield* mapInSlices(catalogue.mosfets, switchEvaluator(c, pinGateDrive(c, wc), wc, keep), slice);
   const reference = chosen ?? byId(catalogue.mosfets, bestCandidate(bare ?? [])?.partId);
   const pull = reference ? powerOnForPair(c, null, reference).recommendedPull : null;
   // The same worst case as the power-on advice reports: the pin at its rail, the resistor at −tol.
   const draw = pullDrawCurrentA(pull, c.logic.railV);
-  if (draw === 0) return { drive: pinGateDrive(c, wc), list: sortCandidates(bare ?? atPin()), draw };
+  if (draw === 0) {
+    if (!bare)
+      return {
+        drive: pinGateDrive(c, wc),
+        list: yield* rankSwitchesSliced(c, catalogue.mosfets, pinGateDrive(c, wc), wc, keep, slice),
+        draw,
+      };
+    yield;
+    return { drive: pinGateDrive(c, wc), list: sortCandidates(bare), draw };
+  }
   const drive = pinGateDrive(c, wc, draw);
-  return { drive, list: sortCandidates(catalogue.mosfets.map(switchEvaluator(c, drive, wc, keep))), draw };
+  return { drive, list: yield* rankSwitchesSliced(c, catalogue.mosfets, drive, wc, keep, slice), draw };
 }
 
 function failureSummary(list: SwitchCandidateResult[]): string {
@@ -271,7 +308,7 @@ export function rankDesign(
   picks: DesignPicks = {},
   wc0: WorstCase = worstCaseOf(c0),
 ): DesignRanking {
-  return rankWith(c0, catalogue, picks, wc0, 'full').ranking;
+  return runSteps(rankSteps(c0, catalogue, picks, wc0, 'full', SLICE_PARTS)).ranking;
 }
 
 /**
@@ -285,28 +322,44 @@ export function rankDesignLean(
   picks: DesignPicks = {},
   wc0: WorstCase = worstCaseOf(c0),
 ): { ranking: DesignRanking; judges: RankingJudges } {
-  return rankWith(c0, catalogue, picks, wc0, 'lean');
+  return runSteps(rankSteps(c0, catalogue, picks, wc0, 'lean', SLICE_PARTS));
 }
 
-function rankWith(
+/**
+ * rankDesignLean in slices: the generator pauses after every `slice` parts judged and before each sort, so a
+ * server can let other requests run, or stop the work, between slices (runSteps runs it straight through;
+ * the answer is the same).
+ */
+export function rankDesignLeanSteps(
+  c0: DesignCase,
+  catalogue: DesignCatalogue,
+  picks: DesignPicks = {},
+  wc0: WorstCase = worstCaseOf(c0),
+  slice: number = SLICE_PARTS,
+): Steps<{ ranking: DesignRanking; judges: RankingJudges }> {
+  return rankSteps(c0, catalogue, picks, wc0, 'lean', slice);
+}
+
+function* rankSteps(
   c0: DesignCase,
   catalogue: DesignCatalogue,
   picks: DesignPicks,
   wc0: WorstCase,
   keep: Keep,
-): { ranking: DesignRanking; judges: RankingJudges } {
-  const { forward: diodeForward, rankedAtC } = diodeForwardFor(c0, catalogue, picks, wc0, keep);
+  slice: number,
+): Steps<{ ranking: DesignRanking; judges: RankingJudges }> {
+  const { forward: diodeForward, rankedAtC } = yield* diodeForwardFor(c0, catalogue, picks, wc0, keep, slice);
   const c: DesignCase = diodeForward.voltageV === c0.diodeForwardV ? c0 : { ...c0, diodeForwardV: diodeForward.voltageV };
   const wc = c === c0 ? wc0 : worstCaseOf(c);
-  const diode = c === c0 && rankedAtC ? rankedAtC : rankDiodeCandidates(c, catalogue.diodes, wc, keep);
-  const direct = directDrive(c, wc, catalogue, picks, keep);
+  const diode = c === c0 && rankedAtC ? rankedAtC : yield* rankDiodesSliced(c, catalogue.diodes, wc, keep, slice);
+  const direct = yield* directDrive(c, wc, catalogue, picks, keep, slice);
 
   const chosenDriver = byId(catalogue.drivers, picks.driverId);
   const refDriver = chosenDriver ?? provisionalDriver(c, catalogue.drivers, wc);
   const directPasses = direct.list.some((e) => e.verdict === 'pass');
   const driverDrive = refDriver ? gateDriveOfDriver(c, refDriver) : null;
   const withDriver =
-    driverDrive && (chosenDriver || !directPasses) ? sortCandidates(catalogue.mosfets.map(switchEvaluator(c, driverDrive, wc, keep))) : [];
+    driverDrive && (chosenDriver || !directPasses) ? yield* rankSwitchesSliced(c, catalogue.mosfets, driverDrive, wc, keep, slice) : [];
   const fixable =
     withDriver.find((e) => e.verdict === 'pass') ??
     direct.list.find((e) => hardFails(e.checks).length > 0 && hardFails(e.checks).every((x) => DRIVER_FIXABLE.has(x.id)));
@@ -316,7 +369,10 @@ function rankWith(
   const effective = usesDriver ? withDriver : direct.list;
   const switchPart = byId(catalogue.mosfets, picks.switchId) ?? byId(catalogue.mosfets, effective[0]?.partId);
   const startIntended = picks.resetStartIntended === true;
-  const driver = usesDriver && switchPart ? rankDriverCandidates(c, catalogue.drivers, switchPart, wc, startIntended, keep) : [];
+  const driver =
+    usesDriver && switchPart
+      ? sortCandidates(yield* mapInSlices(catalogue.drivers, judgeDriverFor(c, switchPart, wc, startIntended, keep), slice))
+      : [];
   const walkDriver = usesDriver
     ? (chosenDriver ?? byId(catalogue.drivers, driver.find((d) => d.verdict !== 'fail')?.partId ?? driver[0]?.partId))
     : undefined;

@@ -9,6 +9,7 @@ import { describe, expect, it } from 'vitest';
 import { demoDiodes, demoDrivers, demoMosfets, demoMotors } from '../../db/seeds/data/index.ts';
 import { demoDesigns } from '../../db/seeds/designs.ts';
 import { matchDesign, prepareCase, rankForMatch, rankForMatchLean, type MatchCatalogue } from '../../src/lib/design-match.ts';
+import { rankDesignLeanSteps } from '../../src/lib/rank-design.ts';
 import { MATCH_LIST_KEYS, leanMatchPage, pageMatch } from '../../src/lib/match-page.ts';
 import { withoutNotes, fmt } from '../../src/lib/checks.ts';
 import type { DesignInput } from '../../src/lib/domain/design.ts';
@@ -104,6 +105,35 @@ describe.each(demoDesigns.map((d) => d.name))('lean ranking of "%s"', (name) => 
     const fullFailingNotes = fullChecks.filter((c) => !c.ok).map((c) => c.note);
     expect(leanChecks.map((c) => c.note)).not.toEqual(fullFailingNotes.length ? fullFailingNotes : ['(none)']);
   });
+
+  it.each(cases)(
+    'in slices of 1, 3 and 7 parts gives the same ranking and judges, pausing as often as the slices say (%s)',
+    (_l, input) => {
+      const prepared = prepareCase(input, motor.params);
+      const whole = rankForMatchLean(input, catalogue, prepared);
+      const sel = input.selections;
+      const picks = { switchId: sel.switch.chosenPartId, driverId: sel.driver.chosenPartId, diodeId: sel.diode.chosenPartId };
+      for (const slice of [1, 3, 7]) {
+        const steps = rankDesignLeanSteps(
+          prepared.designCase,
+          catalogue,
+          { ...picks, resetStartIntended: input.resetStartIntent != null },
+          prepared.worstCase,
+          slice,
+        );
+        let pauses = 0;
+        let r = steps.next();
+        for (; !r.done; r = steps.next()) pauses++;
+        expect(r.value.ranking).toEqual(whole.ranking);
+        // Every list of n parts judged in slices pauses ceil(n / slice) − 1 times, and once more before its sort:
+        // at the least, the diodes and the switches are judged once each.
+        const least = (n: number) => Math.ceil(n / slice) - 1 + 1;
+        expect(pauses).toBeGreaterThanOrEqual(least(catalogue.diodes.length) + least(catalogue.mosfets.length));
+        for (const part of catalogue.mosfets.slice(0, 5)) expect(r.value.judges.switch(part)).toEqual(whole.judges.switch(part));
+        for (const part of catalogue.diodes.slice(0, 5)) expect(r.value.judges.diode(part)).toEqual(whole.judges.diode(part));
+      }
+    },
+  );
 
   it.each(cases)('gives the pages of the full ranking, for every page size and offset (%s)', (_label, input) => {
     const prepared = prepareCase(input, motor.params);

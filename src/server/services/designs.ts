@@ -9,12 +9,13 @@ import {
   matchFromRanking,
   prepareCase,
   rankForMatch,
-  rankForMatchLean,
+  rankForMatchLeanSteps,
   type DesignMatch,
   type MatchCatalogue,
   type PreparedCase,
 } from '../../lib/design-match.ts';
 import type { DesignRanking } from '../../lib/rank-design.ts';
+import type { Steps } from '../../lib/slices.ts';
 import {
   findDesignRow,
   insertDesignRow,
@@ -30,7 +31,7 @@ import { partCategoriesByIds, partsByIds } from '../repos/parts.ts';
 import { insertAuditEvent } from '../repos/audit.ts';
 import { ServiceError, notFound } from './errors.ts';
 import { loadCandidates, priceCandidates, type SwitchDrivePhase } from './design-candidates.ts';
-import { idsNeedingPrice, leanMatchPage, type DesignMatchPage } from '../../lib/match-page.ts';
+import { idsNeedingPrice, leanMatchPageSteps, type DesignMatchPage } from '../../lib/match-page.ts';
 import { withMatchSlot } from './match-gate.ts';
 import { withLockedVersion } from '../repos/versioned.ts';
 import { DESIGN_ENTITY, sameDesign } from './design-entity.ts';
@@ -158,20 +159,20 @@ export async function matchInput(
 async function rankInPhases<R extends { ranking: DesignRanking }>(
   input: DesignInput,
   load: (phase: SwitchDrivePhase) => Promise<MatchCatalogue>,
-  rank: (catalogue: MatchCatalogue) => R,
+  rank: (catalogue: MatchCatalogue) => Steps<R>,
   watch: MatchWatch = {},
 ): Promise<{ catalogue: MatchCatalogue; ranked: R }> {
   const step = (name: MatchStep) => checkpoint(watch, name);
   if (input.selections.driver.chosenPartId == null) {
     const direct = await load('direct');
     await step('loaded-direct');
-    const ranked = rank(direct);
+    const ranked = await runSliced(rank(direct), watch);
     await step('ranked-direct');
     if (!ranked.ranking.driverNeeded && ranked.ranking.switch.some((e) => e.verdict === 'pass')) return { catalogue: direct, ranked };
   }
   const catalogue = await load('driver');
   await step('loaded-driver');
-  const ranked = rank(catalogue);
+  const ranked = await runSliced(rank(catalogue), watch);
   await step('ranked-driver');
   return { catalogue, ranked };
 }
@@ -183,6 +184,22 @@ export type MatchStep = 'loaded-direct' | 'ranked-direct' | 'loaded-driver' | 'r
 export interface MatchWatch {
   signal?: AbortSignal;
   onStep?: (step: MatchStep) => void;
+  /** Called at every pause inside a ranking (between slices of parts judged; see src/lib/slices.ts). */
+  onSlice?: () => void;
+}
+
+/**
+ * Runs a sliced ranking, letting pending I/O and other requests run between its slices (a health check
+ * or a search is not held behind a whole ranking) and stopping it there when the client has gone.
+ */
+async function runSliced<R>(steps: Steps<R>, watch: MatchWatch): Promise<R> {
+  for (;;) {
+    const r = steps.next();
+    if (r.done) return r.value;
+    watch.onSlice?.();
+    await new Promise<void>((resolve) => setImmediate(resolve));
+    stopIfAborted(watch.signal);
+  }
 }
 
 /**
@@ -214,7 +231,10 @@ export async function matchWithCatalogue(
   const { catalogue, ranked } = await rankInPhases(
     input,
     (phase) => loadCandidates(k, prepared, includePending, phase, switchPicksOf(input), input.boardQuantity, page == null),
-    (c) => ({ ranking: rankForMatch(input, c, prepared) }),
+    // eslint-disable-next-line require-yield -- the full ranking runs in one step (it is for the report and the ready check)
+    function* (c) {
+      return { ranking: rankForMatch(input, c, prepared) };
+    },
   );
   if (page) await priceCandidates(k, catalogue, idsNeedingPrice(ranked.ranking, input, page), input.boardQuantity);
   return { match: matchFromRanking(input, motor.label, motor.params, catalogue, prepared, ranked.ranking), catalogue, prepared };
@@ -238,18 +258,18 @@ export async function matchPageOf(
   const { catalogue, ranked } = await rankInPhases(
     input,
     (phase) => loadCandidates(k, prepared, includePending, phase, switchPicksOf(input), input.boardQuantity, false),
-    (c) => rankForMatchLean(input, c, prepared),
+    (c) => rankForMatchLeanSteps(input, c, prepared),
     watch,
   );
   await priceCandidates(k, catalogue, idsNeedingPrice(ranked.ranking, input, page), input.boardQuantity);
   await checkpoint(watch, 'priced');
-  return leanMatchPage(input, motor.label, motor.params, catalogue, prepared, ranked, page);
+  return runSliced(leanMatchPageSteps(input, motor.label, motor.params, catalogue, prepared, ranked, page), watch);
 }
 
 /**
  * A client that has gone away (request.signal aborted) gets no ranking: checked before a match slot is
- * taken, before the catalogue is loaded, and between the match's steps (checkpoint). A ranking already
- * running finishes its list; the steps after it do not run.
+ * taken, before the catalogue is loaded, between the match's steps (checkpoint) and between the slices of
+ * a ranking (runSliced): the rest of the ranking and the steps after it do not run.
  */
 function stopIfAborted(signal: AbortSignal | undefined): void {
   if (signal?.aborted) throw new ServiceError(503, 'The match was cancelled: the client closed the request.');
