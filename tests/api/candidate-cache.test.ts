@@ -20,7 +20,7 @@ import {
 } from '../../src/server/services/candidate-cache.ts';
 import { loadCandidateParts, type CandidateBounds } from '../../src/server/repos/part-candidates.ts';
 import { catalogueTriggersInstalled, catalogueVersion } from '../../src/server/repos/catalogue-version.ts';
-import { loadCandidates } from '../../src/server/services/design-candidates.ts';
+import { loadCandidates, priceCandidates } from '../../src/server/services/design-candidates.ts';
 import { loadDesign } from '../../src/server/repos/designs.ts';
 import { resolveMotor } from '../../src/server/services/designs.ts';
 import { prepareCase } from '../../src/lib/design-match.ts';
@@ -97,12 +97,13 @@ describe('the in-memory candidates', () => {
             [...mem.mosfets, ...mem.drivers, ...mem.diodes].map((p) => p.id as number),
             bb.boardQuantity,
           );
-          for (const list of [mem.mosfets, mem.drivers, mem.diodes]) for (const p of list) p.sources = prices.get(p.id as number) ?? [];
+          // Priced copies: the snapshot's parts are frozen.
+          const priced = <P extends { id?: number }>(list: P[]) => list.map((p) => ({ ...p, sources: prices.get(p.id as number) ?? [] }));
           expect(mem.totals).toEqual(sql.totals);
           expect(mem.mosfets.map((p) => p.id)).toEqual(sql.mosfets.map((p) => p.id));
           expect(mem.drivers.map((p) => p.id)).toEqual(sql.drivers.map((p) => p.id));
           expect(mem.diodes.map((p) => p.id)).toEqual(sql.diodes.map((p) => p.id));
-          expect(mem).toEqual(sql);
+          expect({ ...mem, mosfets: priced(mem.mosfets), drivers: priced(mem.drivers), diodes: priced(mem.diodes) }).toEqual(sql);
         }
       });
     }
@@ -126,13 +127,25 @@ describe('the in-memory candidates', () => {
     );
   });
 
-  it('each match gets its own part objects: pricing one leaves the snapshot as it was', async () => {
+  it('matches share the snapshot’s parts, frozen: a write throws, and pricing one match leaves the snapshot and the next match as they were', async () => {
     const snapshot = await freshSnapshot();
     const a = candidatesOf(snapshot, bounds({}), false);
-    a.mosfets[0].sources = [{ moq: 1, currency: 'EUR', priceBreaks: [{ qty: 1, unitPrice: 99 }] }];
-    const b = candidatesOf(snapshot, bounds({}), false);
-    expect(b.mosfets[0].sources).toEqual([]);
-    expect(snapshot.mosfets[0].part.sources).toEqual([]);
+    expect(() => {
+      a.mosfets[0].sources = [{ moq: 1, currency: 'EUR', priceBreaks: [{ qty: 1, unitPrice: 99 }] }];
+    }).toThrow(TypeError);
+    expect(() => (a.mosfets[0].sources as unknown[]).push(1)).toThrow(TypeError);
+    const row = await knex('designs').where('name', 'like', 'BF-12%').first('id');
+    const input = (await loadDesign(knex, row.id))!.input;
+    const prepared = prepareCase(input, (await resolveMotor(input, knex)).params);
+    const priced = await loadCandidates(db(), prepared, false, 'direct', [], 1, false);
+    const withSources = priced.mosfets.find((m) => snapshot.sources.has(m.id!))!;
+    await priceCandidates(db(), priced, new Set([withSources.id!]), 1);
+    const after = priced.mosfets.find((m) => m.id === withSources.id)!;
+    expect(after.sources.length).toBeGreaterThan(0);
+    expect(Object.isFrozen(after)).toBe(false);
+    expect(snapshot.mosfets.find((m) => m.part.id === withSources.id)!.part.sources).toEqual([]);
+    const next = await loadCandidates(db(), prepared, false, 'direct', [], 1, false);
+    expect(next.mosfets.find((m) => m.id === withSources.id)!.sources).toEqual([]);
   });
 
   it('a match on the app knex reads only the version once the snapshot is current (no candidate SELECT)', async () => {

@@ -12,8 +12,9 @@
  * a knex other than the app's, with MATCH_CACHE=off, or on a database without the triggers always read
  * from the database.
  *
- * Each match gets its own part objects (its pricing fills in their sources); the parameters are shared
- * and never written.
+ * The part objects are shared by every match and frozen (a write to one throws); a match's pricing puts
+ * a copy with its sources in its own list (design-candidates.ts fillSources). Before, each match copied
+ * every candidate (24,000–35,000 objects) to fill in a few dozen prices.
  */
 import { db, type Db } from '../db.ts';
 import { appConfig } from '../config.ts';
@@ -39,6 +40,11 @@ interface CacheState {
 const holder = globalThis as typeof globalThis & { [KEY]?: CacheState };
 const state = (): CacheState => (holder[KEY] ??= { snapshot: null, loading: null, loads: 0 });
 
+function freezePart(part: { sources: unknown[] }): void {
+  Object.freeze(part.sources);
+  Object.freeze(part);
+}
+
 async function loadSnapshot(): Promise<CandidateSnapshot> {
   const t0 = performance.now();
   const snapshot = await db().transaction(
@@ -48,6 +54,9 @@ async function loadSnapshot(): Promise<CandidateSnapshot> {
     },
     { isolationLevel: 'repeatable read' },
   );
+  for (const { part } of snapshot.mosfets) freezePart(part);
+  for (const part of snapshot.drivers) freezePart(part);
+  for (const part of snapshot.diodes) freezePart(part);
   const s = state();
   s.loads += 1;
   s.snapshot = { ...snapshot, loadedAt: Date.now(), loadMs: performance.now() - t0 };
@@ -103,12 +112,10 @@ export function warmCandidates(): void {
   void currentCandidates(db()).catch(() => undefined);
 }
 
-const own = <C extends 'mosfet' | 'driver' | 'diode'>(part: CandidatePart<C>): CandidatePart<C> => ({ ...part, sources: [] });
-
 /**
  * The candidates of one design from the snapshot: the same parts, in the same order (by id), as the SQL
- * narrowing of repos/part-candidates.ts (candidateQueries) returns for these bounds, each a fresh object
- * without sources; totals as countOf gives them.
+ * narrowing of repos/part-candidates.ts (candidateQueries) returns for these bounds, the snapshot's own
+ * (frozen) objects without sources; totals as countOf gives them.
  */
 export function candidatesOf(snapshot: WholeCandidateRows, bounds: CandidateBounds, includePending: boolean): CandidateRows {
   const eligible = (p: { reviewStatus: string }) => includePending || p.reviewStatus === 'approved';
@@ -121,19 +128,19 @@ export function candidatesOf(snapshot: WholeCandidateRows, bounds: CandidateBoun
     const p = part.params;
     if (p.channel !== 'n' || p.vdsMaxV < bounds.supplyMaxV || p.idPulsedA < bounds.stallCurrentMaxA) continue;
     const drivable = minRdsOnVgsV <= bounds.switchGateMaxV && p.vgsThMaxV <= bounds.switchGateMaxV;
-    if (drivable || (part.id != null && picks.has(part.id))) mosfets.push(own(part));
+    if (drivable || (part.id != null && picks.has(part.id))) mosfets.push(part);
   }
   const drivers: CandidatePart<'driver'>[] = [];
   for (const part of snapshot.drivers) {
     if (!eligible(part)) continue;
     totals.driver += 1;
-    if (part.params.supplyMinV <= bounds.driverSupplyMinV && part.params.supplyMaxV >= bounds.driverSupplyMaxV) drivers.push(own(part));
+    if (part.params.supplyMinV <= bounds.driverSupplyMinV && part.params.supplyMaxV >= bounds.driverSupplyMaxV) drivers.push(part);
   }
   const diodes: CandidatePart<'diode'>[] = [];
   for (const part of snapshot.diodes) {
     if (!eligible(part)) continue;
     totals.diode += 1;
-    if (part.params.vrrmV >= bounds.supplyMaxV) diodes.push(own(part));
+    if (part.params.vrrmV >= bounds.supplyMaxV) diodes.push(part);
   }
   return { mosfets, drivers, diodes, totals };
 }

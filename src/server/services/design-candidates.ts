@@ -66,10 +66,20 @@ export async function loadCandidates(
 const idsOf = (catalogue: MatchCatalogue): number[] =>
   [...catalogue.mosfets, ...catalogue.drivers, ...catalogue.diodes].flatMap((p) => (p.id == null ? [] : [p.id]));
 
+/**
+ * Puts the priced parts in the catalogue's lists as copies with their sources (the parts may be the
+ * candidate cache's shared, frozen objects): `only` the given ids, or every part.
+ */
 function fillSources(catalogue: MatchCatalogue, sources: Map<number, PriceSource[]>, only: ReadonlySet<number> | null): void {
-  for (const part of [...catalogue.mosfets, ...catalogue.drivers, ...catalogue.diodes]) {
-    if (part.id != null && (only == null || only.has(part.id))) part.sources = sources.get(part.id) ?? [];
-  }
+  const fill = <P extends { id?: number; sources: PriceSource[] }>(list: P[]) => {
+    for (let i = 0; i < list.length; i++) {
+      const part = list[i];
+      if (part.id != null && (only == null || only.has(part.id))) list[i] = { ...part, sources: sources.get(part.id) ?? [] };
+    }
+  };
+  fill(catalogue.mosfets);
+  fill(catalogue.drivers);
+  fill(catalogue.diodes);
 }
 
 /** Fills in the sources (price break at the build quantity) of the given candidates, loaded without prices. */
