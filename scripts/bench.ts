@@ -246,6 +246,13 @@ try {
     );
   }
 
+  /** The RSS peak reached by the end of each phase (MiB): where the memory grows. */
+  const rssPeakBy: Record<string, number> = {};
+  const phaseDone = (name: string) => {
+    sampleRss();
+    rssPeakBy[name] = round(rssPeak / MiB);
+  };
+  phaseDone('match runs');
   // Parametric search, three filters.
   const paramUrl = '/api/parts?category=mosfet&channel=n&vdsMinV=30&rdsOnAtVgsV=4.5&rdsOnMaxOhm=0.02&pageSize=25';
   let paramTotal = 0;
@@ -283,6 +290,7 @@ try {
   console.log(`srch  part number with a typo p50 ${typo.p50Ms} ms p95 ${typo.p95Ms} ms, found in ${typoFound}/${typoTimes.length}`);
   console.log(`srch  description with typos ("schotky rectifer") p50 ${descTypo.p50Ms} ms p95 ${descTypo.p95Ms} ms`);
 
+  phaseDone('searches');
   // Pages.
   let homeBytes = 0;
   const home = await timed(ITER, async () => void (homeBytes = (await (await get('/')).arrayBuffer()).byteLength));
@@ -307,6 +315,7 @@ try {
     }
   };
 
+  phaseDone('pages');
   // Load: autocannon in a child, /api/health probed from another child at 20 requests/s. Each load
   // starts on an idle server (work left in flight by the previous one has finished).
   const load = async (title: string, opts: object) => {
@@ -341,6 +350,7 @@ try {
     body: '{}',
     headers: { 'content-type': 'application/json', cookie },
   });
+  phaseDone('match load');
   const loadSearch = await load('GET /api/parts?q=… (text search)', {
     url: `${stack.url}/api/parts?q=${encodeURIComponent(tries[0] ?? 'mosfet')}&pageSize=25`,
     headers: { cookie },
@@ -350,7 +360,12 @@ try {
   gc?.();
   await new Promise((r) => setTimeout(r, 1_000));
   const rssEnd = process.memoryUsage().rss;
-  sampleRss();
+  phaseDone('search load');
+  console.log(
+    `rss   peak by the end of: ${Object.entries(rssPeakBy)
+      .map(([k, v]) => `${k} ${v} MiB`)
+      .join(', ')}`,
+  );
   console.log(
     `rss   start ${(rssStart / MiB).toFixed(0)} MiB, peak ${(rssPeak / MiB).toFixed(0)} MiB, end ${(rssEnd / MiB).toFixed(0)} MiB`,
   );
@@ -586,6 +601,7 @@ try {
     load: { match: loadMatch, search: loadSearch },
     rssMiB: { start: round(rssStart / MiB), peak: round(rssLoadPeak / MiB), end: round(rssEnd / MiB) },
     candidateCache,
+    rssPeakByPhaseMiB: rssPeakBy,
     distributorStalled: {
       refreshAnsweringMs: refreshMs,
       refresh: firstRefresh.body,
