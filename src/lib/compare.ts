@@ -201,6 +201,9 @@ export interface NearMiss {
   worstShortfall: number;
 }
 
+/** String.prototype.localeCompare's default order, built once. */
+const byMpn = new Intl.Collator().compare;
+
 /**
  * The closest candidates when nothing passes: marginal parts before failing ones, then the smallest worst
  * relative distance to a limit (a miss without numbers counts as far), then fewest checks missed, then
@@ -214,23 +217,33 @@ export function nearMisses(list: readonly NearMissEntry[], count = 3, inFull: (e
   const missedOf = (e: NearMissEntry) => e.checks.filter((c) => (e.verdict === 'fail' ? hardFail(c) : !c.ok));
   const shortfallOf = (c: Check) =>
     c.value != null && c.limit != null && c.limit !== 0 ? Math.abs(c.value - c.limit) / Math.abs(c.limit) : null;
-  const keyed = list.map((e) => {
-    const missed = missedOf(e);
-    // A miss without numbers (wrong channel, no RDS(on) at this drive) counts as far away.
-    const worst = missed.reduce((m, c) => Math.max(m, shortfallOf(c) ?? Infinity), 0);
-    return { e, worst, misses: missed.length };
-  });
   const rank = (v: Verdict) => (v === 'marginal' ? 0 : 1);
-  const before = (a: (typeof keyed)[number], b: (typeof keyed)[number]) =>
-    rank(a.e.verdict) - rank(b.e.verdict) || a.worst - b.worst || a.misses - b.misses || a.e.mpn.localeCompare(b.e.mpn);
+  type Keyed = { e: NearMissEntry; worst: number; misses: number };
+  const before = (a: Keyed, b: Keyed) =>
+    rank(a.e.verdict) - rank(b.e.verdict) || a.worst - b.worst || a.misses - b.misses || byMpn(a.e.mpn, b.e.mpn);
   // The first `count` in that order (a stable selection: equal keys keep the list's order, as a stable sort does).
-  const best: (typeof keyed)[number][] = [];
-  for (const k of keyed) {
+  // One key object is reused for the entries that do not get in (a list holds tens of thousands).
+  const best: Keyed[] = [];
+  let k: Keyed = { e: list[0], worst: 0, misses: 0 };
+  for (const e of list) {
+    const fail = e.verdict === 'fail';
+    let worst = 0;
+    let misses = 0;
+    for (const c of e.checks) {
+      if (fail ? !hardFail(c) : c.ok) continue;
+      misses++;
+      // A miss without numbers (wrong channel, no RDS(on) at this drive) counts as far away.
+      worst = Math.max(worst, shortfallOf(c) ?? Infinity);
+    }
+    k.e = e;
+    k.worst = worst;
+    k.misses = misses;
     let at = best.length;
     while (at > 0 && before(k, best[at - 1]) < 0) at--;
     if (at < count) {
       best.splice(at, 0, k);
       if (best.length > count) best.pop();
+      k = { e, worst: 0, misses: 0 };
     }
   }
   return best.map(({ e, worst }) => {

@@ -137,11 +137,15 @@ export function chosenPackageOf(parts: Map<number | undefined, AnyCandidatePart>
 /**
  * The order the match lists take: the engine's (verdict, score, MPN) with price at the build quantity,
  * then lifecycle, breaking ties of verdict and score (the same as sorting on all of them at once).
+ * `visible`: when given, only the tie groups holding one of these parts are put in that order; the rest keep
+ * the engine's order. A page passes the parts whose place can show (idsNeedingPrice): a group holding none
+ * of them sits at the same ranks whatever its inner order, and the page never shows it.
  */
 export function matchOrder<T extends CandidateResult>(
   ranked: readonly T[],
   parts: Map<number | undefined, AnyCandidatePart>,
   qty: number,
+  visible?: ReadonlySet<number>,
 ): T[] {
   const priceOf = (e: T) => {
     const part = e.partId == null ? undefined : parts.get(e.partId);
@@ -150,6 +154,7 @@ export function matchOrder<T extends CandidateResult>(
   const lifecycleOf = (e: T): Lifecycle => (e.partId == null ? undefined : parts.get(e.partId))?.lifecycle ?? 'active';
   return tieGroups(ranked).flatMap((group) => {
     if (group.length === 1) return group;
+    if (visible && !group.some((e) => e.partId != null && visible.has(e.partId))) return group;
     const keyed = group.map((e) => ({ e, price: priceOf(e), life: lifecycleOf(e) }));
     // Stable: within equal price and lifecycle the engine's MPN order stays.
     keyed.sort((a, b) => cheaperThenHealthier(a.price, a.life, b.price, b.life));

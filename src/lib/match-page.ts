@@ -178,10 +178,12 @@ export function* leanMatchPageSteps(
 ): Steps<DesignMatchPage> {
   const qty = input.boardQuantity;
   const parts = catalogueParts(catalogue);
+  // Only the tie groups whose inner order can show are ordered by price and lifecycle (matchOrder).
+  const visible = idsNeedingPrice(ranking, input, { offset, limit });
   yield;
   const ordered = {} as { [K in MatchListKey]: DesignRanking[K] };
   for (const k of MATCH_LIST_KEYS) {
-    (ordered as Record<MatchListKey, unknown>)[k] = matchOrder(ranking[k] as CandidateLike[], parts, qty);
+    (ordered as Record<MatchListKey, unknown>)[k] = matchOrder(ranking[k] as CandidateLike[], parts, qty, visible);
     yield;
   }
   const suggested = suggestSelections({ driverNeeded: ranking.driverNeeded, ...ordered });

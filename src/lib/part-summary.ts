@@ -116,14 +116,20 @@ export function summarize(part: Part): Record<string, string> {
   }
 }
 
-/** Lowest unit price across sources at a quantity (the break at or below qty), or null. */
 /** Units in stock over all of a part's sources. */
 export const totalStock = (part: Pick<Part, 'sources'>): number => part.sources.reduce((sum, src) => sum + src.stockQty, 0);
 
+/**
+ * Lowest unit price across sources at a quantity, or null: each source's largest break at or below the
+ * quantity (or its MOQ, when that is more); of equal breaks, the first listed. No arrays are built: a match
+ * prices thousands of tied candidates.
+ */
 export function bestUnitPrice(part: { sources: readonly PriceSource[] }, qty: number): { price: number; currency: string } | null {
   let best: { price: number; currency: string } | null = null;
   for (const s of part.sources) {
-    const applicable = s.priceBreaks.filter((b) => b.qty <= Math.max(qty, s.moq)).sort((a, b) => b.qty - a.qty)[0];
+    const limit = Math.max(qty, s.moq);
+    let applicable: PriceSource['priceBreaks'][number] | undefined;
+    for (const b of s.priceBreaks) if (b.qty <= limit && (applicable === undefined || b.qty > applicable.qty)) applicable = b;
     if (!applicable) continue;
     if (!best || applicable.unitPrice < best.price) best = { price: applicable.unitPrice, currency: s.currency };
   }

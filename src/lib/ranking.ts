@@ -69,9 +69,38 @@ export function scoreOf(checks: readonly Check[], verdict: Verdict = verdictOf(c
 /** The default-locale comparison of String.prototype.localeCompare, built once (the same order, far cheaper per call). */
 const byMpn = new Intl.Collator().compare;
 
+/** Part numbers of digits, capital letters and hyphens only: most catalogues' (and the generated ones'). */
+const PLAIN_MPN = /^[0-9A-Z-]*$/;
+
+/**
+ * True when the default collation orders plain part numbers as their code units do. The root and English
+ * collations rank the hyphen before the digits and the digits before the letters at the first level, and
+ * plain part numbers differ at no other level; other languages move letters (or pairs of them), so the fast
+ * order is used only under an English or root locale and after this self-check.
+ */
+const plainOrderIsCodeUnit = ((): boolean => {
+  if (!/^(en|und)(-|$)/.test(new Intl.Collator().resolvedOptions().locale)) return false;
+  const alphabet = '-0123456789ABCDEFGHIJKLMNOPQRSTUVWXYZ';
+  for (let i = 1; i < alphabet.length; i++) if (byMpn(alphabet[i - 1], alphabet[i]) >= 0) return false;
+  return byMpn('A-B', 'AB') < 0 && byMpn('AB', 'A-') > 0 && byMpn('A', 'A0') < 0 && byMpn('CH', 'HA') < 0;
+})();
+
+const byCodeUnit = (a: string, b: string): number => (a < b ? -1 : a > b ? 1 : 0);
+
+/**
+ * The comparison of part numbers for a list: the collator's order always; when every part number in the
+ * list is plain (and the locale allows, see above), by code unit, which gives that order several times
+ * faster (a match sorts tens of thousands of ties on MPN).
+ */
+function mpnComparerFor(results: readonly { mpn: string }[]): (a: string, b: string) => number {
+  return plainOrderIsCodeUnit && results.every((r) => PLAIN_MPN.test(r.mpn)) ? byCodeUnit : byMpn;
+}
+
 export function sortCandidates<T extends CandidateResult>(results: T[], tiebreak?: (a: T, b: T) => number): T[] {
+  const byPartNumber = mpnComparerFor(results);
   return [...results].sort(
-    (a, b) => VERDICT_RANK[a.verdict] - VERDICT_RANK[b.verdict] || b.score - a.score || (tiebreak?.(a, b) ?? 0) || byMpn(a.mpn, b.mpn),
+    (a, b) =>
+      VERDICT_RANK[a.verdict] - VERDICT_RANK[b.verdict] || b.score - a.score || (tiebreak?.(a, b) ?? 0) || byPartNumber(a.mpn, b.mpn),
   );
 }
 
