@@ -35,6 +35,7 @@ import { idsNeedingPrice, leanMatchPageSteps, type DesignMatchPage } from '../..
 import { withMatchSlot } from './match-gate.ts';
 import { withLockedVersion } from '../repos/versioned.ts';
 import { DESIGN_ENTITY, sameDesign } from './design-entity.ts';
+import { nextTurn } from '../turns.ts';
 
 export const canEditDesign = (user: SessionUser, ownerId: number): boolean => user.roles.includes('admin') || user.id === ownerId;
 
@@ -190,14 +191,15 @@ export interface MatchWatch {
 
 /**
  * Runs a sliced ranking, letting pending I/O and other requests run between its slices (a health check
- * or a search is not held behind a whole ranking) and stopping it there when the client has gone.
+ * or a search is not held behind a whole ranking) and stopping it there when the client has gone. The
+ * matches running at once take turns (src/server/turns.ts): one slice per turn of the event loop.
  */
 async function runSliced<R>(steps: Steps<R>, watch: MatchWatch): Promise<R> {
   for (;;) {
     const r = steps.next();
     if (r.done) return r.value;
     watch.onSlice?.();
-    await new Promise<void>((resolve) => setImmediate(resolve));
+    await nextTurn();
     stopIfAborted(watch.signal);
   }
 }
@@ -209,7 +211,7 @@ async function runSliced<R>(steps: Steps<R>, watch: MatchWatch): Promise<R> {
 async function checkpoint(watch: MatchWatch, step: MatchStep): Promise<void> {
   watch.onStep?.(step);
   if (!watch.signal) return;
-  await new Promise<void>((resolve) => setImmediate(resolve));
+  await nextTurn();
   stopIfAborted(watch.signal);
 }
 
