@@ -55,14 +55,24 @@ let notesWanted = true;
  * candidates and shows a page of them; the page's entries are judged again with their notes. Synchronous
  * only, and the previous state comes back however `fn` ends.
  */
-export function withoutNotes<T>(fn: () => T): T {
+export function withoutNotes<T>(fn: () => T): T;
+export function withoutNotes<A, T>(fn: (arg: A) => T, arg: A): T;
+export function withoutNotes<A, T>(fn: (arg?: A) => T, arg?: A): T {
   const before = notesWanted;
   notesWanted = false;
   try {
-    return fn();
+    return fn(arg);
   } finally {
     notesWanted = before;
   }
+}
+
+/**
+ * True unless a ranking is judging candidates it only counts (withoutNotes): a check builds its note only
+ * then, so the candidates a match only counts cost no sentences at all (the note is '' otherwise).
+ */
+export function notesOn(): boolean {
+  return notesWanted;
 }
 
 /** A number for notes: three significant digits, no exponent for everyday magnitudes. */

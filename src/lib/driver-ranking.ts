@@ -2,13 +2,13 @@
  * Ranks gate drivers / level shifters for one switch (the chosen one, or the top candidate before a choice), each
  * paired with that switch's evaluation at the driver's own real output.
  */
-import { fmt, makeCheck, verdictOf, type Check, type Verdict } from './checks.ts';
+import { fmt, makeCheck, verdictOf, withoutNotes, type Check, type Verdict } from './checks.ts';
 import type { CandidatePart } from './domain/parts.ts';
 import { checkDriver, driverOutputHighV, type SupplyRange } from './driver-checks.ts';
 import { worstCaseOf, type DesignCase, type WorstCase } from './design-case.ts';
 import { walkPowerOn, type PowerOnResult } from './power-on.ts';
 import { lowestSpecVgsV, rdsOnPointsAt25C } from './rdson.ts';
-import { evaluateSwitchPart, judgedAs, scoreOf, sortCandidates, type CandidateResult, type GateDrive, type Keep } from './ranking.ts';
+import { evaluateSwitchPart, judgeAs, scoreOf, sortCandidates, type CandidateResult, type GateDrive, type Keep } from './ranking.ts';
 import { switchingChargeNc } from './switching.ts';
 
 export interface DriverPairing {
@@ -47,7 +47,8 @@ const STANDALONE = new Set(['driver-supply', 'input-high', 'input-low', 'duty-er
 
 /** A driver that holds on its own (no hard failure of the switch-independent checks). */
 export function driverHoldsAlone(c: DesignCase, driver: CandidatePart<'driver'>, wc: WorstCase): boolean {
-  const checks = checkDriver({
+  // Only the verdicts are read: the checks' notes are not worked out.
+  const checks = withoutNotes(checkDriver, {
     driver: driver.params,
     supply: driverSupplyOf(c),
     logic: c.logic,
@@ -189,7 +190,7 @@ export function judgeDriverFor(
   startIntended: boolean,
   keep: Keep,
 ): (driver: CandidatePart<'driver'>) => DriverCandidateResult {
-  return (d) => judgedAs(keep, () => evaluateDriverPart(c, d, forSwitch, wc, startIntended));
+  return judgeAs(keep, (d: CandidatePart<'driver'>) => evaluateDriverPart(c, d, forSwitch, wc, startIntended));
 }
 
 export function describeDriverNeed(logicHighV: number, mpn: string, requiredV: number, railV: number | null): string {

@@ -1,7 +1,7 @@
 /**
  * Individual low-side N-channel MOSFET checks [docs/engineering.md §5]. Each returns one Check with an actionable note.
  */
-import { fmt, makeCheck, marginAbove, marginBelow, type Check } from './checks.ts';
+import { fmt, makeCheck, marginAbove, marginBelow, notesOn, type Check } from './checks.ts';
 
 /** Gate-drive rails people actually have on a small board, lowest first [practice]. */
 export const COMMON_DRIVE_RAILS_V = [3.3, 5, 10, 12, 15] as const;
@@ -20,11 +20,13 @@ export function checkDrainVoltage(vdsMaxV: number, supplyMaxV: number, diodeForw
   const deratedV = vdsMaxV * derating;
   const hardOk = valueV <= vdsMaxV;
   const ok = valueV <= deratedV;
-  const note = ok
-    ? `Drain sees up to ${fmt(valueV)} V (supply plus diode drop); the ${fmt(vdsMaxV)} V rating derated to ${fmt(deratedV)} V covers it.`
-    : hardOk
-      ? `Drain sees up to ${fmt(valueV)} V, inside the ${fmt(vdsMaxV)} V rating but above its ${fmt(deratedV)} V derated value: choose a part rated at least ${fmt(valueV / derating)} V.`
-      : `Drain sees up to ${fmt(valueV)} V, above the ${fmt(vdsMaxV)} V rating itself: choose a part rated at least ${fmt(valueV / derating)} V.`;
+  const note = !notesOn()
+    ? ''
+    : ok
+      ? `Drain sees up to ${fmt(valueV)} V (supply plus diode drop); the ${fmt(vdsMaxV)} V rating derated to ${fmt(deratedV)} V covers it.`
+      : hardOk
+        ? `Drain sees up to ${fmt(valueV)} V, inside the ${fmt(vdsMaxV)} V rating but above its ${fmt(deratedV)} V derated value: choose a part rated at least ${fmt(valueV / derating)} V.`
+        : `Drain sees up to ${fmt(valueV)} V, above the ${fmt(vdsMaxV)} V rating itself: choose a part rated at least ${fmt(valueV / derating)} V.`;
   return makeCheck(
     { id: 'drain-voltage', ok, value: valueV, limit: deratedV, unit: 'V', margin: marginBelow(valueV, deratedV), note },
     hardOk ? 'margin' : 'hard',
@@ -42,13 +44,17 @@ export function checkMillerPlateau(driveV: number, plateauV: number | null | und
   const stated = plateauV != null;
   const requiredV = stated ? plateauV : vgsThMaxV + PLATEAU_MARGIN_OVER_VTH_V;
   const ok = driveV > requiredV;
-  const basis = stated
-    ? `the ${fmt(requiredV)} V Miller plateau`
-    : `VGS(th) max ${fmt(vgsThMaxV)} V plus ${fmt(PLATEAU_MARGIN_OVER_VTH_V)} V (no plateau on record)`;
-  const note = ok
-    ? `The ${fmt(driveV)} V drive clears ${basis}, so the channel enhances fully.`
-    : `The ${fmt(driveV)} V drive does not clear ${basis}: the part cannot carry the load current fully enhanced ` +
-      `and heats in its linear region; raise the gate drive (a gate driver) or choose a part with a lower plateau.`;
+  const basis = !notesOn()
+    ? ''
+    : stated
+      ? `the ${fmt(requiredV)} V Miller plateau`
+      : `VGS(th) max ${fmt(vgsThMaxV)} V plus ${fmt(PLATEAU_MARGIN_OVER_VTH_V)} V (no plateau on record)`;
+  const note = !notesOn()
+    ? ''
+    : ok
+      ? `The ${fmt(driveV)} V drive clears ${basis}, so the channel enhances fully.`
+      : `The ${fmt(driveV)} V drive does not clear ${basis}: the part cannot carry the load current fully enhanced ` +
+        `and heats in its linear region; raise the gate drive (a gate driver) or choose a part with a lower plateau.`;
   return makeCheck({ id: 'miller-plateau', ok, value: driveV, limit: requiredV, unit: 'V', margin: marginAbove(driveV, requiredV), note });
 }
 
@@ -92,12 +98,14 @@ export function checkRdsOnTestCurrent(
   const near = driveV < vgsThMaxV + TEST_CURRENT_NEAR_THRESHOLD_V;
   const limitA = TEST_CURRENT_FACTOR * line.testCurrentA;
   const ok = !near || worstCurrentA <= limitA;
-  const note = ok
-    ? near
-      ? `Worst-case ${fmt(worstCurrentA)} A is within ${TEST_CURRENT_FACTOR}× the ${fmt(line.testCurrentA)} A the ${fmt(line.vgsV)} V line was measured at.`
-      : `The ${fmt(driveV)} V drive is well above VGS(th) max ${fmt(vgsThMaxV)} V, so the line's ${fmt(line.testCurrentA)} A test current does not limit.`
-    : `At ${fmt(driveV)} V, within ${fmt(TEST_CURRENT_NEAR_THRESHOLD_V)} V of VGS(th) max, the ${fmt(line.vgsV)} V line was measured at only ${fmt(line.testCurrentA)} ` +
-      `A but the worst case is ${fmt(worstCurrentA)} A: the part may leave full enhancement; drive the gate harder or choose a part specified at this current.`;
+  const note = !notesOn()
+    ? ''
+    : ok
+      ? near
+        ? `Worst-case ${fmt(worstCurrentA)} A is within ${TEST_CURRENT_FACTOR}× the ${fmt(line.testCurrentA)} A the ${fmt(line.vgsV)} V line was measured at.`
+        : `The ${fmt(driveV)} V drive is well above VGS(th) max ${fmt(vgsThMaxV)} V, so the line's ${fmt(line.testCurrentA)} A test current does not limit.`
+      : `At ${fmt(driveV)} V, within ${fmt(TEST_CURRENT_NEAR_THRESHOLD_V)} V of VGS(th) max, the ${fmt(line.vgsV)} V line was measured at only ${fmt(line.testCurrentA)} ` +
+        `A but the worst case is ${fmt(worstCurrentA)} A: the part may leave full enhancement; drive the gate harder or choose a part specified at this current.`;
   return makeCheck(
     {
       id,
@@ -130,8 +138,9 @@ export interface StallThermalInput {
 /** Hard: a jam (a steady state unless cut off) must keep Tj ≤ Tj,max; the limit is Tj,max [docs/engineering.md §6]. */
 export function checkStallThermal(s: StallThermalInput): Check {
   const id = 'stall-thermal';
-  const how =
-    s.protection === 'none'
+  const how = !notesOn()
+    ? ''
+    : s.protection === 'none'
       ? `With no stall protection a jam is a steady state at ${fmt(s.currentRmsA)} A (RMS)`
       : s.protection === 'current-limit'
         ? `With the current limit a jam settles at ${fmt(s.currentRmsA)} A (RMS)`
@@ -146,31 +155,36 @@ export function checkStallThermal(s: StallThermalInput): Check {
       limit: s.tjMaxC,
       unit: '°C',
       margin: null,
-      note: `${how}; RDS(on) is not characterised at this drive, so the jam cannot be assessed.`,
+      note: notesOn() ? `${how}; RDS(on) is not characterised at this drive, so the jam cannot be assessed.` : '',
     });
   }
   if (s.junctionC == null) {
-    const note =
-      `${how}: the RDS(on) rise with heat runs away (no steady junction temperature). Limit the stall ` +
-      `current, cut the drive off after a short time, or choose a part with lower RDS(on) or RθJA.`;
+    const note = !notesOn()
+      ? ''
+      : `${how}: the RDS(on) rise with heat runs away (no steady junction temperature). Limit the stall ` +
+        `current, cut the drive off after a short time, or choose a part with lower RDS(on) or RθJA.`;
     return makeCheck({ id, ok: false, value: null, limit: s.tjMaxC, unit: '°C', margin: null, note });
   }
   const ok = s.junctionC <= s.tjMaxC;
   const rise = s.tjMaxC - s.ambientC;
   const margin = rise > 0 ? (s.tjMaxC - s.junctionC) / rise : null;
-  const note = ok
-    ? `${how}: the junction reaches about ${fmt(s.junctionC)} °C, within Tj,max ${fmt(s.tjMaxC)} °C.`
-    : `${how}: the junction would reach about ${fmt(s.junctionC)} °C, above Tj,max ${fmt(s.tjMaxC)} °C. Add ` +
-      `a stall protection (current limit or a timed cut-off), or choose a part with lower RDS(on) or RθJA.`;
+  const note = !notesOn()
+    ? ''
+    : ok
+      ? `${how}: the junction reaches about ${fmt(s.junctionC)} °C, within Tj,max ${fmt(s.tjMaxC)} °C.`
+      : `${how}: the junction would reach about ${fmt(s.junctionC)} °C, above Tj,max ${fmt(s.tjMaxC)} °C. Add ` +
+        `a stall protection (current limit or a timed cut-off), or choose a part with lower RDS(on) or RθJA.`;
   return makeCheck({ id, ok, value: s.junctionC, limit: s.tjMaxC, unit: '°C', margin, note });
 }
 
 /** Hard: VGS(max) ≥ the highest level the gate can see. */
 export function checkGateVoltageRating(gateDriveMaxV: number, vgsMaxV: number): Check {
   const ok = gateDriveMaxV <= vgsMaxV;
-  const note = ok
-    ? `Gate sees at most ${fmt(gateDriveMaxV)} V, within VGS(max) ${fmt(vgsMaxV)} V.`
-    : `Gate can see ${fmt(gateDriveMaxV)} V, above VGS(max) ${fmt(vgsMaxV)} V: lower the drive voltage (or clamp the gate with a zener) or choose a part rated for it.`;
+  const note = !notesOn()
+    ? ''
+    : ok
+      ? `Gate sees at most ${fmt(gateDriveMaxV)} V, within VGS(max) ${fmt(vgsMaxV)} V.`
+      : `Gate can see ${fmt(gateDriveMaxV)} V, above VGS(max) ${fmt(vgsMaxV)} V: lower the drive voltage (or clamp the gate with a zener) or choose a part rated for it.`;
   return makeCheck({
     id: 'gate-voltage-rating',
     ok,
@@ -208,9 +222,11 @@ export function checkGateDrive(
     return makeCheck({ id: 'gate-drive', ok: false, value: driveV, limit: null, unit: 'V', margin: null, note });
   }
   const ok = driveV >= lowestSpecV && driveV >= vgsThMaxV;
-  const note = ok
-    ? `RDS(on) is specified from ${fmt(lowestSpecV)} V; the ${fmt(driveV)} V drive reaches it (about ${fmt((rdsOnAtDriveOhm ?? 0) * 1000)} mΩ at 25 °C).`
-    : gateDriveFailNote(driveV, lowestSpecV, vgsThMaxV, vgsMaxV);
+  const note = !notesOn()
+    ? ''
+    : ok
+      ? `RDS(on) is specified from ${fmt(lowestSpecV)} V; the ${fmt(driveV)} V drive reaches it (about ${fmt((rdsOnAtDriveOhm ?? 0) * 1000)} mΩ at 25 °C).`
+      : gateDriveFailNote(driveV, lowestSpecV, vgsThMaxV, vgsMaxV);
   return makeCheck({
     id: 'gate-drive',
     ok,
@@ -225,9 +241,11 @@ export function checkGateDrive(
 /** Hard: worst-case stall current (highest supply, coldest winding) ≤ IDM. */
 export function checkStallCurrent(stallCurrentA: number, idPulsedA: number): Check {
   const ok = stallCurrentA <= idPulsedA;
-  const note = ok
-    ? `Worst-case stall current ${fmt(stallCurrentA)} A is within the ${fmt(idPulsedA)} A pulsed rating.`
-    : `Worst-case stall current ${fmt(stallCurrentA)} A exceeds the ${fmt(idPulsedA)} A pulsed rating: choose a larger part or limit the current (series resistance, current sensing).`;
+  const note = !notesOn()
+    ? ''
+    : ok
+      ? `Worst-case stall current ${fmt(stallCurrentA)} A is within the ${fmt(idPulsedA)} A pulsed rating.`
+      : `Worst-case stall current ${fmt(stallCurrentA)} A exceeds the ${fmt(idPulsedA)} A pulsed rating: choose a larger part or limit the current (series resistance, current sensing).`;
   return makeCheck({
     id: 'stall-current',
     ok,
@@ -246,9 +264,11 @@ export function checkRunningCurrent(currentRmsA: number, maxCurrentA: number | n
     return makeCheck({ id: 'running-current', ok: false, value: currentRmsA, limit: null, unit: 'A', margin: null, note });
   }
   const ok = currentRmsA <= maxCurrentA;
-  const note = ok
-    ? `Running current ${fmt(currentRmsA)} A (RMS) is within the ${fmt(maxCurrentA)} A this part carries at ${fmt(ambientC)} °C on its test board.`
-    : `Running current ${fmt(currentRmsA)} A (RMS) exceeds the ${fmt(maxCurrentA)} A this part carries at ${fmt(ambientC)} °C: choose a part with lower RDS(on) or better cooling.`;
+  const note = !notesOn()
+    ? ''
+    : ok
+      ? `Running current ${fmt(currentRmsA)} A (RMS) is within the ${fmt(maxCurrentA)} A this part carries at ${fmt(ambientC)} °C on its test board.`
+      : `Running current ${fmt(currentRmsA)} A (RMS) exceeds the ${fmt(maxCurrentA)} A this part carries at ${fmt(ambientC)} °C: choose a part with lower RDS(on) or better cooling.`;
   return makeCheck({
     id: 'running-current',
     ok,
@@ -297,9 +317,11 @@ export function checkJunctionTemperature(
   const riseC = targetC - ambientC;
   const margin = riseC > 0 ? (targetC - junctionC) / riseC : null;
   const board = 'RθJA is the test-board figure; a real board differs.';
-  const note = ok
-    ? `Junction about ${fmt(junctionC)} °C, below the ${fmt(targetC)} °C target (Tj,max ${fmt(tjMaxC)} °C less ${fmt(thermalMarginC)} K). ${board}`
-    : `Junction about ${fmt(junctionC)} °C, ${hardOk ? 'inside Tj,max but above' : 'above Tj,max and'} the ${fmt(targetC)} °C target: add copper, lower RDS(on) or switching loss. ${board}`;
+  const note = !notesOn()
+    ? ''
+    : ok
+      ? `Junction about ${fmt(junctionC)} °C, below the ${fmt(targetC)} °C target (Tj,max ${fmt(tjMaxC)} °C less ${fmt(thermalMarginC)} K). ${board}`
+      : `Junction about ${fmt(junctionC)} °C, ${hardOk ? 'inside Tj,max but above' : 'above Tj,max and'} the ${fmt(targetC)} °C target: add copper, lower RDS(on) or switching loss. ${board}`;
   return makeCheck(
     { id: 'junction-temperature', ok, value: junctionC, limit: targetC, unit: '°C', margin, note },
     hardOk ? 'margin' : 'hard',
@@ -326,10 +348,12 @@ export function checkSwitchingEdges(turnOnS: number, turnOffS: number, pwmHz: nu
   const limitS = EDGE_SHARE_MARGIN * periodS;
   const ok = edgesS <= limitS;
   const hardOk = edgesS <= EDGE_SHARE_HARD * periodS;
-  const edgesText = `Edges take about ${fmt(turnOnS * 1e9)} ns on and ${fmt(turnOffS * 1e9)} ns off`;
-  const note = ok
-    ? `${edgesText}, under 2 % of the ${fmt(periodS * 1e6)} µs PWM period.`
-    : `${edgesText}, ${fmt((edgesS / periodS) * 100)} % of the ${fmt(periodS * 1e6)} µs PWM period: drive the gate with more current (a gate driver) or lower the PWM frequency.`;
+  const edgesText = !notesOn() ? '' : `Edges take about ${fmt(turnOnS * 1e9)} ns on and ${fmt(turnOffS * 1e9)} ns off`;
+  const note = !notesOn()
+    ? ''
+    : ok
+      ? `${edgesText}, under 2 % of the ${fmt(periodS * 1e6)} µs PWM period.`
+      : `${edgesText}, ${fmt((edgesS / periodS) * 100)} % of the ${fmt(periodS * 1e6)} µs PWM period: drive the gate with more current (a gate driver) or lower the PWM frequency.`;
   return makeCheck(
     {
       id: 'switching-edges',
@@ -347,8 +371,10 @@ export function checkSwitchingEdges(turnOnS: number, turnOffS: number, pwmHz: nu
 /** Low-side ranking takes N-channel parts only; a P-channel part belongs on the high side. */
 export function checkChannel(channel: 'n' | 'p'): Check {
   const ok = channel === 'n';
-  const note = ok
-    ? 'N-channel part, suited to a low-side switch.'
-    : 'P-channel part: it belongs on the high side with a gate pulled below the supply; this low-side design needs an N-channel MOSFET.';
+  const note = !notesOn()
+    ? ''
+    : ok
+      ? 'N-channel part, suited to a low-side switch.'
+      : 'P-channel part: it belongs on the high side with a gate pulled below the supply; this low-side design needs an N-channel MOSFET.';
   return makeCheck({ id: 'channel', ok, value: null, limit: null, unit: '', margin: null, note });
 }

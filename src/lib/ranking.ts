@@ -8,6 +8,7 @@ import { VERDICT_RANK, verdictOf, withoutNotes, type Check, type Verdict } from 
 import { checkDiode } from './diode-checks.ts';
 import type { CandidatePart, DiodeParams } from './domain/parts.ts';
 import { marginsOf, worstCaseOf, type DesignCase, type WorstCase } from './design-case.ts';
+import { memoOnObject } from './memo.ts';
 import { rdsOnPointsAt25C } from './rdson.ts';
 import { evaluateSwitch, type SwitchEvaluation, type SwitchMosfetInput, type SwitchOperatingInput } from './switch-evaluation.ts';
 
@@ -59,10 +60,13 @@ const INFORMATIVE = new Set(['surge-current', 'drain-spike', 'polarity', 'paired
 
 export function scoreOf(checks: readonly Check[], verdict: Verdict = verdictOf(checks)): number {
   if (verdict === 'fail') return 0;
-  const margins = checks
-    .filter((c) => !INFORMATIVE.has(c.id) && c.limit != null && c.margin != null && Number.isFinite(c.margin))
-    .map((c) => c.margin as number);
-  const smallest = margins.length > 0 ? Math.min(...margins) : 1;
+  // The smallest margin among the rated checks (1 when none is rated); a plain loop, as it runs per candidate.
+  let smallest = Infinity;
+  for (const c of checks) {
+    if (INFORMATIVE.has(c.id) || c.limit == null || c.margin == null || !Number.isFinite(c.margin)) continue;
+    if (c.margin < smallest) smallest = c.margin;
+  }
+  if (smallest === Infinity) smallest = 1;
   return Math.round(Math.min(100, Math.max(0, 100 * smallest)) * 10) / 10;
 }
 
@@ -114,14 +118,10 @@ export function bestCandidate<T extends CandidateResult>(results: readonly T[]):
 }
 
 /** The switch input of a part's params, worked out once per params object (a match judges each part at up to two drives). */
-const switchInputs = new WeakMap<CandidatePart<'mosfet'>['params'], SwitchMosfetInput>();
+const switchInputOfParams = memoOnObject((p: CandidatePart<'mosfet'>['params']) => switchInputOf(p));
 
 export function switchInputFromPart(part: CandidatePart<'mosfet'>): SwitchMosfetInput {
-  const known = switchInputs.get(part.params);
-  if (known) return known;
-  const input = switchInputOf(part.params);
-  switchInputs.set(part.params, input);
-  return input;
+  return switchInputOfParams(part.params);
 }
 
 function switchInputOf(p: CandidatePart<'mosfet'>['params']): SwitchMosfetInput {
@@ -197,12 +197,14 @@ export type Keep = 'full' | 'lean';
 /** The failing checks, for a lean entry (verdict, score and the failure counts read only these). */
 export const failingOnly = (checks: Check[]): Check[] => checks.filter((x) => !x.ok);
 
-/** Runs `judge` as `keep` says: in lean, without notes and with only the failing checks kept. */
-export function judgedAs<T extends { checks: Check[] }>(keep: Keep, judge: () => T): T {
-  if (keep === 'full') return judge();
-  const result = withoutNotes(judge);
-  result.checks = failingOnly(result.checks);
-  return result;
+/** `judge` for many parts as `keep` says: in lean, without notes and with only the failing checks kept. */
+export function judgeAs<P, T extends { checks: Check[] }>(keep: Keep, judge: (part: P) => T): (part: P) => T {
+  if (keep === 'full') return judge;
+  return (part: P): T => {
+    const result = withoutNotes(judge, part);
+    result.checks = failingOnly(result.checks);
+    return result;
+  };
 }
 
 /** evaluateSwitchPart for many parts at one drive: the design's operating values and margins worked out once. */
@@ -217,8 +219,7 @@ export function switchEvaluator(c: DesignCase, drive: GateDrive, wc: WorstCase =
     driverPartId: drive.driverPartId ?? null,
     driverMpn: drive.driverMpn ?? null,
   };
-  return (part: CandidatePart<'mosfet'>): SwitchCandidateResult =>
-    judgedAs(keep, () => judgeSwitch(part, keep === 'full' ? { ...shown } : shown, operating, margins));
+  return judgeAs(keep, (part: CandidatePart<'mosfet'>) => judgeSwitch(part, keep === 'full' ? { ...shown } : shown, operating, margins));
 }
 
 function judgeSwitch(
@@ -292,7 +293,7 @@ function judgeDiode(part: CandidatePart<'diode'>, diodeCase: ReturnType<typeof d
 /** evaluateDiodePart for many parts: the case's diode inputs worked out once. */
 export function diodeEvaluator(c: DesignCase, wc: WorstCase = worstCaseOf(c), keep: Keep = 'full') {
   const diodeCase = diodeCaseOf(c, wc);
-  return (part: CandidatePart<'diode'>): DiodeCandidateResult => judgedAs(keep, () => judgeDiode(part, diodeCase));
+  return judgeAs(keep, (part: CandidatePart<'diode'>) => judgeDiode(part, diodeCase));
 }
 
 export function evaluateDiodePart(c: DesignCase, part: CandidatePart<'diode'>, wc: WorstCase): DiodeCandidateResult {

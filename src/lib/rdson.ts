@@ -2,6 +2,7 @@
  * RDS(on) at a given gate drive and junction temperature, from datasheet spec points.
  */
 import type { RdsOnSpecPoint } from './domain/parts.ts';
+import { memoOnObject } from './memo.ts';
 
 /** One RDS(on) line reduced to what the checks need: the maximum at a stated VGS, Tj = 25 °C. */
 export interface RdsOnPoint {
@@ -31,17 +32,11 @@ export function rdsOnPointsAt25C(points: readonly RdsOnSpecPoint[], alphaPerC = 
   return [...at25, ...others].map((p) => ({ vgsV: p.vgsV, ohms: p.maxOhm, testCurrentA: p.idA }));
 }
 
-/** normalise's answer per points array (a match reads each part's lines at one or two drives, several times). */
-const normalised = new WeakMap<readonly RdsOnPoint[], RdsOnPoint[]>();
-
-/** Ascending by VGS; duplicate VGS keep the larger (conservative) resistance (the same array for the same input array). */
-function normalise(points: readonly RdsOnPoint[]): RdsOnPoint[] {
-  const known = normalised.get(points);
-  if (known) return known;
-  const sorted = normaliseOnce(points);
-  normalised.set(points, sorted);
-  return sorted;
-}
+/**
+ * Ascending by VGS; duplicate VGS keep the larger (conservative) resistance. Worked out once per points
+ * array (a match reads each part's lines at one or two drives, several times): the same array comes back.
+ */
+const normalise = memoOnObject((points: readonly RdsOnPoint[]) => normaliseOnce(points));
 
 function normaliseOnce(points: readonly RdsOnPoint[]): RdsOnPoint[] {
   const byVgs = new Map<number, number>();
@@ -75,7 +70,11 @@ export function rdsOnAtDriveOhm(points: readonly RdsOnPoint[], driveV: number): 
 
 /** The spec line that bounds RDS(on) at a drive: the one at the highest VGS not above it (null below the lowest). */
 export function governingLineAt(points: readonly RdsOnPoint[], driveV: number): RdsOnPoint | null {
-  const below = points.filter((p) => p.vgsV > 0 && p.ohms > 0 && p.vgsV <= driveV);
-  if (below.length === 0) return null;
-  return below.reduce((best, p) => (p.vgsV > best.vgsV || (p.vgsV === best.vgsV && p.ohms > best.ohms) ? p : best));
+  let best: RdsOnPoint | null = null;
+  for (const p of points) {
+    if (!(p.vgsV > 0 && p.ohms > 0 && p.vgsV <= driveV)) continue;
+    // The highest VGS not above the drive; of equal VGS, the larger (conservative) resistance, the first kept.
+    if (best == null || p.vgsV > best.vgsV || (p.vgsV === best.vgsV && p.ohms > best.ohms)) best = p;
+  }
+  return best;
 }

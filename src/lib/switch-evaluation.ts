@@ -153,24 +153,33 @@ function stallCaseOf(op: SwitchOperatingInput, pwmHz: number | null): StallCase 
   return { protection, duty, currentA, currentRmsA };
 }
 
+/** The jam judged for the switch: its check and the junction it reaches (null when it runs away or cannot be assessed). */
 function stallThermalCheck(
   m: SwitchMosfetInput,
   op: SwitchOperatingInput,
+  s: StallCase,
   rdsOn25: number | null,
   alpha: number,
   edges: SwitchingTimes,
   pwmHz: number | null,
-): { check: Check; junctionC: number | null; rmsA: number } {
-  const s = stallCaseOf(op, pwmHz);
-  const base = { protection: s.protection.kind, currentRmsA: s.currentRmsA, tjMaxC: m.tjMaxC, ambientC: op.ambientC };
-  if (rdsOn25 == null)
-    return { check: checkStallThermal({ ...base, junctionC: null, notCharacterised: true }), junctionC: null, rmsA: s.currentRmsA };
+): { check: Check; junctionC: number | null } {
+  if (rdsOn25 == null) {
+    const check = checkStallThermal({
+      protection: s.protection.kind,
+      currentRmsA: s.currentRmsA,
+      tjMaxC: m.tjMaxC,
+      ambientC: op.ambientC,
+      junctionC: null,
+      notCharacterised: true,
+    });
+    return { check, junctionC: null };
+  }
   const cutOff = s.protection.kind === 'cut-off' ? s.protection.afterS : null;
   const usedZth = cutOff != null && (m.zthPoints?.length ?? 0) > 0;
   const rthCPerW = usedZth ? zthAtPulseCPerW(m.zthPoints ?? [], cutOff as number, m.rthJaCPerW) : m.rthJaCPerW;
   const clampV = op.supplyMaxV + op.diodeForwardV;
   const swW = pwmHz != null && s.duty < 1 ? switchingLossAtEdgesW(clampV, s.currentA, s.currentA, edges.turnOnS, edges.turnOffS, pwmHz) : 0;
-  const solved = Number.isFinite(swW)
+  const junctionC = Number.isFinite(swW)
     ? solveConductionJunction({
         ambientC: op.ambientC,
         rthJaCPerW: rthCPerW,
@@ -178,15 +187,25 @@ function stallThermalCheck(
         rdsOn25Ohm: rdsOn25,
         alphaPerC: alpha,
         otherLossW: swW,
-      })
-    : { junctionC: null };
-  const check = checkStallThermal({ ...base, junctionC: solved.junctionC, afterS: cutOff ?? undefined, usedZth });
-  return { check, junctionC: solved.junctionC, rmsA: s.currentRmsA };
+      }).junctionC
+    : null;
+  const check = checkStallThermal({
+    protection: s.protection.kind,
+    currentRmsA: s.currentRmsA,
+    tjMaxC: m.tjMaxC,
+    ambientC: op.ambientC,
+    junctionC,
+    afterS: cutOff ?? undefined,
+    usedZth,
+  });
+  return { check, junctionC };
 }
 
 export function evaluateSwitch(input: SwitchEvaluationInput): SwitchEvaluation {
   const { mosfet: m, operating: op } = input;
-  const margins = { ...DEFAULT_MARGINS, ...input.margins };
+  const given = input.margins;
+  const margins: SwitchMargins =
+    given?.voltageDerating != null && given.thermalMarginC != null ? (given as SwitchMargins) : { ...DEFAULT_MARGINS, ...given };
   const alpha = m.rdsOnTempCoeffPerC ?? DEFAULT_RDSON_TEMPCO_PER_C;
   const pwm = pwmOf(op);
   const rdsOnAtDriveOhms = rdsOnAtDriveOhm(m.rdsOn, op.gateDriveV);
@@ -212,10 +231,10 @@ export function evaluateSwitch(input: SwitchEvaluationInput): SwitchEvaluation {
     rdsOnAtDriveOhms == null
       ? null
       : maxCurrentAtAmbientA(m.tjMaxC, op.ambientC, m.rthJaCPerW, rdsOnAtTemperatureOhm(rdsOnAtDriveOhms, m.tjMaxC, alpha));
-  const stall = stallThermalCheck(m, op, rdsOnAtDriveOhms, alpha, edges, pwm.hz);
-  const worstCurrentA = Math.max(turnOffA, op.runningCurrentA, stallCaseOf(op, pwm.hz).currentA);
+  const stallCase = stallCaseOf(op, pwm.hz);
+  const stall = stallThermalCheck(m, op, stallCase, rdsOnAtDriveOhms, alpha, edges, pwm.hz);
+  const worstCurrentA = Math.max(turnOffA, op.runningCurrentA, stallCase.currentA);
   const checks: Check[] = [
-    ...(m.channel === 'p' ? [checkChannel('p')] : []),
     checkDrainVoltage(m.vdsMaxV, op.supplyMaxV, op.diodeForwardV, margins.voltageDerating),
     checkGateVoltageRating(op.gateDriveMaxV ?? op.gateDriveV, m.vgsMaxV),
     checkGateDrive(op.gateDriveV, lowestSpecVgsV(m.rdsOn), m.vgsThMaxV, m.vgsMaxV, rdsOnAtDriveOhms),
@@ -233,6 +252,7 @@ export function evaluateSwitch(input: SwitchEvaluationInput): SwitchEvaluation {
     stall.check,
     checkSwitchingEdges(edges.turnOnS, edges.turnOffS, pwm.hz),
   ];
+  if (m.channel === 'p') checks.unshift(checkChannel('p'));
   return {
     verdict: verdictOf(checks),
     rdsOnAtDriveOhms,
@@ -241,7 +261,7 @@ export function evaluateSwitch(input: SwitchEvaluationInput): SwitchEvaluation {
     switchingLossW: Number.isFinite(swLossW) ? swLossW : null,
     gateDrivePowerW: pwm.hz == null ? 0 : gateDrivePowerW(m.qgTotalNc, op.gateDriveV, pwm.hz),
     stallJunctionC: stall.junctionC,
-    stallCurrentRmsA: stall.rmsA,
+    stallCurrentRmsA: stallCase.currentRmsA,
     checks,
   };
 }
