@@ -229,8 +229,42 @@ function stallCaseOf(c: DesignCase, model: MotorModel, diodeForwardV: number, fu
   return { protection, duty: dutyMax, currentA, currentRmsA, peakA, diodeMeanA };
 }
 
-/** Running currents use the 20 °C winding: conservative whenever the hot ambient is above 20 °C. */
+/** The worst cases last worked out, by their case's content (a match asks for the same one several times). */
+const recentWorstCases = new Map<string, WorstCase>();
+const RECENT_WORST_CASES = 64;
+
+/** JSON of a case that tells non-finite numbers apart (JSON alone writes Infinity and NaN as null). */
+const caseKey = (c: DesignCase): string =>
+  JSON.stringify(c, (_k, v: unknown) => (typeof v === 'number' && !Number.isFinite(v) ? `${String(v)}#number` : v));
+
+function deepFreeze<T>(value: T): T {
+  if (value && typeof value === 'object' && !Object.isFrozen(value)) {
+    Object.freeze(value);
+    for (const v of Object.values(value)) deepFreeze(v);
+  }
+  return value;
+}
+
+/**
+ * Running currents use the 20 °C winding: conservative whenever the hot ambient is above 20 °C. The answer
+ * depends on the case's content only; the last few are kept (frozen: shared by every caller), since
+ * solving the ripple at each supply and duty costs about 10 ms and a match needs it two or three times.
+ */
 export function worstCaseOf(c: DesignCase): WorstCase {
+  const key = caseKey(c);
+  const known = recentWorstCases.get(key);
+  if (known) {
+    recentWorstCases.delete(key);
+    recentWorstCases.set(key, known);
+    return known;
+  }
+  const wc = deepFreeze(solveWorstCase(c));
+  recentWorstCases.set(key, wc);
+  if (recentWorstCases.size > RECENT_WORST_CASES) recentWorstCases.delete(recentWorstCases.keys().next().value as string);
+  return wc;
+}
+
+function solveWorstCase(c: DesignCase): WorstCase {
   const model = motorModelOf(c);
   const diodeForwardV = c.diodeForwardV ?? DEFAULT_DIODE_FORWARD_V;
   let worst: { heat: number; duty: number; p: PointCurrents } | null = null;
