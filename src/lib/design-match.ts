@@ -96,16 +96,16 @@ function cheaperThenHealthier(pa: number, la: Lifecycle, pb: number, lb: Lifecyc
   return (pa === pb ? 0 : pa < pb ? -1 : 1) || LIFECYCLE_RANK[la] - LIFECYCLE_RANK[lb];
 }
 
-/** Runs of equal verdict and score in a ranked list (it is sorted on them): the ties a price can reorder. */
-export function tieGroups<T extends { verdict: string; score: number }>(list: readonly T[]): T[][] {
-  const groups: T[][] = [];
-  let last: T | undefined;
-  for (const e of list) {
-    if (last && last.verdict === e.verdict && last.score === e.score) groups[groups.length - 1].push(e);
-    else groups.push([e]);
-    last = e;
-  }
-  return groups;
+/**
+ * A ranked list is sorted on verdict and score; its runs of equal verdict and score are the ties a price
+ * can reorder. This gives where the run starting at `start` ends (exclusive), read in place: a match walks
+ * lists of 24,000–65,000 entries, most of them runs of one.
+ */
+export function tieEnd(list: readonly { verdict: string; score: number }[], start: number): number {
+  const first = list[start];
+  let end = start + 1;
+  while (end < list.length && list[end].verdict === first.verdict && list[end].score === first.score) end++;
+  return end;
 }
 
 type AnyCandidatePart = CandidatePart<'mosfet' | 'driver' | 'diode'>;
@@ -152,14 +152,23 @@ export function matchOrder<T extends CandidateResult>(
     return (part && part.sources.length > 0 ? bestUnitPrice(part, qty)?.price : undefined) ?? Infinity;
   };
   const lifecycleOf = (e: T): Lifecycle => (e.partId == null ? undefined : parts.get(e.partId))?.lifecycle ?? 'active';
-  return tieGroups(ranked).flatMap((group) => {
-    if (group.length === 1) return group;
-    if (visible && !group.some((e) => e.partId != null && visible.has(e.partId))) return group;
-    const keyed = group.map((e) => ({ e, price: priceOf(e), life: lifecycleOf(e) }));
-    // Stable: within equal price and lifecycle the engine's MPN order stays.
-    keyed.sort((a, b) => cheaperThenHealthier(a.price, a.life, b.price, b.life));
-    return keyed.map((k) => k.e);
-  });
+  const shows = (start: number, end: number): boolean => {
+    if (!visible) return true;
+    for (let i = start; i < end; i++) if (ranked[i].partId != null && visible.has(ranked[i].partId as number)) return true;
+    return false;
+  };
+  const out = ranked.slice();
+  for (let start = 0; start < ranked.length;) {
+    const end = tieEnd(ranked, start);
+    if (end - start > 1 && shows(start, end)) {
+      const keyed = ranked.slice(start, end).map((e) => ({ e, price: priceOf(e), life: lifecycleOf(e) }));
+      // Stable: within equal price and lifecycle the engine's MPN order stays.
+      keyed.sort((a, b) => cheaperThenHealthier(a.price, a.life, b.price, b.life));
+      for (let i = 0; i < keyed.length; i++) out[start + i] = keyed[i].e;
+    }
+    start = end;
+  }
+  return out;
 }
 
 function decorate<T extends CandidateResult>(

@@ -15,7 +15,7 @@ import {
   matchHead,
   matchOrder,
   suggestSelections,
-  tieGroups,
+  tieEnd,
   usableForPick,
   type DesignMatch,
   type MatchCatalogue,
@@ -247,10 +247,7 @@ export function idsNeedingPrice(
   page: { offset: number; limit: number },
 ): Set<number> {
   const out = new Set<number>();
-  const groupsOf = Object.fromEntries(MATCH_LIST_KEYS.map((k) => [k, tieGroups<CandidateLike>(ranking[k])])) as Record<
-    MatchListKey,
-    CandidateLike[][]
-  >;
+  const lists = ranking as Record<MatchListKey, readonly CandidateLike[]>;
   const pins: Record<'switch' | 'driver' | 'diode', Set<number>> = { switch: new Set(), driver: new Set(), diode: new Set() };
   for (const role of ['switch', 'driver', 'diode'] as const) {
     const sel = input.selections[role];
@@ -259,24 +256,29 @@ export function idsNeedingPrice(
   }
   // Whatever a suggestion may pick (the usable parts in the top groups of a list) is pinned like a pick.
   for (const k of MATCH_LIST_KEYS) {
+    const list = lists[k];
     let usable = 0;
-    for (const g of groupsOf[k]) {
-      if (usable >= 4) break;
-      for (const e of g) {
+    for (let start = 0; start < list.length && usable < 4;) {
+      const end = tieEnd(list, start);
+      for (let i = start; i < end; i++) {
+        const e = list[i];
         if (!usableForPick(e) || e.partId == null) continue;
         usable++;
         pins[roleOf(k)].add(e.partId);
       }
+      start = end;
     }
   }
+  // The tie groups (index ranges, read in place) that reach the page or hold a pin are priced whole.
   for (const k of MATCH_LIST_KEYS) {
-    let start = 0;
-    for (const g of groupsOf[k]) {
-      const end = start + g.length;
+    const list = lists[k];
+    const pinned = pins[roleOf(k)];
+    for (let start = 0; start < list.length;) {
+      const end = tieEnd(list, start);
       const onPage = start < page.offset + page.limit && end > page.offset;
-      if (onPage || g.some((e) => e.partId != null && pins[roleOf(k)].has(e.partId))) {
-        for (const e of g) if (e.partId != null) out.add(e.partId);
-      }
+      let priced = onPage;
+      for (let i = start; !priced && i < end; i++) priced = list[i].partId != null && pinned.has(list[i].partId as number);
+      if (priced) for (let i = start; i < end; i++) if (list[i].partId != null) out.add(list[i].partId as number);
       start = end;
     }
   }
