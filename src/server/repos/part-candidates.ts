@@ -4,6 +4,7 @@
  * hard limit), with
  * obsolete parts (not for new designs) and parts not yet approved unless asked for.
  */
+import { PriceTable, type SourceBreaks } from './price-table.ts';
 import type { Db } from '../db.ts';
 import type { CandidatePart, PartCategory, PriceSource } from '../../lib/domain/parts.ts';
 import { diodeFromRow, driverFromRow, mosfetFromRows } from './part-mapping.ts';
@@ -167,16 +168,32 @@ async function priceSourcesOf(db: Db, q: Query | readonly number[], qty: number)
   return out;
 }
 
-function head<C extends PartCategory>(category: C, r: HeadRow, sources: Map<number, PriceSource[]>) {
+function head<C extends PartCategory>(category: C, r: HeadRow, sources: Map<number, PriceSource[]>, same: Interner = (x) => x) {
   return {
     id: r.id,
     category,
-    manufacturer: r.manufacturer,
+    manufacturer: same(r.manufacturer),
     mpn: r.mpn,
-    package: r.package,
-    lifecycle: r.lifecycle,
-    reviewStatus: r.review_status,
+    package: same(r.package),
+    lifecycle: same(r.lifecycle),
+    reviewStatus: same(r.review_status),
     sources: sources.get(r.id) ?? [],
+  };
+}
+
+type Interner = <S extends string>(text: S) => S;
+
+/**
+ * One string object per distinct text: the database driver makes a new string for every row, and the
+ * candidate cache keeps 67,000 parts that share a few dozen makers, packages and states.
+ */
+function interner(): Interner {
+  const seen = new Map<string, string>();
+  return <S extends string>(text: S): S => {
+    const known = seen.get(text);
+    if (known !== undefined) return known as S;
+    seen.set(text, text);
+    return text;
   };
 }
 
@@ -236,19 +253,15 @@ export async function loadCandidateParts(db: Db, bounds: CandidateBounds, includ
 }
 
 /** A source with every price break, as the in-memory candidates keep it (breaks by rising quantity). */
-export interface SourceBreaks {
-  moq: number;
-  currency: string;
-  breaks: { qty: number; unitPrice: number }[];
-}
+export type { SourceBreaks };
 
 /** Every part the match may rank, whatever the design: MOSFETs, drivers and diodes not obsolete, approved or pending. */
 export interface WholeCandidateRows {
   mosfets: { part: CandidatePart<'mosfet'>; minRdsOnVgsV: number }[];
   drivers: CandidatePart<'driver'>[];
   diodes: CandidatePart<'diode'>[];
-  /** Sources per part id, in source id order. */
-  sources: Map<number, SourceBreaks[]>;
+  /** Sources per part id, in source id order (packed: see PriceTable). */
+  sources: PriceTable;
 }
 
 function wholeOf(db: Db, category: string) {
@@ -311,15 +324,16 @@ export async function loadWholeCandidateRows(trx: Db): Promise<WholeCandidateRow
     source.breaks.push({ qty: r.qty, unitPrice: Number(r.unit_price) });
   }
   const none = new Map<number, PriceSource[]>();
+  const same = interner();
   const pointsById = groupBy(points, (p) => p.part_id);
   const zthById = groupBy(zth, (p) => p.part_id);
   return {
     mosfets: mosfetRows.map((r) => ({
-      part: { ...head('mosfet', r, none), params: mosfetFromRows(r, pointsById.get(r.id) ?? [], zthById.get(r.id) ?? []) },
+      part: { ...head('mosfet', r, none, same), params: mosfetFromRows(r, pointsById.get(r.id) ?? [], zthById.get(r.id) ?? []) },
       minRdsOnVgsV: r.min_rds_on_vgs_v,
     })),
-    drivers: driverRows.map((r) => ({ ...head('driver', r, none), params: driverFromRow(r) })),
-    diodes: diodeRows.map((r) => ({ ...head('diode', r, none), params: diodeFromRow(r) })),
-    sources,
+    drivers: driverRows.map((r) => ({ ...head('driver', r, none, same), params: driverFromRow(r) })),
+    diodes: diodeRows.map((r) => ({ ...head('diode', r, none, same), params: diodeFromRow(r) })),
+    sources: new PriceTable(sources),
   };
 }

@@ -19,7 +19,7 @@
 import { db, type Db } from '../db.ts';
 import { appConfig } from '../config.ts';
 import type { CandidatePart, PriceSource } from '../../lib/domain/parts.ts';
-import type { CandidateBounds, CandidateRows, SourceBreaks, WholeCandidateRows } from '../repos/part-candidates.ts';
+import type { CandidateBounds, CandidateRows, WholeCandidateRows } from '../repos/part-candidates.ts';
 import { loadWholeCandidateRows } from '../repos/part-candidates.ts';
 import { catalogueTriggersInstalled, catalogueVersion } from '../repos/catalogue-version.ts';
 
@@ -211,29 +211,12 @@ export function candidatesOf(snapshot: WholeCandidateRows, bounds: CandidateBoun
   return { mosfets, drivers, diodes, totals };
 }
 
-/**
- * Per source only the price break that applies at `qty`: the largest at or below the quantity or the
- * source's MOQ, whichever is higher; a source without one is left out (as priceSourcesOf in SQL).
- */
-export function sourcesAt(sources: readonly SourceBreaks[], qty: number): PriceSource[] {
-  const out: PriceSource[] = [];
-  for (const s of sources) {
-    const limit = Math.max(qty, s.moq);
-    let best: { qty: number; unitPrice: number } | null = null;
-    for (const b of s.breaks) if (b.qty <= limit && (best == null || b.qty > best.qty)) best = b;
-    if (best) out.push({ moq: s.moq, currency: s.currency, priceBreaks: [{ qty: best.qty, unitPrice: best.unitPrice }] });
-  }
-  return out;
-}
-
 /** The price sources of the given parts at a quantity, from the snapshot (parts without any are absent). */
 export function priceSourcesFrom(snapshot: WholeCandidateRows, partIds: Iterable<number>, qty: number): Map<number, PriceSource[]> {
   const out = new Map<number, PriceSource[]>();
   for (const id of partIds) {
-    const sources = snapshot.sources.get(id);
-    if (!sources) continue;
-    const at = sourcesAt(sources, qty);
-    if (at.length) out.set(id, at);
+    const at = snapshot.sources.at(id, qty);
+    if (at) out.set(id, at);
   }
   return out;
 }
