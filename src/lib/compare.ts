@@ -13,7 +13,7 @@ import { checkFigure, checkLabel } from './design-words.ts';
 import type { Lifecycle, Part, ReviewStatus } from './domain/parts.ts';
 import { gateDriveOfDriver, rankDriverCandidates } from './driver-ranking.ts';
 import { bestUnitPrice } from './part-summary.ts';
-import { evaluateDiodePart, evaluateSwitchPart, pinGateDrive, type CandidateResult } from './ranking.ts';
+import { evaluateDiodePart, evaluateSwitchPart, mpnComparerFor, pinGateDrive, type CandidateResult } from './ranking.ts';
 import type { DesignCatalogue } from './rank-design.ts';
 
 export const COMPARE_ROLES = ['switch', 'driver', 'diode'] as const;
@@ -201,9 +201,6 @@ export interface NearMiss {
   worstShortfall: number;
 }
 
-/** String.prototype.localeCompare's default order, built once. */
-const byMpn = new Intl.Collator().compare;
-
 /**
  * The closest candidates when nothing passes: marginal parts before failing ones, then the smallest worst
  * relative distance to a limit (a miss without numbers counts as far), then fewest checks missed, then
@@ -218,6 +215,8 @@ export function nearMisses(list: readonly NearMissEntry[], count = 3, inFull: (e
   const shortfallOf = (c: Check) =>
     c.value != null && c.limit != null && c.limit !== 0 ? Math.abs(c.value - c.limit) / Math.abs(c.limit) : null;
   const rank = (v: Verdict) => (v === 'marginal' ? 0 : 1);
+  // The default collation of part numbers (by code unit where that is the same order: see mpnComparerFor).
+  const byMpn = mpnComparerFor(list);
   type Keyed = { e: NearMissEntry; worst: number; misses: number };
   const before = (a: Keyed, b: Keyed) =>
     rank(a.e.verdict) - rank(b.e.verdict) || a.worst - b.worst || a.misses - b.misses || byMpn(a.e.mpn, b.e.mpn);

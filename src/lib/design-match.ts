@@ -16,7 +16,7 @@ import {
   type RankingJudges,
 } from './rank-design.ts';
 import { worstCaseOf, type DesignCase, type WorstCase } from './design-case.ts';
-import type { Steps } from './slices.ts';
+import { SLICE_PARTS, type Steps } from './slices.ts';
 import { SCORE_EXPLANATION, sortCandidates, type CandidateResult } from './ranking.ts';
 import { bestUnitPrice } from './part-summary.ts';
 import { calcMotor, type CalcMotorResponse } from './calc.ts';
@@ -241,8 +241,12 @@ export function rankForMatchLeanSteps(
   input: DesignInput,
   catalogue: DesignCatalogue,
   prepared: PreparedCase,
+  earlier?: { catalogue: DesignCatalogue; ranking: DesignRanking },
 ): Steps<{ ranking: DesignRanking; judges: RankingJudges }> {
-  return rankDesignLeanSteps(prepared.designCase, catalogue, picksOf(input), prepared.worstCase);
+  const picks = picksOf(input);
+  // The match's first drive phase ranked the same diodes for the same case: its diode list carries over.
+  const diodes = earlier && { designCase: prepared.designCase, picks, diodes: earlier.catalogue.diodes, ranking: earlier.ranking };
+  return rankDesignLeanSteps(prepared.designCase, catalogue, picks, prepared.worstCase, SLICE_PARTS, diodes);
 }
 
 /** rankForMatch kept lean (rankDesignLean): for the match pages, which judge in full only what they show. */

@@ -336,9 +336,24 @@ export function rankDesignLeanSteps(
   picks: DesignPicks = {},
   wc0: WorstCase = worstCaseOf(c0),
   slice: number = SLICE_PARTS,
+  earlier?: EarlierDiodes,
 ): Steps<{ ranking: DesignRanking; judges: RankingJudges }> {
-  return rankSteps(c0, catalogue, picks, wc0, 'lean', slice);
+  return rankSteps(c0, catalogue, picks, wc0, 'lean', slice, earlier);
 }
+
+/**
+ * A lean ranking of the same case and picks made a moment before on another catalogue (the match's
+ * first drive phase): when its diodes are the very same parts in the same order, its diode list and the
+ * diode VF it settled on are the ones this ranking would work out again.
+ */
+export interface EarlierDiodes {
+  designCase: DesignCase;
+  picks: DesignPicks;
+  diodes: readonly CandidatePart<'diode'>[];
+  ranking: Pick<DesignRanking, 'diode' | 'diodeForward'>;
+}
+
+const sameParts = <P>(a: readonly P[], b: readonly P[]): boolean => a.length === b.length && a.every((p, i) => p === b[i]);
 
 function* rankSteps(
   c0: DesignCase,
@@ -347,11 +362,22 @@ function* rankSteps(
   wc0: WorstCase,
   keep: Keep,
   slice: number,
+  earlier?: EarlierDiodes,
 ): Steps<{ ranking: DesignRanking; judges: RankingJudges }> {
-  const { forward: diodeForward, rankedAtC } = yield* diodeForwardFor(c0, catalogue, picks, wc0, keep, slice);
+  const reuse =
+    earlier != null &&
+    keep === 'lean' &&
+    earlier.designCase === c0 &&
+    earlier.picks.diodeId === picks.diodeId &&
+    sameParts(earlier.diodes, catalogue.diodes)
+      ? earlier.ranking
+      : null;
+  const { forward: diodeForward, rankedAtC } = reuse
+    ? { forward: reuse.diodeForward, rankedAtC: null }
+    : yield* diodeForwardFor(c0, catalogue, picks, wc0, keep, slice);
   const c: DesignCase = diodeForward.voltageV === c0.diodeForwardV ? c0 : { ...c0, diodeForwardV: diodeForward.voltageV };
   const wc = c === c0 ? wc0 : worstCaseOf(c);
-  const diode = c === c0 && rankedAtC ? rankedAtC : yield* rankDiodesSliced(c, catalogue.diodes, wc, keep, slice);
+  const diode = reuse ? reuse.diode : c === c0 && rankedAtC ? rankedAtC : yield* rankDiodesSliced(c, catalogue.diodes, wc, keep, slice);
   const direct = yield* directDrive(c, wc, catalogue, picks, keep, slice);
 
   const chosenDriver = byId(catalogue.drivers, picks.driverId);

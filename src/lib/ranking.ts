@@ -96,7 +96,7 @@ const byCodeUnit = (a: string, b: string): number => (a < b ? -1 : a > b ? 1 : 0
  * list is plain (and the locale allows, see above), by code unit, which gives that order several times
  * faster (a match sorts tens of thousands of ties on MPN).
  */
-function mpnComparerFor(results: readonly { mpn: string }[]): (a: string, b: string) => number {
+export function mpnComparerFor(results: readonly { mpn: string }[]): (a: string, b: string) => number {
   return plainOrderIsCodeUnit && results.every((r) => PLAIN_MPN.test(r.mpn)) ? byCodeUnit : byMpn;
 }
 
@@ -110,9 +110,11 @@ export function sortCandidates<T extends CandidateResult>(results: T[], tiebreak
 
 /** sortCandidates(results)[0] (no tie-breaker) in one pass: the first of equal bests, as the stable sort keeps it. */
 export function bestCandidate<T extends CandidateResult>(results: readonly T[]): T | undefined {
+  const byPartNumber = mpnComparerFor(results);
   let best: T | undefined;
   for (const r of results) {
-    if (!best || (VERDICT_RANK[r.verdict] - VERDICT_RANK[best.verdict] || best.score - r.score || byMpn(r.mpn, best.mpn)) < 0) best = r;
+    if (!best || (VERDICT_RANK[r.verdict] - VERDICT_RANK[best.verdict] || best.score - r.score || byPartNumber(r.mpn, best.mpn)) < 0)
+      best = r;
   }
   return best;
 }

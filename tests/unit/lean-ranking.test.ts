@@ -8,7 +8,14 @@
 import { describe, expect, it } from 'vitest';
 import { demoDiodes, demoDrivers, demoMosfets, demoMotors } from '../../db/seeds/data/index.ts';
 import { demoDesigns } from '../../db/seeds/designs.ts';
-import { matchDesign, prepareCase, rankForMatch, rankForMatchLean, type MatchCatalogue } from '../../src/lib/design-match.ts';
+import {
+  matchDesign,
+  prepareCase,
+  rankForMatch,
+  rankForMatchLean,
+  rankForMatchLeanSteps,
+  type MatchCatalogue,
+} from '../../src/lib/design-match.ts';
 import { rankDesignLeanSteps } from '../../src/lib/rank-design.ts';
 import { MATCH_LIST_KEYS, leanMatchPage, pageMatch } from '../../src/lib/match-page.ts';
 import { withoutNotes, fmt } from '../../src/lib/checks.ts';
@@ -132,6 +139,40 @@ describe.each(demoDesigns.map((d) => d.name))('lean ranking of "%s"', (name) => 
         for (const part of catalogue.mosfets.slice(0, 5)) expect(r.value.judges.switch(part)).toEqual(whole.judges.switch(part));
         for (const part of catalogue.diodes.slice(0, 5)) expect(r.value.judges.diode(part)).toEqual(whole.judges.diode(part));
       }
+    },
+  );
+
+  it.each(cases)(
+    'with the diodes of an earlier phase carried over gives the ranking worked out afresh, and judges no diode again (%s)',
+    (_l, input) => {
+      const prepared = prepareCase(input, motor.params);
+      // The first phase: the same case and diodes, switches narrowed to a few (as the pin-only phase is).
+      const firstPhase: MatchCatalogue = { ...catalogue, mosfets: catalogue.mosfets.slice(0, 3) };
+      const first = rankForMatchLean(input, firstPhase, prepared).ranking;
+      const afresh = rankForMatchLean(input, catalogue, prepared).ranking;
+      const count = (earlier?: { catalogue: MatchCatalogue; ranking: typeof first }) => {
+        let judged = 0;
+        const counting = {
+          ...catalogue,
+          diodes: catalogue.diodes.map((d) => new Proxy(d, { get: (t, k) => (k === 'params' && judged++, Reflect.get(t, k)) })),
+        };
+        const steps = rankForMatchLeanSteps(
+          input,
+          counting,
+          prepared,
+          earlier && { ...earlier, catalogue: { ...earlier.catalogue, diodes: counting.diodes } },
+        );
+        let r = steps.next();
+        while (!r.done) r = steps.next();
+        return { ranking: r.value.ranking, judged };
+      };
+      const carried = count({ catalogue: firstPhase, ranking: first });
+      expect(carried.ranking).toEqual(afresh);
+      expect(carried.judged).toBe(0);
+      // Without it (or with other diodes) they are judged again, and the answer is the same.
+      const again = count();
+      expect(again.ranking).toEqual(afresh);
+      expect(again.judged).toBeGreaterThan(0);
     },
   );
 

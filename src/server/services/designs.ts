@@ -160,20 +160,22 @@ export async function matchInput(
 async function rankInPhases<R extends { ranking: DesignRanking }>(
   input: DesignInput,
   load: (phase: SwitchDrivePhase) => Promise<MatchCatalogue>,
-  rank: (catalogue: MatchCatalogue) => Steps<R>,
+  rank: (catalogue: MatchCatalogue, earlier?: { catalogue: MatchCatalogue; ranking: DesignRanking }) => Steps<R>,
   watch: MatchWatch = {},
 ): Promise<{ catalogue: MatchCatalogue; ranked: R }> {
   const step = (name: MatchStep) => checkpoint(watch, name);
+  let earlier: { catalogue: MatchCatalogue; ranking: DesignRanking } | undefined;
   if (input.selections.driver.chosenPartId == null) {
     const direct = await load('direct');
     await step('loaded-direct');
     const ranked = await runSliced(rank(direct), watch);
     await step('ranked-direct');
     if (!ranked.ranking.driverNeeded && ranked.ranking.switch.some((e) => e.verdict === 'pass')) return { catalogue: direct, ranked };
+    earlier = { catalogue: direct, ranking: ranked.ranking };
   }
   const catalogue = await load('driver');
   await step('loaded-driver');
-  const ranked = await runSliced(rank(catalogue), watch);
+  const ranked = await runSliced(rank(catalogue, earlier), watch);
   await step('ranked-driver');
   return { catalogue, ranked };
 }
@@ -260,7 +262,7 @@ export async function matchPageOf(
   const { catalogue, ranked } = await rankInPhases(
     input,
     (phase) => loadCandidates(k, prepared, includePending, phase, switchPicksOf(input), input.boardQuantity, false),
-    (c) => rankForMatchLeanSteps(input, c, prepared),
+    (c, earlier) => rankForMatchLeanSteps(input, c, prepared, earlier),
     watch,
   );
   await priceCandidates(k, catalogue, idsNeedingPrice(ranked.ranking, input, page), input.boardQuantity);
