@@ -178,12 +178,12 @@ export function* leanMatchPageSteps(
 ): Steps<DesignMatchPage> {
   const qty = input.boardQuantity;
   const parts = catalogueParts(catalogue);
-  // Only the tie groups whose inner order can show are ordered by price and lifecycle (matchOrder), per list.
-  const visible = visibleByList(ranking, input, { offset, limit });
+  // Only the tie groups whose inner order can show are ordered by price and lifecycle (matchOrder).
+  const visible = idsNeedingPrice(ranking, input, { offset, limit });
   yield;
   const ordered = {} as { [K in MatchListKey]: DesignRanking[K] };
   for (const k of MATCH_LIST_KEYS) {
-    (ordered as Record<MatchListKey, unknown>)[k] = matchOrder(ranking[k] as CandidateLike[], parts, qty, visible[k]);
+    (ordered as Record<MatchListKey, unknown>)[k] = matchOrder(ranking[k] as CandidateLike[], parts, qty, visible);
     yield;
   }
   const suggested = suggestSelections({ driverNeeded: ranking.driverNeeded, ...ordered });
@@ -247,20 +247,6 @@ export function idsNeedingPrice(
   page: { offset: number; limit: number },
 ): Set<number> {
   const out = new Set<number>();
-  for (const ids of Object.values(visibleByList(ranking, input, page))) for (const id of ids) out.add(id);
-  return out;
-}
-
-/**
- * idsNeedingPrice per list: the parts of the tie groups whose order can show in that list. A part can sit
- * in a group that shows in one list (the pin-only switches, all failing alike) and in groups that never
- * show in another (the same switches at a driver): only its own list's groups are ordered by price.
- */
-export function visibleByList(
-  ranking: Pick<DesignRanking, MatchListKey>,
-  input: DesignInput,
-  page: { offset: number; limit: number },
-): Record<MatchListKey, Set<number>> {
   const lists = ranking as Record<MatchListKey, readonly CandidateLike[]>;
   const pins: Record<'switch' | 'driver' | 'diode', Set<number>> = { switch: new Set(), driver: new Set(), diode: new Set() };
   for (const role of ['switch', 'driver', 'diode'] as const) {
@@ -284,17 +270,15 @@ export function visibleByList(
     }
   }
   // The tie groups (index ranges, read in place) that reach the page or hold a pin are priced whole.
-  const out = {} as Record<MatchListKey, Set<number>>;
   for (const k of MATCH_LIST_KEYS) {
     const list = lists[k];
     const pinned = pins[roleOf(k)];
-    const shown = (out[k] = new Set<number>());
     for (let start = 0; start < list.length;) {
       const end = tieEnd(list, start);
       const onPage = start < page.offset + page.limit && end > page.offset;
       let priced = onPage;
       for (let i = start; !priced && i < end; i++) priced = list[i].partId != null && pinned.has(list[i].partId as number);
-      if (priced) for (let i = start; i < end; i++) if (list[i].partId != null) shown.add(list[i].partId as number);
+      if (priced) for (let i = start; i < end; i++) if (list[i].partId != null) out.add(list[i].partId as number);
       start = end;
     }
   }
