@@ -203,7 +203,8 @@ function coldModel(model: MotorModel, windingC: number): MotorModel {
  * share over the duty range, at the highest supply with the coldest winding; a current limit caps the current.
  */
 function stallCaseOf(c: DesignCase, model: MotorModel, diodeForwardV: number, fullOnA: number): WorstCase['stall'] {
-  const protection = c.stallProtection ?? { kind: 'none' };
+  // A copy: the worst case is kept and frozen (worstCaseOf), and must not freeze the caller's input.
+  const protection: StallProtection = { ...(c.stallProtection ?? { kind: 'none' }) };
   const cold = coldModel(model, c.ambientMinC);
   const cap = (a: number): number => (protection.kind === 'current-limit' ? Math.min(a, protection.limitA) : a);
   const stalled: MotorLoad = { kind: 'stall-only' };

@@ -60,6 +60,22 @@ describe('worstCaseOf: kept by the content of its case', () => {
     }).toThrow(TypeError);
   });
 
+  it('freezes only its own answer, nothing of the case it was given', () => {
+    const c = caseM1({
+      stallProtection: { kind: 'current-limit', limitA: 2 },
+      drive: { mode: 'pwm', frequencyHz: 20_000, dutyMin: 0.2, dutyMax: 0.8 },
+    });
+    worstCaseOf(c);
+    const frozen: string[] = [];
+    const walk = (v: unknown, path: string): void => {
+      if (v == null || typeof v !== 'object') return;
+      if (Object.isFrozen(v)) frozen.push(path);
+      for (const [k, x] of Object.entries(v)) walk(x, `${path}.${k}`);
+    };
+    walk(c, 'case');
+    expect(frozen).toEqual([]);
+  });
+
   it('tells non-finite numbers apart from null (JSON alone writes both as null)', () => {
     // Two cases whose plain JSON is the same: a limit of Infinity (no limit at all) and a limit of null.
     const noLimit = caseM1({ stallProtection: { kind: 'current-limit', limitA: Infinity } });
