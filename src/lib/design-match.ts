@@ -243,10 +243,9 @@ export function rankForMatchLeanSteps(
   prepared: PreparedCase,
   earlier?: { catalogue: DesignCatalogue; ranking: DesignRanking },
 ): Steps<{ ranking: DesignRanking; judges: RankingJudges }> {
-  const picks = picksOf(input);
-  // The match's first drive phase ranked the same diodes for the same case: its diode list carries over.
-  const diodes = earlier && { designCase: prepared.designCase, picks, diodes: earlier.catalogue.diodes, ranking: earlier.ranking };
-  return rankDesignLeanSteps(prepared.designCase, catalogue, picks, prepared.worstCase, SLICE_PARTS, diodes);
+  // The match's first drive phase may have ranked the same diodes for the same case: then its diode list carries over.
+  const diodes = earlier && { diodes: earlier.catalogue.diodes, ranking: earlier.ranking };
+  return rankDesignLeanSteps(prepared.designCase, catalogue, picksOf(input), prepared.worstCase, SLICE_PARTS, diodes);
 }
 
 /** rankForMatch kept lean (rankDesignLean): for the match pages, which judge in full only what they show. */

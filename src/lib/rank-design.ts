@@ -342,16 +342,19 @@ export function rankDesignLeanSteps(
 }
 
 /**
- * A lean ranking of the same case and picks made a moment before on another catalogue (the match's
- * first drive phase): when its diodes are the very same parts in the same order, its diode list and the
- * diode VF it settled on are the ones this ranking would work out again.
+ * A lean ranking made a moment before on another catalogue (the match's first drive phase), with the
+ * diodes it ranked: when it was ranked for the same case (the same object) and diode pick, and its diodes
+ * are the very same parts in the same order, its diode list and the diode VF it settled on are the ones
+ * this ranking would work out again. What it was ranked for is recorded by rankSteps (rankedFor), not
+ * taken from the caller.
  */
 export interface EarlierDiodes {
-  designCase: DesignCase;
-  picks: DesignPicks;
   diodes: readonly CandidatePart<'diode'>[];
-  ranking: Pick<DesignRanking, 'diode' | 'diodeForward'>;
+  ranking: DesignRanking;
 }
+
+/** The case and diode pick each lean ranking was made for (read back by a later phase's rankSteps). */
+const rankedFor = new WeakMap<DesignRanking, { designCase: DesignCase; diodeId: number | null | undefined }>();
 
 const sameParts = <P>(a: readonly P[], b: readonly P[]): boolean => a.length === b.length && a.every((p, i) => p === b[i]);
 
@@ -364,11 +367,12 @@ function* rankSteps(
   slice: number,
   earlier?: EarlierDiodes,
 ): Steps<{ ranking: DesignRanking; judges: RankingJudges }> {
+  const earlierFor = earlier && rankedFor.get(earlier.ranking);
   const reuse =
     earlier != null &&
     keep === 'lean' &&
-    earlier.designCase === c0 &&
-    earlier.picks.diodeId === picks.diodeId &&
+    earlierFor?.designCase === c0 &&
+    earlierFor.diodeId === picks.diodeId &&
     sameParts(earlier.diodes, catalogue.diodes)
       ? earlier.ranking
       : null;
@@ -435,6 +439,7 @@ function* rankSteps(
     driver: switchPart ? (d) => evaluateDriverPart(c, d, switchPart, wc, startIntended) : noList,
     diode: diodeEvaluator(c, wc),
   };
+  if (keep === 'lean') rankedFor.set(ranking, { designCase: c0, diodeId: picks.diodeId });
   return { ranking, judges };
 }
 

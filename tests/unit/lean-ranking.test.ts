@@ -169,10 +169,16 @@ describe.each(demoDesigns.map((d) => d.name))('lean ranking of "%s"', (name) => 
       const carried = count({ catalogue: firstPhase, ranking: first });
       expect(carried.ranking).toEqual(afresh);
       expect(carried.judged).toBe(0);
-      // Without it (or with other diodes) they are judged again, and the answer is the same.
+      // Without it, or with a ranking made for another case (a hotter ambient), they are judged again,
+      // and the answer is the one worked out afresh.
       const again = count();
       expect(again.ranking).toEqual(afresh);
       expect(again.judged).toBeGreaterThan(0);
+      const hotter = { ...input, ambientMaxC: input.ambientMaxC + 10 };
+      const otherCase = rankForMatchLean(hotter, firstPhase, prepareCase(hotter, motor.params)).ranking;
+      const notCarried = count({ catalogue: firstPhase, ranking: otherCase });
+      expect(notCarried.ranking).toEqual(afresh);
+      expect(notCarried.judged).toBeGreaterThan(0);
     },
   );
 
