@@ -111,11 +111,7 @@ const idsOf = (q: Query) => q.clone().clearSelect().clearOrder().select('parts.i
 
 function groupBy<T>(rows: T[], key: (r: T) => number): Map<number, T[]> {
   const map = new Map<number, T[]>();
-  for (const r of rows) {
-    const list = map.get(key(r));
-    if (list) list.push(r);
-    else map.set(key(r), [r]);
-  }
+  for (const r of rows) pushTo(map, key(r), r);
   return map;
 }
 
@@ -272,11 +268,15 @@ function wholeOf(db: Db, category: string) {
     .whereNot('parts.lifecycle', 'obsolete');
 }
 
+/** The rows of the whole candidate catalogue as the database gives them (readWholeCandidateRows). */
+export type WholeCandidateRawRows = Awaited<ReturnType<typeof readWholeCandidateRows>>;
+
 /**
- * The whole candidate catalogue, read in the caller's transaction (one snapshot, with the version read
- * there too) for the match's in-memory candidates. Parts come with no sources; `sources` has them all.
+ * The whole candidate catalogue for the match's in-memory candidates, in two steps: these queries in the
+ * caller's transaction (one snapshot, with the version read there too), then wholeCandidatesFromRows
+ * after it. Parts come with no sources; `sources` has them all.
  */
-export async function loadWholeCandidateRows(trx: Db): Promise<WholeCandidateRows> {
+export async function readWholeCandidateRows(trx: Db) {
   const ids = (category: string) => wholeOf(trx, category).select('parts.id');
   const mosfetRows = (await wholeOf(trx, 'mosfet')
     .join('mosfet_params', 'mosfet_params.part_id', 'parts.id')
@@ -311,9 +311,22 @@ export async function loadWholeCandidateRows(trx: Db): Promise<WholeCandidateRow
       'part_price_breaks.unit_price',
     )
     .orderBy([{ column: 'part_sources.id' }, { column: 'part_price_breaks.qty' }]);
-  // The rows are turned into parts in slices, a turn of the event loop between them (src/server/turns.ts):
-  // this runs in the background after every catalogue change, and in one go it held every request for
-  // 0.4–0.5 s at 67,000 parts.
+  return { mosfetRows, points, zth, driverRows, diodeRows, breakRows };
+}
+
+/**
+ * The rows turned into parts in slices, a turn of the event loop between them (src/server/turns.ts):
+ * this runs in the background after every catalogue change, and in one go it held every request for
+ * 0.4–0.5 s at 67,000 parts. No transaction is held meanwhile (the rows are read already).
+ */
+export async function wholeCandidatesFromRows({
+  mosfetRows,
+  points,
+  zth,
+  driverRows,
+  diodeRows,
+  breakRows,
+}: WholeCandidateRawRows): Promise<WholeCandidateRows> {
   const sources = new Map<number, SourceBreaks[]>();
   let sourceId = -1;
   let source: SourceBreaks = { moq: 0, currency: '', breaks: [] };

@@ -20,7 +20,7 @@ import { db, type Db } from '../db.ts';
 import { appConfig } from '../config.ts';
 import type { CandidatePart, PriceSource } from '../../lib/domain/parts.ts';
 import type { CandidateBounds, CandidateRows, WholeCandidateRows } from '../repos/part-candidates.ts';
-import { loadWholeCandidateRows } from '../repos/part-candidates.ts';
+import { readWholeCandidateRows, wholeCandidatesFromRows } from '../repos/part-candidates.ts';
 import { catalogueTriggersInstalled, catalogueVersion } from '../repos/catalogue-version.ts';
 
 export interface CandidateSnapshot extends WholeCandidateRows {
@@ -47,13 +47,12 @@ function freezePart(part: { sources: unknown[] }): void {
 
 async function loadSnapshot(): Promise<CandidateSnapshot> {
   const t0 = performance.now();
-  const snapshot = await db().transaction(
-    async (trx) => {
-      const version = await catalogueVersion(trx);
-      return { version, ...(await loadWholeCandidateRows(trx)) };
-    },
-    { isolationLevel: 'repeatable read' },
-  );
+  // The version and the rows in one consistent read; turning the rows into parts (in slices) after it,
+  // so no transaction or pool connection is held while other requests take their turns.
+  const read = await db().transaction(async (trx) => ({ version: await catalogueVersion(trx), rows: await readWholeCandidateRows(trx) }), {
+    isolationLevel: 'repeatable read',
+  });
+  const snapshot = { version: read.version, ...(await wholeCandidatesFromRows(read.rows)) };
   for (const { part } of snapshot.mosfets) freezePart(part);
   for (const part of snapshot.drivers) freezePart(part);
   for (const part of snapshot.diodes) freezePart(part);
@@ -176,7 +175,7 @@ function columnsOf(snapshot: WholeCandidateRows): NarrowingColumns {
  * The candidates of one design from the snapshot: the same parts, in the same order (by id), as the SQL
  * narrowing of repos/part-candidates.ts (candidateQueries) returns for these bounds, the snapshot's own
  * (frozen) objects without sources; totals as countOf gives them. The snapshot holds approved and pending
- * parts only (loadWholeCandidateRows), so "eligible" is approved, or any with includePending.
+ * parts only (readWholeCandidateRows), so "eligible" is approved, or any with includePending.
  */
 export function candidatesOf(snapshot: WholeCandidateRows, bounds: CandidateBounds, includePending: boolean): CandidateRows {
   const cols = columnsOf(snapshot);
