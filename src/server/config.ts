@@ -105,7 +105,7 @@ export const CONFIG_KEYS: readonly ConfigKey[] = [
     key: 'MATCH_CACHE',
     defaultText: '`on`',
     meaning:
-      '`on` keeps the match candidates in memory, reloaded when the catalogue version changes (about 185 MiB of RSS at 67,000 parts); `off` reads them from the database on every match',
+      '`on` keeps the match candidates in memory, reloaded when the catalogue version changes (about 200 MiB of RSS at 67,000 parts); `off` reads them from the database on every match',
   },
   {
     key: 'ORG_CURRENCY',
