@@ -369,7 +369,7 @@ function* rankSteps(
 ): Steps<{ ranking: DesignRanking; judges: RankingJudges }> {
   const earlierFor = earlier && rankedFor.get(earlier.ranking);
   const reuse =
-    earlier != null &&
+    earlier &&
     keep === 'lean' &&
     earlierFor?.designCase === c0 &&
     earlierFor.diodeId === picks.diodeId &&

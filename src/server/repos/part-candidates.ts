@@ -4,7 +4,7 @@
  * hard limit), with
  * obsolete parts (not for new designs) and parts not yet approved unless asked for.
  */
-import { nextTurn } from '../turns.ts';
+import { eachInTurns, nextTurn } from '../turns.ts';
 import { PriceTable, type SourceBreaks } from './price-table.ts';
 import type { Db } from '../db.ts';
 import type { CandidatePart, PartCategory, PriceSource } from '../../lib/domain/parts.ts';
@@ -364,12 +364,7 @@ export async function wholeCandidatesFromRows({
 /** Rows handled per turn of the event loop while the whole candidate catalogue is read (a few ms each). */
 const ROWS_PER_TURN = 5_000;
 
-async function inTurns<T>(rows: readonly T[], each: (row: T) => void): Promise<void> {
-  for (let i = 0; i < rows.length; i++) {
-    if (i > 0 && i % ROWS_PER_TURN === 0) await nextTurn();
-    each(rows[i]);
-  }
-}
+const inTurns = <T>(rows: readonly T[], each: (row: T) => void): Promise<void> => eachInTurns(rows, each, ROWS_PER_TURN);
 
 function pushTo<T>(map: Map<number, T[]>, key: number, value: T): void {
   const list = map.get(key);

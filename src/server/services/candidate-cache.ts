@@ -59,6 +59,7 @@ async function loadSnapshot(): Promise<CandidateSnapshot> {
   const s = state();
   s.loads += 1;
   s.snapshot = { ...snapshot, loadedAt: Date.now(), loadMs: performance.now() - t0 };
+  columnsOf(s.snapshot); // the narrowing's columns now, not in the first match after a reload
   return s.snapshot;
 }
 
@@ -130,12 +131,12 @@ interface NarrowingColumns {
   vrrmV: Float64Array;
 }
 
-const columnsOfSnapshot = new WeakMap<WholeCandidateRows['mosfets'], NarrowingColumns>();
+/** Per snapshot (which never changes once read): built as it loads, or on first use for any other. */
+const columnsOfSnapshot = new WeakMap<WholeCandidateRows, NarrowingColumns>();
 
 function columnsOf(snapshot: WholeCandidateRows): NarrowingColumns {
-  const known = columnsOfSnapshot.get(snapshot.mosfets);
-  if (known && known.driverApproved.length === snapshot.drivers.length && known.diodeApproved.length === snapshot.diodes.length)
-    return known;
+  const known = columnsOfSnapshot.get(snapshot);
+  if (known) return known;
   const m = snapshot.mosfets.length;
   const cols: NarrowingColumns = {
     mosfetApproved: new Uint8Array(m),
@@ -167,7 +168,7 @@ function columnsOf(snapshot: WholeCandidateRows): NarrowingColumns {
     cols.diodeApproved[i] = part.reviewStatus === 'approved' ? 1 : 0;
     cols.vrrmV[i] = part.params.vrrmV;
   });
-  columnsOfSnapshot.set(snapshot.mosfets, cols);
+  columnsOfSnapshot.set(snapshot, cols);
   return cols;
 }
 
